@@ -22,6 +22,12 @@ export default defineConfig({
     outDir: 'dist',
     emptyOutDir: true,
     chunkSizeWarningLimit: 1500,
+    rollupOptions: {
+      // Some dependencies carry tree-shaking hints Rollup cannot place; harmless, and noisy.
+      onwarn(warning, warn) {
+        if (warning.code !== 'INVALID_ANNOTATION') warn(warning);
+      },
+    },
   },
   test: {
     include: ['shared/**/*.test.ts', 'server/**/*.test.ts', 'src/**/*.test.ts', 'tests/**/*.test.ts'],

@@ -1,0 +1,13 @@
+// The API's table of contents: one line per resource router.
+import { Router } from 'express';
+import { authRouter } from './auth/router';
+import { healthRouter } from './health/router';
+import { mailRouter } from './mail/router';
+import { usersRouter } from './users/router';
+
+export const apiRouter = Router();
+
+apiRouter.use('/health', healthRouter);
+apiRouter.use('/auth', authRouter);
+apiRouter.use('/users', usersRouter);
+apiRouter.use('/mail', mailRouter);

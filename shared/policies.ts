@@ -1,0 +1,34 @@
+// Who may do what: the single table both the server (which enforces it) and the client (which
+// only hides what a role cannot do) read. Add a permission here, then name it on the route.
+import type { Role } from './schemas/roles';
+
+const EVERYONE: Role[] = ['admin', 'clerk', 'inspector', 'quality', 'buyer', 'auditor'];
+
+export const POLICIES = {
+  'users.manage': ['admin'],
+  'settings.manage': ['admin'],
+  'mail.read': ['admin'],
+  'catalog.read': EVERYONE,
+  'catalog.write': ['buyer'],
+  'shipments.receive': ['clerk'],
+  'lots.read': EVERYONE,
+  'stock.read': EVERYONE,
+  'stock.move': ['clerk'],
+  'inspection.perform': ['inspector'],
+  'disposition.sign': ['quality'],
+  'instruments.read': EVERYONE,
+  'instruments.manage': ['quality'],
+  'sampling.manage': ['quality'],
+  'certificates.read': EVERYONE,
+  'audit.read': ['auditor', 'quality', 'admin'],
+  'exports.create': ['auditor', 'quality'],
+  'suppliers.performance': ['buyer', 'quality', 'auditor'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Permission = keyof typeof POLICIES;
+
+export function can(user: { roles: readonly Role[] } | null | undefined, permission: Permission): boolean {
+  if (!user) return false;
+  const allowed: readonly Role[] = POLICIES[permission];
+  return user.roles.some((role) => allowed.includes(role));
+}

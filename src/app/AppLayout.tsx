@@ -1,0 +1,76 @@
+import { NavLink, Navigate, Outlet, useLocation, useNavigate } from 'react-router';
+import { LogOut } from 'lucide-react';
+import { can } from '@shared/policies';
+import { ROLE_LABELS } from '@shared/schemas/roles';
+import { useSession, useSignOut } from '@/features/auth/api/session';
+import { NAVIGATION } from './navigation';
+
+export function AppLayout() {
+  const session = useSession();
+  const signOut = useSignOut();
+  const navigate = useNavigate();
+  const location = useLocation();
+
+  if (session.isPending) return <div className="p-8 text-ink-muted">Loading…</div>;
+  if (!session.data) return <Navigate to={`/sign-in?next=${encodeURIComponent(location.pathname + location.search)}`} replace />;
+
+  const user = session.data;
+  const items = NAVIGATION.filter((item) => !item.permission || can(user, item.permission));
+  const groups = [
+    { id: 'work', label: 'Work' },
+    { id: 'admin', label: 'Site' },
+  ] as const;
+
+  return (
+    <div className="flex min-h-screen">
+      <aside className="flex w-52 shrink-0 flex-col bg-frame text-white/90">
+        <div className="flex items-center gap-2 px-4 py-4">
+          <span aria-hidden className="relative h-6 w-6 rounded-full bg-frame-deep ring-2 ring-signal">
+            <span className="absolute inset-x-1 top-1/2 h-0.5 -translate-y-1/2 bg-signal" />
+          </span>
+          <span className="text-lg font-semibold tracking-wide">Phaselot</span>
+        </div>
+        <nav aria-label="Main" className="flex-1 px-2">
+          {groups.map((group) => {
+            const groupItems = items.filter((item) => item.group === group.id);
+            if (groupItems.length === 0) return null;
+            return (
+              <div key={group.id} className="mb-4">
+                <p className="px-2 pb-1 text-2xs font-medium tracking-wider text-white/50 uppercase">{group.label}</p>
+                {groupItems.map(({ to, label, icon: Icon }) => (
+                  <NavLink
+                    key={to}
+                    to={to}
+                    end={to === '/'}
+                    className={({ isActive }) =>
+                      `flex items-center gap-2 rounded px-2 py-1.5 text-sm no-underline ${isActive ? 'bg-frame-deep text-white' : 'text-white/80 hover:bg-frame-line'}`
+                    }
+                  >
+                    <Icon className="h-4 w-4" aria-hidden />
+                    {label}
+                  </NavLink>
+                ))}
+              </div>
+            );
+          })}
+        </nav>
+        <div className="border-t border-frame-line px-4 py-3 text-xs">
+          <p className="font-medium text-white" data-testid="signed-in-user">
+            {user.name}
+          </p>
+          <p className="text-white/60">{user.roles.map((r) => ROLE_LABELS[r]).join(', ')}</p>
+          <button
+            type="button"
+            className="mt-2 inline-flex items-center gap-1 text-white/70 hover:text-white"
+            onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+          >
+            <LogOut className="h-3.5 w-3.5" aria-hidden /> Sign out
+          </button>
+        </div>
+      </aside>
+      <main className="min-w-0 flex-1 px-6 py-5">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,20 @@
+import { createBrowserRouter } from 'react-router';
+import { AppLayout } from './AppLayout';
+import { RequirePermission } from './RequirePermission';
+import { SignInPage } from '@/features/auth/pages/SignInPage';
+import { OverviewPage } from '@/features/overview/pages/OverviewPage';
+import { UsersPage } from '@/features/admin/pages/UsersPage';
+import { CaughtMailPage } from '@/features/admin/pages/CaughtMailPage';
+
+export const router = createBrowserRouter([
+  { path: '/sign-in', element: <SignInPage /> },
+  {
+    element: <AppLayout />,
+    children: [
+      { index: true, element: <OverviewPage /> },
+      { path: 'admin/users', element: <RequirePermission permission="users.manage"><UsersPage /></RequirePermission> },
+      { path: 'admin/mail', element: <RequirePermission permission="mail.read"><CaughtMailPage /></RequirePermission> },
+      { path: '*', element: <p className="text-ink-muted">This page does not exist.</p> },
+    ],
+  },
+]);

@@ -1,0 +1,44 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { ListResponse } from '@shared/schemas/paging';
+import type { UserCreateInput, UserUpdateInput, UserView } from '@shared/schemas/users';
+import { api } from '@/lib/api';
+
+type CaughtMessage = {
+  id: string;
+  receivedAt: string;
+  from: string;
+  to: string;
+  subject: string;
+  text: string;
+  attachments: { filename: string; contentType: string; size: number }[];
+};
+
+export const adminKeys = {
+  users: ['admin', 'users'] as const,
+  caughtMail: ['admin', 'caught-mail'] as const,
+};
+
+export const useUsers = () => useQuery({ queryKey: adminKeys.users, queryFn: () => api<ListResponse<UserView>>('/users') });
+
+export function useCreateUser() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: UserCreateInput) => api<UserView>('/users', { body: input }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: adminKeys.users }),
+  });
+}
+
+export function useUpdateUser() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, ...input }: UserUpdateInput & { id: number }) => api<UserView>(`/users/${id}`, { method: 'PATCH', body: input }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: adminKeys.users }),
+  });
+}
+
+export const useCaughtMail = () =>
+  useQuery({
+    queryKey: adminKeys.caughtMail,
+    queryFn: () => api<ListResponse<CaughtMessage> & { catcherEnabled: boolean }>('/mail/caught'),
+    refetchInterval: 10_000,
+  });

@@ -1,0 +1,44 @@
+import { useState } from 'react';
+import { Paperclip } from 'lucide-react';
+import { Notice } from '@/components/Notice';
+import { PageHeader } from '@/components/PageHeader';
+import { useCaughtMail } from '../api';
+
+export function CaughtMailPage() {
+  const mail = useCaughtMail();
+  const [openId, setOpenId] = useState<string | null>(null);
+  const messages = mail.data?.data ?? [];
+  return (
+    <div className="max-w-5xl">
+      <PageHeader title="Outgoing mail" subtitle="Messages received by the local mail catcher, newest first." />
+      {mail.error && <Notice tone="error">{mail.error.message}</Notice>}
+      {mail.data && !mail.data.catcherEnabled && <Notice tone="info">Mail goes to a real relay on this site; no local copy is kept.</Notice>}
+      {mail.data?.catcherEnabled && messages.length === 0 && <p className="text-ink-muted">No messages yet.</p>}
+      <ul className="divide-y divide-paper-line rounded border border-paper-line bg-paper-card">
+        {messages.map((m) => (
+          <li key={m.id}>
+            <button type="button" className="flex w-full items-baseline gap-3 px-3 py-2 text-left hover:bg-paper" onClick={() => setOpenId(openId === m.id ? null : m.id)}>
+              <span className="w-40 shrink-0 text-xs text-ink-muted">{new Date(m.receivedAt).toLocaleString()}</span>
+              <span className="w-56 shrink-0 truncate text-xs">{m.to}</span>
+              <span className="flex-1 font-medium">{m.subject}</span>
+              {m.attachments.length > 0 && <Paperclip className="h-3.5 w-3.5 text-ink-muted" aria-label={`${m.attachments.length} attachment(s)`} />}
+            </button>
+            {openId === m.id && (
+              <div className="border-t border-paper-line bg-paper px-3 py-3">
+                <p className="text-xs text-ink-muted">From {m.from}</p>
+                <pre className="mt-2 font-sans text-sm whitespace-pre-wrap">{m.text}</pre>
+                {m.attachments.length > 0 && (
+                  <ul className="mt-2 text-xs text-ink-muted">
+                    {m.attachments.map((a) => (
+                      <li key={a.filename}>{a.filename} ({a.contentType}, {(a.size / 1024).toFixed(1)} KiB)</li>
+                    ))}
+                  </ul>
+                )}
+              </div>
+            )}
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}

@@ -1,0 +1,37 @@
+// Phaselot's design: a calm bench-green frame, paper-toned work area, and a compact type scale for
+// tables read all day. Status colours are reserved for states (quarantine, pass, fail, hold).
+import type { Config } from 'tailwindcss';
+
+export default {
+  content: ['./index.html', './src/**/*.{ts,tsx}'],
+  theme: {
+    extend: {
+      colors: {
+        frame: { DEFAULT: '#234a41', deep: '#17322c', soft: '#3d6b60', line: '#2f5a50' },
+        paper: { DEFAULT: '#f6f5f0', card: '#ffffff', sunk: '#eceae2', line: '#dcd9cd' },
+        ink: { DEFAULT: '#1e2421', muted: '#5b645f', faint: '#8a918c' },
+        signal: { DEFAULT: '#f2b84b', deep: '#b9821d' },
+        state: {
+          quarantine: '#b9821d',
+          hold: '#6a5acd',
+          pass: '#2e7d4f',
+          fail: '#b3372f',
+          info: '#2f6690',
+        },
+      },
+      fontFamily: {
+        sans: ['"Plex Sans"', 'system-ui', 'sans-serif'],
+        mono: ['"Plex Mono"', 'ui-monospace', 'monospace'],
+      },
+      fontSize: {
+        '2xs': ['11px', '15px'],
+        xs: ['12px', '16px'],
+        sm: ['13px', '18px'],
+        base: ['14px', '20px'],
+        lg: ['16px', '22px'],
+        xl: ['19px', '26px'],
+        '2xl': ['23px', '30px'],
+      },
+    },
+  },
+} satisfies Config;
