@@ -14,7 +14,7 @@ async function seedUsers() {
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   const users: Partial<Record<Role, User>> = {};
   for (const role of ROLES) {
-    users[role] = await User.create({ email: demoLogin(role).email, name: faker.person.fullName(), roles: [role], passwordHash });
+    users[role] = await User.create({ email: demoLogin(role).email, name: `${faker.person.firstName()} ${faker.person.lastName()}`, roles: [role], passwordHash });
   }
   return users as Record<Role, User>;
 }

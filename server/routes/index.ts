@@ -1,5 +1,6 @@
 // The API's table of contents: one line per resource router.
 import { Router } from 'express';
+import { auditRouter } from './audit/router';
 import { authRouter } from './auth/router';
 import { healthRouter } from './health/router';
 import { mailRouter } from './mail/router';
@@ -11,3 +12,4 @@ apiRouter.use('/health', healthRouter);
 apiRouter.use('/auth', authRouter);
 apiRouter.use('/users', usersRouter);
 apiRouter.use('/mail', mailRouter);
+apiRouter.use('/audit', auditRouter);

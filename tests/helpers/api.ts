@@ -4,6 +4,7 @@ import { faker } from '@faker-js/faker';
 import { createApp } from '../../server/app';
 import { demoLogin } from '../../db/seeders/demo';
 import { createUser } from '../../server/routes/users/operations';
+import { SYSTEM_ACTOR } from '../../server/audit/record';
 import type { Role } from '../../shared/schemas/roles';
 
 export const app = createApp();
@@ -32,6 +33,6 @@ export async function as(role: Role) {
 
 export async function freshUser(roles: Role[], password = faker.internet.password({ length: 14 })) {
   const email = `${faker.string.alphanumeric(10).toLowerCase()}@example.test`;
-  const user = await createUser({ email, name: faker.person.fullName(), password, roles });
+  const user = await createUser(SYSTEM_ACTOR, { email, name: faker.person.fullName(), password, roles });
   return { user, email, password };
 }

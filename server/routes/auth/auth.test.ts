@@ -73,7 +73,7 @@ describe('GET /api/auth/me and sessions', () => {
     const admin = (await freshUser(['admin'])).user;
     const { user, email, password } = await freshUser(['auditor']);
     const { body } = await request(app).post('/api/auth/login').send({ email, password }).expect(200);
-    await updateUser(admin, user.id, { active: false });
+    await updateUser({ id: admin.id, email: admin.email, roles: admin.roles }, user.id, { active: false });
     await request(app).get('/api/auth/me').set('Authorization', `Bearer ${body.token}`).expect(401);
   });
 });

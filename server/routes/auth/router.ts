@@ -7,6 +7,7 @@ import { authenticate } from '../../auth/authenticate';
 import { issueToken, SESSION_COOKIE, sessionCookieOptions } from '../../auth/tokens';
 import { AppError, unauthorized } from '../../http/errors';
 import { validate } from '../../http/validate';
+import { actorOf, recordAudit } from '../../audit/record';
 import { presentSessionUser } from '../users/presenter';
 
 // A hash of a random password, compared against when the e-mail is unknown, so that a wrong
@@ -31,9 +32,13 @@ authRouter.post('/login', loginLimiter, validate({ body: loginSchema }), async (
   const { email, password } = req.valid.body as LoginInput;
   const user = await User.findOne({ where: { email } });
   const passwordMatches = await bcrypt.compare(password, user?.passwordHash ?? DECOY_HASH);
-  if (!user || !passwordMatches || !user.active) throw unauthorized('Wrong e-mail or password');
+  if (!user || !passwordMatches || !user.active) {
+    await recordAudit({ ...actorOf(req), email }, { action: 'auth.sign-in-refused', entityType: 'session', entityId: user?.id });
+    throw unauthorized('Wrong e-mail or password');
+  }
   user.lastSignInAt = new Date();
   await user.save();
+  await recordAudit(actorOf(req, user), { action: 'auth.sign-in', entityType: 'session', entityId: user.id });
   const token = issueToken(user.id);
   res.cookie(SESSION_COOKIE, token, sessionCookieOptions);
   res.json({ token, user: presentSessionUser(user) });

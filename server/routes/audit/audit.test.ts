@@ -1,0 +1,74 @@
+import { describe, expect, it } from 'vitest';
+import request from 'supertest';
+import { QueryTypes } from 'sequelize';
+import { parse } from 'csv-parse/sync';
+import { app, as, freshUser } from '../../../tests/helpers/api';
+import { sequelize } from '../../../db';
+
+async function lastEvent(action: string) {
+  const [row] = await sequelize.query<{ id: string; after: unknown }>('SELECT id, after FROM audit_events WHERE action = :action ORDER BY id DESC LIMIT 1', {
+    type: QueryTypes.SELECT,
+    replacements: { action },
+  });
+  return row;
+}
+
+describe('audit trail', () => {
+  it('records sign-ins, refused sign-ins and user changes with actor, request id and address', async () => {
+    const { email, password } = await freshUser(['buyer']);
+    await request(app).post('/api/auth/login').set('x-request-id', 'req-audit-1').send({ email, password }).expect(200);
+    await request(app).post('/api/auth/login').send({ email, password: 'wrong-password' }).expect(401);
+    const admin = await as('admin');
+    const trail = await admin.get('/api/audit').query({ actor: email }).expect(200);
+    const actions = trail.body.data.map((e: { action: string }) => e.action);
+    expect(actions).toEqual(expect.arrayContaining(['auth.sign-in', 'auth.sign-in-refused']));
+    const signIn = trail.body.data.find((e: { action: string }) => e.action === 'auth.sign-in');
+    expect(signIn).toMatchObject({ requestId: 'req-audit-1', actorRoles: ['buyer'], entityType: 'session' });
+    expect(signIn.address).toMatch(/127\.0\.0\.1/);
+    expect(signIn.hash).toMatch(/^[0-9a-f]{64}$/);
+  });
+
+  it('refuses UPDATE, DELETE and TRUNCATE at the database level', async () => {
+    const { id } = await lastEvent('auth.sign-in');
+    await expect(sequelize.query(`UPDATE audit_events SET action = 'x' WHERE id = ${id}`)).rejects.toThrow(/append-only: UPDATE refused/);
+    await expect(sequelize.query(`DELETE FROM audit_events WHERE id = ${id}`)).rejects.toThrow(/append-only: DELETE refused/);
+    await expect(sequelize.query('TRUNCATE audit_events')).rejects.toThrow(/append-only: TRUNCATE refused/);
+  });
+
+  it('verifies the chain, and detects a row rewritten behind the trigger', async () => {
+    const auditor = await as('auditor');
+    const intact = await auditor.get('/api/audit/verify').expect(200);
+    expect(intact.body).toMatchObject({ intact: true, problems: [] });
+    expect(intact.body.checked).toBeGreaterThan(0);
+
+    // A database owner can switch the trigger off; the chain still tells.
+    const { id, after } = await lastEvent('auth.sign-in');
+    const rewrite = async (value: unknown) =>
+      sequelize.transaction(async (transaction) => {
+        await sequelize.query('ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_rewrite', { transaction });
+        await sequelize.query('UPDATE audit_events SET after = :after::jsonb WHERE id = :id', { transaction, replacements: { id, after: value === null ? null : JSON.stringify(value) } });
+        await sequelize.query('ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_rewrite', { transaction });
+      });
+    await rewrite({ forged: true });
+    const tampered = await auditor.get('/api/audit/verify').expect(200);
+    expect(tampered.body.intact).toBe(false);
+    expect(tampered.body.problems).toContainEqual({ id, problem: 'content changed' });
+    await rewrite(after);
+    expect((await auditor.get('/api/audit/verify').expect(200)).body.intact).toBe(true);
+  });
+
+  it('exports the filtered trail as CSV and records the export', async () => {
+    const auditor = await as('auditor');
+    const response = await auditor.get('/api/audit/export.csv').query({ action: 'auth.' }).expect(200);
+    expect(response.headers['content-type']).toMatch(/text\/csv/);
+    const rows = parse(response.text, { columns: true, bom: true }) as { action: string; hash: string }[];
+    expect(rows.length).toBeGreaterThan(0);
+    expect(rows.every((r) => r.action.startsWith('auth.'))).toBe(true);
+    expect((await lastEvent('audit.export')).after).toEqual({ filter: expect.objectContaining({ action: 'auth.' }) });
+  });
+
+  it('is closed to roles without audit access', async () => {
+    await (await as('clerk')).get('/api/audit').expect(403);
+    await request(app).get('/api/audit/verify').expect(401);
+  });
+});

@@ -1,0 +1,27 @@
+import { z } from 'zod';
+import { listQuerySchema } from './paging';
+
+export const auditQuerySchema = listQuerySchema.extend({
+  from: z.iso.date().optional(),
+  to: z.iso.date().optional(),
+  action: z.string().max(80).optional(),
+  entityType: z.string().max(60).optional(),
+  entityId: z.string().max(120).optional(),
+  actor: z.string().max(254).optional(),
+});
+export type AuditQuery = z.infer<typeof auditQuerySchema>;
+
+export type AuditEventView = {
+  id: string;
+  occurredAt: string;
+  actorEmail: string | null;
+  actorRoles: string[];
+  action: string;
+  entityType: string;
+  entityId: string | null;
+  before: unknown;
+  after: unknown;
+  requestId: string | null;
+  address: string | null;
+  hash: string;
+};
