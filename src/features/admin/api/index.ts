@@ -13,9 +13,22 @@ type CaughtMessage = {
   attachments: { filename: string; contentType: string; size: number }[];
 };
 
+type OutboxEntry = {
+  id: number;
+  recipients: string[];
+  subject: string;
+  status: 'queued' | 'sent';
+  attempts: number;
+  nextAttemptAt: string | null;
+  lastError: string | null;
+  sentAt: string | null;
+  createdAt: string;
+};
+
 export const adminKeys = {
   users: ['admin', 'users'] as const,
   caughtMail: ['admin', 'caught-mail'] as const,
+  outbox: ['admin', 'outbox'] as const,
 };
 
 export const useUsers = () => useQuery({ queryKey: adminKeys.users, queryFn: () => api<ListResponse<UserView>>('/users') });
@@ -42,3 +55,6 @@ export const useCaughtMail = () =>
     queryFn: () => api<ListResponse<CaughtMessage> & { catcherEnabled: boolean }>('/mail/caught'),
     refetchInterval: 10_000,
   });
+
+export const useOutbox = () =>
+  useQuery({ queryKey: adminKeys.outbox, queryFn: () => api<ListResponse<OutboxEntry>>('/mail/outbox'), refetchInterval: 10_000 });

@@ -3,6 +3,7 @@ import { Paperclip } from 'lucide-react';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { useCaughtMail } from '../api';
+import { OutboxTable } from '../components/OutboxTable';
 
 export function CaughtMailPage() {
   const mail = useCaughtMail();
@@ -10,7 +11,10 @@ export function CaughtMailPage() {
   const messages = mail.data?.data ?? [];
   return (
     <div className="max-w-5xl">
-      <PageHeader title="Outgoing mail" subtitle="Messages received by the local mail catcher, newest first." />
+      <PageHeader title="Outgoing mail" subtitle="What Phaselot queued and how delivery went, then what the local mail catcher received." />
+      <h2 className="mb-2">Queue</h2>
+      <OutboxTable />
+      <h2 className="mt-6 mb-2">Received by the local catcher</h2>
       {mail.error && <Notice tone="error">{mail.error.message}</Notice>}
       {mail.data && !mail.data.catcherEnabled && <Notice tone="info">Mail goes to a real relay on this site; no local copy is kept.</Notice>}
       {mail.data?.catcherEnabled && messages.length === 0 && <p className="text-ink-muted">No messages yet.</p>}

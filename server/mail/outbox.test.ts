@@ -1,0 +1,66 @@
+import { describe, expect, it } from 'vitest';
+import nodemailer from 'nodemailer';
+import { mkdtempSync, readdirSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { inTransaction } from '../../db';
+import { OutboxMail } from '../../db/models';
+import { as } from '../../tests/helpers/api';
+import { startMailCatcher } from './catcher';
+import { readCaughtMail } from './caughtMail';
+import { deliverDueMail, queueMail, retryDelayMs } from './outbox';
+
+const PORT = 2597;
+
+describe('mail outbox', () => {
+  it('keeps a message while the relay is down and delivers it exactly once when it is back', async () => {
+    const relay = nodemailer.createTransport(`smtp://127.0.0.1:${PORT}`);
+    const queued = await inTransaction((t) =>
+      queueMail(
+        {
+          to: ['buyer@phaselot.test'],
+          subject: 'Lot held back',
+          text: 'Retardance error +0.0042 λ exceeds ±0.003 λ',
+          attachments: [{ filename: 'report.pdf', contentType: 'application/pdf', content: Buffer.from('%PDF-1.4 test') }],
+          related: { type: 'lot', id: 42 },
+        },
+        t,
+      ),
+    );
+
+    // Nobody listens on the port yet: the try fails and is scheduled again.
+    const down = await deliverDueMail(relay);
+    expect(down.failed).toBeGreaterThanOrEqual(1);
+    await queued.reload();
+    expect(queued).toMatchObject({ status: 'queued', attempts: 1 });
+    expect(queued.lastError).toMatch(/ECONNREFUSED/);
+    expect(queued.nextAttemptAt.getTime()).toBeGreaterThan(Date.now());
+
+    const dir = mkdtempSync(join(tmpdir(), 'phaselot-catcher-'));
+    const catcher = await startMailCatcher({ port: PORT, dir });
+    try {
+      await deliverDueMail(relay); // not due yet: nothing sent
+      expect(readdirSync(dir)).toHaveLength(0);
+      await OutboxMail.update({ nextAttemptAt: new Date(Date.now() - 1000) }, { where: { id: queued.id } });
+      await deliverDueMail(relay);
+      await deliverDueMail(relay); // a second pass must not send it again
+      const caught = await readCaughtMail(dir);
+      const ours = caught.filter((m) => m.subject === 'Lot held back');
+      expect(ours).toHaveLength(1);
+      expect(ours[0].attachments).toEqual([{ filename: 'report.pdf', contentType: 'application/pdf', size: 13 }]);
+      await queued.reload();
+      expect(queued).toMatchObject({ status: 'sent', attempts: 2, lastError: null });
+    } finally {
+      await catcher.close();
+    }
+
+    const outbox = await (await as('admin')).get('/api/mail/outbox').expect(200);
+    expect(outbox.body.data.find((m: { id: number }) => m.id === queued.id)).toMatchObject({ status: 'sent', attempts: 2, related: { type: 'lot', id: '42' } });
+  });
+
+  it('backs off exponentially up to half an hour', () => {
+    // Doubling from 5 s is the design choice of the worker (common practice for retry queues).
+    expect([1, 2, 3, 4].map(retryDelayMs)).toEqual([5_000, 10_000, 20_000, 40_000]);
+    expect(retryDelayMs(30)).toBe(30 * 60_000);
+  });
+});
