@@ -2,12 +2,14 @@
 import type { Sequelize } from 'sequelize';
 import { User } from './User';
 import { OutboxMail } from './OutboxMail';
+import { Instrument } from './Instrument';
 
 export function initModels(sequelize: Sequelize) {
   User.initModel(sequelize);
   OutboxMail.initModel(sequelize);
-  return { User, OutboxMail };
+  Instrument.initModel(sequelize);
+  return { User, OutboxMail, Instrument };
 }
 
-export { User, OutboxMail };
+export { User, OutboxMail, Instrument };
 export type { OutboxAttachment } from './OutboxMail';

@@ -1,8 +1,9 @@
 // The demo scenario: an invented instrument maker, Veltrane Optics Works, its people and its
 // suppliers. Every name is invented; faker runs with a fixed seed so each seed run is the same.
 import { faker } from '@faker-js/faker';
-import { User } from '../models';
+import { Instrument, User } from '../models';
 import { ROLES, type Role } from '../../shared/schemas/roles';
+import { instrumentInputSchema, type InstrumentInput } from '../../shared/schemas/instruments';
 import { hashPassword } from '../../server/routes/users/operations';
 
 export const DEMO_PASSWORD = 'phaselot-demo';
@@ -19,6 +20,17 @@ async function seedUsers() {
   return users as Record<Role, User>;
 }
 
+/** The inspection bench of the demo site; one instrument is past its calibration date on purpose. */
+async function seedInstruments() {
+  const rows: InstrumentInput[] = [
+    { code: 'BENCH-1', kind: 'stokes-polarimeter', description: 'Six-state Stokes polarimeter, 632.8 nm and 1064 nm sources', uncertaintyWaves: 0.0008, uncertaintyDeg: 0.05, calibratedOn: '2026-05-12', calibrationDueOn: '2027-05-12' },
+    { code: 'BENCH-2', kind: 'rotating-plate', description: 'Rotating-plate bench between fixed polarisers; exports angles clockwise', angleSign: -1, uncertaintyWaves: 0.0015, uncertaintyDeg: 0.1, calibratedOn: '2026-03-02', calibrationDueOn: '2027-03-02' },
+    { code: 'RM-3', kind: 'direct-retardance', description: 'Direct-reading retardance meter, 400–1100 nm', s3Sign: -1, uncertaintyWaves: 0.001, uncertaintyDeg: 0.08, calibratedOn: '2026-08-20', calibrationDueOn: '2027-08-20' },
+    { code: 'BENCH-0', kind: 'stokes-polarimeter', description: 'Retired bench, calibration lapsed', uncertaintyWaves: 0.002, uncertaintyDeg: 0.2, calibratedOn: '2024-09-01', calibrationDueOn: '2025-09-01', active: false },
+  ];
+  return Instrument.bulkCreate(rows.map((r) => instrumentInputSchema.parse(r)));
+}
+
 export async function isDatabaseEmpty() {
   return (await User.count()) === 0;
 }
@@ -27,5 +39,6 @@ export async function isDatabaseEmpty() {
 export async function seedDemo() {
   faker.seed(4870);
   const users = await seedUsers();
-  return { users };
+  const instruments = await seedInstruments();
+  return { users, instruments };
 }

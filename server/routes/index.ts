@@ -3,6 +3,7 @@ import { Router } from 'express';
 import { auditRouter } from './audit/router';
 import { authRouter } from './auth/router';
 import { healthRouter } from './health/router';
+import { instrumentsRouter } from './instruments/router';
 import { mailRouter } from './mail/router';
 import { usersRouter } from './users/router';
 
@@ -13,3 +14,4 @@ apiRouter.use('/auth', authRouter);
 apiRouter.use('/users', usersRouter);
 apiRouter.use('/mail', mailRouter);
 apiRouter.use('/audit', auditRouter);
+apiRouter.use('/instruments', instrumentsRouter);

@@ -1,0 +1,21 @@
+import type { Instrument } from '../../../db/models';
+import type { InstrumentView } from '../../../shared/schemas/instruments';
+
+export const today = () => new Date().toISOString().slice(0, 10);
+
+export function presentInstrument(i: Instrument): InstrumentView {
+  return {
+    id: i.id,
+    code: i.code,
+    kind: i.kind,
+    description: i.description,
+    s3Sign: i.s3Sign,
+    angleSign: i.angleSign,
+    uncertaintyWaves: i.uncertaintyWaves,
+    uncertaintyDeg: i.uncertaintyDeg,
+    calibratedOn: i.calibratedOn,
+    calibrationDueOn: i.calibrationDueOn,
+    active: i.active,
+    calibrationCurrent: i.isCalibratedOn(today()),
+  };
+}
