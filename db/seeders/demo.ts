@@ -1,6 +1,7 @@
 // The demo scenario: an invented instrument maker, Veltrane Optics Works, its people and its
 // suppliers. Every name is invented; faker runs with a fixed seed so each seed run is the same.
 import { faker } from '@faker-js/faker';
+import { sequelize } from '..';
 import { Instrument, User } from '../models';
 import { ROLES, type Role } from '../../shared/schemas/roles';
 import { instrumentInputSchema, type InstrumentInput } from '../../shared/schemas/instruments';
@@ -8,6 +9,7 @@ import { hashPassword } from '../../server/routes/users/operations';
 
 export const DEMO_PASSWORD = 'phaselot-demo';
 export const DEMO_DOMAIN = 'phaselot.test';
+export const DEMO_SITE_NAME = 'Veltrane Optics Works';
 
 export const demoLogin = (role: Role) => ({ email: `${role}@${DEMO_DOMAIN}`, password: DEMO_PASSWORD });
 
@@ -40,5 +42,8 @@ export async function seedDemo() {
   faker.seed(4870);
   const users = await seedUsers();
   const instruments = await seedInstruments();
+  await sequelize.query(`INSERT INTO site_settings (id, value) VALUES (1, :value::jsonb)`, {
+    replacements: { value: JSON.stringify({ siteName: DEMO_SITE_NAME, reducedInspectionEnabled: true }) },
+  });
   return { users, instruments };
 }

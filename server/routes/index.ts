@@ -5,6 +5,7 @@ import { authRouter } from './auth/router';
 import { healthRouter } from './health/router';
 import { instrumentsRouter } from './instruments/router';
 import { mailRouter } from './mail/router';
+import { settingsRouter } from './settings/router';
 import { usersRouter } from './users/router';
 
 export const apiRouter = Router();
@@ -15,3 +16,4 @@ apiRouter.use('/users', usersRouter);
 apiRouter.use('/mail', mailRouter);
 apiRouter.use('/audit', auditRouter);
 apiRouter.use('/instruments', instrumentsRouter);
+apiRouter.use('/settings', settingsRouter);
