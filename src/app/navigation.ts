@@ -1,6 +1,6 @@
 // The app's areas, each shown only to roles holding its permission (the server enforces them anyway).
 import type { LucideIcon } from 'lucide-react';
-import { Gauge, Mail, Microscope, Users } from 'lucide-react';
+import { Gauge, Mail, Microscope, Settings, Users } from 'lucide-react';
 import type { Permission } from '@shared/policies';
 
 export type NavItem = { to: string; label: string; permission?: Permission; icon: LucideIcon; group: 'work' | 'admin' };
@@ -9,5 +9,6 @@ export const NAVIGATION: NavItem[] = [
   { to: '/', label: 'Overview', icon: Gauge, group: 'work' },
   { to: '/instruments', label: 'Instruments', permission: 'instruments.read', icon: Microscope, group: 'admin' },
   { to: '/admin/users', label: 'Users', permission: 'users.manage', icon: Users, group: 'admin' },
+  { to: '/admin/settings', label: 'Site settings', permission: 'settings.manage', icon: Settings, group: 'admin' },
   { to: '/admin/mail', label: 'Outgoing mail', permission: 'mail.read', icon: Mail, group: 'admin' },
 ];

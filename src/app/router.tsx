@@ -5,6 +5,7 @@ import { SignInPage } from '@/features/auth/pages/SignInPage';
 import { OverviewPage } from '@/features/overview/pages/OverviewPage';
 import { UsersPage } from '@/features/admin/pages/UsersPage';
 import { CaughtMailPage } from '@/features/admin/pages/CaughtMailPage';
+import { SiteSettingsPage } from '@/features/admin/pages/SiteSettingsPage';
 import { InstrumentsPage } from '@/features/instruments/pages/InstrumentsPage';
 
 export const router = createBrowserRouter([
@@ -15,6 +16,7 @@ export const router = createBrowserRouter([
       { index: true, element: <OverviewPage /> },
       { path: 'instruments', element: <InstrumentsPage /> },
       { path: 'admin/users', element: <RequirePermission permission="users.manage"><UsersPage /></RequirePermission> },
+      { path: 'admin/settings', element: <RequirePermission permission="settings.manage"><SiteSettingsPage /></RequirePermission> },
       { path: 'admin/mail', element: <RequirePermission permission="mail.read"><CaughtMailPage /></RequirePermission> },
       { path: '*', element: <p className="text-ink-muted">This page does not exist.</p> },
     ],

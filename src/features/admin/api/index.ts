@@ -1,6 +1,7 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ListResponse } from '@shared/schemas/paging';
 import type { UserCreateInput, UserUpdateInput, UserView } from '@shared/schemas/users';
+import type { SiteSettings } from '@shared/schemas/settings';
 import { api } from '@/lib/api';
 
 type CaughtMessage = {
@@ -58,3 +59,15 @@ export const useCaughtMail = () =>
 
 export const useOutbox = () =>
   useQuery({ queryKey: adminKeys.outbox, queryFn: () => api<ListResponse<OutboxEntry>>('/mail/outbox'), refetchInterval: 10_000 });
+
+export const settingsKeys = { site: ['settings', 'site'] as const };
+
+export const useSiteSettings = () => useQuery({ queryKey: settingsKeys.site, queryFn: () => api<SiteSettings>('/settings') });
+
+export function useSaveSiteSettings() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: SiteSettings) => api<SiteSettings>('/settings', { method: 'PUT', body: input }),
+    onSuccess: (saved) => queryClient.setQueryData(settingsKeys.site, saved),
+  });
+}
