@@ -15,6 +15,8 @@ export type AuditEntry = {
   after?: unknown;
 };
 
+export const actorFromUser = (user: User): AuditActor => ({ id: user.id, email: user.email, roles: user.roles });
+
 /** The actor of a request: its signed-in user (if any), request id and client address. */
 export function actorOf(req: Request, user: User | undefined = req.user): AuditActor {
   return {
