@@ -1,12 +1,13 @@
 // The app's areas, each shown only to roles holding its permission (the server enforces them anyway).
 import type { LucideIcon } from 'lucide-react';
-import { Gauge, Mail, Microscope, Settings, Users } from 'lucide-react';
+import { ClipboardCheck, Gauge, Mail, Microscope, Settings, Users } from 'lucide-react';
 import type { Permission } from '@shared/policies';
 
 export type NavItem = { to: string; label: string; permission?: Permission; icon: LucideIcon; group: 'work' | 'admin' };
 
 export const NAVIGATION: NavItem[] = [
   { to: '/', label: 'Overview', icon: Gauge, group: 'work' },
+  { to: '/inspection', label: 'Inspection', permission: 'lots.read', icon: ClipboardCheck, group: 'work' },
   { to: '/instruments', label: 'Instruments', permission: 'instruments.read', icon: Microscope, group: 'admin' },
   { to: '/admin/users', label: 'Users', permission: 'users.manage', icon: Users, group: 'admin' },
   { to: '/admin/settings', label: 'Site settings', permission: 'settings.manage', icon: Settings, group: 'admin' },

@@ -7,6 +7,8 @@ import { UsersPage } from '@/features/admin/pages/UsersPage';
 import { CaughtMailPage } from '@/features/admin/pages/CaughtMailPage';
 import { SiteSettingsPage } from '@/features/admin/pages/SiteSettingsPage';
 import { InstrumentsPage } from '@/features/instruments/pages/InstrumentsPage';
+import { InspectionQueuePage } from '@/features/inspection/pages/InspectionQueuePage';
+import { LotInspectionPage } from '@/features/inspection/pages/LotInspectionPage';
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
@@ -14,6 +16,8 @@ export const router = createBrowserRouter([
     element: <AppLayout />,
     children: [
       { index: true, element: <OverviewPage /> },
+      { path: 'inspection', element: <InspectionQueuePage /> },
+      { path: 'inspection/lots/:lotId', element: <LotInspectionPage /> },
       { path: 'instruments', element: <InstrumentsPage /> },
       { path: 'admin/users', element: <RequirePermission permission="users.manage"><UsersPage /></RequirePermission> },
       { path: 'admin/settings', element: <RequirePermission permission="settings.manage"><SiteSettingsPage /></RequirePermission> },

@@ -1,0 +1,137 @@
+import { useParams } from 'react-router';
+import { can } from '@shared/policies';
+import { DISPOSITION_LABELS } from '@shared/inspection/lotVerdict';
+import { Notice } from '@/components/Notice';
+import { PageHeader } from '@/components/PageHeader';
+import { useSession } from '@/features/auth/api/session';
+import { useLotInspection } from '../api';
+import { DispositionPanel } from '../components/DispositionPanel';
+import { MeasurementUpload } from '../components/MeasurementUpload';
+import { OcChart } from '../components/OcChart';
+import { ResultCharts } from '../components/ResultCharts';
+import { ResultsTable } from '../components/ResultsTable';
+import { VerdictBadge } from '../components/VerdictBadge';
+
+function Facts({ rows }: { rows: [string, React.ReactNode][] }) {
+  return (
+    <dl className="grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm">
+      {rows.map(([k, v]) => (
+        <div key={k} className="contents">
+          <dt className="text-xs leading-5 text-ink-muted">{k}</dt>
+          <dd>{v}</dd>
+        </div>
+      ))}
+    </dl>
+  );
+}
+
+export function LotInspectionPage() {
+  const lotId = Number(useParams().lotId);
+  const { data: user } = useSession();
+  const query = useLotInspection(lotId);
+  if (query.error) return <Notice tone="error">{query.error.message}</Notice>;
+  if (!query.data) return <p className="text-ink-muted">Loading…</p>;
+  const view = query.data;
+  const { lot, spec, plan, verdict } = view;
+  const decided = lot.state === 'accepted' || lot.state === 'rejected' || lot.state === 'use-as-is';
+
+  return (
+    <div className="space-y-4">
+      <PageHeader
+        title={`Lot L-${lot.id} · ${lot.part.number}`}
+        subtitle={`${lot.part.description} — ${lot.supplier.name}, supplier lot ${lot.supplierLot}, ${lot.quantity} pieces, PO ${lot.poNumber} line ${lot.lineNumber}`}
+        actions={<span className="text-sm">State: <strong>{lot.state}</strong></span>}
+      />
+      <div className="grid gap-3 lg:grid-cols-3">
+        <section className="rounded border border-paper-line bg-paper-card p-3">
+          <h2 className="mb-2 text-sm">Ordered specification</h2>
+          <Facts
+            rows={[
+              ['Nominal', `${spec.nominalWaves} λ at ${spec.designWavelengthNm} nm`],
+              ['Retardance', `±${spec.retardanceTolWaves} λ`],
+              ['Fast-axis mark', `±${spec.axisTolDeg}°`],
+              ['Construction', `${spec.construction}${spec.multiOrder ? ` (order ${spec.multiOrder})` : ''}${spec.bandNm ? `, ${spec.bandNm[0]}–${spec.bandNm[1]} nm` : ''}, ${spec.material}`],
+              ['Decision rule', spec.decisionRule === 'guarded' ? 'guarded acceptance (|error| + U ≤ tol)' : 'simple acceptance'],
+            ]}
+          />
+        </section>
+        <section className="rounded border border-paper-line bg-paper-card p-3">
+          <h2 className="mb-2 text-sm">Sampling plan</h2>
+          <Facts
+            rows={[
+              ['Severity', `${plan.severity}${plan.hundredPercent ? ' · 100 % inspection' : ''}`],
+              ['Level / AQL', `${plan.level} / ${plan.aql}`],
+              ['Code letter', plan.codeLetter],
+              ['Sample', `n = ${plan.sampleSize}, Ac ${plan.accept}, Re ${plan.reject}`],
+              ['Seed', <span className="font-mono text-xs">{plan.seed}</span>],
+            ]}
+          />
+        </section>
+        <section className="rounded border border-paper-line bg-paper-card p-3">
+          <h2 className="mb-2 text-sm">Lot verdict</h2>
+          <p className="mb-1"><VerdictBadge value={verdict.proposal} /></p>
+          <p className="text-sm">{verdict.explanation}.</p>
+          <p className="mt-1 text-xs text-ink-muted">{verdict.measured} of {plan.sampleSize} sample pieces measured · {verdict.defectives} defective</p>
+          {view.disposition && (
+            <p className="mt-2 text-sm">Signed decision: <strong>{DISPOSITION_LABELS[view.disposition.decision]}</strong></p>
+          )}
+        </section>
+      </div>
+      <OcChart points={plan.oc} aql={plan.aql} />
+
+      {can(user, 'inspection.perform') && !decided && (
+        <section className="space-y-2">
+          <h2>Upload bench measurements</h2>
+          <Notice tone="caution">
+            Laser source on the bench: wear the eyewear its class requires and keep beams below eye level. Handle plates by the rim with gloves; cemented plates have damage thresholds.
+          </Notice>
+          <MeasurementUpload lotId={lot.id} />
+        </section>
+      )}
+
+      <section className="space-y-2">
+        <h2>Results</h2>
+        <ResultCharts view={view} />
+        <ResultsTable view={view} />
+      </section>
+
+      {can(user, 'disposition.sign') && <DispositionPanel key={view.disposition?.id ?? 'none'} view={view} />}
+
+      <section className="grid gap-3 lg:grid-cols-3">
+        <div className="rounded border border-paper-line bg-paper-card p-3">
+          <h2 className="mb-2 text-sm">Measurement files</h2>
+          <ul className="space-y-1 text-xs">
+            {view.files.map((f) => (
+              <li key={f.id}><span className="font-medium">{f.name}</span> · {f.method} · {f.instrument} · {f.rows} rows · {f.uploadedBy}, {new Date(f.uploadedAt).toLocaleString()}<br /><span className="font-mono text-ink-faint">{f.sha256}</span></li>
+            ))}
+            {view.files.length === 0 && <li className="text-ink-faint">None yet.</li>}
+          </ul>
+        </div>
+        <div className="rounded border border-paper-line bg-paper-card p-3">
+          <h2 className="mb-2 text-sm">Dispositions</h2>
+          <ul className="space-y-1 text-xs">
+            {view.dispositions.map((d) => (
+              <li key={d.id} className={d.supersededAt ? 'text-ink-faint line-through' : ''}>
+                <strong>{DISPOSITION_LABELS[d.decision]}</strong> by {d.signer}, {new Date(d.signedAt).toLocaleString()}{d.deviationNumber && ` · ${d.deviationNumber}`}
+                <span className="block no-underline">“{d.meaning}”</span>
+              </li>
+            ))}
+            {view.dispositions.length === 0 && <li className="text-ink-faint">Not decided.</li>}
+          </ul>
+        </div>
+        <div className="rounded border border-paper-line bg-paper-card p-3">
+          <h2 className="mb-2 text-sm">Documents</h2>
+          <ul className="space-y-1 text-xs">
+            {view.documents.map((d) => (
+              <li key={d.id}>
+                <a href={`/api/documents/${encodeURIComponent(d.number)}.pdf`} target="_blank" rel="noreferrer" className="font-mono">{d.number}</a> {d.kind === 'certificate' ? 'certificate of conformance' : 'inspection report'}
+                {d.revokedAt && <span className="ml-1 font-medium text-state-fail">revoked</span>}
+              </li>
+            ))}
+            {view.documents.length === 0 && <li className="text-ink-faint">None issued.</li>}
+          </ul>
+        </div>
+      </section>
+    </div>
+  );
+}
