@@ -1,0 +1,150 @@
+import { z } from 'zod';
+import {
+  AQL_VALUES,
+  CODE_LETTERS,
+  INSPECTION_LEVELS,
+  LOT_SIZE_ROWS,
+  PLAN_TABLES,
+  SAMPLE_SIZES,
+  SEVERITIES,
+  parseCell,
+  type Aql,
+  type CodeLetter,
+  type InspectionLevel,
+  type Severity,
+} from './tables';
+
+export const aqlSchema = z
+  .number({ error: 'AQL must be a number' })
+  .refine((value) => (AQL_VALUES as readonly number[]).includes(value), {
+    error: `AQL must be one of ${AQL_VALUES.join(', ')} (percent nonconforming)`,
+  });
+
+export const samplingInputSchema = z.object({
+  lotSize: z
+    .number({ error: 'lot size must be a number' })
+    .int('lot size must be a whole number of pieces')
+    .min(1, 'lot size must be at least 1'),
+  level: z.enum(INSPECTION_LEVELS, {
+    error: `inspection level must be one of ${INSPECTION_LEVELS.join(', ')}`,
+  }),
+  aql: aqlSchema,
+  severity: z.enum(SEVERITIES, { error: `severity must be one of ${SEVERITIES.join(', ')}` }),
+});
+
+/**
+ * What planFor takes. Fields are plain strings and numbers because they usually come from a
+ * PO line or a request; samplingInputSchema checks them at run time.
+ */
+export interface SamplingInput {
+  lotSize: number;
+  level: string;
+  aql: number;
+  severity: string;
+}
+
+export class SamplingInputError extends Error {
+  constructor(readonly issues: readonly string[]) {
+    super(`invalid sampling input: ${issues.join('; ')}`);
+    this.name = 'SamplingInputError';
+  }
+}
+
+export interface SamplingPlan {
+  lotSize: number;
+  level: InspectionLevel;
+  aql: Aql;
+  severity: Severity;
+  /** The code letter whose plan is used, after following any arrow of the table. */
+  codeLetter: CodeLetter;
+  /** Pieces to inspect; equals lotSize when hundredPercent. */
+  sampleSize: number;
+  accept: number;
+  reject: number;
+  /** The plan's sample size reached or passed the lot size, so every piece is inspected. */
+  hundredPercent: boolean;
+  /** The Table 1 letter, present only when an arrow led to another letter. */
+  resolvedFromLetter?: CodeLetter;
+}
+
+export function codeLetterFor(lotSize: number, level: InspectionLevel): CodeLetter {
+  // A lot of one piece has no row of its own; the first row serves and the plan becomes 100 %.
+  const row = LOT_SIZE_ROWS.find((candidate) => lotSize <= candidate.max) ?? LOT_SIZE_ROWS[0];
+  return row.letters[INSPECTION_LEVELS.indexOf(level)];
+}
+
+interface ResolvedCell {
+  letterIndex: number;
+  accept: number;
+  reject: number;
+}
+
+function findPlanInColumn(severity: Severity, aqlIndex: number, fromLetter: number, step: 1 | -1) {
+  const grid = PLAN_TABLES[severity];
+  for (let letterIndex = fromLetter + step; letterIndex >= 0 && letterIndex < CODE_LETTERS.length; letterIndex += step) {
+    const plan = parseCell(grid[CODE_LETTERS[letterIndex]][aqlIndex]);
+    if (plan) return { letterIndex, ...plan };
+  }
+  return null;
+}
+
+/**
+ * Follows the arrows of the table from a cell to the plan they lead to. The one arrow with no
+ * plan in its direction (code letter A at AQL 10 on normal inspection) is taken the other way,
+ * to the first plan below.
+ */
+export function resolveCell(severity: Severity, letter: CodeLetter, aql: Aql): ResolvedCell {
+  const letterIndex = CODE_LETTERS.indexOf(letter);
+  const aqlIndex = AQL_VALUES.indexOf(aql);
+  const cell = PLAN_TABLES[severity][letter][aqlIndex];
+  const plan = parseCell(cell);
+  if (plan) return { letterIndex, ...plan };
+  const step = cell === '↓' ? 1 : -1;
+  const resolved =
+    findPlanInColumn(severity, aqlIndex, letterIndex, step) ??
+    findPlanInColumn(severity, aqlIndex, letterIndex, step === 1 ? -1 : 1);
+  if (!resolved) throw new Error(`no plan in the ${severity} column for AQL ${aql}`);
+  return resolved;
+}
+
+/** Throws SamplingInputError, listing every problem, when the input is not a plan request. */
+export function planFor(input: SamplingInput): SamplingPlan {
+  const parsed = samplingInputSchema.safeParse(input);
+  if (!parsed.success) throw new SamplingInputError(parsed.error.issues.map((issue) => issue.message));
+  const { lotSize, level, severity } = parsed.data;
+  const aql = parsed.data.aql as Aql;
+  const tableLetter = codeLetterFor(lotSize, level);
+  const resolved = resolveCell(severity, tableLetter, aql);
+  const codeLetter = CODE_LETTERS[resolved.letterIndex];
+  const tableSampleSize = SAMPLE_SIZES[severity][resolved.letterIndex];
+  const hundredPercent = tableSampleSize >= lotSize;
+  return {
+    lotSize,
+    level,
+    aql,
+    severity,
+    codeLetter,
+    sampleSize: hundredPercent ? lotSize : tableSampleSize,
+    accept: resolved.accept,
+    reject: resolved.reject,
+    hundredPercent,
+    ...(codeLetter !== tableLetter ? { resolvedFromLetter: tableLetter } : {}),
+  };
+}
+
+/**
+ * Acceptance number of the normal plan at the same code letter with the AQL one step tighter,
+ * for the switching score. Below the tightest AQL offered, the diagonal structure of Table 2-A
+ * gives it: the cell one AQL step to the left equals the cell one code letter up.
+ */
+export function tighterNormalAcceptance(letter: CodeLetter, aql: Aql): number | null {
+  const letterIndex = CODE_LETTERS.indexOf(letter);
+  const aqlIndex = AQL_VALUES.indexOf(aql);
+  const cell =
+    aqlIndex > 0
+      ? PLAN_TABLES.normal[letter][aqlIndex - 1]
+      : letterIndex > 0
+        ? PLAN_TABLES.normal[CODE_LETTERS[letterIndex - 1]][aqlIndex]
+        : '↓';
+  return parseCell(cell)?.accept ?? null;
+}
