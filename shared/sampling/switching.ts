@@ -104,7 +104,7 @@ export function nextSwitchingState(state: SwitchingState, lotResult: LotResult, 
   }
   if (lot.accepted !== lot.defectives <= lot.plan.accept) {
     throw new Error(
-      `a lot with ${lot.defectives} defectives and Ac ${lot.plan.accept} is ${lot.defectives <= lot.plan.accept ? 'accepted' : 'not accepted'}, not ${lot.accepted ? 'accepted' : 'not accepted'}`,
+      `a lot with ${lot.defectives} defectives at Ac ${lot.plan.accept} is ${lot.accepted ? 'not accepted' : 'accepted'}, but the result says ${lot.accepted ? 'accepted' : 'not accepted'}`,
     );
   }
   const verdict = lot.accepted ? 'accepted' : 'not accepted';
