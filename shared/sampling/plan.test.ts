@@ -89,37 +89,34 @@ describe('arrows', () => {
   });
 });
 
-describe('tightened inspection', () => {
+describe('tightened and reduced inspection', () => {
   it.each([
-    // [lot, level, AQL, letter, n, Ac, Re, Table 1 letter if an arrow moved it] — ISO 2859-1:1999 Table 2-B (from memory)
-    [2000, 'II', 1.0, 'K', 125, 2, 3, undefined],
-    [2000, 'II', 2.5, 'K', 125, 5, 6, undefined],
-    [2000, 'II', 6.5, 'K', 125, 12, 13, undefined],
-    [2000, 'II', 10, 'K', 125, 18, 19, undefined],
-    [400, 'II', 2.5, 'H', 50, 2, 3, undefined],
-    [400, 'II', 4.0, 'H', 50, 3, 4, undefined],
-    [400, 'II', 0.65, 'H', 50, 0, 1, undefined],
-    [400, 'II', 1.0, 'J', 80, 1, 2, 'H'], // ↓: tightened needs n = 80 for Ac 1 where normal had n = 50
-    [400, 'II', 0.25, 'K', 125, 0, 1, 'H'],
-  ] as const)('lot %i, level %s, AQL %s → %s, n = %i, Ac %i / Re %i', (lotSize, level, aql, codeLetter, sampleSize, accept, reject, resolvedFromLetter) => {
-    expect(essentials(plan(lotSize, level, aql, 'tightened'))).toEqual({ codeLetter, sampleSize, accept, reject, resolvedFromLetter, hundredPercent: false });
-  });
-});
-
-describe('reduced inspection', () => {
-  it.each([
-    // [lot, level, AQL, letter, n, Ac, Re, Table 1 letter if an arrow moved it] — ISO 2859-1:1999 Table 2-C (from memory)
-    [2000, 'II', 1.0, 'K', 50, 1, 2, undefined],
-    [2000, 'II', 2.5, 'K', 50, 3, 4, undefined],
-    [2000, 'II', 10, 'K', 50, 10, 11, undefined],
-    [2000, 'II', 0.25, 'K', 50, 0, 1, undefined],
-    [2000, 'II', 0.4, 'J', 32, 0, 1, 'K'],
-    [400, 'II', 0.65, 'H', 20, 0, 1, undefined],
-    [400, 'II', 1.0, 'G', 13, 0, 1, 'H'],
-    [10000, 'II', 4.0, 'L', 80, 7, 8, undefined],
-  ] as const)('lot %i, level %s, AQL %s → %s, n = %i, Ac %i / Re %i', (lotSize, level, aql, codeLetter, sampleSize, accept, reject, resolvedFromLetter) => {
-    expect(essentials(plan(lotSize, level, aql, 'reduced'))).toEqual({ codeLetter, sampleSize, accept, reject, resolvedFromLetter, hundredPercent: false });
-  });
+    // [severity, lot, level, AQL, letter, n, Ac, Re, Table 1 letter if an arrow moved it]
+    // ISO 2859-1:1999 Table 2-B (from memory)
+    ['tightened', 2000, 'II', 1.0, 'K', 125, 2, 3, undefined],
+    ['tightened', 2000, 'II', 2.5, 'K', 125, 5, 6, undefined],
+    ['tightened', 2000, 'II', 6.5, 'K', 125, 12, 13, undefined],
+    ['tightened', 2000, 'II', 10, 'K', 125, 18, 19, undefined],
+    ['tightened', 400, 'II', 2.5, 'H', 50, 2, 3, undefined],
+    ['tightened', 400, 'II', 4.0, 'H', 50, 3, 4, undefined],
+    ['tightened', 400, 'II', 0.65, 'H', 50, 0, 1, undefined],
+    ['tightened', 400, 'II', 1.0, 'J', 80, 1, 2, 'H'], // ↓: tightened needs n = 80 for Ac 1 where normal had n = 50
+    ['tightened', 400, 'II', 0.25, 'K', 125, 0, 1, 'H'],
+    // ISO 2859-1:1999 Table 2-C (from memory)
+    ['reduced', 2000, 'II', 1.0, 'K', 50, 1, 2, undefined],
+    ['reduced', 2000, 'II', 2.5, 'K', 50, 3, 4, undefined],
+    ['reduced', 2000, 'II', 10, 'K', 50, 10, 11, undefined],
+    ['reduced', 2000, 'II', 0.25, 'K', 50, 0, 1, undefined],
+    ['reduced', 2000, 'II', 0.4, 'J', 32, 0, 1, 'K'],
+    ['reduced', 400, 'II', 0.65, 'H', 20, 0, 1, undefined],
+    ['reduced', 400, 'II', 1.0, 'G', 13, 0, 1, 'H'],
+    ['reduced', 10000, 'II', 4.0, 'L', 80, 7, 8, undefined],
+  ] as const)(
+    '%s: lot %i, level %s, AQL %s → %s, n = %i, Ac %i / Re %i',
+    (severity, lotSize, level, aql, codeLetter, sampleSize, accept, reject, resolvedFromLetter) => {
+      expect(essentials(plan(lotSize, level, aql, severity))).toEqual({ codeLetter, sampleSize, accept, reject, resolvedFromLetter, hundredPercent: false });
+    },
+  );
 });
 
 describe('100 % inspection when n ≥ N', () => {

@@ -69,7 +69,8 @@ export interface SamplingPlan {
 
 export function codeLetterFor(lotSize: number, level: InspectionLevel): CodeLetter {
   // A lot of one piece has no row of its own; the first row serves and the plan becomes 100 %.
-  const row = LOT_SIZE_ROWS.find((candidate) => lotSize <= candidate.max) ?? LOT_SIZE_ROWS[0];
+  // The last row is open-ended, so a row is always found.
+  const row = LOT_SIZE_ROWS.find((candidate) => lotSize <= candidate.max)!;
   return row.letters[INSPECTION_LEVELS.indexOf(level)];
 }
 
