@@ -1,0 +1,309 @@
+/**
+ * Rows of a measurement file to readings grouped by serial and wavelength (readings.md, "The file").
+ * Fed record by record (from csv.ts), so it works the same on a whole text and on a stream;
+ * a bad row becomes an error with its line number, never an exception.
+ */
+import { ANALYZERS, type Analyzer, type ScanReading } from './scan.js';
+import { degreeOfPolarization, inputStateReader, toOurFrame, type InstrumentProfile, type Stokes } from './stokes.js';
+import { METHODS, type FileMetadata, type LineMessage, type Method } from './types.js';
+import { DEG, parseRetardanceUnit, toWaves } from './units.js';
+
+export interface StokesReading {
+  input: Stokes;
+  output: Stokes;
+}
+
+export interface DirectReading {
+  /** Total retardance as reported, in waves (any sign, any order). */
+  waves: number;
+  fastAxisDeg: number;
+  line: number;
+}
+
+export interface ReadingsByMethod {
+  stokes: StokesReading;
+  scan: ScanReading;
+  direct: DirectReading;
+}
+
+export interface Group<M extends Method = Method> {
+  serial: string;
+  wavelengthNm: number;
+  /** Angle of the fast-axis mark in the lab frame, degrees (our frame). */
+  mountDeg: number;
+  lines: number[];
+  /** Lines of this piece's rows that had errors (those rows are not in `readings`). */
+  errorLines: number[];
+  readings: ReadingsByMethod[M][];
+}
+
+export interface Collected {
+  method: Method | null;
+  metadata: FileMetadata;
+  groups: Group[];
+  warnings: LineMessage[];
+  errors: LineMessage[];
+  fatal?: string;
+}
+
+/** Degree of polarisation above 1 by more than this is an error of the reading, not noise. */
+export const MAX_DOP_EXCESS = 0.02;
+
+type Columns = Record<string, number>;
+
+interface MethodColumns {
+  required: readonly string[];
+  optional: readonly string[];
+}
+
+export const METHOD_COLUMNS: Record<Method, MethodColumns> = {
+  stokes: { required: ['serial', 'wavelength_nm', 'input', 's0', 's1', 's2', 's3'], optional: ['mount_deg'] },
+  scan: { required: ['serial', 'wavelength_nm', 'analyzer', 'angle_deg', 'intensity'], optional: [] },
+  direct: { required: ['serial', 'wavelength_nm', 'retardance', 'unit', 'fast_axis_deg'], optional: ['mount_deg'] },
+};
+
+/** Reads the numeric cell `name` (at index `column`); NaN, with the problem noted, when it is missing or not a number. */
+function numberCell(fields: readonly string[], column: number, name: string, problems: string[]): number {
+  const cell = fields[column];
+  // Number() reads a blank cell as 0, so only a 0 needs the blank check.
+  const value = cell === undefined ? NaN : Number(cell);
+  if (cell === undefined || (value === 0 && cell.trim() === '')) {
+    problems.push(`${name} is missing`);
+    return NaN;
+  }
+  if (!Number.isFinite(value)) {
+    problems.push(`${name} is not a number: ${JSON.stringify(cell.trim())}`);
+    return NaN;
+  }
+  return value;
+}
+
+function textCell(fields: readonly string[], column: number, name: string, problems: string[]): string {
+  const cell = (fields[column] ?? '').trim();
+  if (cell === '') problems.push(`${name} is missing`);
+  return cell;
+}
+
+interface RowContext {
+  profile: InstrumentProfile;
+  readInput: (cell: string) => Stokes | null;
+  line: number;
+  wavelengthNm: number;
+}
+
+type RowParser<M extends Method> = (
+  fields: readonly string[],
+  columns: Columns,
+  context: RowContext,
+  problems: string[],
+) => ReadingsByMethod[M];
+
+const ROW_PARSERS: { [M in Method]: RowParser<M> } = {
+  stokes(fields, columns, { profile, readInput }, problems) {
+    const inputCell = textCell(fields, columns.input, 'input', problems);
+    const input = inputCell === '' ? null : readInput(inputCell);
+    if (inputCell !== '' && !input) {
+      problems.push(`unknown input state ${JSON.stringify(inputCell)}: expected H, V, D, A, R, L or an angle in degrees`);
+    }
+    const raw: Stokes = [
+      numberCell(fields, columns.s0, 's0', problems),
+      numberCell(fields, columns.s1, 's1', problems),
+      numberCell(fields, columns.s2, 's2', problems),
+      numberCell(fields, columns.s3, 's3', problems),
+    ];
+    if (!Number.isNaN(raw[0]) && raw[0] <= 0) {
+      problems.push(`s0 must be positive, got ${raw[0]}`);
+    } else if (!(Number.isNaN(raw[0]) || Number.isNaN(raw[1]) || Number.isNaN(raw[2]) || Number.isNaN(raw[3]))) {
+      const dop = degreeOfPolarization(raw);
+      if (dop > 1 + MAX_DOP_EXCESS) {
+        problems.push(`degree of polarisation ${dop.toFixed(3)} is above 1 (more than the ${MAX_DOP_EXCESS} noise allowance)`);
+      }
+    }
+    return { input: input ?? [1, 0, 0, 0], output: toOurFrame(raw, profile) };
+  },
+  scan(fields, columns, { profile }, problems) {
+    const analyzerCell = textCell(fields, columns.analyzer, 'analyzer', problems).toLowerCase();
+    if (analyzerCell !== '' && !(ANALYZERS as readonly string[]).includes(analyzerCell)) {
+      problems.push(`unknown analyzer ${JSON.stringify(analyzerCell)}: expected crossed, parallel or open`);
+    }
+    const angle = analyzerCell === 'open' ? 0 : numberCell(fields, columns.angle_deg, 'angle_deg', problems);
+    const intensity = numberCell(fields, columns.intensity, 'intensity', problems);
+    return { analyzer: analyzerCell as Analyzer, angle: angle * profile.angleSign * DEG, intensity };
+  },
+  direct(fields, columns, { profile, line, wavelengthNm }, problems) {
+    const retardance = numberCell(fields, columns.retardance, 'retardance', problems);
+    const unitCell = textCell(fields, columns.unit, 'unit', problems);
+    const unit = parseRetardanceUnit(unitCell);
+    if (unitCell !== '' && !unit) problems.push(`unknown unit ${JSON.stringify(unitCell)}: expected nm, waves, deg or rad`);
+    const axis = numberCell(fields, columns.fast_axis_deg, 'fast_axis_deg', problems);
+    // The opposite S3 handedness turns a retarder's rotation around: it reads with its axes swapped.
+    const fastAxisDeg = axis * profile.angleSign + (profile.s3Sign === -1 ? 90 : 0);
+    return { waves: unit ? toWaves(retardance, unit, wavelengthNm) : NaN, fastAxisDeg, line };
+  },
+};
+
+const METADATA_LINE = /^#\s*([A-Za-z][\w .-]*?)\s*:\s*(.*?)\s*$/;
+
+export class ReadingCollector {
+  private method: Method | null = null;
+  private methodLine: { line: number; method: Method } | null = null;
+  private columns: Columns | null = null;
+  private headerWidth = 0;
+  /** Reused for every row: the hot path of files with 100,000 rows. */
+  private readonly context: RowContext;
+  private rows = 0;
+  private fatal: string | undefined;
+  private readonly metadata: FileMetadata = {};
+  /** By serial, then by wavelength; `ordered` keeps the file's order. */
+  private readonly groups = new Map<string, Map<number, Group>>();
+  private readonly ordered: Group[] = [];
+  private readonly warnings: LineMessage[] = [];
+  private readonly errors: LineMessage[] = [];
+
+  constructor(
+    private readonly profile: InstrumentProfile,
+    private readonly maxRows: number,
+  ) {
+    this.context = { profile, readInput: inputStateReader(profile), line: 0, wavelengthNm: NaN };
+  }
+
+  get failed(): boolean {
+    return this.fatal !== undefined;
+  }
+
+  fail(message: string): void {
+    this.fatal ??= message;
+  }
+
+  /**
+   * A whole `#` line of the file (with its '#'). Comments may arrive ahead of the records around
+   * them (a stream is read ahead of its parser), so only their line numbers say what came first.
+   */
+  comment(line: number, text: string): void {
+    const match = METADATA_LINE.exec(text);
+    if (!match) return;
+    const key = match[1].toLowerCase();
+    this.metadata[key] = match[2];
+    if (key !== 'method') return;
+    const method = match[2].toLowerCase() as Method;
+    if (!METHODS.includes(method)) {
+      this.fail(`line ${line}: unknown method ${JSON.stringify(match[2])}: expected stokes, scan or direct`);
+    } else if (!this.methodLine || line < this.methodLine.line) {
+      this.methodLine = { line, method };
+    }
+  }
+
+  /** A CSV parse problem of one record (unbalanced quotes and the like). */
+  recordError(line: number, message: string): void {
+    this.errors.push({ line, message });
+  }
+
+  record(fields: readonly string[], line: number): void {
+    if (this.fatal) return;
+    if (fields[0].trim() === '' && fields.every((f) => f.trim() === '')) return;
+    if (!this.columns) {
+      this.header(fields, line);
+      return;
+    }
+    if (++this.rows > this.maxRows) {
+      this.fail(`the file has more than ${this.maxRows} data rows; split it into smaller files`);
+      return;
+    }
+    this.row(fields, line);
+  }
+
+  private header(fields: readonly string[], line: number): void {
+    const names = fields.map((f) => f.trim().toLowerCase());
+    const present = new Set(names);
+    const missing = (m: Method) => METHOD_COLUMNS[m].required.filter((c) => !present.has(c));
+    let forced: Method | null = null;
+    if (this.methodLine && this.methodLine.line < line) forced = this.methodLine.method;
+    else if (this.methodLine) this.warnings.push({ line: this.methodLine.line, message: 'a method line after the header is ignored' });
+    const method = forced ?? METHODS.find((m) => missing(m).length === 0);
+    if (!method || missing(method).length > 0) {
+      const closest = method ?? [...METHODS].sort((a, b) => missing(a).length - missing(b).length)[0];
+      const expected = METHOD_COLUMNS[closest].required;
+      this.fail(
+        missing(closest).length < expected.length
+          ? `line ${line}: no recognisable header: for the ${closest} method the column(s) ${missing(closest).join(', ')} are missing`
+          : `line ${line}: no recognisable header: expected the columns of the ` +
+              METHODS.map((m) => `${m} method (${METHOD_COLUMNS[m].required.join(', ')})`).join(', or the '),
+      );
+      return;
+    }
+    const known = new Set([...METHOD_COLUMNS[method].required, ...METHOD_COLUMNS[method].optional]);
+    const columns: Columns = {};
+    names.forEach((name, index) => {
+      if (!known.has(name)) {
+        this.warnings.push({ line, message: `unknown column ${JSON.stringify(name)} ignored` });
+      } else if (name in columns) {
+        this.warnings.push({ line, message: `column ${JSON.stringify(name)} appears twice; the first one is used` });
+      } else {
+        columns[name] = index;
+      }
+    });
+    this.method = method;
+    this.columns = columns;
+    this.headerWidth = fields.length;
+  }
+
+  private row(fields: readonly string[], line: number): void {
+    const columns = this.columns!;
+    const method = this.method!;
+    const problems: string[] = [];
+    const serial = textCell(fields, columns.serial, 'serial', problems);
+    const wavelengthNm = numberCell(fields, columns.wavelength_nm, 'wavelength_nm', problems);
+    if (wavelengthNm <= 0) problems.push(`wavelength_nm must be positive, got ${wavelengthNm}`);
+    const mountCell = columns.mount_deg === undefined ? undefined : fields[columns.mount_deg];
+    const mountDeg =
+      mountCell !== undefined && mountCell.trim() !== ''
+        ? numberCell(fields, columns.mount_deg, 'mount_deg', problems) * this.profile.angleSign
+        : 0;
+    this.context.line = line;
+    this.context.wavelengthNm = wavelengthNm;
+    const reading = ROW_PARSERS[method](fields, columns, this.context, problems);
+    if (fields.length > this.headerWidth && fields.slice(this.headerWidth).some((f) => f.trim() !== '')) {
+      this.warnings.push({ line, message: `${fields.length - this.headerWidth} field(s) beyond the header ignored` });
+    }
+
+    const group = serial !== '' && wavelengthNm > 0 ? this.group(serial, wavelengthNm, mountDeg) : undefined;
+    if (group && problems.length === 0 && group.readings.length > 0 && mountDeg !== group.mountDeg) {
+      problems.push(`mount_deg ${mountDeg} differs from ${group.mountDeg} on line ${group.lines[0]} for the same piece`);
+    }
+    if (problems.length > 0) {
+      for (const message of problems) this.errors.push({ line, message });
+      group?.errorLines.push(line);
+      return;
+    }
+    if (group!.readings.length === 0) group!.mountDeg = mountDeg;
+    group!.lines.push(line);
+    (group!.readings as ReadingsByMethod[Method][]).push(reading);
+  }
+
+  private group(serial: string, wavelengthNm: number, mountDeg: number): Group {
+    let bySerial = this.groups.get(serial);
+    if (!bySerial) {
+      bySerial = new Map();
+      this.groups.set(serial, bySerial);
+    }
+    let group = bySerial.get(wavelengthNm);
+    if (!group) {
+      group = { serial, wavelengthNm, mountDeg, lines: [], errorLines: [], readings: [] };
+      bySerial.set(wavelengthNm, group);
+      this.ordered.push(group);
+    }
+    return group;
+  }
+
+  result(): Collected {
+    if (!this.fatal && !this.columns) this.fail('no recognisable header: the file has no rows');
+    return {
+      method: this.method,
+      metadata: this.metadata,
+      groups: this.ordered,
+      warnings: this.warnings,
+      errors: this.errors,
+      fatal: this.fatal,
+    };
+  }
+}
