@@ -3,13 +3,42 @@ import type { Sequelize } from 'sequelize';
 import { User } from './User';
 import { OutboxMail } from './OutboxMail';
 import { Instrument } from './Instrument';
+import { Supplier } from './Supplier';
+import { Part } from './Part';
+import { PurchaseOrder } from './PurchaseOrder';
+import { PurchaseOrderLine } from './PurchaseOrderLine';
+import { Shipment } from './Shipment';
+import { Lot } from './Lot';
+import { Piece } from './Piece';
+import { Location } from './Location';
+import { StockMove } from './StockMove';
+import { Attachment } from './Attachment';
 
 export function initModels(sequelize: Sequelize) {
   User.initModel(sequelize);
   OutboxMail.initModel(sequelize);
   Instrument.initModel(sequelize);
-  return { User, OutboxMail, Instrument };
+  initReceivingModels(sequelize);
+  return { User, OutboxMail, Instrument, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment };
 }
 
-export { User, OutboxMail, Instrument };
+/** Purchasing, receiving and stock (migration 0101). */
+function initReceivingModels(sequelize: Sequelize) {
+  for (const model of [Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment]) model.initModel(sequelize);
+  Supplier.belongsTo(User, { as: 'owner', foreignKey: 'ownerId' });
+  PurchaseOrder.belongsTo(Supplier, { as: 'supplier', foreignKey: 'supplierId' });
+  PurchaseOrder.belongsTo(User, { as: 'buyer', foreignKey: 'buyerId' });
+  PurchaseOrder.hasMany(PurchaseOrderLine, { as: 'lines', foreignKey: 'purchaseOrderId' });
+  PurchaseOrderLine.belongsTo(PurchaseOrder, { as: 'purchaseOrder', foreignKey: 'purchaseOrderId' });
+  PurchaseOrderLine.belongsTo(Part, { as: 'part', foreignKey: 'partId' });
+  Shipment.belongsTo(PurchaseOrder, { as: 'purchaseOrder', foreignKey: 'purchaseOrderId' });
+  Shipment.belongsTo(User, { as: 'receiver', foreignKey: 'receivedBy' });
+  Lot.belongsTo(Shipment, { as: 'shipment', foreignKey: 'shipmentId' });
+  Lot.belongsTo(PurchaseOrderLine, { as: 'line', foreignKey: 'poLineId' });
+  Lot.belongsTo(Part, { as: 'part', foreignKey: 'partId' });
+  Lot.hasMany(Piece, { as: 'pieces', foreignKey: 'lotId' });
+  Piece.belongsTo(Lot, { as: 'lot', foreignKey: 'lotId' });
+}
+
+export { User, OutboxMail, Instrument, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment };
 export type { OutboxAttachment } from './OutboxMail';
