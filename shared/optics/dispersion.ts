@@ -91,8 +91,12 @@ export type OrderResult = { ok: true; value: OrderEstimate } | { ok: false; reas
 
 /** Thickest plate considered. */
 const MAX_THICKNESS_MM = 5;
-/** Misfit, in waves, above which the readings are not one plate of the material. */
-const MAX_RESIDUAL_WAVES = 0.02;
+/**
+ * Misfit, in waves, above which the readings are not one plate of the material: a few times the
+ * retardance noise of a bench polarimeter, and tight enough that the many candidate orders rarely
+ * fit unrelated readings by chance.
+ */
+const MAX_RESIDUAL_WAVES = 0.005;
 /** Another order fitting within this much (waves), or within 3x the best misfit, makes the estimate ambiguous. */
 const MIN_SEPARATION_WAVES = 0.01;
 

@@ -142,7 +142,8 @@ const ROW_PARSERS: { [M in Method]: RowParser<M> } = {
   },
 };
 
-const METADATA_LINE = /^#\s*([A-Za-z][\w .-]*?)\s*:\s*(.*?)\s*$/;
+/** `# key: value`, the key one word (instrument, operator, method, date...); other `#` lines are plain comments. */
+const METADATA_LINE = /^#\s*([A-Za-z][\w-]*)\s*:\s*(.*?)\s*$/;
 
 export class ReadingCollector {
   private method: Method | null = null;
