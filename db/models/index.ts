@@ -13,13 +13,15 @@ import { Piece } from './Piece';
 import { Location } from './Location';
 import { StockMove } from './StockMove';
 import { Attachment } from './Attachment';
+import { initInspectionModels } from './inspection';
 
 export function initModels(sequelize: Sequelize) {
   User.initModel(sequelize);
   OutboxMail.initModel(sequelize);
   Instrument.initModel(sequelize);
   initReceivingModels(sequelize);
-  return { User, OutboxMail, Instrument, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment };
+  const inspection = initInspectionModels(sequelize);
+  return { User, OutboxMail, Instrument, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
 }
 
 /** Purchasing, receiving and stock (migration 0101). */
@@ -42,3 +44,4 @@ function initReceivingModels(sequelize: Sequelize) {
 
 export { User, OutboxMail, Instrument, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment };
 export type { OutboxAttachment } from './OutboxMail';
+export { LotInspection, SamplePiece, SwitchingStateRecord, SwitchingEvent, MeasurementFile, Reading, PieceResult, DispositionRecord, LotDocument } from './inspection';

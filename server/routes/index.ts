@@ -2,6 +2,8 @@
 import { Router } from 'express';
 import { auditRouter } from './audit/router';
 import { authRouter } from './auth/router';
+import { certificatesRouter, documentsRouter } from './certificates/router';
+import { inspectionRouter } from './inspection/router';
 import { healthRouter } from './health/router';
 import { instrumentsRouter } from './instruments/router';
 import { mailRouter } from './mail/router';
@@ -17,3 +19,6 @@ apiRouter.use('/mail', mailRouter);
 apiRouter.use('/audit', auditRouter);
 apiRouter.use('/instruments', instrumentsRouter);
 apiRouter.use('/settings', settingsRouter);
+apiRouter.use('/inspection', inspectionRouter);
+apiRouter.use('/certificates', certificatesRouter);
+apiRouter.use('/documents', documentsRouter);

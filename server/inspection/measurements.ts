@@ -1,0 +1,159 @@
+// Bench files for a lot: preview (every row through the engine, nothing saved) and commit (the raw
+// file with its SHA-256, its readings and the per-piece results in one transaction; a new result
+// for a piece supersedes the old one, which stays in the history).
+import { parse } from 'csv-parse/sync';
+import { Op, type Transaction } from 'sequelize';
+import { inTransaction } from '../../db';
+import { Instrument, MeasurementFile, PieceResult, Reading } from '../../db/models';
+import { analyzeBuffer, type AnalysisResult, type LineMessage, type PieceResult as EnginePieceResult } from '../../shared/optics';
+import { recordAudit, type AuditActor } from '../audit/record';
+import { AppError, badRequest } from '../http/errors';
+import { sha256, storeBlob } from '../storage/blobs';
+import { lotForInspection, markLotInspected, type LotForInspection } from './lotAccess';
+import { evaluateLot } from './evaluation';
+import { pieceSpecFor } from './spec';
+
+export const MAX_MEASUREMENT_BYTES = 50 * 1024 * 1024;
+
+export type UploadedFile = { originalname: string; buffer: Buffer };
+
+export type FilePreview = {
+  name: string;
+  sha256: string;
+  sizeBytes: number;
+  method: AnalysisResult['method'];
+  metadata: AnalysisResult['metadata'];
+  instrument: { id: number; code: string } | null;
+  pieces: EnginePieceResult[];
+  warnings: LineMessage[];
+  errors: LineMessage[];
+  fatal?: string;
+};
+
+const DECIDED = ['accepted', 'rejected', 'use-as-is'];
+
+function openLot(lot: LotForInspection) {
+  if (DECIDED.includes(lot.state)) throw new AppError(409, 'lot_decided', `Lot ${lot.id} is already decided (${lot.state}); its measurements are closed`);
+  return lot;
+}
+
+const today = () => new Date().toISOString().slice(0, 10);
+
+/** The instrument a file was measured on: the one its `# instrument:` line names, else the one chosen. */
+async function resolveInstrument(metadata: AnalysisResult['metadata'], chosenId: number | undefined, transaction?: Transaction) {
+  if (metadata.instrument) {
+    const named = await Instrument.findOne({ where: { code: metadata.instrument }, transaction });
+    if (!named) return { problem: `The file names instrument "${metadata.instrument}", which is not in the register` };
+    if (chosenId && named.id !== chosenId) return { problem: `The file was measured on ${named.code}, not on the instrument chosen for the upload` };
+    return { instrument: named };
+  }
+  if (!chosenId) return { problem: 'The file has no "# instrument:" line: choose the instrument it was measured on' };
+  const chosen = await Instrument.findByPk(chosenId, { transaction });
+  return chosen ? { instrument: chosen } : { problem: 'The chosen instrument does not exist' };
+}
+
+async function previewFile(file: UploadedFile, lot: LotForInspection, chosenInstrumentId: number | undefined, transaction?: Transaction): Promise<FilePreview> {
+  const base = { name: file.originalname, sha256: sha256(file.buffer), sizeBytes: file.buffer.length };
+  // First pass without the profile to read the metadata; the instrument's profile and uncertainty
+  // then shape the real analysis.
+  const first = analyzeBuffer(file.buffer, pieceSpecFor(lot.spec), { maxBytes: MAX_MEASUREMENT_BYTES });
+  if (first.fatal) return { ...base, method: null, metadata: first.metadata, instrument: null, pieces: [], warnings: [], errors: [], fatal: first.fatal };
+  const found = await resolveInstrument(first.metadata, chosenInstrumentId, transaction);
+  if (!found.instrument) return { ...base, method: first.method, metadata: first.metadata, instrument: null, pieces: [], warnings: first.warnings, errors: [], fatal: found.problem };
+  const instrument = found.instrument;
+  const measuredOn = first.metadata.date ?? today();
+  if (!instrument.isCalibratedOn(measuredOn)) {
+    return {
+      ...base, method: first.method, metadata: first.metadata, instrument: { id: instrument.id, code: instrument.code }, pieces: [], warnings: first.warnings, errors: [],
+      fatal: `Instrument ${instrument.code} was not in calibration on ${measuredOn} (calibrated ${instrument.calibratedOn}, due ${instrument.calibrationDueOn}): its readings are refused`,
+    };
+  }
+  const result = analyzeBuffer(file.buffer, pieceSpecFor(lot.spec, instrument), { maxBytes: MAX_MEASUREMENT_BYTES });
+  const serials = new Set(lot.pieces.map((p) => p.serial));
+  const strangers = result.pieces.filter((p) => !serials.has(p.serial));
+  const errors = [
+    ...result.errors,
+    ...strangers.flatMap((p) => p.lines.map((line) => ({ line, message: `Serial ${p.serial} is not in lot ${lot.id}` }))),
+  ].sort((a, b) => a.line - b.line);
+  return {
+    ...base,
+    method: result.method,
+    metadata: result.metadata,
+    instrument: { id: instrument.id, code: instrument.code },
+    pieces: result.pieces.filter((p) => serials.has(p.serial)),
+    warnings: result.warnings,
+    errors,
+    fatal: result.fatal,
+  };
+}
+
+export async function previewMeasurements(lotId: number, files: UploadedFile[], instrumentId?: number) {
+  if (files.length === 0) throw badRequest('Attach at least one measurement file');
+  const lot = openLot(await lotForInspection(lotId));
+  return { files: await Promise.all(files.map((f) => previewFile(f, lot, instrumentId))) };
+}
+
+/** The data rows of a file with their line numbers, for the readings table. */
+function readingRows(buffer: Buffer) {
+  const records = parse(buffer, { columns: (h: string[]) => h.map((c) => c.trim().toLowerCase()), comment: '#', skip_empty_lines: true, trim: true, info: true, relax_column_count: true }) as {
+    record: Record<string, string>;
+    info: { lines: number };
+  }[];
+  return records.map(({ record, info }) => ({
+    line: info.lines,
+    serial: record.serial ?? '',
+    wavelengthNm: Number.isFinite(Number(record.wavelength_nm)) ? Number(record.wavelength_nm) : null,
+    fields: record,
+  }));
+}
+
+export function commitMeasurements(actor: AuditActor & { id: number }, lotId: number, files: UploadedFile[], instrumentId?: number) {
+  if (files.length === 0) throw badRequest('Attach at least one measurement file');
+  return inTransaction(async (transaction) => {
+    const lot = openLot(await lotForInspection(lotId, transaction, { lock: true }));
+    const previews = await Promise.all(files.map((f) => previewFile(f, lot, instrumentId, transaction)));
+    const refused = previews.filter((p) => p.fatal || p.errors.length);
+    if (refused.length) {
+      throw new AppError(422, 'measurement_errors', 'Nothing was saved: fix the errors in the file(s) and upload again', refused.map((p) => ({ name: p.name, fatal: p.fatal, errors: p.errors })));
+    }
+    const pieceIdBySerial = new Map(lot.pieces.map((p) => [p.serial, p.id]));
+    const committed = [];
+    for (const [index, preview] of previews.entries()) {
+      const buffer = files[index].buffer;
+      const stored = await MeasurementFile.create(
+        {
+          lotId, instrumentId: preview.instrument!.id, originalName: preview.name, sha256: preview.sha256, sizeBytes: preview.sizeBytes,
+          method: preview.method!, metadata: preview.metadata as Record<string, string>, rowCount: 0, warnings: preview.warnings,
+          storageKey: storeBlob(buffer), uploadedBy: actor.id,
+        },
+        { transaction },
+      );
+      const rows = readingRows(buffer);
+      await Reading.bulkCreate(rows.map((r) => ({ ...r, fileId: stored.id })), { transaction });
+      stored.rowCount = rows.length;
+      await stored.save({ transaction });
+      for (const piece of preview.pieces) {
+        const pieceId = pieceIdBySerial.get(piece.serial)!;
+        await PieceResult.update(
+          { supersededByFileId: stored.id },
+          { where: { pieceId, wavelengthNm: piece.wavelengthNm, supersededByFileId: { [Op.is]: null } }, transaction },
+        );
+      }
+      await PieceResult.bulkCreate(
+        preview.pieces.map((piece) => ({
+          pieceId: pieceIdBySerial.get(piece.serial)!, fileId: stored.id, wavelengthNm: piece.wavelengthNm, verdict: piece.verdict, result: { ...piece },
+        })),
+        { transaction },
+      );
+      await recordAudit(
+        actor,
+        { action: 'measurement.upload', entityType: 'lot', entityId: lotId, after: { fileId: stored.id, name: preview.name, sha256: preview.sha256, pieces: preview.pieces.length, instrument: preview.instrument!.code } },
+        transaction,
+      );
+      committed.push({ fileId: stored.id, name: preview.name, sha256: preview.sha256, pieces: preview.pieces.length, rows: rows.length });
+    }
+    const { verdict } = await evaluateLot(lot, transaction);
+    await markLotInspected(lot, verdict.proposal !== 'undecided', transaction);
+    return { files: committed };
+  });
+}

@@ -1,0 +1,75 @@
+// What the inspection screens read: the queue of lots waiting, and one lot's whole inspection.
+import { DispositionRecord, Instrument, LotDocument, MeasurementFile, User } from '../../../db/models';
+import { ocCurve } from '../../../shared/sampling';
+import { evaluateLot } from '../../inspection/evaluation';
+import { lotForInspection, lotsAwaitingInspection } from '../../inspection/lotAccess';
+import { switchingStateOf } from '../../inspection/sampling';
+
+const DAY_MS = 86_400_000;
+
+export async function inspectionQueue() {
+  const lots = await lotsAwaitingInspection();
+  const rows = [];
+  for (const lot of lots) {
+    const evaluation = await evaluateLot(lot);
+    rows.push({
+      lotId: lot.id,
+      state: lot.state,
+      part: lot.part,
+      supplier: lot.supplier.name,
+      supplierLot: lot.supplierLot,
+      quantity: lot.quantity,
+      receivedAt: lot.receivedAt,
+      daysInQuarantine: Math.floor((Date.now() - new Date(lot.receivedAt).getTime()) / DAY_MS),
+      plan: { codeLetter: evaluation.plan.codeLetter, sampleSize: evaluation.plan.sampleSize, accept: evaluation.plan.acceptNumber, reject: evaluation.plan.rejectNumber, severity: evaluation.plan.severity },
+      sampleSerials: evaluation.samplePieces.map((p) => p.serial),
+      measured: evaluation.verdict.measured,
+      proposal: evaluation.verdict.proposal,
+    });
+  }
+  return { data: rows, total: rows.length };
+}
+
+export async function lotInspectionView(lotId: number) {
+  const lot = await lotForInspection(lotId);
+  const evaluation = await evaluateLot(lot);
+  const { plan } = evaluation;
+  const [files, dispositions, documents, switching] = await Promise.all([
+    MeasurementFile.findAll({ where: { lotId }, order: [['id', 'DESC']] }),
+    DispositionRecord.findAll({ where: { lotId }, order: [['id', 'DESC']] }),
+    LotDocument.findAll({ where: { lotId }, order: [['id', 'DESC']] }),
+    switchingStateOf(lot.supplier.id, lot.part.id),
+  ]);
+  const people = new Map((await User.findAll({ where: { id: [...new Set([...files.map((f) => f.uploadedBy), ...dispositions.map((d) => d.signerId)])] } })).map((u) => [u.id, u]));
+  const instruments = new Map((await Instrument.findAll()).map((i) => [i.id, i.code]));
+  const inSample = new Set(evaluation.samplePieces.map((p) => p.pieceId));
+  const current = dispositions.find((d) => !d.supersededAt) ?? null;
+  return {
+    lot: { id: lot.id, state: lot.state, supplierLot: lot.supplierLot, quantity: lot.quantity, receivedAt: lot.receivedAt, poNumber: lot.poNumber, lineNumber: lot.lineNumber, part: lot.part, supplier: lot.supplier },
+    spec: lot.spec,
+    plan: {
+      codeLetter: plan.codeLetter, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, severity: plan.severity,
+      level: plan.inspectionLevel, aql: plan.aql, hundredPercent: plan.hundredPercent, seed: plan.sampleSeed, summary: evaluation.planSummary,
+      oc: ocCurve({ sampleSize: plan.sampleSize, accept: plan.acceptNumber }, 41),
+    },
+    switching,
+    verdict: evaluation.verdict,
+    pieces: lot.pieces.map((p) => ({
+      id: p.id,
+      serial: p.serial,
+      state: p.state,
+      inSample: inSample.has(p.id),
+      results: (evaluation.allResults.get(p.id) ?? []).map((r) => ({ id: r.id, fileId: r.fileId, wavelengthNm: r.wavelengthNm, verdict: r.verdict, ...r.result, createdAt: r.createdAt.toISOString() })),
+    })),
+    files: files.map((f) => ({
+      id: f.id, name: f.originalName, sha256: f.sha256, sizeBytes: f.sizeBytes, method: f.method, rows: f.rowCount, instrument: instruments.get(f.instrumentId) ?? null,
+      metadata: f.metadata, uploadedBy: people.get(f.uploadedBy)?.name ?? null, uploadedAt: f.uploadedAt.toISOString(),
+    })),
+    disposition: current ? { id: current.id, decision: current.decision } : null,
+    dispositions: dispositions.map((d) => ({
+      id: d.id, decision: d.decision, meaning: d.meaning, deviationNumber: d.deviationNumber, justification: d.justification,
+      signer: people.get(d.signerId)?.name ?? null, signedAt: d.signedAt.toISOString(), supersededAt: d.supersededAt?.toISOString() ?? null,
+    })),
+    documents: documents.map((d) => ({ id: d.id, kind: d.kind, number: d.number, dataHash: d.dataHash, issuedAt: d.issuedAt.toISOString(), revokedAt: d.revokedAt?.toISOString() ?? null })),
+  };
+}

@@ -1,0 +1,76 @@
+import { Router } from 'express';
+import multer from 'multer';
+import type { z } from 'zod';
+import { dispositionInputSchema, type DispositionInput } from '../../../shared/inspection/lotVerdict';
+import { lotIdParams, measurementUploadSchema } from '../../../shared/schemas/inspection';
+import { actorOf } from '../../audit/record';
+import { allow, authenticate } from '../../auth/authenticate';
+import { badRequest } from '../../http/errors';
+import { validate } from '../../http/validate';
+import { signDisposition } from '../../inspection/disposition';
+import { commitMeasurements, MAX_MEASUREMENT_BYTES, previewMeasurements, type UploadedFile } from '../../inspection/measurements';
+import { inspectionQueue, lotInspectionView } from './presenter';
+
+// Bench files are CSV text: anything that is not (a NUL byte in the first kilobyte) is refused
+// before the engine sees it.
+const upload = multer({
+  storage: multer.memoryStorage(),
+  limits: { fileSize: MAX_MEASUREMENT_BYTES, files: 20 },
+});
+
+function csvFiles(files: Express.Multer.File[] | undefined): UploadedFile[] {
+  const list = files ?? [];
+  for (const file of list) {
+    if (file.buffer.subarray(0, 1024).includes(0)) throw badRequest(`${file.originalname} is not a text (CSV) file`);
+  }
+  return list.map((f) => ({ originalname: f.originalname, buffer: f.buffer }));
+}
+
+type LotParams = z.infer<typeof lotIdParams>;
+
+export const inspectionRouter = Router();
+
+inspectionRouter.get('/queue', authenticate, allow('lots.read'), async (_req, res) => {
+  res.json(await inspectionQueue());
+});
+
+inspectionRouter.get('/lots/:id', authenticate, allow('lots.read'), validate({ params: lotIdParams }), async (req, res) => {
+  res.json(await lotInspectionView((req.valid.params as LotParams).id));
+});
+
+inspectionRouter.post(
+  '/lots/:id/measurements/preview',
+  authenticate,
+  allow('inspection.perform'),
+  upload.array('files'),
+  validate({ params: lotIdParams, body: measurementUploadSchema }),
+  async (req, res) => {
+    const { instrumentId } = req.valid.body as z.infer<typeof measurementUploadSchema>;
+    res.json(await previewMeasurements((req.valid.params as LotParams).id, csvFiles(req.files as Express.Multer.File[]), instrumentId));
+  },
+);
+
+inspectionRouter.post(
+  '/lots/:id/measurements',
+  authenticate,
+  allow('inspection.perform'),
+  upload.array('files'),
+  validate({ params: lotIdParams, body: measurementUploadSchema }),
+  async (req, res) => {
+    const { instrumentId } = req.valid.body as z.infer<typeof measurementUploadSchema>;
+    const actor = { ...actorOf(req), id: req.user!.id };
+    res.status(201).json(await commitMeasurements(actor, (req.valid.params as LotParams).id, csvFiles(req.files as Express.Multer.File[]), instrumentId));
+  },
+);
+
+inspectionRouter.post(
+  '/lots/:id/dispositions',
+  authenticate,
+  allow('disposition.sign'),
+  validate({ params: lotIdParams, body: dispositionInputSchema }),
+  async (req, res) => {
+    const { requestId, address } = actorOf(req);
+    const result = await signDisposition(req.user!, (req.valid.params as LotParams).id, req.valid.body as DispositionInput, { requestId, address });
+    res.status(201).json({ dispositionId: result.disposition.id, decision: result.disposition.decision, documents: result.documents });
+  },
+);
