@@ -3,6 +3,7 @@
 import { faker } from '@faker-js/faker';
 import { sequelize } from '..';
 import { Instrument, User } from '../models';
+import { seedInspectionDemo } from './inspectionDemo';
 import { ROLES, type Role } from '../../shared/schemas/roles';
 import { instrumentInputSchema, type InstrumentInput } from '../../shared/schemas/instruments';
 import { hashPassword } from '../../server/routes/users/operations';
@@ -45,5 +46,7 @@ export async function seedDemo() {
   await sequelize.query(`INSERT INTO site_settings (id, value) VALUES (1, :value::jsonb)`, {
     replacements: { value: JSON.stringify({ siteName: DEMO_SITE_NAME, reducedInspectionEnabled: true }) },
   });
-  return { users, instruments };
+  // Inspection runs last: it takes lots received above through upload and signature.
+  const inspected = await seedInspectionDemo(DEMO_PASSWORD);
+  return { users, instruments, inspected };
 }

@@ -43,6 +43,8 @@ export async function startBrowserRig(): Promise<BrowserRig> {
 /** A new page signed in as the demo account of a role, on the overview. */
 export async function signedInPage(rig: BrowserRig, role: Role): Promise<Page> {
   const context = await rig.browser.newContext({ viewport: { width: 1400, height: 900 } });
+  // Shorter than the test's own timeout, so a missing element is named in the failure.
+  context.setDefaultTimeout(10_000);
   const page = await context.newPage();
   await page.goto(`${rig.baseUrl}/sign-in`);
   const { email, password } = demoLogin(role);

@@ -95,7 +95,7 @@ export function LotInspectionPage() {
         <ResultsTable view={view} />
       </section>
 
-      {can(user, 'disposition.sign') && <DispositionPanel key={view.disposition?.id ?? 'none'} view={view} />}
+      {can(user, 'disposition.sign') && <DispositionPanel view={view} />}
 
       <section className="grid gap-3 lg:grid-cols-3">
         <div className="rounded border border-paper-line bg-paper-card p-3">
