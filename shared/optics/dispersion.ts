@@ -140,7 +140,8 @@ export function estimateOrder(
   const designPerMm = model.birefringence(designWavelengthNm) / (designWavelengthNm * 1e-6);
   // The order is the whole waves on top of the nominal fraction, so a plate a hair under its
   // nominal (6.249 waves for 6.25) still counts as order 6.
-  const orderOf = (thicknessMm: number) => Math.round(thicknessMm * designPerMm - nominalFraction);
+  // `+ 0` turns a rounded -0 into 0.
+  const orderOf = (thicknessMm: number) => Math.round(thicknessMm * designPerMm - nominalFraction) + 0;
   const totalWaves = best.thicknessMm * designPerMm;
   const order = orderOf(best.thicknessMm);
   const rival = candidates.find((c) => orderOf(c.thicknessMm) !== order);

@@ -1,0 +1,181 @@
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { analyzeBuffer, analyzeText } from './analyze.js';
+import { DIRECT_HEADER, SCAN_HEADER, STOKES_HEADER, stokesRows } from './synthetic.js';
+import type { PieceSpecInput } from './spec.js';
+
+const QWP: PieceSpecInput = { nominalWaves: 0.25, designWavelengthNm: 632.8, retardanceTolWaves: 0.003, axisTolDeg: 0.5 };
+const good = (serial = 'QW-0001', wavelengthNm = 632.8) =>
+  stokesRows({ serial, wavelengthNm, retardanceWaves: 0.2497, fastAxisDeg: 0.1 });
+const lines = (...parts: (string | string[])[]) => parts.flat().join('\n');
+
+describe('bad files: every problem with its line number', () => {
+  it('refuses a file whose header names no method, saying which columns are missing', () => {
+    const result = analyzeText(lines('# instrument: BENCH-2', 'serial,wavelength_nm,input,s0,s1,s2', 'QW-0001,632.8,H,1,1,0'), QWP);
+    expect(result.fatal).toBe('line 2: no recognisable header: for the stokes method the column(s) s3 are missing');
+    expect(result.pieces).toEqual([]);
+    expect(analyzeText('just some text\nand more', QWP).fatal).toMatch(
+      /^line 1: no recognisable header: expected the columns of the stokes method \(serial, wavelength_nm, input, s0, s1, s2, s3\), or the scan method/,
+    );
+  });
+
+  it('reports text in a number', () => {
+    const rows = good();
+    rows[2] = rows[2].replace(/,[^,]+,([^,]+),0$/, ',abc,$1,0');
+    const result = analyzeText(lines(STOKES_HEADER, rows), QWP);
+    expect(result.errors).toEqual([{ line: 4, message: 's2 is not a number: "abc"' }]);
+    expect(result.pieces[0]).toMatchObject({ verdict: 'incomplete', reasons: ['readings with errors on line 4'], lines: [2, 3, 4, 5, 6, 7] });
+  });
+
+  it('reports an unknown input code', () => {
+    const rows = good();
+    rows[5] = rows[5].replace(',L,', ',Q,');
+    const result = analyzeText(lines(STOKES_HEADER, rows), QWP);
+    expect(result.errors).toEqual([
+      { line: 7, message: 'unknown input state "Q": expected H, V, D, A, R, L or an angle in degrees' },
+    ]);
+  });
+
+  it('reports a degree of polarisation above 1 and a non-positive s0', () => {
+    const result = analyzeText(
+      lines(STOKES_HEADER, good().slice(0, 4), 'QW-0001,632.8,R,1,0.9,0.5,0,0', 'QW-0001,632.8,L,0,0,0,0,0'),
+      QWP,
+    );
+    expect(result.errors).toEqual([
+      { line: 6, message: 'degree of polarisation 1.030 is above 1 (more than the 0.02 noise allowance)' },
+      { line: 7, message: 's0 must be positive, got 0' },
+    ]);
+  });
+
+  it('marks a piece without a reading at the design wavelength incomplete, and a missing wavelength cell as an error', () => {
+    const result = analyzeText(lines(STOKES_HEADER, good('QW-0002', 633.4), 'QW-0003,,H,1,1,0,0,0'), QWP);
+    expect(result.pieces[0]).toMatchObject({
+      serial: 'QW-0002',
+      verdict: 'incomplete',
+      reasons: ['no reading at the design wavelength 632.8 nm (±0.5 nm): this one is at 633.4 nm'],
+      lines: [2, 3, 4, 5, 6, 7],
+    });
+    expect(result.serials[0]).toMatchObject({ verdict: 'incomplete', reasons: ['no reading at the design wavelength 632.8 nm (±0.5 nm)'] });
+    expect(result.errors).toEqual([{ line: 8, message: 'wavelength_nm is missing' }]);
+  });
+
+  it('marks a piece with too few or degenerate inputs incomplete', () => {
+    const three = analyzeText(lines(STOKES_HEADER, good().slice(0, 3)), QWP);
+    expect(three.pieces[0]).toMatchObject({
+      verdict: 'incomplete',
+      reasons: ['too few inputs: 3 input state(s), at least 4 that span the Stokes space are needed'],
+      lines: [2, 3, 4],
+    });
+    const linear = analyzeText(lines(STOKES_HEADER, good().slice(0, 4)), QWP);
+    expect(linear.pieces[0].reasons).toEqual(['the input states do not span the Stokes space (add a circular or a diagonal state)']);
+  });
+
+  it('reports a Mueller matrix that is non-physical beyond noise as an error of the piece', () => {
+    const rows = ['H,1,1,0,0', 'V,1,-1,0,0', 'D,1,0,1,0', 'A,1,0,1,0', 'R,1,0,0,1', 'L,1,0,0,-1'].map((r) => `QW-0004,632.8,${r},0`);
+    const result = analyzeText(lines(STOKES_HEADER, rows), QWP);
+    expect(result.errors).toEqual([
+      { line: 2, message: expect.stringMatching(/^QW-0004 at 632.8 nm: the Mueller matrix from lines 2-7 is not physical \(coherency eigenvalue -0\.\d{3} m00, limit -0.02\)$/) },
+    ]);
+    expect(result.pieces[0].verdict).toBe('incomplete');
+  });
+
+  it('reports missing serials, unknown analyzers, unknown units and a mount that changes within a piece', () => {
+    expect(analyzeText(lines(STOKES_HEADER, ',632.8,H,1,1,0,0,0'), QWP).errors).toEqual([{ line: 2, message: 'serial is missing' }]);
+    expect(analyzeText(lines(SCAN_HEADER, 'QW-0001,632.8,sideways,10,0.4'), QWP).errors).toEqual([
+      { line: 2, message: 'unknown analyzer "sideways": expected crossed, parallel or open' },
+    ]);
+    expect(analyzeText(lines(DIRECT_HEADER, 'QW-0001,632.8,0.25,furlongs,0,0'), QWP).errors).toEqual([
+      { line: 2, message: 'unknown unit "furlongs": expected nm, waves, deg or rad' },
+    ]);
+    const rows = good();
+    rows[3] = rows[3].replace(/,0$/, ',5');
+    expect(analyzeText(lines(STOKES_HEADER, rows), QWP).errors).toEqual([
+      { line: 5, message: 'mount_deg 5 differs from 0 on line 2 for the same piece' },
+    ]);
+  });
+
+  it('reports a broken quote with its line and reads the rest', () => {
+    const result = analyzeText(lines(DIRECT_HEADER, 'QW-0001,632.8,0.25,waves,0,0', '"QW-0002,632.8,0.25,waves,0,0'), QWP);
+    expect(result.errors).toEqual([{ line: 3, message: expect.stringContaining('the CSV could not be read here: Quote Not Closed') }]);
+    expect(result.pieces.map((p) => p.serial)).toEqual(['QW-0001']);
+  });
+
+  it('refuses binary content, other encodings, oversized files and too many rows', () => {
+    expect(analyzeBuffer(Uint8Array.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13]), QWP).fatal).toBe(
+      'the file is not text (it contains NUL bytes): expected a CSV file',
+    );
+    expect(analyzeBuffer(Uint8Array.from([0x73, 0x65, 0x72, 0xe9, 0x0a]), QWP).fatal).toBe('the file is not UTF-8 text');
+    const text = lines(STOKES_HEADER, good(), good('QW-0002'));
+    expect(analyzeText(text, QWP, { maxBytes: 100 }).fatal).toBe('the file is larger than 100 bytes');
+    expect(analyzeText(text, QWP, { maxRows: 10 }).fatal).toBe('the file has more than 10 data rows; split it into smaller files');
+    expect(analyzeText(text, QWP, { maxRows: 12 }).fatal).toBeUndefined();
+    expect(analyzeText('', QWP).fatal).toBe('no recognisable header: the file has no rows');
+  });
+
+  it('refuses an invalid specification', () => {
+    expect(analyzeText(lines(STOKES_HEADER, good()), { ...QWP, axisTolDeg: -1 }).fatal).toBe(
+      'invalid specification: axisTolDeg: Too small: expected number to be >=0',
+    );
+  });
+});
+
+describe('what the file may contain', () => {
+  it('keeps the # metadata, skips comments and blank lines, and counts lines as they are in the file', () => {
+    const text = lines('# instrument: BENCH-2', '# operator: QC-07', '# method: stokes', '# a plain remark', '', STOKES_HEADER, '', good());
+    const result = analyzeText(text, QWP);
+    expect(result.metadata).toEqual({ instrument: 'BENCH-2', operator: 'QC-07', method: 'stokes' });
+    expect(result.pieces[0].lines).toEqual([8, 9, 10, 11, 12, 13]);
+    expect(result.pieces[0].verdict).toBe('pass');
+  });
+
+  it('reads headers in any case with spaces, quoted fields, CRLF line ends and a byte-order mark', () => {
+    const header = ' Serial , WAVELENGTH_NM,Input,S0,s1,s2,s3 ,"mount_deg"';
+    const rows = good().map((r) => r.replace(/^QW-0001/, '"QW-0001"'));
+    const result = analyzeText(`\uFEFF${[header, ...rows].join('\r\n')}\r\n`, QWP);
+    expect(result.errors).toEqual([]);
+    expect(result.pieces[0]).toMatchObject({ serial: 'QW-0001', verdict: 'pass', lines: [2, 3, 4, 5, 6, 7] });
+  });
+
+  it('keeps line numbers right when a quoted field spans lines', () => {
+    const result = analyzeText(lines(DIRECT_HEADER + ',note', 'QW-0001,632.8,0.25,waves,0,0,"two', 'lines"', 'QW-0002,632.8,0.25,waves,x,0,'), QWP);
+    expect(result.errors).toEqual([{ line: 4, message: 'fast_axis_deg is not a number: "x"' }]);
+    expect(result.warnings).toEqual([{ line: 1, message: 'unknown column "note" ignored' }]);
+  });
+
+  it('warns about unknown columns and fields beyond the header', () => {
+    const rows = good().map((r, i) => (i === 0 ? `${r},extra` : r));
+    const result = analyzeText(lines(`${STOKES_HEADER},temperature_c`, rows), QWP);
+    expect(result.warnings).toEqual([{ line: 1, message: 'unknown column "temperature_c" ignored' }]);
+    const wide = analyzeText(lines(STOKES_HEADER, rows), QWP);
+    expect(wide.warnings).toEqual([{ line: 2, message: '1 field(s) beyond the header ignored' }]);
+  });
+
+  it('lets # method force a method, refuses an unknown one and ignores one after the header', () => {
+    const forced = analyzeText(lines('# method: scan', STOKES_HEADER, good()), QWP);
+    expect(forced.fatal).toBe('line 2: no recognisable header: for the scan method the column(s) analyzer, angle_deg, intensity are missing');
+    expect(analyzeText(lines('# method: ellipsometry', STOKES_HEADER, good()), QWP).fatal).toBe(
+      'line 1: unknown method "ellipsometry": expected stokes, scan or direct',
+    );
+    const late = analyzeText(lines(STOKES_HEADER, '# method: scan', good()), QWP);
+    expect(late.method).toBe('stokes');
+    expect(late.warnings).toEqual([{ line: 2, message: 'a method line after the header is ignored' }]);
+  });
+
+  it('reads the error fixture with every problem on its line', () => {
+    const result = analyzeBuffer(readFileSync(new URL('../../tests/fixtures/readings/stokes-errors.csv', import.meta.url)), QWP);
+    expect(result.errors).toEqual([
+      { line: 7, message: 's3 is not a number: "abc"' },
+      { line: 11, message: 'unknown input state "X": expected H, V, D, A, R, L or an angle in degrees' },
+      { line: 13, message: 'degree of polarisation 1.150 is above 1 (more than the 0.02 noise allowance)' },
+      { line: 17, message: 'wavelength_nm is missing' },
+    ]);
+    expect(result.warnings).toEqual([{ line: 4, message: 'unknown column "temperature_c" ignored' }]);
+    expect(result.pieces.map((p) => [p.serial, p.verdict])).toEqual([
+      ['QW-0301', 'incomplete'],
+      ['QW-0302', 'incomplete'],
+      ['QW-0303', 'incomplete'],
+      ['QW-0305', 'incomplete'],
+      ['QW-0306', 'incomplete'],
+    ]);
+  });
+});
