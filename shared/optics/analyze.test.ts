@@ -173,6 +173,9 @@ describe('instrument profiles', () => {
   it('applies the profile to numeric input angles and to direct readings', () => {
     const direct = analyzeText(file(DIRECT_HEADER, ['QW-0031,632.8,0.2495,waves,-20.2,-20']), { ...QWP, angleSign: -1 });
     expect(direct.pieces[0]).toMatchObject({ fastAxisDeg: expect.closeTo(20.2, 9), axisErrorDeg: expect.closeTo(0.2, 9), verdict: 'pass' });
+    // With the opposite handedness the instrument's fast axis is our slow one.
+    const handed = analyzeText(file(DIRECT_HEADER, ['QW-0032,632.8,0.2495,waves,110.2,20']), { ...QWP, s3Sign: -1 });
+    expect(handed.pieces[0]).toMatchObject({ fastAxisDeg: expect.closeTo(20.2, 9), verdict: 'pass' });
     const byAngle = exported(1, -1, ['0', '90', '45', 'R']);
     expect(analyzeText(file(STOKES_HEADER, byAngle), { ...QWP, angleSign: -1 }).pieces[0]).toMatchObject({
       verdict: 'pass',

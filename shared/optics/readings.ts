@@ -91,6 +91,7 @@ interface RowContext {
   wavelengthNm: number;
 }
 
+/** The reading of one row; when the row noted problems it is discarded, placeholders and all. */
 type RowParser<M extends Method> = (
   fields: readonly string[],
   columns: Columns,
