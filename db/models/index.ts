@@ -13,15 +13,17 @@ import { Piece } from './Piece';
 import { Location } from './Location';
 import { StockMove } from './StockMove';
 import { Attachment } from './Attachment';
+import { ExportJob } from './ExportJob';
 import { initInspectionModels } from './inspection';
 
 export function initModels(sequelize: Sequelize) {
   User.initModel(sequelize);
   OutboxMail.initModel(sequelize);
   Instrument.initModel(sequelize);
+  ExportJob.initModel(sequelize);
   initReceivingModels(sequelize);
   const inspection = initInspectionModels(sequelize);
-  return { User, OutboxMail, Instrument, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
+  return { User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
 }
 
 /** Purchasing, receiving and stock (migration 0101). */
@@ -42,6 +44,6 @@ function initReceivingModels(sequelize: Sequelize) {
   Piece.belongsTo(Lot, { as: 'lot', foreignKey: 'lotId' });
 }
 
-export { User, OutboxMail, Instrument, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment };
+export { User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment };
 export type { OutboxAttachment } from './OutboxMail';
 export { LotInspection, SamplePiece, SwitchingStateRecord, SwitchingEvent, MeasurementFile, Reading, PieceResult, DispositionRecord, LotDocument } from './inspection';

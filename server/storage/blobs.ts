@@ -30,3 +30,17 @@ export function storeBlob(data: Buffer): string {
 
 export const readBlob = (key: string) => readFile(pathOf(key));
 export const blobStream = (key: string) => createReadStream(pathOf(key));
+
+/** A path in the store's folder for a file written piece by piece, so adopting it is a rename on the same disk. */
+export function partialBlobPath(label: string) {
+  mkdirSync(join(root, 'partial'), { recursive: true });
+  return join(root, 'partial', `${label}.${process.pid}.${Date.now()}.part`);
+}
+
+/** Moves a finished file into the store under `key`, the SHA-256 its writer computed while writing it. */
+export function adoptBlobFile(path: string, key: string): string {
+  const target = pathOf(key);
+  mkdirSync(join(root, key.slice(0, 2)), { recursive: true });
+  renameSync(path, target);
+  return key;
+}
