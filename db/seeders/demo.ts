@@ -4,6 +4,7 @@ import { faker } from '@faker-js/faker';
 import { sequelize } from '..';
 import { Instrument, User } from '../models';
 import { seedInspectionDemo } from './inspectionDemo';
+import { seedReceivingDemo, seedStockDemo } from './receivingDemo';
 import { ROLES, type Role } from '../../shared/schemas/roles';
 import { instrumentInputSchema, type InstrumentInput } from '../../shared/schemas/instruments';
 import { hashPassword } from '../../server/routes/users/operations';
@@ -46,7 +47,9 @@ export async function seedDemo() {
   await sequelize.query(`INSERT INTO site_settings (id, value) VALUES (1, :value::jsonb)`, {
     replacements: { value: JSON.stringify({ siteName: DEMO_SITE_NAME, reducedInspectionEnabled: true }) },
   });
+  const { locations, suppliers, parts, purchaseOrders, lots } = await seedReceivingDemo(users);
   // Inspection runs last: it takes lots received above through upload and signature.
   const inspected = await seedInspectionDemo(DEMO_PASSWORD);
-  return { users, instruments, inspected };
+  await seedStockDemo(users, lots);
+  return { users, instruments, locations, suppliers, parts, purchaseOrders, lots, inspected };
 }

@@ -1,0 +1,123 @@
+// Server-side lists: one SQL definition per list gives the JSON page (`{data, total, totals}`) and
+// the CSV of everything the same filter shows. Only whitelisted columns sort; search is ILIKE over
+// named expressions; filters arrive as SQL clauses with their replacements.
+import type { RequestHandler, Router } from 'express';
+import { QueryTypes } from 'sequelize';
+import type { z } from 'zod';
+import { sequelize } from '../../db';
+import type { Permission } from '../../shared/policies';
+import type { ListQuery } from '../../shared/schemas/paging';
+import { allow, authenticate } from '../auth/authenticate';
+import { sendCsv, type CsvColumn } from './csv';
+import { badRequest } from './errors';
+import { validate } from './validate';
+
+export type Filters = { clauses: string[]; replacements: Record<string, unknown> };
+
+export type ListDefinition<Row, Query extends ListQuery = ListQuery> = {
+  /** SELECT list naming each output column in camelCase ("AS \"receivedAt\""). */
+  select: string;
+  /** FROM with its JOINs. */
+  from: string;
+  groupBy?: string;
+  /** Sort keys the client may send, each with the SQL it orders by. */
+  sortable: Record<string, string>;
+  defaultSort: string;
+  /** A unique expression that makes every order total, so pages never overlap. */
+  tieBreaker: string;
+  /** Expressions matched with ILIKE against `%q%`; an entry that names :q itself is a whole condition. */
+  search: string[];
+  /** Sums over every row the filter matches, in terms of the output columns. */
+  totals?: Record<string, string>;
+  filters?: (query: Query) => Filters;
+  present: (row: Record<string, unknown>) => Row;
+  csv: { filename: string; columns: CsvColumn<Row>[] };
+};
+
+/** Adds `clause` with its replacement when the value is given. */
+export function filterWhen(filters: Filters, value: unknown, clause: string, name: string) {
+  if (value === undefined || value === null || value === '') return filters;
+  filters.clauses.push(clause);
+  filters.replacements[name] = value;
+  return filters;
+}
+
+const escapeLike = (text: string) => text.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+/** `%text%` for ILIKE, with the text's own % and _ taken literally. */
+export const containing = (text: string) => `%${escapeLike(text)}%`;
+
+function orderOf<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, sort: string | undefined) {
+  const requested = sort || definition.defaultSort;
+  const key = requested.replace(/^-/, '');
+  const expression = definition.sortable[key];
+  if (!expression) throw badRequest(`Cannot sort by "${key}"; sort by one of: ${Object.keys(definition.sortable).join(', ')}`);
+  const direction = requested.startsWith('-') ? 'DESC' : 'ASC';
+  return `${expression} ${direction} NULLS LAST, ${definition.tieBreaker} ${direction}`;
+}
+
+function baseQuery<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query) {
+  const filters = definition.filters?.(query) ?? { clauses: [], replacements: {} };
+  const clauses = [...filters.clauses];
+  const replacements: Record<string, unknown> = { ...filters.replacements };
+  if (query.q && definition.search.length) {
+    clauses.push(`(${definition.search.map((term) => (term.includes(':q') ? term : `${term} ILIKE :q`)).join(' OR ')})`);
+    replacements.q = containing(query.q);
+  }
+  const where = clauses.length ? `WHERE ${clauses.join(' AND ')}` : '';
+  const groupBy = definition.groupBy ? `GROUP BY ${definition.groupBy}` : '';
+  return { sql: `SELECT ${definition.select} FROM ${definition.from} ${where} ${groupBy}`, replacements };
+}
+
+export async function listPage<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query) {
+  const order = orderOf(definition, query.sort);
+  const { sql, replacements } = baseQuery(definition, query);
+  const totalColumns = Object.entries(definition.totals ?? {}).map(([name, expression]) => `, ${expression} AS "${name}"`).join('');
+  const [summary] = await sequelize.query<Record<string, string | null>>(`SELECT count(*) AS total${totalColumns} FROM (${sql}) AS listed`, {
+    type: QueryTypes.SELECT,
+    replacements,
+  });
+  const rows = await sequelize.query<Record<string, unknown>>(`${sql} ORDER BY ${order} LIMIT :limit OFFSET :offset`, {
+    type: QueryTypes.SELECT,
+    replacements: { ...replacements, limit: query.pageSize, offset: (query.page - 1) * query.pageSize },
+  });
+  const totals = Object.fromEntries(Object.keys(definition.totals ?? {}).map((name) => [name, Number(summary[name] ?? 0)]));
+  return { data: rows.map(definition.present), total: Number(summary.total), totals };
+}
+
+/** Every row the filter matches, in the list's order, read in batches. The query is checked at
+ * once (a bad sort fails before any CSV is sent); rows are read as they are consumed. */
+export function listAll<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query, batchSize = 1000): AsyncGenerator<Row> {
+  const order = orderOf(definition, query.sort);
+  const { sql, replacements } = baseQuery(definition, query);
+  return (async function* () {
+    for (let offset = 0; ; offset += batchSize) {
+      const rows = await sequelize.query<Record<string, unknown>>(`${sql} ORDER BY ${order} LIMIT :limit OFFSET :offset`, {
+        type: QueryTypes.SELECT,
+        replacements: { ...replacements, limit: batchSize, offset },
+      });
+      for (const row of rows) yield definition.present(row);
+      if (rows.length < batchSize) return;
+    }
+  })();
+}
+
+/** Mounts `path` (JSON, or CSV with `?format=csv`) and `path/export.csv` for one list. */
+export function mountList<Row, Schema extends z.ZodType<ListQuery>>(
+  router: Router,
+  path: string,
+  permission: Permission,
+  querySchema: Schema,
+  definition: ListDefinition<Row, z.infer<Schema>>,
+) {
+  const csv: RequestHandler = async (req, res) => {
+    const rows = listAll(definition, req.valid.query as z.infer<Schema>);
+    await sendCsv(res, `${definition.csv.filename}-${new Date().toISOString().slice(0, 10)}.csv`, definition.csv.columns, rows);
+  };
+  const json: RequestHandler = async (req, res, next) => {
+    if (req.query.format === 'csv') return csv(req, res, next);
+    res.json(await listPage(definition, req.valid.query as z.infer<Schema>));
+  };
+  router.get(`${path === '/' ? '' : path}/export.csv`, authenticate, allow(permission), validate({ query: querySchema }), csv);
+  router.get(path, authenticate, allow(permission), validate({ query: querySchema }), json);
+}

@@ -1,0 +1,21 @@
+import { Router } from 'express';
+import { Attachment } from '../../../db/models';
+import { allow, authenticate } from '../../auth/authenticate';
+import { notFound } from '../../http/errors';
+import { idParams, type IdParams } from '../../http/params';
+import { validate } from '../../http/validate';
+import { blobStream } from '../../storage/blobs';
+
+export const attachmentsRouter = Router();
+
+/** The stored file, shown in the browser (PDF and images are safe to show inline). */
+attachmentsRouter.get('/:id', authenticate, allow('lots.read'), validate({ params: idParams }), async (req, res) => {
+  const attachment = await Attachment.findByPk((req.valid.params as IdParams).id);
+  if (!attachment) throw notFound('Attachment');
+  res.setHeader('Content-Type', attachment.mediaType);
+  res.setHeader('Content-Length', String(attachment.sizeBytes));
+  res.setHeader('Content-Disposition', `inline; filename*=UTF-8''${encodeURIComponent(attachment.originalName)}`);
+  res.setHeader('X-Content-Type-Options', 'nosniff');
+  res.setHeader('Digest', `sha-256=${Buffer.from(attachment.sha256, 'hex').toString('base64')}`);
+  blobStream(attachment.sha256).on('error', () => res.destroy()).pipe(res);
+});

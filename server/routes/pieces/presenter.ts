@@ -1,0 +1,57 @@
+import { QueryTypes } from 'sequelize';
+import { sequelize } from '../../../db';
+import type { PieceHistoryView } from '../../../shared/schemas/receiving';
+import type { LocationKind, LotState, MoveReason, PieceState } from '../../../shared/schemas/stock';
+import { notFound } from '../../http/errors';
+import { lotAuditHistory } from '../lots/presenter';
+
+type PieceRow = {
+  id: number; serial: string; state: PieceState; locationCode: string | null; locationKind: LocationKind | null;
+  partId: number; partNumber: string; partDescription: string; supplierId: number; supplierName: string;
+  purchaseOrderId: number; poNumber: string; lineNumber: number; lotId: number; supplierLot: string; lotState: LotState;
+};
+type MoveRow = { id: string; at: Date; reason: MoveReason; from: string | null; to: string | null; workOrder: string | null; note: string | null; who: string | null };
+
+/** Every piece with this serial (a serial is unique per part, so usually one) and its whole story. */
+export async function pieceHistories(serial: string): Promise<PieceHistoryView[]> {
+  const pieces = await sequelize.query<PieceRow>(
+    `SELECT p.id, p.serial, p.state, loc.code AS "locationCode", loc.kind AS "locationKind",
+            pt.id AS "partId", pt.number AS "partNumber", pt.description AS "partDescription",
+            s.id AS "supplierId", s.name AS "supplierName", po.id AS "purchaseOrderId", po.number AS "poNumber",
+            pol.line_number AS "lineNumber", l.id AS "lotId", l.supplier_lot AS "supplierLot", l.state AS "lotState"
+       FROM pieces p
+       JOIN lots l ON l.id = p.lot_id
+       JOIN parts pt ON pt.id = p.part_id
+       JOIN purchase_order_lines pol ON pol.id = l.po_line_id
+       JOIN purchase_orders po ON po.id = pol.purchase_order_id
+       JOIN suppliers s ON s.id = po.supplier_id
+       LEFT JOIN piece_locations pl ON pl.piece_id = p.id
+       LEFT JOIN locations loc ON loc.id = pl.location_id
+      WHERE p.serial = :serial ORDER BY pt.number`,
+    { type: QueryTypes.SELECT, replacements: { serial } },
+  );
+  if (pieces.length === 0) throw notFound(`Serial ${serial}`);
+  return Promise.all(
+    pieces.map(async (p) => {
+      const moves = await sequelize.query<MoveRow>(
+        `SELECT m.id, m.moved_at AS at, m.reason, f.code AS "from", t.code AS "to", m.work_order AS "workOrder", m.note, u.name AS who
+           FROM stock_moves m LEFT JOIN locations f ON f.id = m.from_location_id LEFT JOIN locations t ON t.id = m.to_location_id
+           LEFT JOIN users u ON u.id = m.actor_id
+          WHERE m.piece_id = :id ORDER BY m.id`,
+        { type: QueryTypes.SELECT, replacements: { id: p.id } },
+      );
+      return {
+        id: p.id,
+        serial: p.serial,
+        state: p.state,
+        location: p.locationCode ? { code: p.locationCode, kind: p.locationKind! } : null,
+        part: { id: p.partId, number: p.partNumber, description: p.partDescription },
+        supplier: { id: p.supplierId, name: p.supplierName },
+        purchaseOrder: { id: p.purchaseOrderId, number: p.poNumber, lineNumber: p.lineNumber },
+        lot: { id: p.lotId, supplierLot: p.supplierLot, state: p.lotState },
+        moves: moves.map((m) => ({ ...m, id: Number(m.id), at: m.at.toISOString() })),
+        history: await lotAuditHistory([p.lotId]),
+      };
+    }),
+  );
+}

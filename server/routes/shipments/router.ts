@@ -1,0 +1,41 @@
+import { Router, type RequestHandler } from 'express';
+import multer from 'multer';
+import { ATTACHMENT_KIND_LABELS, MAX_ATTACHMENT_BYTES, shipmentListQuerySchema, shipmentReceiveSchema, type ShipmentReceiveInput } from '../../../shared/schemas/receiving';
+import { actorOf } from '../../audit/record';
+import { allow, authenticate } from '../../auth/authenticate';
+import { AppError } from '../../http/errors';
+import { mountList } from '../../http/list';
+import { validate } from '../../http/validate';
+import { receiveShipment, type ReceiptFiles } from './operations';
+import { shipmentList } from './presenter';
+
+const FILE_LABELS: Record<string, string> = { packingSlip: ATTACHMENT_KIND_LABELS['packing-slip'], certificate: ATTACHMENT_KIND_LABELS.certificate, serialsFile: 'Serial file' };
+
+const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_ATTACHMENT_BYTES, files: 7, fields: 20 } }).fields([
+  { name: 'packingSlip', maxCount: 2 },
+  { name: 'certificate', maxCount: 4 },
+  { name: 'serialsFile', maxCount: 1 },
+]);
+
+/** The multipart body; a file over the limit is named in the answer. */
+const receiptUpload: RequestHandler = (req, res, next) =>
+  upload(req, res, (error?: unknown) => {
+    if (error instanceof multer.MulterError && error.code === 'LIMIT_FILE_SIZE') {
+      next(new AppError(413, 'upload', `${FILE_LABELS[error.field ?? ''] ?? 'A file'} is larger than 20 MB`, { field: error.field }));
+    } else next(error);
+  });
+
+export const shipmentsRouter = Router();
+
+mountList(shipmentsRouter, '/', 'lots.read', shipmentListQuerySchema, shipmentList);
+
+shipmentsRouter.post('/', authenticate, allow('shipments.receive'), receiptUpload, validate({ body: shipmentReceiveSchema }), async (req, res) => {
+  const { shipment, lot, attachments } = await receiveShipment(actorOf(req), req.valid.body as ShipmentReceiveInput, (req.files ?? {}) as ReceiptFiles);
+  res.status(201).json({
+    shipmentId: shipment.id,
+    lotId: lot.id,
+    quantity: lot.quantity,
+    state: lot.state,
+    attachments: attachments.map((a) => ({ id: a.id, kind: a.kind, name: a.originalName, sha256: a.sha256 })),
+  });
+});
