@@ -5,7 +5,9 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
 import type { Disposition } from '../../shared/inspection/lotVerdict';
 import type { PartSpec } from '../../shared/schemas/spec';
+import type { LocationKind, LotState } from '../../shared/schemas/stock';
 import type { AuditActor } from '../audit/record';
+import { defaultLocation, movePieces } from '../stock/ledger';
 import { AppError, notFound } from '../http/errors';
 
 export type LotForInspection = {
@@ -93,33 +95,28 @@ export async function markLotInspected(lot: LotForInspection, sampleDecides: boo
   });
 }
 
-const OUTCOME: Record<Disposition, { lotState: string; pieceState: string; locationKind: string; reason: string }> = {
-  accept: { lotState: 'accepted', pieceState: 'in-stock', locationKind: 'stock', reason: 'release' },
-  'use-as-is': { lotState: 'use-as-is', pieceState: 'in-stock', locationKind: 'stock', reason: 'release' },
-  reject: { lotState: 'rejected', pieceState: 'returned', locationKind: 'return-to-vendor', reason: 'return-to-vendor' },
+const OUTCOME: Record<Disposition, { lotState: LotState; locationKind: LocationKind; reason: 'release' | 'return-to-vendor' }> = {
+  accept: { lotState: 'accepted', locationKind: 'stock', reason: 'release' },
+  'use-as-is': { lotState: 'use-as-is', locationKind: 'stock', reason: 'release' },
+  reject: { lotState: 'rejected', locationKind: 'return-to-vendor', reason: 'return-to-vendor' },
 };
 
-/** Moves every piece of the lot that is still on site (not issued) to where the decision sends it:
- * the first stock bin for accepted pieces, return-to-vendor for a rejected lot. */
+/** Sets the lot's state and moves every piece still on site (not issued, not already there) to
+ * where the decision sends it through the stock ledger: the default stock bin for accepted pieces,
+ * return-to-vendor for a rejected lot. */
 export async function applyDispositionToLot(lot: LotForInspection, decision: Disposition, actor: AuditActor, transaction: Transaction) {
   const outcome = OUTCOME[decision];
-  const [destination] = await sequelize.query<{ id: number; code: string }>(
-    'SELECT id, code FROM locations WHERE kind = :kind AND active ORDER BY code LIMIT 1',
-    { type: QueryTypes.SELECT, transaction, replacements: { kind: outcome.locationKind } },
-  );
-  if (!destination) throw new AppError(409, 'no_location', `No active ${outcome.locationKind} location is set up to receive the lot`);
-  await sequelize.query(
-    `INSERT INTO stock_moves (piece_id, from_location_id, to_location_id, reason, note, actor_id)
-     SELECT p.id, pl.location_id, :to, :reason, :note, :actor
-     FROM pieces p JOIN piece_locations pl ON pl.piece_id = p.id
-     WHERE p.lot_id = :lotId AND pl.location_id IS NOT NULL AND pl.location_id <> :to
-     ORDER BY p.id`,
-    { transaction, replacements: { to: destination.id, reason: outcome.reason, note: `lot ${lot.id} disposition: ${decision}`, actor: actor.id, lotId: lot.id } },
-  );
-  await sequelize.query(`UPDATE pieces SET state = :state, updated_at = now() WHERE lot_id = :lotId AND state <> 'issued'`, {
-    transaction,
-    replacements: { state: outcome.pieceState, lotId: lot.id },
-  });
   await sequelize.query('UPDATE lots SET state = :state, updated_at = now() WHERE id = :lotId', { transaction, replacements: { state: outcome.lotState, lotId: lot.id } });
+  const destination = await defaultLocation(outcome.locationKind, transaction).catch(() => {
+    throw new AppError(409, 'no_location', `No active ${outcome.locationKind} location is set up to receive the lot`);
+  });
+  const onSite = await sequelize.query<{ id: number }>(
+    `SELECT p.id FROM pieces p JOIN piece_locations pl ON pl.piece_id = p.id
+     WHERE p.lot_id = :lotId AND pl.location_id IS NOT NULL AND pl.location_id <> :to ORDER BY p.id`,
+    { type: QueryTypes.SELECT, transaction, replacements: { lotId: lot.id, to: destination.id } },
+  );
+  if (onSite.length) {
+    await movePieces({ pieceIds: onSite.map((p) => p.id), toLocationId: destination.id, reason: outcome.reason, note: `lot L-${lot.id} disposition: ${decision}` }, actor, transaction);
+  }
   return destination;
 }

@@ -1,6 +1,7 @@
 // A received lot for inspection tests: supplier, part, PO line with its frozen specification,
 // shipment, lot in quarantine and its serialised pieces with their receipt moves, written straight
-// to the receiving tables so these tests do not depend on the receiving screens.
+// to the receiving tables (the demo seed provides the locations) so these tests do not depend on the
+// receiving screens.
 import { faker } from '@faker-js/faker';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../db';
@@ -20,10 +21,6 @@ async function one<T extends object>(sql: string, replacements: Record<string, u
 }
 
 export async function receivedLot(options: Options) {
-  // The demo seed normally provides these; a test database without it still gets one of each kind.
-  await sequelize.query(`INSERT INTO locations (code, name, kind) VALUES
-    ('QUARANTINE', 'Quarantine shelf', 'quarantine'), ('BIN-A1', 'Stock bin A1', 'stock'), ('RTV', 'Return to vendor', 'return-to-vendor')
-    ON CONFLICT (code) DO NOTHING`);
   const tag = faker.string.alphanumeric(6).toUpperCase();
   const spec = partSpecSchema.parse(options.spec ?? QUARTER_WAVE_633);
   const buyer = await one<{ id: number }>('SELECT id FROM users WHERE email = :email', { email: options.buyerEmail ?? 'buyer@phaselot.test' });
