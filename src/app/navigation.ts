@@ -1,6 +1,6 @@
 // The app's areas, each shown only to roles holding its permission (the server enforces them anyway).
 import type { LucideIcon } from 'lucide-react';
-import { ClipboardCheck, Gauge, Mail, Microscope, Settings, Users } from 'lucide-react';
+import { Archive, ClipboardCheck, FileCheck2, Gauge, Mail, Microscope, ScrollText, Settings, Users } from 'lucide-react';
 import type { Permission } from '@shared/policies';
 
 export type NavItem = { to: string; label: string; permission?: Permission; icon: LucideIcon; group: 'work' | 'admin' };
@@ -8,6 +8,9 @@ export type NavItem = { to: string; label: string; permission?: Permission; icon
 export const NAVIGATION: NavItem[] = [
   { to: '/', label: 'Overview', icon: Gauge, group: 'work' },
   { to: '/inspection', label: 'Inspection', permission: 'lots.read', icon: ClipboardCheck, group: 'work' },
+  { to: '/certificates', label: 'Certificates', permission: 'certificates.read', icon: FileCheck2, group: 'work' },
+  { to: '/exports', label: 'Exports', permission: 'exports.create', icon: Archive, group: 'work' },
+  { to: '/audit', label: 'Audit trail', permission: 'audit.read', icon: ScrollText, group: 'work' },
   { to: '/instruments', label: 'Instruments', permission: 'instruments.read', icon: Microscope, group: 'admin' },
   { to: '/admin/users', label: 'Users', permission: 'users.manage', icon: Users, group: 'admin' },
   { to: '/admin/settings', label: 'Site settings', permission: 'settings.manage', icon: Settings, group: 'admin' },

@@ -28,3 +28,12 @@ export async function acceptedLot(quantity = 20) {
   if (!certificate) throw new Error(`lot ${lot.lotId} was accepted without a certificate`);
   return { ...lot, dispositionId: signed.body.dispositionId as number, certificate, documents };
 }
+
+/** Reverses an acceptance: the rejection supersedes it, revokes its documents and issues a report. */
+export async function rejectAfterAcceptance(lot: Awaited<ReturnType<typeof acceptedLot>>) {
+  const rejected = await (await as('quality'))
+    .post(`/api/inspection/lots/${lot.lotId}/dispositions`)
+    .send({ decision: 'reject', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: lot.dispositionId, justification: 'Chipped edges found at kitting' })
+    .expect(201);
+  return rejected.body.documents as IssuedDocument[];
+}

@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { sequelize } from '../../../db';
 import { sha256 } from '../../storage/blobs';
 import { as } from '../../../tests/helpers/api';
-import { acceptedLot } from '../../../tests/helpers/acceptedLot';
+import { acceptedLot, rejectAfterAcceptance } from '../../../tests/helpers/acceptedLot';
 import { binaryParser, readZip } from '../../../tests/helpers/zip';
 import type { ExportJobView } from '../../../shared/schemas/exports';
 
@@ -20,11 +20,8 @@ beforeAll(async () => {
   auditor = await as('auditor');
   // Accepted, then rejected after all: a revoked certificate and a current inspection report.
   revokedLot = await acceptedLot(20);
-  const rejected = await (await as('quality'))
-    .post(`/api/inspection/lots/${revokedLot.lotId}/dispositions`)
-    .send({ decision: 'reject', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: revokedLot.dispositionId, justification: 'Chipped edges found at kitting' })
-    .expect(201);
-  issuedNumbers = [...revokedLot.documents, ...rejected.body.documents].map((d: { number: string }) => d.number);
+  const rejected = await rejectAfterAcceptance(revokedLot);
+  issuedNumbers = [...revokedLot.documents, ...rejected].map((d) => d.number);
 });
 
 async function finished(id: number): Promise<ExportJobView> {

@@ -1,0 +1,82 @@
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { AuditEventView } from '@shared/schemas/audit';
+import type { VerificationResult } from '@shared/schemas/certificates';
+import type { ExportFilter, ExportJobView } from '@shared/schemas/exports';
+import type { ListResponse } from '@shared/schemas/paging';
+import { api } from '@/lib/api';
+
+export type Query = Record<string, string | number | undefined>;
+
+export type IssuedDocument = {
+  id: number;
+  number: string;
+  kind: 'certificate' | 'inspection-report';
+  dataHash: string;
+  pdfSha256: string;
+  issuedAt: string;
+  revokedAt: string | null;
+  lot: { id: number; supplierLot: string };
+  part: { id: number; number: string; description: string };
+  supplier: { id: number; name: string };
+  decision: 'accept' | 'reject' | 'use-as-is';
+  signer: string;
+};
+
+export type ChainReport = { intact: boolean; checked: number; problems: { id: string; problem: 'content changed' | 'link broken' }[] };
+
+type SupplierOption = { id: number; name: string };
+type PartOption = { id: number; number: string; description: string };
+
+export const auditKeys = {
+  all: ['audit'] as const,
+  documents: (query: Query) => [...auditKeys.all, 'documents', query] as const,
+  events: (query: Query) => [...auditKeys.all, 'events', query] as const,
+  exports: () => [...auditKeys.all, 'exports'] as const,
+  exportJob: (id: number) => [...auditKeys.all, 'exports', id] as const,
+  suppliers: () => [...auditKeys.all, 'supplier-options'] as const,
+  parts: () => [...auditKeys.all, 'part-options'] as const,
+  verification: (number: string, hash: string) => ['verification', number, hash] as const,
+};
+
+export const useDocuments = (query: Query) =>
+  useQuery({ queryKey: auditKeys.documents(query), queryFn: () => api<ListResponse<IssuedDocument>>('/certificates', { query }), placeholderData: keepPreviousData });
+
+export const useAuditEvents = (query: Query) =>
+  useQuery({ queryKey: auditKeys.events(query), queryFn: () => api<ListResponse<AuditEventView>>('/audit', { query }), placeholderData: keepPreviousData });
+
+export const useVerifyChain = () => useMutation({ mutationFn: () => api<ChainReport>('/audit/verify') });
+
+export const useExportJobs = () => useQuery({ queryKey: auditKeys.exports(), queryFn: () => api<ListResponse<ExportJobView>>('/exports') });
+
+const unfinished = (job?: ExportJobView) => job?.status === 'queued' || job?.status === 'running';
+
+/** One job, polled while it is still being built. */
+export const useExportJob = (job: ExportJobView) =>
+  useQuery({
+    queryKey: auditKeys.exportJob(job.id),
+    queryFn: () => api<ExportJobView>(`/exports/${job.id}`),
+    initialData: job,
+    refetchInterval: (query) => (unfinished(query.state.data) ? 500 : false),
+  });
+
+export function useStartExport() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (filter: ExportFilter) => api<ExportJobView>('/exports', { body: filter }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: auditKeys.exports() }),
+  });
+}
+
+export const useSupplierOptions = () =>
+  useQuery({ queryKey: auditKeys.suppliers(), queryFn: () => api<ListResponse<SupplierOption>>('/suppliers', { query: { pageSize: 500, sort: 'name' } }) });
+
+export const usePartOptions = () =>
+  useQuery({ queryKey: auditKeys.parts(), queryFn: () => api<ListResponse<PartOption>>('/parts', { query: { pageSize: 500, sort: 'number' } }) });
+
+export const useVerification = (number: string, hash: string) =>
+  useQuery({
+    queryKey: auditKeys.verification(number, hash),
+    queryFn: () => api<VerificationResult>('/certificates/verify', { query: { number, hash } }),
+    enabled: Boolean(number && hash),
+    retry: false,
+  });
