@@ -4,36 +4,38 @@
 import { spawn } from 'node:child_process';
 import { rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import { ensureCluster, ensureDatabase, databaseUrl } from './lib/postgres';
+import { ensureCluster, ensureDatabase, databaseUrl, dropDatabase, otherDatabasesInUse } from './lib/postgres';
 import { buildClientIfStale } from './lib/client-build';
 
 const root = resolve(import.meta.dirname, '..');
 const DB_PORT = 54871;
-const SMTP_PORT = 2526;
+// Each run has its own database, catcher port and folders, so two runs never disturb each other.
+const runId = `${process.pid}`;
+const database = `phaselot_test_${runId}`;
 
 const cluster = ensureCluster('pg-test', DB_PORT);
-await ensureDatabase(DB_PORT, 'phaselot_test', { recreate: true });
+await ensureDatabase(DB_PORT, database, { recreate: true });
 
-const mailDir = join(root, '.data', 'test-mail');
-rmSync(mailDir, { recursive: true, force: true });
+const runDir = join(root, '.data', 'test-runs', runId);
+rmSync(runDir, { recursive: true, force: true });
+const mailDir = join(runDir, 'mail');
+const { startMailCatcher } = await import('../server/mail/catcher');
+const catcher = await startMailCatcher({ port: 0, dir: mailDir });
 Object.assign(process.env, {
   NODE_ENV: 'test',
-  DATABASE_URL: databaseUrl(DB_PORT, 'phaselot_test'),
-  SMTP_URL: `smtp://127.0.0.1:${SMTP_PORT}`,
+  DATABASE_URL: databaseUrl(DB_PORT, database),
+  SMTP_URL: `smtp://127.0.0.1:${catcher.port}`,
   MAIL_CATCHER_DIR: mailDir,
-  UPLOAD_DIR: join(root, '.data', 'test-uploads'),
-  TEST_SMTP_PORT: String(SMTP_PORT),
+  UPLOAD_DIR: join(runDir, 'uploads'),
 });
 
 const { sequelize } = await import('../db');
 const { migrate } = await import('../db/migrator');
 const { seedDemo } = await import('../db/seeders/demo');
-const { startMailCatcher } = await import('../server/mail/catcher');
 
 await migrate(sequelize);
 await seedDemo();
 await sequelize.close();
-const catcher = await startMailCatcher({ port: SMTP_PORT, dir: mailDir });
 console.log(`phaselot: client ${await buildClientIfStale()}`);
 
 // Spawned, not run synchronously: the catcher in this process must keep answering meanwhile.
@@ -41,5 +43,8 @@ const vitest = spawn(join(root, 'node_modules/.bin/vitest'), ['run', ...process.
 const exitCode = await new Promise<number>((done) => vitest.on('exit', (code) => done(code ?? 1)));
 
 await catcher.close();
-cluster.stop();
+await dropDatabase(DB_PORT, database);
+rmSync(runDir, { recursive: true, force: true });
+// Another run may still be using the shared test cluster; the last one out stops it.
+if (!(await otherDatabasesInUse(DB_PORT, database))) cluster.stop();
 process.exit(exitCode);

@@ -87,14 +87,32 @@ export function databaseUrl(port: number, database: string): string {
   return `postgres://phaselot@127.0.0.1:${port}/${database}`;
 }
 
-export async function ensureDatabase(port: number, database: string, options: { recreate?: boolean } = {}) {
-  const client = new pg.Client({ connectionString: databaseUrl(port, 'postgres') });
-  await client.connect();
-  try {
+export function ensureDatabase(port: number, database: string, options: { recreate?: boolean } = {}) {
+  return withAdmin(port, async (client) => {
     if (options.recreate) await client.query(`DROP DATABASE IF EXISTS "${database}" WITH (FORCE)`);
     const found = await client.query('SELECT 1 FROM pg_database WHERE datname = $1', [database]);
     if (found.rowCount === 0) await client.query(`CREATE DATABASE "${database}"`);
+  });
+}
+
+async function withAdmin<T>(port: number, work: (client: pg.Client) => Promise<T>) {
+  const client = new pg.Client({ connectionString: databaseUrl(port, 'postgres') });
+  await client.connect();
+  try {
+    return await work(client);
   } finally {
     await client.end();
   }
+}
+
+export function dropDatabase(port: number, database: string) {
+  return withAdmin(port, (client) => client.query(`DROP DATABASE IF EXISTS "${database}" WITH (FORCE)`));
+}
+
+/** Whether anyone is connected to a database of this cluster other than `database`. */
+export function otherDatabasesInUse(port: number, database: string) {
+  return withAdmin(port, async (client) => {
+    const { rowCount } = await client.query("SELECT 1 FROM pg_stat_activity WHERE datname LIKE 'phaselot_test_%' AND datname <> $1", [database]);
+    return (rowCount ?? 0) > 0;
+  });
 }

@@ -34,8 +34,10 @@ export function startMailCatcher(options: { port: number; dir: string; host?: st
   return new Promise((resolve, reject) => {
     server.once('error', reject);
     server.listen(options.port, options.host ?? '127.0.0.1', () => {
+      const address = server.server.address();
       resolve({
-        port: options.port,
+        // Port 0 asks the system for a free one; this is the one it gave.
+        port: typeof address === 'object' && address ? address.port : options.port,
         dir: options.dir,
         close: () => new Promise<void>((done) => server.close(() => done())),
       });

@@ -10,10 +10,14 @@ import { startMailCatcher } from './catcher';
 import { readCaughtMail } from './caughtMail';
 import { deliverDueMail, queueMail, retryDelayMs } from './outbox';
 
-const PORT = 2597;
 
 describe('mail outbox', () => {
   it('keeps a message while the relay is down and delivers it exactly once when it is back', async () => {
+    // A port that was free a moment ago stands for the relay that is down.
+    const dir = mkdtempSync(join(tmpdir(), 'phaselot-catcher-'));
+    const probe = await startMailCatcher({ port: 0, dir });
+    await probe.close();
+    const PORT = probe.port;
     const relay = nodemailer.createTransport(`smtp://127.0.0.1:${PORT}`);
     const queued = await inTransaction((t) =>
       queueMail(
@@ -36,7 +40,6 @@ describe('mail outbox', () => {
     expect(queued.lastError).toMatch(/ECONNREFUSED/);
     expect(queued.nextAttemptAt.getTime()).toBeGreaterThan(Date.now());
 
-    const dir = mkdtempSync(join(tmpdir(), 'phaselot-catcher-'));
     const catcher = await startMailCatcher({ port: PORT, dir });
     try {
       await deliverDueMail(relay); // not due yet: nothing sent

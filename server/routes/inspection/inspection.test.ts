@@ -139,9 +139,9 @@ describe('inspection of a lot through the API', () => {
 
     // The catcher of this test receives it once the worker runs.
     const dir = mkdtempSync(join(tmpdir(), 'phaselot-reject-'));
-    const catcher = await startMailCatcher({ port: 2598, dir });
+    const catcher = await startMailCatcher({ port: 0, dir });
     try {
-      await deliverDueMail(nodemailer.createTransport('smtp://127.0.0.1:2598'));
+      await deliverDueMail(nodemailer.createTransport(`smtp://127.0.0.1:${catcher.port}`));
       const caught = (await readCaughtMail(dir)).find((m) => m.subject.includes(`supplier lot SL-`));
       expect(caught?.to).toBe('buyer@phaselot.test');
       expect(caught?.attachments[0]).toMatchObject({ contentType: 'application/pdf' });
