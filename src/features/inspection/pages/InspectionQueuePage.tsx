@@ -23,7 +23,7 @@ export function InspectionQueuePage() {
           <tbody>
             {rows.map((r) => (
               <tr key={r.lotId} className="border-t border-paper-line/70 align-top hover:bg-paper">
-                <td className="px-2.5 py-1 font-mono"><Link to={`/inspection/lots/${r.lotId}`}>L-{r.lotId}</Link></td>
+                <td className="px-2.5 py-1 font-mono whitespace-nowrap"><Link to={`/inspection/lots/${r.lotId}`}>L-{r.lotId}</Link></td>
                 <td className="px-2.5 py-1"><span className="font-mono">{r.part.number}</span><span className="block text-xs text-ink-muted">{r.part.description}</span></td>
                 <td className="px-2.5 py-1">{r.supplier}<span className="block font-mono text-xs text-ink-muted">{r.supplierLot}</span></td>
                 <td className="px-2.5 py-1 text-right">{r.quantity}</td>
