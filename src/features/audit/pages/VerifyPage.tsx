@@ -3,6 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useSearchParams } from 'react-router';
 import type { z } from 'zod';
 import { verifyQuerySchema } from '@shared/schemas/certificates';
+import { BrandMark } from '@/components/BrandMark';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
@@ -22,12 +23,9 @@ export function VerifyPage() {
 
   return (
     <div className="min-h-screen">
-      <header className="bg-frame px-6 py-4 text-white">
-        <div className="mx-auto flex max-w-2xl items-center gap-2">
-          <span aria-hidden className="relative h-6 w-6 rounded-full bg-frame-deep ring-2 ring-signal">
-            <span className="absolute inset-x-1 top-1/2 h-0.5 -translate-y-1/2 bg-signal" />
-          </span>
-          <span className="text-lg font-semibold tracking-wide">Phaselot</span>
+      <header className="bg-frame py-4 text-white">
+        <div className="mx-auto flex max-w-2xl items-center gap-2 px-6">
+          <BrandMark />
           <span className="ml-2 text-sm text-white/70">Document verification</span>
         </div>
       </header>
