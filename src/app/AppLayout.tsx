@@ -3,6 +3,7 @@ import { LogOut } from 'lucide-react';
 import { can } from '@shared/policies';
 import { ROLE_LABELS } from '@shared/schemas/roles';
 import { useSession, useSignOut } from '@/features/auth/api/session';
+import { BrandMark } from '@/components/BrandMark';
 import { NAVIGATION } from './navigation';
 
 export function AppLayout() {
@@ -24,11 +25,8 @@ export function AppLayout() {
   return (
     <div className="flex min-h-screen">
       <aside className="flex w-52 shrink-0 flex-col bg-frame text-white/90">
-        <div className="flex items-center gap-2 px-4 py-4">
-          <span aria-hidden className="relative h-6 w-6 rounded-full bg-frame-deep ring-2 ring-signal">
-            <span className="absolute inset-x-1 top-1/2 h-0.5 -translate-y-1/2 bg-signal" />
-          </span>
-          <span className="text-lg font-semibold tracking-wide">Phaselot</span>
+        <div className="px-4 py-4">
+          <BrandMark />
         </div>
         <nav aria-label="Main" className="flex-1 px-2">
           {groups.map((group) => {

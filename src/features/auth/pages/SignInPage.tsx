@@ -2,6 +2,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Navigate, useNavigate, useSearchParams } from 'react-router';
 import { loginSchema, type LoginInput } from '@shared/schemas/auth';
+import { BrandMark } from '@/components/BrandMark';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
@@ -22,12 +23,7 @@ export function SignInPage() {
   return (
     <div className="grid min-h-screen md:grid-cols-[minmax(0,5fr)_minmax(0,4fr)]">
       <section className="hidden flex-col justify-between bg-frame p-10 text-white md:flex">
-        <div className="flex items-center gap-2">
-          <span aria-hidden className="relative h-7 w-7 rounded-full bg-frame-deep ring-2 ring-signal">
-            <span className="absolute inset-x-1 top-1/2 h-0.5 -translate-y-1/2 bg-signal" />
-          </span>
-          <span className="text-xl font-semibold tracking-wide">Phaselot</span>
-        </div>
+        <BrandMark />
         <div className="max-w-md">
           <p className="text-2xl leading-snug font-semibold">Every wave plate checked against its order before it goes into an instrument.</p>
           <p className="mt-3 text-sm text-white/70">Receiving, quarantine, polarimetric inspection, signed dispositions and serial traceability for retarder lots.</p>
