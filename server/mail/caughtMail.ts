@@ -2,16 +2,8 @@
 import { readdir, readFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { simpleParser, type AddressObject } from 'mailparser';
+import type { CaughtMessage } from '../../shared/schemas/mail';
 
-export type CaughtMessage = {
-  id: string;
-  receivedAt: string;
-  from: string;
-  to: string;
-  subject: string;
-  text: string;
-  attachments: { filename: string; contentType: string; size: number }[];
-};
 
 const addressText = (a: AddressObject | AddressObject[] | undefined) =>
   (Array.isArray(a) ? a : a ? [a] : []).map((x) => x.text).join(', ');

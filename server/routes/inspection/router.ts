@@ -1,4 +1,4 @@
-import { Router } from 'express';
+import { Router, type Request } from 'express';
 import multer from 'multer';
 import type { z } from 'zod';
 import { dispositionInputSchema, type DispositionInput } from '../../../shared/inspection/lotVerdict';
@@ -38,30 +38,23 @@ inspectionRouter.get('/lots/:id', authenticate, allow('lots.read'), validate({ p
   res.json(await lotInspectionView((req.valid.params as LotParams).id));
 });
 
-inspectionRouter.post(
-  '/lots/:id/measurements/preview',
-  authenticate,
-  allow('inspection.perform'),
-  upload.array('files'),
-  validate({ params: lotIdParams, body: measurementUploadSchema }),
-  async (req, res) => {
-    const { instrumentId } = req.valid.body as z.infer<typeof measurementUploadSchema>;
-    res.json(await previewMeasurements((req.valid.params as LotParams).id, csvFiles(req.files as Express.Multer.File[]), instrumentId));
-  },
-);
+/** The middleware both measurement routes share: inspectors only, the files, the lot and the instrument. */
+const measurementUpload = [authenticate, allow('inspection.perform'), upload.array('files'), validate({ params: lotIdParams, body: measurementUploadSchema })];
 
-inspectionRouter.post(
-  '/lots/:id/measurements',
-  authenticate,
-  allow('inspection.perform'),
-  upload.array('files'),
-  validate({ params: lotIdParams, body: measurementUploadSchema }),
-  async (req, res) => {
-    const { instrumentId } = req.valid.body as z.infer<typeof measurementUploadSchema>;
-    const actor = { ...actorOf(req), id: req.user!.id };
-    res.status(201).json(await commitMeasurements(actor, (req.valid.params as LotParams).id, csvFiles(req.files as Express.Multer.File[]), instrumentId));
-  },
-);
+function uploadOf(req: Request) {
+  const { instrumentId } = req.valid.body as z.infer<typeof measurementUploadSchema>;
+  return { lotId: (req.valid.params as LotParams).id, files: csvFiles(req.files as Express.Multer.File[]), instrumentId };
+}
+
+inspectionRouter.post('/lots/:id/measurements/preview', ...measurementUpload, async (req, res) => {
+  const { lotId, files, instrumentId } = uploadOf(req);
+  res.json(await previewMeasurements(lotId, files, instrumentId));
+});
+
+inspectionRouter.post('/lots/:id/measurements', ...measurementUpload, async (req, res) => {
+  const { lotId, files, instrumentId } = uploadOf(req);
+  res.status(201).json(await commitMeasurements({ ...actorOf(req), id: req.user!.id }, lotId, files, instrumentId));
+});
 
 inspectionRouter.post(
   '/lots/:id/dispositions',

@@ -2,17 +2,9 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ListResponse } from '@shared/schemas/paging';
 import type { UserCreateInput, UserUpdateInput, UserView } from '@shared/schemas/users';
 import type { SiteSettings } from '@shared/schemas/settings';
+import type { CaughtMessage } from '@shared/schemas/mail';
 import { api } from '@/lib/api';
 
-type CaughtMessage = {
-  id: string;
-  receivedAt: string;
-  from: string;
-  to: string;
-  subject: string;
-  text: string;
-  attachments: { filename: string; contentType: string; size: number }[];
-};
 
 type OutboxEntry = {
   id: number;

@@ -30,6 +30,28 @@ function Panel({ title, children }: { title: string; children: React.ReactNode }
 }
 
 const axisStyle = { fontSize: 11, fill: '#5b645f' };
+const tooltip = <Tooltip formatter={(value) => Number(value).toFixed(4)} labelFormatter={() => ''} />;
+
+type ByPieceProps = { title: string; field: 'retardanceError' | 'axisError'; limit: number; span: number; digits: number; pass: Point[]; fail: Point[] };
+
+/** One error per measured piece against its ± tolerance band. */
+function ByPieceChart({ title, field, limit, span, digits, pass, fail }: ByPieceProps) {
+  return (
+    <Panel title={title}>
+      <ResponsiveContainer>
+        <ScatterChart margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
+          <CartesianGrid stroke="#eceae2" />
+          <XAxis dataKey="index" type="number" name="piece" tick={axisStyle} allowDecimals={false} />
+          <YAxis dataKey={field} type="number" name={field} domain={[-span, span]} tick={axisStyle} tickFormatter={(v: number) => v.toFixed(digits)} width={52} />
+          <ReferenceArea y1={-limit} y2={limit} fill={BAND} fillOpacity={0.08} stroke={BAND} strokeOpacity={0.4} />
+          {tooltip}
+          <Scatter data={pass} fill={PASS} name="pass" />
+          <Scatter data={fail} fill={FAIL} name="fail" shape="diamond" />
+        </ScatterChart>
+      </ResponsiveContainer>
+    </Panel>
+  );
+}
 
 export function ResultCharts({ view }: { view: LotInspectionView }) {
   const points = pointsOf(view);
@@ -41,35 +63,10 @@ export function ResultCharts({ view }: { view: LotInspectionView }) {
   const span = (values: number[], limit: number) => Math.max(limit * 1.6, ...values.map((v) => Math.abs(v) * 1.15));
   const rSpan = span(points.map((p) => p.retardanceError), tol);
   const aSpan = span(points.map((p) => p.axisError), axisTol);
-  const tooltip = <Tooltip formatter={(value) => Number(value).toFixed(4)} labelFormatter={() => ''} />;
   return (
     <div className="grid gap-3 lg:grid-cols-3" data-testid="result-charts">
-      <Panel title={`Retardance error (λ) by piece, tolerance ±${tol} λ`}>
-        <ResponsiveContainer>
-          <ScatterChart margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
-            <CartesianGrid stroke="#eceae2" />
-            <XAxis dataKey="index" type="number" name="piece" tick={axisStyle} allowDecimals={false} />
-            <YAxis dataKey="retardanceError" type="number" name="error λ" domain={[-rSpan, rSpan]} tick={axisStyle} tickFormatter={(v: number) => v.toFixed(3)} width={52} />
-            <ReferenceArea y1={-tol} y2={tol} fill={BAND} fillOpacity={0.08} stroke={BAND} strokeOpacity={0.4} />
-            {tooltip}
-            <Scatter data={pass} fill={PASS} name="pass" />
-            <Scatter data={fail} fill={FAIL} name="fail" shape="diamond" />
-          </ScatterChart>
-        </ResponsiveContainer>
-      </Panel>
-      <Panel title={`Fast-axis error (°) by piece, tolerance ±${axisTol}°`}>
-        <ResponsiveContainer>
-          <ScatterChart margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
-            <CartesianGrid stroke="#eceae2" />
-            <XAxis dataKey="index" type="number" name="piece" tick={axisStyle} allowDecimals={false} />
-            <YAxis dataKey="axisError" type="number" name="axis °" domain={[-aSpan, aSpan]} tick={axisStyle} tickFormatter={(v: number) => v.toFixed(2)} width={44} />
-            <ReferenceArea y1={-axisTol} y2={axisTol} fill={BAND} fillOpacity={0.08} stroke={BAND} strokeOpacity={0.4} />
-            {tooltip}
-            <Scatter data={pass} fill={PASS} />
-            <Scatter data={fail} fill={FAIL} shape="diamond" />
-          </ScatterChart>
-        </ResponsiveContainer>
-      </Panel>
+      <ByPieceChart title={`Retardance error (λ) by piece, tolerance ±${tol} λ`} field="retardanceError" limit={tol} span={rSpan} digits={3} pass={pass} fail={fail} />
+      <ByPieceChart title={`Fast-axis error (°) by piece, tolerance ±${axisTol}°`} field="axisError" limit={axisTol} span={aSpan} digits={2} pass={pass} fail={fail} />
       <Panel title="Tolerance box: retardance error (λ) × axis error (°)">
         <ResponsiveContainer>
           <ScatterChart margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
