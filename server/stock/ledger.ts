@@ -90,8 +90,11 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
     }
   }
 
+  // One time for the whole move, so the pieces moved together read as one event.
+  const movedAt = new Date();
   const moves = await StockMove.bulkCreate(
     pieces.map((p) => ({
+      movedAt,
       pieceId: p.id,
       fromLocationId: p.locationId,
       toLocationId: destination?.id ?? null,
@@ -129,10 +132,10 @@ export async function releasePiecesToLocation(pieceIds: number[], locationId: nu
   return movePieces({ pieceIds, toLocationId: locationId, reason: 'release', fromStates: ['quarantine', 'held'] }, actor, transaction);
 }
 
-/** First ledger rows of newly received pieces: they arrive in `locationId` (normally quarantine). */
-export async function recordReceipt(pieceIds: number[], locationId: number, actor: AuditActor, transaction: Transaction) {
+/** First ledger rows of newly received pieces: they arrive in `locationId` (normally quarantine) at `movedAt`. */
+export async function recordReceipt(pieceIds: number[], locationId: number, movedAt: Date, actor: AuditActor, transaction: Transaction) {
   return StockMove.bulkCreate(
-    pieceIds.map((pieceId) => ({ pieceId, fromLocationId: null, toLocationId: locationId, reason: 'receipt' as const, workOrder: null, note: null, actorId: actor.id })),
+    pieceIds.map((pieceId) => ({ pieceId, fromLocationId: null, toLocationId: locationId, reason: 'receipt' as const, workOrder: null, note: null, actorId: actor.id, movedAt })),
     { transaction },
   );
 }

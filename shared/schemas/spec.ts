@@ -30,6 +30,8 @@ const blankToUndefined = (value: unknown) =>
 const positive = (label: string, max: number) =>
   z.coerce.number({ error: `${label} must be a number` }).positive(`${label} must be greater than 0`).max(max, `${label} is at most ${max}`);
 
+const optionalPositive = (label: string) => z.preprocess(blankToUndefined, positive(label, 20_000).optional());
+
 const optionalFraction = z.preprocess(blankToUndefined, z.coerce.number().min(0, 'At least 0').max(1, 'At most 1').optional());
 
 export const partSpecSchema = z
@@ -40,10 +42,8 @@ export const partSpecSchema = z
     axisTolDeg: positive('Axis tolerance', 45),
     construction: z.enum(CONSTRUCTIONS),
     multiOrder: z.preprocess(blankToUndefined, z.coerce.number().int('The order is a whole number').min(1, 'The order is at least 1').max(500).optional()),
-    bandNm: z.preprocess(
-      (value) => (Array.isArray(value) && value.every((v) => blankToUndefined(v) === undefined) ? undefined : value),
-      z.tuple([positive('Band start', 20_000), positive('Band end', 20_000)]).optional(),
-    ),
+    // Each end may be blank in a form; the construction check below asks for both when they matter.
+    bandNm: z.tuple([optionalPositive('Band start'), optionalPositive('Band end')]).optional(),
     material: z.enum(MATERIALS),
     clearApertureMm: positive('Clear aperture', 1000),
     diameterMm: positive('Diameter', 1000),
@@ -56,9 +56,12 @@ export const partSpecSchema = z
       ctx.addIssue({ code: 'custom', path: ['multiOrder'], message: 'A multi-order plate needs its order' });
     }
     if (spec.construction === 'achromatic') {
-      if (!spec.bandNm) ctx.addIssue({ code: 'custom', path: ['bandNm'], message: 'An achromatic plate needs its band' });
-      else if (spec.bandNm[0] >= spec.bandNm[1]) ctx.addIssue({ code: 'custom', path: ['bandNm', 1], message: 'The band must end above where it starts' });
-      else if (spec.designWavelengthNm < spec.bandNm[0] || spec.designWavelengthNm > spec.bandNm[1]) {
+      const [from, to] = spec.bandNm ?? [];
+      if (from === undefined) ctx.addIssue({ code: 'custom', path: ['bandNm', 0], message: 'An achromatic plate needs its band' });
+      if (to === undefined) ctx.addIssue({ code: 'custom', path: ['bandNm', 1], message: 'An achromatic plate needs its band' });
+      if (from === undefined || to === undefined) return;
+      if (from >= to) ctx.addIssue({ code: 'custom', path: ['bandNm', 1], message: 'The band must end above where it starts' });
+      else if (spec.designWavelengthNm < from || spec.designWavelengthNm > to) {
         ctx.addIssue({ code: 'custom', path: ['designWavelengthNm'], message: 'The design wavelength must lie inside the band' });
       }
     }
@@ -70,7 +73,8 @@ export const partSpecSchema = z
   .transform(({ multiOrder, bandNm, ...spec }): PartSpec => ({
     ...spec,
     ...(spec.construction === 'multi-order' ? { multiOrder } : {}),
-    ...(spec.construction === 'achromatic' ? { bandNm } : {}),
+    // The refinement above has made sure both ends are there.
+    ...(spec.construction === 'achromatic' ? { bandNm: bandNm as [number, number] } : {}),
   }));
 
 export type PartSpecInput = z.input<typeof partSpecSchema>;

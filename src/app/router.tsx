@@ -1,4 +1,4 @@
-import { createBrowserRouter } from 'react-router';
+import { createBrowserRouter, Navigate } from 'react-router';
 import { AppLayout } from './AppLayout';
 import { RequirePermission } from './RequirePermission';
 import { SignInPage } from '@/features/auth/pages/SignInPage';
@@ -13,6 +13,19 @@ import { CertificatesPage } from '@/features/audit/pages/CertificatesPage';
 import { ExportsPage } from '@/features/audit/pages/ExportsPage';
 import { AuditTrailPage } from '@/features/audit/pages/AuditTrailPage';
 import { VerifyPage } from '@/features/audit/pages/VerifyPage';
+import { PurchaseOrdersPage } from '@/features/purchasing/pages/PurchaseOrdersPage';
+import { PurchaseOrderPage } from '@/features/purchasing/pages/PurchaseOrderPage';
+import { PartsPage } from '@/features/purchasing/pages/PartsPage';
+import { PartPage } from '@/features/purchasing/pages/PartPage';
+import { SuppliersPage } from '@/features/purchasing/pages/SuppliersPage';
+import { ShipmentsPage } from '@/features/receiving/pages/ShipmentsPage';
+import { ReceivePage } from '@/features/receiving/pages/ReceivePage';
+import { LotsPage } from '@/features/receiving/pages/LotsPage';
+import { LotPage } from '@/features/receiving/pages/LotPage';
+import { StockPage } from '@/features/stock/pages/StockPage';
+import { MovesPage } from '@/features/stock/pages/MovesPage';
+import { StockMovePage } from '@/features/stock/pages/StockMovePage';
+import { PiecePage } from '@/features/stock/pages/PiecePage';
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
@@ -21,6 +34,25 @@ export const router = createBrowserRouter([
     element: <AppLayout />,
     children: [
       { index: true, element: <OverviewPage /> },
+      { path: 'purchasing', element: <Navigate to="/purchasing/orders" replace /> },
+      { path: 'purchasing/orders', element: <PurchaseOrdersPage /> },
+      { path: 'purchasing/orders/new', element: <PurchaseOrderPage /> },
+      { path: 'purchasing/orders/:orderId', element: <PurchaseOrderPage /> },
+      { path: 'purchasing/orders/:orderId/edit', element: <PurchaseOrderPage editing /> },
+      { path: 'purchasing/parts', element: <PartsPage /> },
+      { path: 'purchasing/parts/:partId', element: <PartPage /> },
+      { path: 'purchasing/suppliers', element: <SuppliersPage /> },
+      { path: 'receiving', element: <ShipmentsPage /> },
+      { path: 'receiving/new', element: <ReceivePage /> },
+      { path: 'lots', element: <LotsPage /> },
+      { path: 'lots/:lotId', element: <LotPage /> },
+      { path: 'stock', element: <StockPage /> },
+      { path: 'stock/moves', element: <MovesPage /> },
+      { path: 'stock/issue', element: <StockMovePage key="issue" move="issue" /> },
+      { path: 'stock/transfer', element: <StockMovePage key="transfer" move="transfer" /> },
+      { path: 'stock/put-away', element: <StockMovePage key="put-away" move="put-away" /> },
+      { path: 'pieces', element: <PiecePage /> },
+      { path: 'pieces/:serial', element: <PiecePage /> },
       { path: 'inspection', element: <InspectionQueuePage /> },
       { path: 'inspection/lots/:lotId', element: <LotInspectionPage /> },
       { path: 'instruments', element: <InstrumentsPage /> },

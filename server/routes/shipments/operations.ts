@@ -34,6 +34,9 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
     throw badRequest(`The quantity is ${input.quantity} but ${source} give${source.startsWith('the serial file') ? 's' : ''} ${list.serials.length}`);
   }
   const documents = await checkDocuments({ 'packing-slip': files.packingSlip, certificate: files.certificate });
+  const receivedAt = input.receivedAt ? new Date(input.receivedAt) : new Date();
+  // A few minutes of grace for a clock that runs ahead of the server's.
+  if (receivedAt.getTime() > Date.now() + 5 * 60_000) throw badRequest('The receipt time lies in the future', [{ path: 'receivedAt', message: 'Not after now' }]);
 
   return inTransaction(async (transaction) => {
     // The line is locked so two clerks receiving against it at once count each other's receipts.
@@ -62,7 +65,7 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
 
     const quarantine = await defaultLocation('quarantine', transaction);
     const shipment = await Shipment.create(
-      { purchaseOrderId: order.id, packingSlip: input.packingSlipNumber, carrier: input.carrier, receivedAt: input.receivedAt ? new Date(input.receivedAt) : new Date(), receivedBy: actor.id },
+      { purchaseOrderId: order.id, packingSlip: input.packingSlipNumber, carrier: input.carrier, receivedAt, receivedBy: actor.id },
       { transaction },
     );
     const lot = await Lot.create(
@@ -70,7 +73,7 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
       { transaction },
     );
     const pieces = await Piece.bulkCreate(list.serials.map((serial) => ({ lotId: lot.id, partId: line.partId, serial })), { transaction });
-    await recordReceipt(pieces.map((p) => p.id), quarantine.id, actor, transaction);
+    await recordReceipt(pieces.map((p) => p.id), quarantine.id, shipment.receivedAt, actor, transaction);
     const attachments = await Attachment.bulkCreate(
       documents.map((d) => ({
         shipmentId: shipment.id,

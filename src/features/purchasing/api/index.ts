@@ -1,0 +1,42 @@
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { ListResponse } from '@shared/schemas/paging';
+import type { PartInput, PartView, PurchaseOrderInput, PurchaseOrderRow, PurchaseOrderView, SupplierInput, SupplierView } from '@shared/schemas/purchasing';
+import type { ListState } from '@/components/DataTable';
+import { api } from '@/lib/api';
+
+type Listed<T> = ListResponse<T> & { totals: Record<string, number> };
+type Filters = Record<string, string | number | undefined>;
+
+export const purchasingKeys = {
+  all: ['purchasing'] as const,
+  suppliers: (query: Filters) => [...purchasingKeys.all, 'suppliers', query] as const,
+  parts: (query: Filters) => [...purchasingKeys.all, 'parts', query] as const,
+  part: (id: number) => [...purchasingKeys.all, 'part', id] as const,
+  orders: (query: Filters) => [...purchasingKeys.all, 'orders', query] as const,
+  order: (id: number) => [...purchasingKeys.all, 'order', id] as const,
+};
+
+const listQuery = <T,>(key: readonly unknown[], path: string, query: Filters) =>
+  ({ queryKey: key, queryFn: () => api<Listed<T>>(path, { query }), placeholderData: keepPreviousData }) as const;
+
+export const useSuppliers = (query: ListState & Filters) => useQuery(listQuery<SupplierView>(purchasingKeys.suppliers(query), '/suppliers', query));
+export const useParts = (query: ListState & Filters) => useQuery(listQuery<PartView>(purchasingKeys.parts(query), '/parts', query));
+export const usePurchaseOrders = (query: ListState & Filters) => useQuery(listQuery<PurchaseOrderRow>(purchasingKeys.orders(query), '/purchase-orders', query));
+
+export const usePart = (id: number | undefined) =>
+  useQuery({ queryKey: purchasingKeys.part(id ?? 0), queryFn: () => api<PartView>(`/parts/${id}`), enabled: id !== undefined });
+export const usePurchaseOrder = (id: number | undefined) =>
+  useQuery({ queryKey: purchasingKeys.order(id ?? 0), queryFn: () => api<PurchaseOrderView>(`/purchase-orders/${id}`), enabled: id !== undefined });
+
+/** Creates (no id) or replaces (id) a record, then refreshes every purchasing list. */
+function useSave<Input, View>(path: string) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ id, input }: { id?: number; input: Input }) => api<View>(id ? `${path}/${id}` : path, { method: id ? 'PUT' : 'POST', body: input }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: purchasingKeys.all }),
+  });
+}
+
+export const useSaveSupplier = () => useSave<SupplierInput, SupplierView>('/suppliers');
+export const useSavePart = () => useSave<PartInput, PartView>('/parts');
+export const useSavePurchaseOrder = () => useSave<PurchaseOrderInput, PurchaseOrderView>('/purchase-orders');

@@ -1,0 +1,36 @@
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { ListResponse } from '@shared/schemas/paging';
+import type { OpenLineView } from '@shared/schemas/purchasing';
+import type { LotRow, LotView, ShipmentRow } from '@shared/schemas/receiving';
+import type { ListState } from '@/components/DataTable';
+import { api } from '@/lib/api';
+
+type Listed<T> = ListResponse<T> & { totals: Record<string, number> };
+type Filters = Record<string, string | number | undefined>;
+export type Receipt = { shipmentId: number; lotId: number; quantity: number; state: string };
+
+export const receivingKeys = {
+  all: ['receiving'] as const,
+  shipments: (query: Filters) => [...receivingKeys.all, 'shipments', query] as const,
+  openLines: () => [...receivingKeys.all, 'open-lines'] as const,
+  lots: (query: Filters) => [...receivingKeys.all, 'lots', query] as const,
+  lot: (id: number) => [...receivingKeys.all, 'lot', id] as const,
+};
+
+export const useShipments = (query: ListState & Filters) =>
+  useQuery({ queryKey: receivingKeys.shipments(query), queryFn: () => api<Listed<ShipmentRow & { lotIds: number[] }>>('/shipments', { query }), placeholderData: keepPreviousData });
+
+export const useLots = (query: ListState & Filters) =>
+  useQuery({ queryKey: receivingKeys.lots(query), queryFn: () => api<Listed<LotRow>>('/lots', { query }), placeholderData: keepPreviousData });
+
+export const useLot = (id: number) => useQuery({ queryKey: receivingKeys.lot(id), queryFn: () => api<LotView>(`/lots/${id}`) });
+
+export const useOpenLines = () => useQuery({ queryKey: receivingKeys.openLines(), queryFn: () => api<ListResponse<OpenLineView>>('/purchase-orders/open-lines') });
+
+export function useReceiveShipment() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (form: FormData) => api<Receipt>('/shipments', { body: form }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: receivingKeys.all }),
+  });
+}

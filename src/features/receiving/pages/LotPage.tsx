@@ -1,0 +1,116 @@
+import { Link, useParams, useSearchParams } from 'react-router';
+import { FileText } from 'lucide-react';
+import { can } from '@shared/policies';
+import { ATTACHMENT_KIND_LABELS } from '@shared/schemas/receiving';
+import { LOT_STATE_LABELS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, type PieceState } from '@shared/schemas/stock';
+import { Details, Panel } from '@/components/Details';
+import { HistoryList } from '@/components/HistoryList';
+import { Notice } from '@/components/Notice';
+import { PageHeader } from '@/components/PageHeader';
+import { SpecSummary } from '@/components/SpecSummary';
+import { StateBadge } from '@/components/StateBadge';
+import { useSession } from '@/features/auth/api/session';
+import { useLot } from '../api';
+import { LotPieces } from '../components/LotPieces';
+
+const kilobytes = (bytes: number) => (bytes < 1024 * 1024 ? `${Math.max(1, Math.round(bytes / 1024))} kB` : `${(bytes / 1024 / 1024).toFixed(1)} MB`);
+
+export function LotPage() {
+  const lotId = Number(useParams().lotId);
+  const [params] = useSearchParams();
+  const lot = useLot(lotId);
+  const { data: user } = useSession();
+  if (lot.error) return <Notice tone="error">{lot.error.message}</Notice>;
+  if (!lot.data) return <p className="text-ink-muted">Loading…</p>;
+  const l = lot.data;
+  const waiting = (l.pieceStates.quarantine ?? 0) + (l.pieceStates.held ?? 0);
+  const mayPutAway = can(user, 'stock.move') && RELEASABLE_LOT_STATES.includes(l.state) && waiting > 0;
+  return (
+    <div className="max-w-6xl space-y-3">
+      <PageHeader
+        title={`Lot L-${l.id}`}
+        subtitle={
+          <>
+            {l.part.number} · {l.part.description} · supplier lot <span className="font-mono">{l.supplierLot}</span>
+          </>
+        }
+        actions={
+          <div className="flex items-center gap-2">
+            <StateBadge state={l.state} label={LOT_STATE_LABELS[l.state]} />
+            <Link to={`/inspection/lots/${l.id}`} className="rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm text-ink no-underline hover:bg-paper-sunk">Inspection record</Link>
+            {mayPutAway && <Link to={`/stock/put-away?lot=${l.id}`} className="rounded bg-frame px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-frame-deep">Put away in stock</Link>}
+          </div>
+        }
+      />
+      {params.get('received') && (
+        <Notice tone="info" title="Received">
+          {l.quantity} pieces are in quarantine. They wait there until inspection decides the lot.
+        </Notice>
+      )}
+      <div className="grid gap-3 lg:grid-cols-3">
+        <div className="space-y-3 lg:col-span-2">
+          <Panel title="Order and receipt">
+            <Details
+              items={[
+                ['Supplier', l.purchaseOrder.supplier.name],
+                ['PO / line', <span key="po" className="font-mono">{l.purchaseOrder.number} / {l.line.lineNumber}</span>],
+                ['Line quantity', l.line.quantity],
+                ['Sampling', `Level ${l.line.inspectionLevel}, AQL ${l.line.aql}${l.line.hundredPercent ? ', 100 % inspection' : ''}`],
+                ['Packing slip', <span key="ps" className="font-mono">{l.shipment.packingSlip}</span>],
+                ['Carrier', l.shipment.carrier || '—'],
+                ['Received', new Date(l.shipment.receivedAt).toLocaleString()],
+                ['Received by', l.shipment.receivedBy],
+                ['Pieces', l.quantity],
+              ]}
+            />
+            {l.overReceiptReason && (
+              <div className="mt-3">
+                <Notice tone="caution" title="More than the line expected">{l.overReceiptReason}</Notice>
+              </div>
+            )}
+          </Panel>
+          <Panel title="Specification as ordered">
+            <SpecSummary spec={l.line.spec} />
+          </Panel>
+          <Panel
+            title="Pieces"
+            actions={
+              <span className="flex gap-1.5">
+                {(Object.entries(l.pieceStates) as [PieceState, number][]).map(([state, count]) => (
+                  <StateBadge key={state} state={state} label={`${count} ${PIECE_STATE_LABELS[state]}`} />
+                ))}
+              </span>
+            }
+          >
+            <LotPieces pieces={l.pieces} />
+          </Panel>
+        </div>
+        <div className="space-y-3">
+          <Panel title="Attachments">
+            {l.attachments.length === 0 ? (
+              <p className="text-sm text-ink-faint">No documents came with this shipment.</p>
+            ) : (
+              <ul className="space-y-2">
+                {l.attachments.map((a) => (
+                  <li key={a.id} className="flex gap-2 text-sm">
+                    <FileText className="mt-0.5 h-4 w-4 shrink-0 text-ink-muted" aria-hidden />
+                    <div className="min-w-0">
+                      <a href={`/api/attachments/${a.id}`} target="_blank" rel="noreferrer" className="break-all">{a.name}</a>
+                      <p className="text-2xs text-ink-faint">
+                        {ATTACHMENT_KIND_LABELS[a.kind]} · {a.mediaType.replace(/^.*\//, '').toUpperCase()} · {kilobytes(a.sizeBytes)}
+                      </p>
+                      <p className="font-mono text-2xs break-all text-ink-faint" title="SHA-256 of the stored file">SHA-256 {a.sha256}</p>
+                    </div>
+                  </li>
+                ))}
+              </ul>
+            )}
+          </Panel>
+          <Panel title="History">
+            <HistoryList entries={l.history} />
+          </Panel>
+        </div>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,76 @@
+import { useState, type FormEvent } from 'react';
+import { Link, useNavigate, useParams } from 'react-router';
+import { LOCATION_KIND_LABELS, LOT_STATE_LABELS, MOVE_REASON_LABELS, PIECE_STATE_LABELS } from '@shared/schemas/stock';
+import { Button } from '@/components/Button';
+import { Details, Panel } from '@/components/Details';
+import { inputClass } from '@/components/Field';
+import { HistoryList } from '@/components/HistoryList';
+import { Notice } from '@/components/Notice';
+import { PageHeader } from '@/components/PageHeader';
+import { StateBadge } from '@/components/StateBadge';
+import { usePieceHistory } from '../api';
+import { StockTabs } from '../components/StockTabs';
+
+/** The whole story of one serial: where it came from and every place it has been. */
+export function PiecePage() {
+  const serial = useParams().serial ?? '';
+  const navigate = useNavigate();
+  const [text, setText] = useState(serial);
+  const history = usePieceHistory(serial);
+  const find = (event: FormEvent) => {
+    event.preventDefault();
+    if (text.trim()) navigate(`/pieces/${encodeURIComponent(text.trim())}`);
+  };
+  return (
+    <div className="max-w-5xl space-y-3">
+      <PageHeader title={serial ? `Serial ${serial}` : 'Find a serial'} subtitle="From the supplier through the lot and its decision to where the piece is now." />
+      <StockTabs />
+      <form onSubmit={find} role="search" className="flex gap-2">
+        <input aria-label="Serial number" value={text} onChange={(e) => setText(e.target.value)} placeholder="Serial number, e.g. QW-0007" className={`${inputClass} w-72 font-mono`} />
+        <Button type="submit" look="secondary">Find</Button>
+      </form>
+      {history.error && <Notice tone="error">{history.error.message}</Notice>}
+      {history.data?.data.map((piece) => (
+        <div key={piece.id} className="space-y-3">
+          {history.data.total > 1 && <h2 className="pt-2">{piece.part.number}</h2>}
+          <Panel title="Piece" actions={<StateBadge state={piece.state} label={PIECE_STATE_LABELS[piece.state]} />}>
+            <Details
+              columns={4}
+              items={[
+                ['Part', <Link key="p" to={`/purchasing/parts/${piece.part.id}`}>{piece.part.number}</Link>],
+                ['Supplier', piece.supplier.name],
+                ['PO / line', <span key="po" className="font-mono">{piece.purchaseOrder.number} / {piece.purchaseOrder.lineNumber}</span>],
+                ['Lot', <Link key="l" to={`/lots/${piece.lot.id}`} className="font-mono">L-{piece.lot.id}</Link>],
+                ['Supplier lot', <span key="sl" className="font-mono">{piece.lot.supplierLot}</span>],
+                ['Lot state', <Link key="ls" to={`/inspection/lots/${piece.lot.id}`} title="Readings, verdicts and the lot's decision">{LOT_STATE_LABELS[piece.lot.state]}</Link>],
+                ['Now at', piece.location ? `${piece.location.code} (${LOCATION_KIND_LABELS[piece.location.kind].toLowerCase()})` : 'issued out of stores'],
+              ]}
+            />
+          </Panel>
+          <div className="grid gap-3 lg:grid-cols-3">
+            <div className="lg:col-span-2">
+              <Panel title="Moves">
+                <ol className="space-y-1.5 text-sm">
+                  {piece.moves.map((m) => (
+                    <li key={m.id} className="grid grid-cols-[11rem_1fr] gap-2">
+                      <span className="text-xs whitespace-nowrap text-ink-muted">{new Date(m.at).toLocaleString()}</span>
+                      <span>
+                        <span className="font-medium">{MOVE_REASON_LABELS[m.reason]}</span>{' '}
+                        <span className="font-mono text-xs">{m.from ?? (m.reason === 'receipt' ? 'supplier' : 'work order')} → {m.to ?? `work order ${m.workOrder}`}</span>
+                        {m.who && <span className="text-xs text-ink-muted"> · {m.who}</span>}
+                        {m.note && <span className="block text-xs text-ink-muted">{m.note}</span>}
+                      </span>
+                    </li>
+                  ))}
+                </ol>
+              </Panel>
+            </div>
+            <Panel title="Lot decisions">
+              <HistoryList entries={piece.history} />
+            </Panel>
+          </div>
+        </div>
+      ))}
+    </div>
+  );
+}
