@@ -1,30 +1,36 @@
 // Above a server-side list: the search box, the list's filters, what the filter totals, and the CSV
 // export of exactly what the filter shows.
-import { useEffect, useState, type ReactNode } from 'react';
+import { useEffect, useRef, useState, type ReactNode } from 'react';
 import { Download, Search } from 'lucide-react';
 import { apiUrl } from '@/lib/api';
+import type { ListState } from './DataTable';
 import { inputClass } from './Field';
 
 type Props = {
-  q?: string;
-  onSearch: (q: string | undefined) => void;
+  /** The list's state and its updater, as useListState gives them. */
+  list: { state: ListState; update: (patch: Partial<ListState>) => void };
+  /** The list's own filters, sent along with the export. */
+  filters?: Record<string, string | undefined>;
   placeholder: string;
-  /** The list's endpoint and filters, for the export link. */
+  /** The list's endpoint, for the export link. */
   exportPath: string;
-  exportQuery: Record<string, string | number | undefined>;
   summary?: ReactNode;
   children?: ReactNode;
 };
 
-export function ListToolbar({ q, onSearch, placeholder, exportPath, exportQuery, summary, children }: Props) {
+export function ListToolbar({ list, filters, placeholder, exportPath, summary, children }: Props) {
+  const { q, sort } = list.state;
+  // The updater changes with every render; the pending search always uses the latest one.
+  const update = useRef(list.update);
+  update.current = list.update;
   const [text, setText] = useState(q ?? '');
   useEffect(() => setText(q ?? ''), [q]);
   // Typing settles for a moment before the list is asked again.
   useEffect(() => {
-    if (text === (q ?? '')) return;
-    const timer = setTimeout(() => onSearch(text.trim() || undefined), 300);
+    if (text.trim() === (q ?? '')) return;
+    const timer = setTimeout(() => update.current({ q: text.trim() || undefined }), 300);
     return () => clearTimeout(timer);
-  }, [text, q, onSearch]);
+  }, [text, q]);
   return (
     <div className="mb-2 flex flex-wrap items-end gap-3">
       <label className="relative">
@@ -35,7 +41,7 @@ export function ListToolbar({ q, onSearch, placeholder, exportPath, exportQuery,
       {children}
       <div className="ml-auto flex items-center gap-3 text-xs text-ink-muted">
         {summary}
-        <a href={apiUrl(exportPath, { ...exportQuery, format: 'csv' })} className="inline-flex items-center gap-1 rounded border border-paper-line bg-paper-card px-2 py-1 text-ink no-underline hover:bg-paper-sunk" download>
+        <a href={apiUrl(exportPath, { q, sort, ...filters, format: 'csv' })} className="inline-flex items-center gap-1 rounded border border-paper-line bg-paper-card px-2 py-1 text-ink no-underline hover:bg-paper-sunk" download>
           <Download className="h-3.5 w-3.5" aria-hidden /> CSV
         </a>
       </div>

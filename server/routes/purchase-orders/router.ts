@@ -1,10 +1,9 @@
 import { Router } from 'express';
-import { openLinesQuerySchema, poListQuerySchema, purchaseOrderInputSchema, type PurchaseOrderInput } from '../../../shared/schemas/purchasing';
 import type { z } from 'zod';
-import { actorOf } from '../../audit/record';
+import { openLinesQuerySchema, poListQuerySchema, purchaseOrderInputSchema } from '../../../shared/schemas/purchasing';
 import { allow, authenticate } from '../../auth/authenticate';
 import { mountList } from '../../http/list';
-import { idParams, type IdParams } from '../../http/params';
+import { mountRecord } from '../../http/records';
 import { validate } from '../../http/validate';
 import { createPurchaseOrder, findPurchaseOrder, openLines, updatePurchaseOrder } from './operations';
 import { presentOpenLine, presentPurchaseOrder, purchaseOrderList } from './presenter';
@@ -18,20 +17,14 @@ purchaseOrdersRouter.get('/open-lines', authenticate, allow('catalog.read'), val
   res.json({ data: rows, total: rows.length });
 });
 
-purchaseOrdersRouter.get('/:id', authenticate, allow('catalog.read'), validate({ params: idParams }), async (req, res) => {
-  const { order, received } = await findPurchaseOrder((req.valid.params as IdParams).id);
-  res.json(presentPurchaseOrder(order, received));
-});
-
-purchaseOrdersRouter.post('/', authenticate, allow('catalog.write'), validate({ body: purchaseOrderInputSchema }), async (req, res) => {
-  const created = await createPurchaseOrder(actorOf(req), req.valid.body as PurchaseOrderInput);
-  const { order, received } = await findPurchaseOrder(created.id);
-  res.status(201).json(presentPurchaseOrder(order, received));
-});
-
-purchaseOrdersRouter.put('/:id', authenticate, allow('catalog.write'), validate({ params: idParams, body: purchaseOrderInputSchema }), async (req, res) => {
-  const { id } = req.valid.params as IdParams;
-  await updatePurchaseOrder(actorOf(req), id, req.valid.body as PurchaseOrderInput);
-  const { order, received } = await findPurchaseOrder(id);
-  res.json(presentPurchaseOrder(order, received));
+mountRecord(purchaseOrdersRouter, {
+  read: 'catalog.read',
+  write: 'catalog.write',
+  schema: purchaseOrderInputSchema,
+  view: async (id) => {
+    const { order, received } = await findPurchaseOrder(id);
+    return presentPurchaseOrder(order, received);
+  },
+  create: createPurchaseOrder,
+  update: updatePurchaseOrder,
 });

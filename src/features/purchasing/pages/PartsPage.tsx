@@ -44,7 +44,7 @@ export function PartsPage() {
         actions={can(user, 'catalog.write') && <Link to="/purchasing/parts/new" className="inline-flex items-center gap-1.5 rounded bg-frame px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-frame-deep"><Plus className="h-4 w-4" aria-hidden /> New part</Link>}
       />
       <PurchasingTabs />
-      <ListToolbar q={state.q} onSearch={(q) => update({ q })} placeholder="Search part, description, material" exportPath="/parts" exportQuery={{ q: state.q, sort: state.sort }} summary={counted(parts.data?.total ?? 0, 'part')} />
+      <ListToolbar list={{ state, update }} placeholder="Search part, description, material" exportPath="/parts" summary={counted(parts.data?.total ?? 0, 'part')} />
       {parts.error && <Notice tone="error">{parts.error.message}</Notice>}
       <DataTable columns={columns} data={parts.data?.data ?? []} total={parts.data?.total ?? 0} state={state} onChange={update} isLoading={parts.isPending} empty="No part matches." onRowClick={(p) => navigate(`/purchasing/parts/${p.id}`)} />
     </div>

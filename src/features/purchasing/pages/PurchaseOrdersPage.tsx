@@ -51,11 +51,10 @@ export function PurchaseOrdersPage() {
       />
       <PurchasingTabs />
       <ListToolbar
-        q={state.q}
-        onSearch={(q) => update({ q })}
+        list={{ state, update }}
+        filters={{ status }}
         placeholder="Search PO, supplier, notes"
         exportPath="/purchase-orders"
-        exportQuery={{ q: state.q, sort: state.sort, status }}
         summary={totals && `${counted(orders.data?.total ?? 0, 'PO')} · ${counted(totals.ordered, 'piece')} ordered · ${totals.received} received`}
       >
         <FilterSelect label="Status" value={status} onChange={(value) => update({ status: value })} options={PO_STATUSES.map((s) => ({ value: s, label: s === 'open' ? 'Open' : 'Closed' }))} />

@@ -45,11 +45,10 @@ export function SuppliersPage() {
       <PurchasingTabs />
       {editing && <SupplierForm key={editing === 'new' ? 'new' : editing.id} supplier={editing === 'new' ? undefined : editing} onDone={() => setEditing(null)} />}
       <ListToolbar
-        q={state.q}
-        onSearch={(q) => update({ q })}
+        list={{ state, update }}
+        filters={{ active }}
         placeholder="Search name, e-mail or owner"
         exportPath="/suppliers"
-        exportQuery={{ q: state.q, sort: state.sort, active }}
         summary={counted(suppliers.data?.total ?? 0, 'supplier')}
       >
         <FilterSelect label="Status" value={active} onChange={(value) => update({ active: value })} options={[{ value: 'true', label: 'Active' }, { value: 'false', label: 'Inactive' }]} />

@@ -7,6 +7,7 @@ import { DataTable, useListState } from '@/components/DataTable';
 import { FilterSelect, ListToolbar } from '@/components/ListToolbar';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
+import { PartLabel } from '@/components/PartLabel';
 import { StateBadge } from '@/components/StateBadge';
 import { counted } from '@/lib/plural';
 import { useLots } from '../api';
@@ -24,12 +25,7 @@ export function LotsPage() {
       column.accessor('state', { header: 'State', cell: ({ getValue }) => <StateBadge state={getValue()} label={LOT_STATE_LABELS[getValue()]} /> }),
       column.accessor('partNumber', {
         header: 'Part',
-        cell: ({ row }) => (
-          <>
-            <span className="font-mono">{row.original.partNumber}</span>
-            <span className="block text-xs text-ink-muted">{row.original.partDescription}</span>
-          </>
-        ),
+        cell: ({ row }) => <PartLabel number={row.original.partNumber} description={row.original.partDescription} />,
       }),
       column.accessor('supplierName', { header: 'Supplier' }),
       column.accessor('supplierLot', { header: 'Supplier lot', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
@@ -43,11 +39,10 @@ export function LotsPage() {
     <div>
       <PageHeader title="Lots" subtitle="Every lot received, with its state from quarantine to disposition. Search also finds a lot by one of its serials." />
       <ListToolbar
-        q={state.q}
-        onSearch={(q) => update({ q })}
+        list={{ state, update }}
+        filters={filters}
         placeholder="Lot, serial, part, supplier, PO"
         exportPath="/lots"
-        exportQuery={{ q: state.q, sort: state.sort, ...filters }}
         summary={lots.data && `${counted(lots.data.total, 'lot')} · ${counted(lots.data.totals.quantity, 'piece')}`}
       >
         <FilterSelect label="State" value={filters.state} onChange={(value) => update({ state: value })} options={LOT_STATES.map((s) => ({ value: s, label: LOT_STATE_LABELS[s] }))} />

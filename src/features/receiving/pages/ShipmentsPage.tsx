@@ -39,11 +39,9 @@ export function ShipmentsPage() {
       <PageHeader title="Receiving" subtitle="Shipments received against purchase orders, newest first." />
       <ReceivingTabs />
       <ListToolbar
-        q={state.q}
-        onSearch={(q) => update({ q })}
+        list={{ state, update }}
         placeholder="PO, supplier, packing slip, carrier"
         exportPath="/shipments"
-        exportQuery={{ q: state.q, sort: state.sort }}
         summary={shipments.data && `${counted(shipments.data.total, 'shipment')} · ${counted(shipments.data.totals.pieces, 'piece')}`}
       />
       {shipments.error && <Notice tone="error">{shipments.error.message}</Notice>}

@@ -43,11 +43,10 @@ export function MovesPage() {
       <PageHeader title="Stock" subtitle="The ledger of moves. On-hand is the sum of these rows; no row is ever changed or removed." />
       <StockTabs />
       <ListToolbar
-        q={state.q}
-        onSearch={(q) => update({ q })}
+        list={{ state, update }}
+        filters={filters}
         placeholder="Serial, work order, location, part"
         exportPath="/stock/moves"
-        exportQuery={{ q: state.q, sort: state.sort, ...filters }}
         summary={moves.data && counted(moves.data.total, 'move')}
       >
         <FilterSelect label="Move" value={filters.reason} onChange={(value) => update({ reason: value })} options={MOVE_REASONS.map((r) => ({ value: r, label: MOVE_REASON_LABELS[r] }))} />

@@ -6,6 +6,7 @@ import { DataTable, useListState } from '@/components/DataTable';
 import { FilterSelect, ListToolbar } from '@/components/ListToolbar';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
+import { PartLabel } from '@/components/PartLabel';
 import { StateBadge } from '@/components/StateBadge';
 import { counted } from '@/lib/plural';
 import { useLocations, useOnHand, useStockParts } from '../api';
@@ -23,12 +24,7 @@ export function StockPage() {
     () => [
       column.accessor('partNumber', {
         header: 'Part',
-        cell: ({ row }) => (
-          <>
-            <span className="font-mono">{row.original.partNumber}</span>
-            <span className="block text-xs text-ink-muted">{row.original.partDescription}</span>
-          </>
-        ),
+        cell: ({ row }) => <PartLabel number={row.original.partNumber} description={row.original.partDescription} />,
       }),
       column.accessor('locationCode', { header: 'Location', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
       column.accessor('locationKind', { header: 'Kind', cell: ({ getValue }) => <StateBadge state={getValue()} label={LOCATION_KIND_LABELS[getValue()]} /> }),
@@ -48,11 +44,10 @@ export function StockPage() {
       <PageHeader title="Stock" subtitle="Pieces counted where their latest move put them, by part and location. Issued pieces have left stores." />
       <StockTabs />
       <ListToolbar
-        q={state.q}
-        onSearch={(q) => update({ q })}
+        list={{ state, update }}
+        filters={filters}
         placeholder="Search part or location"
         exportPath="/stock"
-        exportQuery={{ q: state.q, sort: state.sort, ...filters }}
         summary={stock.data && `${counted(stock.data.totals.onHand, 'piece')} in ${counted(stock.data.total, 'place')}`}
       >
         <FilterSelect label="Part" value={filters.partId} onChange={(value) => update({ partId: value })} options={(parts.data?.data ?? []).map((p) => ({ value: String(p.id), label: p.number }))} />
