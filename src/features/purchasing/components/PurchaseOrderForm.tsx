@@ -3,7 +3,7 @@
 import { useFieldArray, useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Plus, Trash2 } from 'lucide-react';
-import { AQL_VALUES, INSPECTION_LEVELS, purchaseOrderInputSchema, type PurchaseOrderInput, type PurchaseOrderView } from '@shared/schemas/purchasing';
+import { AQL_VALUES, INSPECTION_LEVELS, purchaseOrderInputSchema, type PartView, type PurchaseOrderInput, type PurchaseOrderView, type SupplierView } from '@shared/schemas/purchasing';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
@@ -26,10 +26,19 @@ function valuesOf(order?: PurchaseOrderView): PurchaseOrderInput {
   };
 }
 
-export function PurchaseOrderForm({ order, onSaved, onCancel }: { order?: PurchaseOrderView; onSaved: (order: PurchaseOrderView) => void; onCancel: () => void }) {
-  const save = useSavePurchaseOrder();
-  const suppliers = useSuppliers({ ...ALL, sort: 'name', active: order ? undefined : 'true' });
+type Props = { order?: PurchaseOrderView; onSaved: (order: PurchaseOrderView) => void; onCancel: () => void };
+
+/** The choices come first: a select only shows its saved value once its options are there. */
+export function PurchaseOrderForm(props: Props) {
+  const suppliers = useSuppliers({ ...ALL, sort: 'name', active: props.order ? undefined : 'true' });
   const parts = useParts({ ...ALL, sort: 'number' });
+  if (suppliers.error || parts.error) return <Notice tone="error">{(suppliers.error ?? parts.error)!.message}</Notice>;
+  if (!suppliers.data || !parts.data) return <p className="text-ink-muted">Loading suppliers and parts…</p>;
+  return <OrderFields {...props} suppliers={suppliers.data.data} parts={parts.data.data} />;
+}
+
+function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { suppliers: SupplierView[]; parts: PartView[] }) {
+  const save = useSavePurchaseOrder();
   const form = useForm({ resolver: zodResolver(purchaseOrderInputSchema), defaultValues: valuesOf(order) });
   const lines = useFieldArray({ control: form.control, name: 'lines' });
   const errors = form.formState.errors;
@@ -50,7 +59,7 @@ export function PurchaseOrderForm({ order, onSaved, onCancel }: { order?: Purcha
           <Field label="Supplier" htmlFor="po-supplier" error={errors.supplierId?.message}>
             <select id="po-supplier" className={inputClass} {...form.register('supplierId')}>
               <option value="">Choose a supplier…</option>
-              {suppliers.data?.data.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
+              {suppliers.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
             </select>
           </Field>
         </div>
@@ -96,7 +105,7 @@ export function PurchaseOrderForm({ order, onSaved, onCancel }: { order?: Purcha
                     ) : (
                       <select aria-label={`Part of line ${index + 1}`} className={`${inputClass} w-full`} {...form.register(`lines.${index}.partId`)}>
                         <option value="">Choose a part…</option>
-                        {parts.data?.data.filter((p) => p.active || p.id === Number(field.partId)).map((p) => (
+                        {parts.filter((p) => p.active || p.id === Number(field.partId)).map((p) => (
                           <option key={p.id} value={p.id}>{p.number} — {p.description}</option>
                         ))}
                       </select>

@@ -67,7 +67,7 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
           <option value="">Choose the open PO line the shipment belongs to…</option>
           {openLines.data?.data.map((l) => (
             <option key={l.id} value={l.id}>
-              {l.poNumber} / {l.lineNumber} · {l.partNumber} · {l.supplierName} · {l.outstanding} of {l.quantity} still expected
+              {l.poNumber} / {l.lineNumber} · {l.partNumber} · {l.supplierName} · {l.outstanding > 0 ? `${l.outstanding} of ${l.quantity} still expected` : `all ${l.quantity} received`}
             </option>
           ))}
         </select>
