@@ -1,13 +1,6 @@
 // The ordered specification in words, for documents and mail.
-import type { PartSpec } from '../../shared/schemas/spec';
+import { MATERIAL_LABELS, type PartSpec } from '../../shared/schemas/spec';
 
-const MATERIAL_NAMES: Record<PartSpec['material'], string> = {
-  quartz: 'crystal quartz',
-  mgf2: 'MgF₂',
-  polymer: 'polymer film',
-  mica: 'mica',
-  other: 'other material',
-};
 
 export function constructionText(spec: PartSpec) {
   if (spec.construction === 'multi-order') return `multi-order (order ${spec.multiOrder})`;
@@ -20,7 +13,7 @@ export function specLines(spec: PartSpec): [string, string][] {
     ['Nominal retardance', `${spec.nominalWaves} λ at ${spec.designWavelengthNm} nm`],
     ['Retardance tolerance', `±${spec.retardanceTolWaves} λ`],
     ['Fast-axis mark tolerance', `±${spec.axisTolDeg}°`],
-    ['Construction', `${constructionText(spec)}, ${MATERIAL_NAMES[spec.material]}`],
+    ['Construction', `${constructionText(spec)}, ${MATERIAL_LABELS[spec.material]}`],
     ['Size', `Ø ${spec.diameterMm} mm, clear aperture ${spec.clearApertureMm} mm`],
   ];
   if (spec.maxDiattenuation !== undefined && spec.maxDiattenuation !== null) lines.push(['Diattenuation limit', `≤ ${spec.maxDiattenuation}`]);

@@ -92,4 +92,7 @@ export type PieceHistoryView = {
   lot: { id: number; supplierLot: string; state: LotState };
   moves: { id: number; at: string; reason: MoveReason; from: string | null; to: string | null; workOrder: string | null; note: string | null; who: string | null }[];
   history: HistoryEntry[];
+  /** What the bench measured on this piece (superseded results too) and the lot's documents. */
+  readings: { wavelengthNm: number; verdict: 'pass' | 'fail' | 'incomplete'; retardanceWaves: number | null; retardanceErrorWaves: number | null; axisErrorDeg: number | null; reasons: string[]; file: string; instrument: string; measuredAt: string; current: boolean }[];
+  documents: { number: string; kind: 'certificate' | 'inspection-report'; issuedAt: string; revokedAt: string | null }[];
 };

@@ -123,6 +123,11 @@ describe('inspection of a lot through the API', () => {
     expect(text).toContain('±0.003 λ');
     expect(text).toContain(certificate.dataHash);
 
+    // The serial's history runs from the supplier through its readings to the certificate.
+    const piece = await (await as('auditor')).get(`/api/pieces/${sample[0]}`).expect(200);
+    expect(piece.body.data[0].readings).toEqual([expect.objectContaining({ verdict: 'pass', instrument: 'BENCH-2', file: 'bench-ok.csv', current: true })]);
+    expect(piece.body.data[0].documents.map((d: { number: string }) => d.number)).toContain(certificate.number);
+
     // Genuine and current; a forged hash is not.
     const genuine = await request(app).get('/api/certificates/verify').query({ number: certificate.number, hash: certificate.dataHash }).expect(200);
     expect(genuine.body).toMatchObject({ genuine: true, current: true, document: { number: certificate.number, decision: 'Accept' } });

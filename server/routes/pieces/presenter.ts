@@ -10,6 +10,30 @@ type PieceRow = {
   partId: number; partNumber: string; partDescription: string; supplierId: number; supplierName: string;
   purchaseOrderId: number; poNumber: string; lineNumber: number; lotId: number; supplierLot: string; lotState: LotState;
 };
+type ReadingRow = { wavelength_nm: string; verdict: 'pass' | 'fail' | 'incomplete'; result: { retardanceWaves: number | null; retardanceErrorWaves: number | null; axisErrorDeg: number | null; reasons: string[] }; file: string; instrument: string; measured_at: Date; superseded: boolean };
+type DocumentRow = { number: string; kind: 'certificate' | 'inspection-report'; issued_at: Date; revoked_at: Date | null };
+
+async function inspectionOf(pieceId: number, lotId: number) {
+  const readings = await sequelize.query<ReadingRow>(
+    `SELECT r.wavelength_nm, r.verdict, r.result, f.original_name AS file, i.code AS instrument, f.uploaded_at AS measured_at,
+            r.superseded_by_file_id IS NOT NULL AS superseded
+       FROM piece_results r JOIN measurement_files f ON f.id = r.file_id JOIN instruments i ON i.id = f.instrument_id
+      WHERE r.piece_id = :pieceId ORDER BY r.id`,
+    { type: QueryTypes.SELECT, replacements: { pieceId } },
+  );
+  const documents = await sequelize.query<DocumentRow>('SELECT number, kind, issued_at, revoked_at FROM lot_documents WHERE lot_id = :lotId ORDER BY id', {
+    type: QueryTypes.SELECT,
+    replacements: { lotId },
+  });
+  return {
+    readings: readings.map((r) => ({
+      wavelengthNm: Number(r.wavelength_nm), verdict: r.verdict, retardanceWaves: r.result.retardanceWaves, retardanceErrorWaves: r.result.retardanceErrorWaves,
+      axisErrorDeg: r.result.axisErrorDeg, reasons: r.result.reasons, file: r.file, instrument: r.instrument, measuredAt: r.measured_at.toISOString(), current: !r.superseded,
+    })),
+    documents: documents.map((d) => ({ number: d.number, kind: d.kind, issuedAt: d.issued_at.toISOString(), revokedAt: d.revoked_at?.toISOString() ?? null })),
+  };
+}
+
 type MoveRow = { id: string; at: Date; reason: MoveReason; from: string | null; to: string | null; workOrder: string | null; note: string | null; who: string | null };
 
 /** Every piece with this serial (a serial is unique per part, so usually one) and its whole story. */
@@ -51,6 +75,7 @@ export async function pieceHistories(serial: string): Promise<PieceHistoryView[]
         lot: { id: p.lotId, supplierLot: p.supplierLot, state: p.lotState },
         moves: moves.map((m) => ({ ...m, id: Number(m.id), at: m.at.toISOString() })),
         history: await lotAuditHistory([p.lotId]),
+        ...(await inspectionOf(p.id, p.lotId)),
       };
     }),
   );

@@ -69,6 +69,27 @@ export function PiecePage() {
               <HistoryList entries={piece.history} />
             </Panel>
           </div>
+          <Panel title="Readings and documents">
+            {piece.readings.length === 0 && <p className="text-sm text-ink-muted">Not measured (not in the sample, or not yet inspected).</p>}
+            <ul className="space-y-1 text-sm" aria-label="Readings">
+              {piece.readings.map((r, i) => (
+                <li key={i} className={r.current ? '' : 'text-ink-faint line-through'}>
+                  <span className="font-mono">{r.wavelengthNm} nm</span> · retardance {r.retardanceWaves?.toFixed(4) ?? '—'} λ, error {r.retardanceErrorWaves?.toFixed(4) ?? '—'} λ, axis {r.axisErrorDeg?.toFixed(2) ?? '—'}° ·{' '}
+                  <span className="font-medium">{r.verdict}</span>{r.reasons.length > 0 && ` (${r.reasons.join('; ')})`}
+                  <span className="block text-xs text-ink-muted">{r.file} on {r.instrument}, {new Date(r.measuredAt).toLocaleString()}{r.current ? '' : ' — superseded'}</span>
+                </li>
+              ))}
+            </ul>
+            {piece.documents.length > 0 && (
+              <p className="mt-2 text-sm">
+                {piece.documents.map((d) => (
+                  <a key={d.number} href={`/api/documents/${encodeURIComponent(d.number)}.pdf`} target="_blank" rel="noreferrer" className="mr-3 font-mono">
+                    {d.number}{d.revokedAt ? ' (revoked)' : ''}
+                  </a>
+                ))}
+              </p>
+            )}
+          </Panel>
         </div>
       ))}
     </div>
