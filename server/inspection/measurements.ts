@@ -2,10 +2,10 @@
 // file with its SHA-256, its readings and the per-piece results in one transaction; a new result
 // for a piece supersedes the old one, which stays in the history).
 import { parse } from 'csv-parse/sync';
-import { Op, type Transaction } from 'sequelize';
-import { inTransaction } from '../../db';
+import type { Transaction } from 'sequelize';
+import { inTransaction, sequelize } from '../../db';
 import { Instrument, MeasurementFile, PieceResult, Reading } from '../../db/models';
-import { analyzeBuffer, type AnalysisResult, type LineMessage, type PieceResult as EnginePieceResult } from '../../shared/optics';
+import { analyzeBuffer, readMetadata, type AnalysisResult, type LineMessage, type PieceResult as EnginePieceResult } from '../../shared/optics';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { AppError, badRequest } from '../http/errors';
 import { sha256, storeBlob } from '../storage/blobs';
@@ -54,19 +54,22 @@ async function resolveInstrument(metadata: AnalysisResult['metadata'], chosenId:
 
 async function previewFile(file: UploadedFile, lot: LotForInspection, chosenInstrumentId: number | undefined, transaction?: Transaction): Promise<FilePreview> {
   const base = { name: file.originalname, sha256: sha256(file.buffer), sizeBytes: file.buffer.length };
-  // First pass without the profile to read the metadata; the instrument's profile and uncertainty
-  // then shape the real analysis.
-  const first = analyzeBuffer(file.buffer, pieceSpecFor(lot.spec), { maxBytes: MAX_MEASUREMENT_BYTES });
-  if (first.fatal) return { ...base, method: null, metadata: first.metadata, instrument: null, pieces: [], warnings: [], errors: [], fatal: first.fatal };
-  const found = await resolveInstrument(first.metadata, chosenInstrumentId, transaction);
-  if (!found.instrument) return { ...base, method: first.method, metadata: first.metadata, instrument: null, pieces: [], warnings: first.warnings, errors: [], fatal: found.problem };
+  // The instrument's profile and uncertainty shape the analysis, so its `#` lines are read first
+  // and the rows are analysed once. A file that is not readable at all says so before anything else.
+  const refused = (fatal: string, metadata: AnalysisResult['metadata'], instrument: FilePreview['instrument'] = null): FilePreview =>
+    ({ ...base, method: null, metadata, instrument, pieces: [], warnings: [], errors: [], fatal });
+  const unreadable = () => analyzeBuffer(file.buffer, pieceSpecFor(lot.spec), { maxBytes: MAX_MEASUREMENT_BYTES }).fatal;
+  const metadata = readMetadata(file.buffer.toString('utf8'));
+  const found = await resolveInstrument(metadata, chosenInstrumentId, transaction);
+  if (!found.instrument) return refused(unreadable() ?? found.problem, metadata);
   const instrument = found.instrument;
-  const measuredOn = first.metadata.date ?? today();
+  const measuredOn = metadata.date ?? today();
   if (!instrument.isCalibratedOn(measuredOn)) {
-    return {
-      ...base, method: first.method, metadata: first.metadata, instrument: { id: instrument.id, code: instrument.code }, pieces: [], warnings: first.warnings, errors: [],
-      fatal: `Instrument ${instrument.code} was not in calibration on ${measuredOn} (calibrated ${instrument.calibratedOn}, due ${instrument.calibrationDueOn}): its readings are refused`,
-    };
+    return refused(
+      `Instrument ${instrument.code} was not in calibration on ${measuredOn} (calibrated ${instrument.calibratedOn}, due ${instrument.calibrationDueOn}): its readings are refused`,
+      metadata,
+      { id: instrument.id, code: instrument.code },
+    );
   }
   const result = analyzeBuffer(file.buffer, pieceSpecFor(lot.spec, instrument), { maxBytes: MAX_MEASUREMENT_BYTES });
   const serials = new Set(lot.pieces.map((p) => p.serial));
@@ -132,13 +135,20 @@ export function commitMeasurements(actor: AuditActor & { id: number }, lotId: nu
       await Reading.bulkCreate(rows.map((r) => ({ ...r, fileId: stored.id })), { transaction });
       stored.rowCount = rows.length;
       await stored.save({ transaction });
-      for (const piece of preview.pieces) {
-        const pieceId = pieceIdBySerial.get(piece.serial)!;
-        await PieceResult.update(
-          { supersededByFileId: stored.id },
-          { where: { pieceId, wavelengthNm: piece.wavelengthNm, supersededByFileId: { [Op.is]: null } }, transaction },
-        );
-      }
+      // The new file's results replace the current ones of the same pieces at the same wavelengths.
+      if (preview.pieces.length) await sequelize.query(
+        `UPDATE piece_results r SET superseded_by_file_id = :fileId
+         FROM unnest(ARRAY[:pieceIds]::int[], ARRAY[:wavelengths]::numeric[]) AS measured(piece_id, wavelength_nm)
+         WHERE r.piece_id = measured.piece_id AND r.wavelength_nm = measured.wavelength_nm AND r.superseded_by_file_id IS NULL`,
+        {
+          transaction,
+          replacements: {
+            fileId: stored.id,
+            pieceIds: preview.pieces.map((piece) => pieceIdBySerial.get(piece.serial)!),
+            wavelengths: preview.pieces.map((piece) => piece.wavelengthNm),
+          },
+        },
+      );
       await PieceResult.bulkCreate(
         preview.pieces.map((piece) => ({
           pieceId: pieceIdBySerial.get(piece.serial)!, fileId: stored.id, wavelengthNm: piece.wavelengthNm, verdict: piece.verdict, result: { ...piece },

@@ -2,6 +2,7 @@
 // at the severity the supplier and part have reached under the switching rules, and a random
 // sample whose seed is stored so the same sample can be drawn again.
 import type { Transaction } from 'sequelize';
+import { inTransaction, sequelize } from '../../db';
 import { LotInspection, SamplePiece, SwitchingEvent, SwitchingStateRecord } from '../../db/models';
 import { drawSample, initialSwitchingState, newSampleSeed, nextSwitchingState, planFor, type SwitchingState } from '../../shared/sampling';
 import { readSiteSettings } from '../routes/settings/operations';
@@ -19,10 +20,15 @@ export function describePlan(plan: LotInspection) {
   return `ISO 2859-1 single sampling, ${inspection}: code letter ${plan.codeLetter}, n = ${plan.sampleSize}, Ac ${plan.acceptNumber}, Re ${plan.rejectNumber}`;
 }
 
-/** The lot's plan and sample, drawn on first need and fixed from then on. */
-export async function ensureInspectionPlan(lot: LotForInspection, transaction?: Transaction) {
+/** The lot's plan and sample, drawn on first need and fixed from then on. Drawing locks the lot, so
+ * two first looks at the same lot draw one sample, not two. */
+export async function ensureInspectionPlan(lot: LotForInspection, transaction?: Transaction): Promise<LotInspection> {
   const existing = await LotInspection.findOne({ where: { lotId: lot.id }, transaction });
   if (existing) return existing;
+  if (!transaction) return inTransaction((t) => ensureInspectionPlan(lot, t));
+  await sequelize.query('SELECT id FROM lots WHERE id = :id FOR UPDATE', { transaction, replacements: { id: lot.id } });
+  const drawnMeanwhile = await LotInspection.findOne({ where: { lotId: lot.id }, transaction });
+  if (drawnMeanwhile) return drawnMeanwhile;
   const state = await switchingStateOf(lot.supplier.id, lot.part.id, transaction);
   if (state.stopped) {
     throw new AppError(409, 'acceptance_discontinued', `Acceptance inspection of ${lot.part.number} from ${lot.supplier.name} is discontinued after 5 lots not accepted on tightened inspection (ISO 2859-1, 9.4); the supplier must act first`);

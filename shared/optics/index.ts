@@ -50,3 +50,4 @@ export { fitScan, type ScanFit, type ScanReading, type ScanResult } from './scan
 export { MATERIALS, estimateOrder, type Material, type OrderEstimate } from './dispersion.js';
 export { MARK_ON_SLOW_AXIS, accepts, describeAlongMark, judge, measuredFromAlongMark } from './judge.js';
 export { DESIGN_WAVELENGTH_WINDOW_NM } from './evaluate.js';
+export { readMetadata } from './readings.js';

@@ -146,6 +146,23 @@ const ROW_PARSERS: { [M in Method]: RowParser<M> } = {
 /** `# key: value`, the key one word (instrument, operator, method, date...); other `#` lines are plain comments. */
 const METADATA_LINE = /^#\s*([A-Za-z][\w-]*)\s*:\s*(.*?)\s*$/;
 
+/** The key (lower-case) and value of a `# key: value` line, or null for any other line. */
+export function metadataEntry(line: string): [key: string, value: string] | null {
+  const match = METADATA_LINE.exec(line);
+  return match ? [match[1].toLowerCase(), match[2]] : null;
+}
+
+/** Only the `# key: value` lines of a file, without reading its rows: enough to know which
+ * instrument (and so which profile) the file has to be analysed with. */
+export function readMetadata(text: string): FileMetadata {
+  const metadata: FileMetadata = {};
+  for (const line of text.split(/\r?\n/)) {
+    const entry = line.startsWith('#') ? metadataEntry(line) : null;
+    if (entry) metadata[entry[0]] = entry[1];
+  }
+  return metadata;
+}
+
 export class ReadingCollector {
   private method: Method | null = null;
   private methodLine: { line: number; method: Method } | null = null;
@@ -182,14 +199,14 @@ export class ReadingCollector {
    * them (a stream is read ahead of its parser), so only their line numbers say what came first.
    */
   comment(line: number, text: string): void {
-    const match = METADATA_LINE.exec(text);
-    if (!match) return;
-    const key = match[1].toLowerCase();
-    this.metadata[key] = match[2];
+    const entry = metadataEntry(text);
+    if (!entry) return;
+    const [key, value] = entry;
+    this.metadata[key] = value;
     if (key !== 'method') return;
-    const method = match[2].toLowerCase() as Method;
+    const method = value.toLowerCase() as Method;
     if (!METHODS.includes(method)) {
-      this.fail(`line ${line}: unknown method ${JSON.stringify(match[2])}: expected stokes, scan or direct`);
+      this.fail(`line ${line}: unknown method ${JSON.stringify(value)}: expected stokes, scan or direct`);
     } else if (!this.methodLine || line < this.methodLine.line) {
       this.methodLine = { line, method };
     }
