@@ -13,7 +13,7 @@ const queryClient = new QueryClient({
   queryCache: new QueryCache(),
 });
 
-// A 401 from any request means the session ended: forget cached data and go back to sign-in.
+// A request refused for an ended session (ApiError.endsSession): forget cached data and go back to sign-in.
 setUnauthorizedHandler(() => {
   queryClient.clear();
   const next = encodeURIComponent(window.location.pathname + window.location.search);

@@ -16,13 +16,18 @@ export class ApiError extends Error {
     if (!Array.isArray(this.details)) return {};
     return Object.fromEntries(this.details.map((d: { path: string; message: string }) => [d.path, d.message]));
   }
+  /** True when the server refused the session itself (missing, expired or ended: code `unauthorized`
+   * or `session_…`). Any other 401, such as a refused signature password, answers that request only. */
+  get endsSession(): boolean {
+    return this.status === 401 && (this.code === 'unauthorized' || this.code.startsWith('session_'));
+  }
 }
 
 type Query = Record<string, string | number | boolean | undefined | null>;
 type Options = { method?: string; body?: unknown; query?: Query; signal?: AbortSignal };
 
 let onUnauthorized: () => void = () => {};
-/** Called when a request comes back 401: the app returns to the sign-in page. */
+/** Called when a request comes back with an ended session: the app returns to the sign-in page. */
 export function setUnauthorizedHandler(handler: () => void) {
   onUnauthorized = handler;
 }
@@ -48,9 +53,11 @@ export async function api<T>(path: string, options: Options = {}): Promise<T> {
   if (response.status === 204) return undefined as T;
   const payload = await response.json().catch(() => null);
   if (!response.ok) {
-    const error = (payload as ApiErrorBody | null)?.error;
-    if (response.status === 401 && !path.startsWith('/auth/')) onUnauthorized();
-    throw new ApiError(response.status, error?.code ?? 'http', error?.message ?? `Request failed (${response.status})`, error?.details);
+    const body = (payload as ApiErrorBody | null)?.error;
+    const error = new ApiError(response.status, body?.code ?? 'http', body?.message ?? `Request failed (${response.status})`, body?.details);
+    // The auth routes answer for themselves: /auth/me is the session check, a refused sign-in is no ended session.
+    if (error.endsSession && !path.startsWith('/auth/')) onUnauthorized();
+    throw error;
   }
   return payload as T;
 }

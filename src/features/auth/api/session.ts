@@ -12,6 +12,7 @@ export function useSession() {
       try {
         return (await api<{ user: SessionUser }>('/auth/me')).user;
       } catch (error) {
+        // This is the session check: any 401 here means nobody is signed in.
         if (error instanceof ApiError && error.status === 401) return null;
         throw error;
       }
