@@ -7,5 +7,6 @@
 export * from './tables';
 export * from './plan';
 export * from './switching';
+export * from './sequence';
 export * from './oc';
 export * from './sample';

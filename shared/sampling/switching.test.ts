@@ -85,9 +85,11 @@ describe('tightened → normal, and discontinuation', () => {
     expect(run('rrrrrrr').changes).toEqual(['2:normal→tightened', '7:tightened→stopped']);
   });
 
-  it('refuses further lots until inspection is resumed, then resumes on tightened', () => {
+  it('lets lots decided while discontinued change nothing until inspection is resumed, then resumes on tightened', () => {
     const { state } = run('rrrrr', disabled, tightened);
-    expect(() => nextSwitchingState(state, lot(acOnePlan('tightened'), 0), disabled)).toThrow(/discontinued/);
+    const meanwhile = nextSwitchingState(state, lot(acOnePlan('tightened'), 0), disabled);
+    expect(meanwhile).toMatchObject({ state, change: null });
+    expect(meanwhile.explanation).toMatch(/while acceptance is discontinued/);
     const resumed = resumeAfterDiscontinuation(state);
     expect(resumed).toEqual(initialSwitchingState('tightened'));
     expect(run('a', disabled, resumed).state.consecutiveAccepted).toBe(1);
@@ -163,12 +165,14 @@ describe('reduced → normal', () => {
 });
 
 describe('checks on what is fed in', () => {
-  it('refuses a lot inspected at another severity than the state', () => {
-    expect(() => nextSwitchingState(initialSwitchingState(), lot(acOnePlan('tightened'), 0), enabled)).toThrow(/tightened inspection but the switching state is normal/);
+  it('refuses an acceptance of a sample that reaches Re', () => {
+    expect(() => nextSwitchingState(initialSwitchingState(), { plan: acOnePlan('normal'), defectives: 2, accepted: true }, enabled)).toThrow('a lot with 2 defectives at Re 2 is not accepted, but the result says accepted');
   });
 
-  it('refuses a verdict that contradicts the defectives and Ac', () => {
-    expect(() => nextSwitchingState(initialSwitchingState(), { plan: acOnePlan('normal'), defectives: 2, accepted: true }, enabled)).toThrow('a lot with 2 defectives at Ac 1 is not accepted, but the result says accepted');
+  it('counts a lot refused with its sample within Ac as not accepted, and resets the score', () => {
+    const { state } = run('aaa', enabled);
+    const refused = nextSwitchingState(state, { plan: acOnePlan('normal'), defectives: 0, accepted: false }, enabled);
+    expect(refused.state).toMatchObject({ switchingScore: 0, recentResults: [true, true, true, false], consecutiveAccepted: 0 });
   });
 
   it('refuses a malformed stored state', () => {

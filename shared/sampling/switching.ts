@@ -1,6 +1,10 @@
 // Switching rules of ISO 2859-1:1999, clause 9, as a pure state machine kept per supplier and
 // part. Only lots on original inspection count; resubmitted lots are not fed in.
 //
+// Lots are fed in the order they are decided, each at the state in effect then, whatever severity it
+// was sampled under (a lot keeps its plan; the state may have moved since): a lot not accepted always
+// counts, an accepted lot counts only when its plan was at least as strict as the state's severity.
+//
 // Discontinuation follows the standard: acceptance stops when the cumulative number of lots not
 // accepted while on tightened inspection reaches 5. (The product brief words it as "after 5
 // consecutive lots on tightened"; the standard counts lots not accepted, whether consecutive or
@@ -14,6 +18,7 @@ const REJECTIONS_FOR_TIGHTENED = 2;
 const ACCEPTANCES_TO_LEAVE_TIGHTENED = 5;
 const REJECTIONS_TO_STOP = 5;
 const SCORE_FOR_REDUCED = 30;
+const STRICTNESS: Record<Severity, number> = { reduced: 0, normal: 1, tightened: 2 };
 
 export const switchingStateSchema = z.object({
   severity: z.enum(SEVERITIES),
@@ -78,11 +83,14 @@ function issuesOf(error: z.ZodError) {
 /** Clause 9.3.3.2: the score that leads from normal to reduced inspection. */
 function nextSwitchingScore(score: number, lot: z.infer<typeof lotResultSchema>): number {
   const { plan } = lot;
+  if (!lot.accepted) return 0;
+  // The score counts lots on normal inspection; an acceptance on a stricter plan leaves it as it is.
+  if (plan.severity !== 'normal') return score;
   if (plan.accept >= 2) {
     const tighterAccept = tighterNormalAcceptance(plan.codeLetter, plan.aql as Aql);
     return tighterAccept !== null && lot.defectives <= tighterAccept ? score + 3 : 0;
   }
-  return lot.accepted ? score + 2 : 0;
+  return score + 2;
 }
 
 function switched(state: SwitchingState, from: SwitchingPhase, to: SwitchingPhase, explanation: string): SwitchingOutcome {
@@ -96,18 +104,26 @@ export function nextSwitchingState(state: SwitchingState, lotResult: LotResult, 
   if (!parsedLot.success) throw new Error(`invalid lot result: ${issuesOf(parsedLot.error)}`);
   const before = current.data;
   const lot = parsedLot.data;
-  if (before.stopped) {
-    throw new Error('acceptance inspection is discontinued for this supplier and part; resume it once the supplier has acted');
-  }
-  if (lot.plan.severity !== before.severity) {
-    throw new Error(`the lot was inspected on ${lot.plan.severity} inspection but the switching state is ${before.severity}`);
-  }
-  if (lot.accepted !== lot.defectives <= lot.plan.accept) {
-    throw new Error(
-      `a lot with ${lot.defectives} defectives at Ac ${lot.plan.accept} is ${lot.accepted ? 'not accepted' : 'accepted'}, but the result says ${lot.accepted ? 'accepted' : 'not accepted'}`,
-    );
+  // A lot may be refused with a sample within Ac (the decision is the quality manager's), but a sample
+  // that reaches Re never accepts it.
+  if (lot.accepted && lot.defectives >= lot.plan.reject) {
+    throw new Error(`a lot with ${lot.defectives} defectives at Re ${lot.plan.reject} is not accepted, but the result says accepted`);
   }
   const verdict = lot.accepted ? 'accepted' : 'not accepted';
+  const lotText =
+    lot.plan.severity === before.severity
+      ? `lot ${verdict} on ${before.severity} inspection`
+      : `lot ${verdict} (sampled on ${lot.plan.severity} inspection) while ${before.severity} inspection is in effect`;
+  if (before.stopped) {
+    return { state: before, change: null, explanation: `lot ${verdict} while acceptance is discontinued; it changes nothing until inspection resumes` };
+  }
+  if (lot.accepted && STRICTNESS[lot.plan.severity as Severity] < STRICTNESS[before.severity]) {
+    return {
+      state: before,
+      change: null,
+      explanation: `lot accepted on ${lot.plan.severity} inspection while ${before.severity} inspection is in effect; an acceptance on a less strict plan does not count toward easing inspection`,
+    };
+  }
   const consecutiveAccepted = lot.accepted ? before.consecutiveAccepted + 1 : 0;
 
   if (before.severity === 'tightened') {
@@ -117,7 +133,7 @@ export function nextSwitchingState(state: SwitchingState, lotResult: LotResult, 
         { ...before, consecutiveAccepted, tightenedCount, stopped: true },
         'tightened',
         'stopped',
-        `lot ${verdict} on tightened inspection; ${tightenedCount} lots not accepted on tightened inspection, so acceptance is discontinued (ISO 2859-1, 9.4)`,
+        `${lotText}; ${tightenedCount} lots not accepted on tightened inspection, so acceptance is discontinued (ISO 2859-1, 9.4)`,
       );
     }
     if (consecutiveAccepted >= ACCEPTANCES_TO_LEAVE_TIGHTENED) {
@@ -125,13 +141,13 @@ export function nextSwitchingState(state: SwitchingState, lotResult: LotResult, 
         initialSwitchingState('normal'),
         'tightened',
         'normal',
-        `lot ${verdict} on tightened inspection; ${consecutiveAccepted} consecutive lots accepted, so normal inspection resumes (ISO 2859-1, 9.3.2)`,
+        `${lotText}; ${consecutiveAccepted} consecutive lots accepted, so normal inspection resumes (ISO 2859-1, 9.3.2)`,
       );
     }
     return {
       state: { ...before, consecutiveAccepted, tightenedCount },
       change: null,
-      explanation: `lot ${verdict} on tightened inspection; ${consecutiveAccepted} consecutive accepted, ${tightenedCount} not accepted on tightened so far`,
+      explanation: `${lotText}; ${consecutiveAccepted} consecutive accepted, ${tightenedCount} not accepted on tightened so far`,
     };
   }
 
@@ -142,13 +158,13 @@ export function nextSwitchingState(state: SwitchingState, lotResult: LotResult, 
         initialSwitchingState('normal'),
         'reduced',
         'normal',
-        `lot ${verdict} on reduced inspection; ${reason}, so normal inspection resumes (ISO 2859-1, 9.3.4)`,
+        `${lotText}; ${reason}, so normal inspection resumes (ISO 2859-1, 9.3.4)`,
       );
     }
     return {
       state: { ...before, consecutiveAccepted },
       change: null,
-      explanation: `lot accepted on reduced inspection; ${consecutiveAccepted} consecutive accepted`,
+      explanation: `${lotText}; ${consecutiveAccepted} consecutive accepted`,
     };
   }
 
@@ -159,12 +175,12 @@ export function nextSwitchingState(state: SwitchingState, lotResult: LotResult, 
       initialSwitchingState('tightened'),
       'normal',
       'tightened',
-      `lot ${verdict} on normal inspection; ${rejections} of the last ${recentResults.length} lots not accepted, so tightened inspection begins (ISO 2859-1, 9.3.1)`,
+      `${lotText}; ${rejections} of the last ${recentResults.length} lots not accepted, so tightened inspection begins (ISO 2859-1, 9.3.1)`,
     );
   }
   const switchingScore = nextSwitchingScore(before.switchingScore, lot);
   const afterLot: SwitchingState = { ...before, consecutiveAccepted, recentResults, switchingScore };
-  const scoreText = `lot ${verdict} on normal inspection; switching score ${switchingScore}`;
+  const scoreText = `${lotText}; switching score ${switchingScore}`;
   if (switchingScore < SCORE_FOR_REDUCED) return { state: afterLot, change: null, explanation: scoreText };
   if (!settings.reducedEnabled) {
     return { state: afterLot, change: null, explanation: `${scoreText}, but reduced inspection is not enabled for this site` };
