@@ -195,4 +195,17 @@ describe('reading the same file three ways', () => {
       expect(await analyzeStream(Readable.from(chunks), spec)).toEqual(fromText);
     }
   });
+
+  it('reads a byte-order mark, CRLF and CR-only line ends in a stream as LF, wherever the chunks are cut', async () => {
+    const lf = readFileSync(fixture('stokes-qwp.csv'), 'utf8');
+    const expected = analyzeText(lf, QWP);
+    expect(expected.metadata.instrument).toBe('BENCH-2');
+    for (const text of [`\uFEFF${lf}`, lf.replaceAll('\n', '\r\n'), `\uFEFF${lf.replaceAll('\n', '\r')}`]) {
+      const bytes = Buffer.from(text);
+      for (const size of [1, 2, 7, 97]) {
+        const chunks = Array.from({ length: Math.ceil(bytes.length / size) }, (_, i) => bytes.subarray(size * i, size * (i + 1)));
+        expect(await analyzeStream(Readable.from(chunks), QWP)).toEqual(expected);
+      }
+    }
+  });
 });

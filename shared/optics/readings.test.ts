@@ -1,6 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { analyzeBuffer, analyzeText } from './analyze.js';
+import { readMetadata } from './readings.js';
 import { DIRECT_HEADER, SCAN_HEADER, STOKES_HEADER, stokesRows } from './synthetic.js';
 import type { PieceSpecInput } from './spec.js';
 
@@ -176,6 +177,104 @@ describe('what the file may contain', () => {
       ['QW-0303', 'incomplete'],
       ['QW-0305', 'incomplete'],
       ['QW-0306', 'incomplete'],
+    ]);
+  });
+});
+
+describe('one reading of the text, whatever its line ends', () => {
+  const lf = lines('# instrument: BENCH-2', '# date: 2026-11-30', STOKES_HEADER, good('QW-0001'), good('QW-0002'), '');
+  // Line ends and the byte-order mark are the usual variants of exported CSV (RFC 4180 uses CRLF;
+  // older spreadsheet exports use a bare CR): common practice.
+  const variants = {
+    'a byte-order mark': `\uFEFF${lf}`,
+    'CRLF line ends': lf.replaceAll('\n', '\r\n'),
+    'CR-only line ends': lf.replaceAll('\n', '\r'),
+    'a byte-order mark and CR-only line ends': `\uFEFF${lf.replaceAll('\n', '\r')}`,
+  };
+
+  it('gives the same metadata, rows and results as LF', () => {
+    const reference = analyzeText(lf, QWP);
+    expect(reference.metadata).toEqual({ instrument: 'BENCH-2', date: '2026-11-30' });
+    expect(reference.rows.map((r) => r.line)).toEqual(Array.from({ length: 12 }, (_, i) => i + 4));
+    for (const [name, text] of Object.entries(variants)) {
+      expect(analyzeText(text, QWP), name).toEqual(reference);
+      expect(analyzeBuffer(Buffer.from(text), QWP), name).toEqual(reference);
+    }
+  });
+
+  it('reads the instrument line the same way before the analysis', () => {
+    for (const text of Object.values(variants)) {
+      expect(readMetadata(text)).toEqual({ metadata: { instrument: 'BENCH-2', date: '2026-11-30' }, lines: { instrument: 1, date: 2 } });
+    }
+  });
+
+  it('returns the rows it read, with their lines, serials, wavelengths and cells', () => {
+    const result = analyzeText(lines('# instrument: BENCH-2', `${STOKES_HEADER},temperature_c`, '', good().map((r) => `${r},21.5`)), QWP);
+    expect(result.columns).toEqual([...STOKES_HEADER.split(','), 'temperature_c']);
+    expect(result.rows).toHaveLength(6);
+    expect(result.rows[0]).toEqual({ line: 4, serial: 'QW-0001', wavelengthNm: 632.8, cells: `${good()[0]},21.5`.split(',') });
+    expect(result.rows.map((r) => r.line)).toEqual(result.pieces[0].lines);
+  });
+});
+
+describe('files that must be refused whole', () => {
+  it('refuses a file with a header and no data rows', () => {
+    for (const text of [lines('# instrument: BENCH-2', STOKES_HEADER), lines(STOKES_HEADER, '', ''), `${STOKES_HEADER}\r\n\r\n`]) {
+      const result = analyzeText(text, QWP);
+      expect(result.fatal).toMatch(/^line [12]: the header is not followed by any data rows$/);
+      expect(result.rows).toEqual([]);
+    }
+  });
+
+  it('refuses a file whose instrument or date lines contradict each other, naming both lines', () => {
+    expect(analyzeText(lines('# instrument: BENCH-0', STOKES_HEADER, good(), '# instrument: BENCH-2'), QWP).fatal).toBe(
+      'line 9: "# instrument: BENCH-2" contradicts "# instrument: BENCH-0" on line 1',
+    );
+    expect(analyzeText(lines('# date: 2026-11-30', '# date: 2026-12-01', STOKES_HEADER, good()), QWP).fatal).toBe(
+      'line 2: "# date: 2026-12-01" contradicts "# date: 2026-11-30" on line 1',
+    );
+    // Saying the same thing twice is harmless.
+    expect(analyzeText(lines('# instrument: BENCH-2', '# instrument: BENCH-2', STOKES_HEADER, good()), QWP).fatal).toBeUndefined();
+  });
+});
+
+describe('repeated rows', () => {
+  it('reports every repeated row of a Stokes file with both line numbers', () => {
+    const rows = good();
+    const result = analyzeText(lines(STOKES_HEADER, rows.flatMap((r) => [r, r])), QWP);
+    expect(result.errors).toEqual(
+      ['H', 'V', 'D', 'A', 'R', 'L'].map((input, i) => ({
+        line: 3 + 2 * i,
+        message: `repeats line ${2 + 2 * i}: QW-0001 at 632.8 nm with input ${input} is already measured there`,
+      })),
+    );
+    expect(result.pieces[0].verdict).toBe('incomplete');
+  });
+
+  it('knows an input state by its polarisation, not by how the cell spells it', () => {
+    // Linear light at 0° is H and at 180° is the same state (Stokes parameters of linear light: Hecht ch. 8).
+    const rows = [...good(), 'QW-0001,632.8,0,1,1,0,0,0', 'QW-0001,632.8,180,1,1,0,0,0', 'QW-0001,632.8,h,1,1,0,0,0'];
+    expect(analyzeText(lines(STOKES_HEADER, rows), QWP).errors).toEqual([
+      { line: 8, message: 'repeats line 2: QW-0001 at 632.8 nm with input 0 is already measured there' },
+      { line: 9, message: 'repeats line 2: QW-0001 at 632.8 nm with input 180 is already measured there' },
+      { line: 10, message: 'repeats line 2: QW-0001 at 632.8 nm with input h is already measured there' },
+    ]);
+    // The same input at another wavelength or on another piece is a new measurement.
+    expect(analyzeText(lines(STOKES_HEADER, good('QW-0001', 632.8), good('QW-0001', 1064), good('QW-0002')), QWP).errors).toEqual([]);
+  });
+
+  it('reports a scan row at an angle already read with the same analyzer, and a second open row', () => {
+    const rows = ['HW-1,532,open,0,1000', 'HW-1,532,crossed,10,120', 'HW-1,532,parallel,10,880', 'HW-1,532,crossed,10,121', 'HW-1,532,open,0,999'];
+    expect(analyzeText(lines(SCAN_HEADER, rows), QWP).errors).toEqual([
+      { line: 5, message: 'repeats line 3: HW-1 at 532 nm with analyzer crossed at 10° is already measured there' },
+      { line: 6, message: 'repeats line 2: HW-1 at 532 nm with analyzer open is already measured there' },
+    ]);
+  });
+
+  it('averages repeated direct readings but refuses a copied one', () => {
+    const rows = ['QW-0010,632.8,0.2497,waves,0.2,0', 'QW-0010,632.8,0.2503,waves,0.4,0', 'QW-0010,632.8,0.2497,waves,0.2,0'];
+    expect(analyzeText(lines(DIRECT_HEADER, rows), QWP).errors).toEqual([
+      { line: 4, message: 'repeats line 2: QW-0010 at 632.8 nm with the same reading is already measured there' },
     ]);
   });
 });

@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import nodemailer from 'nodemailer';
 import { sequelize } from '../../../db';
-import { MeasurementFile, OutboxMail, PieceResult } from '../../../db/models';
+import { Instrument, MeasurementFile, OutboxMail, PieceResult, Reading } from '../../../db/models';
 import { stokesBenchFile } from '../../../db/seeders/benchFiles';
 import { app, as } from '../../../tests/helpers/api';
 import { pdfPages } from '../../../tests/helpers/pdfText';
@@ -82,6 +82,84 @@ describe('inspection of a lot through the API', () => {
     const { sample } = await sampleOf(lot.lotId);
     const response = await upload(`/api/inspection/lots/${lot.lotId}/measurements/preview`, 'old.csv', benchFile(sample, [], 'BENCH-0')).expect(200);
     expect(response.body.files[0].fatal).toMatch(/BENCH-0 was not in calibration .* its readings are refused/);
+  });
+
+  describe('bench files that cannot slip past the rules', () => {
+    const instrumentId = async (code: string) => (await Instrument.findOne({ where: { code } }))!.id;
+    const uploadOn = (path: string, name: string, content: string, instrument: number) =>
+      inspector.post(path).field('instrumentId', String(instrument)).attach('files', Buffer.from(content), { filename: name, contentType: 'text/csv' });
+
+    it('refuses a file with a byte-order mark that names an instrument out of calibration, whatever the form says', async () => {
+      const lot = await receivedLot({ quantity: 10 });
+      const { sample } = await sampleOf(lot.lotId);
+      const filesBefore = await MeasurementFile.count();
+      // The instrument line first, right behind the byte-order mark.
+      const old = benchFile(sample, [], 'BENCH-0').replace(/^# Invented.*\n/, '');
+      for (const text of [`\uFEFF${old}`, old.replaceAll('\n', '\r')]) {
+        const refused = await uploadOn(`/api/inspection/lots/${lot.lotId}/measurements`, 'old.csv', text, await instrumentId('BENCH-2')).expect(422);
+        expect(refused.body.error.details[0].fatal).toMatch(/^line 1: the file was measured on BENCH-0, not on BENCH-2 chosen for the upload/);
+        const preview = await upload(`/api/inspection/lots/${lot.lotId}/measurements/preview`, 'old.csv', text).expect(200);
+        expect(preview.body.files[0].fatal).toMatch(/BENCH-0 was not in calibration .* its readings are refused/);
+      }
+      expect(await MeasurementFile.count()).toBe(filesBefore);
+    });
+
+    it('stores the same readings from LF, CRLF and CR-only files with a byte-order mark, with their lines and the instrument line', async () => {
+      const lot = await receivedLot({ quantity: 8 });
+      const { sample } = await sampleOf(lot.lotId);
+      const lf = benchFile(sample);
+      const stored = [];
+      for (const [name, text] of [['lf.csv', lf], ['crlf.csv', `\uFEFF${lf.replaceAll('\n', '\r\n')}`], ['cr.csv', `\uFEFF${lf.replaceAll('\n', '\r')}`]]) {
+        const committed = await upload(`/api/inspection/lots/${lot.lotId}/measurements`, name, text).expect(201);
+        const { fileId, rows } = committed.body.files[0];
+        expect(rows).toBe(sample.length * 6);
+        const file = await MeasurementFile.findByPk(fileId);
+        expect(file!.metadata).toMatchObject({ instrument: 'BENCH-2', date: TODAY });
+        expect(file!.rowCount).toBe(rows);
+        stored.push((await Reading.findAll({ where: { fileId }, order: [['line', 'ASC']] })).map((r) => ({ line: r.line, serial: r.serial, wavelengthNm: r.wavelengthNm, fields: r.fields })));
+      }
+      // The header is line 5 of these files (four # lines before it).
+      expect(stored[0][0]).toMatchObject({ line: 6, serial: sample[0], wavelengthNm: 632.8, fields: { serial: sample[0], wavelength_nm: '632.8', input: 'H' } });
+      expect(stored[0].every((r) => r.serial !== '')).toBe(true);
+      expect(stored[1]).toEqual(stored[0]);
+      expect(stored[2]).toEqual(stored[0]);
+    });
+
+    it('refuses a header-only file, once and again, and saves nothing', async () => {
+      const lot = await receivedLot({ quantity: 5 });
+      const headerOnly = benchFile([]);
+      const filesBefore = await MeasurementFile.count();
+      for (let attempt = 0; attempt < 2; attempt++) {
+        const refused = await upload(`/api/inspection/lots/${lot.lotId}/measurements`, 'empty.csv', headerOnly).expect(422);
+        expect(refused.body.error.details[0].fatal).toBe('line 5: the header is not followed by any data rows');
+      }
+      expect(await MeasurementFile.count()).toBe(filesBefore);
+    });
+
+    it('refuses a file whose rows are all repeated, naming both lines of each pair', async () => {
+      const lot = await receivedLot({ quantity: 5 });
+      const { sample } = await sampleOf(lot.lotId);
+      const lines = benchFile(sample.slice(0, 1)).trimEnd().split('\n');
+      const doubled = [...lines.slice(0, 5), ...lines.slice(5).flatMap((row) => [row, row])].join('\n');
+      const preview = await upload(`/api/inspection/lots/${lot.lotId}/measurements/preview`, 'twice.csv', doubled).expect(200);
+      expect(preview.body.files[0].errors).toHaveLength(6);
+      expect(preview.body.files[0].errors[0]).toEqual({ line: 7, message: `repeats line 6: ${sample[0]} at 632.8 nm with input H is already measured there` });
+      const filesBefore = await MeasurementFile.count();
+      await upload(`/api/inspection/lots/${lot.lotId}/measurements`, 'twice.csv', doubled).expect(422);
+      expect(await MeasurementFile.count()).toBe(filesBefore);
+    });
+
+    it('refuses a file whose date is not a date or lies in the future', async () => {
+      const lot = await receivedLot({ quantity: 5 });
+      const { sample } = await sampleOf(lot.lotId);
+      for (const [date, message] of [
+        ['2026/11/30', 'line 4: the date "2026/11/30" is not a date (expected YYYY-MM-DD)'],
+        ['2999-01-01', 'line 4: the date 2999-01-01 is in the future'],
+      ]) {
+        const preview = await upload(`/api/inspection/lots/${lot.lotId}/measurements/preview`, 'dated.csv', benchFile(sample).replace(`# date: ${TODAY}`, `# date: ${date}`)).expect(200);
+        expect(preview.body.files[0].fatal).toBe(message);
+      }
+    });
   });
 
   it('commits readings, accepts with a signature, issues a certificate whose PDF shows the stored numbers, then supersedes it by a rejection mailed to the buyer', async () => {
