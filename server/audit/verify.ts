@@ -1,30 +1,62 @@
 // Re-computes the audit chain inside PostgreSQL and reports the first rows where it breaks: a row
-// whose content no longer matches its digest, or whose link does not point at the row before it.
-import { QueryTypes } from 'sequelize';
+// whose content no longer matches its digest, whose link does not point at the row before it in
+// chain order, or that follows a gap; and a head that does not name the last row (rows cut off the end). Everything is read from one snapshot, so writers running meanwhile never look like a break.
+import { QueryTypes, Transaction } from 'sequelize';
 import { sequelize } from '../../db';
+
+export type ChainProblem = 'content changed' | 'link broken' | 'rows missing before it' | 'head does not name the last row';
+
+export type ChainHead = { seq: string; hash: string | null; occurredAt: string | null };
 
 export type ChainReport = {
   intact: boolean;
   checked: number;
-  problems: { id: string; problem: 'content changed' | 'link broken' }[];
+  head: ChainHead;
+  problems: { id: string | null; seq: string; problem: ChainProblem }[];
 };
 
-export async function verifyAuditChain(): Promise<ChainReport> {
-  const [{ checked }] = await sequelize.query<{ checked: string }>('SELECT count(*) AS checked FROM audit_events', { type: QueryTypes.SELECT });
-  const broken = await sequelize.query<{ id: string; content_ok: boolean; link_ok: boolean }>(
-    `SELECT id, content_ok, link_ok FROM (
-       SELECT id,
-              audit_event_digest(prev_hash, a) = hash AS content_ok,
-              prev_hash IS NOT DISTINCT FROM lag(hash) OVER (ORDER BY id) AS link_ok
-       FROM audit_events a
-     ) chain
-     WHERE NOT content_ok OR NOT link_ok
-     ORDER BY id LIMIT 50`,
-    { type: QueryTypes.SELECT },
+const MAX_PROBLEMS = 50;
+
+/** The last link of the chain: the number of events so far and the hash an outside copy can anchor. */
+export async function chainHead(transaction?: Transaction): Promise<ChainHead> {
+  const [head] = await sequelize.query<{ seq: string; hash: string | null; occurred_at: Date | null }>(
+    `SELECT h.seq, h.hash, e.occurred_at FROM audit_chain_head h LEFT JOIN audit_events e ON e.seq = h.seq`,
+    { type: QueryTypes.SELECT, transaction },
   );
-  return {
-    intact: broken.length === 0,
-    checked: Number(checked),
-    problems: broken.map((row) => ({ id: row.id, problem: row.content_ok ? 'link broken' : 'content changed' })),
-  };
+  return { seq: String(head.seq), hash: head.hash, occurredAt: head.occurred_at?.toISOString() ?? null };
+}
+
+async function verifyIn(transaction: Transaction): Promise<ChainReport> {
+  const [{ checked, last_seq, last_hash }] = await sequelize.query<{ checked: string; last_seq: string | null; last_hash: string | null }>(
+    `SELECT count(*) AS checked, max(seq) AS last_seq, (SELECT hash FROM audit_events ORDER BY seq DESC LIMIT 1) AS last_hash FROM audit_events`,
+    { type: QueryTypes.SELECT, transaction },
+  );
+  const broken = await sequelize.query<{ id: string; seq: string; content_ok: boolean; link_ok: boolean; in_place: boolean }>(
+    `SELECT id, seq, content_ok, link_ok, in_place FROM (
+       SELECT id, seq,
+              audit_event_digest(prev_hash, a) = hash AS content_ok,
+              prev_hash IS NOT DISTINCT FROM lag(hash) OVER chain AS link_ok,
+              seq = coalesce(lag(seq) OVER chain, 0) + 1 AS in_place
+       FROM audit_events a
+       WINDOW chain AS (ORDER BY seq)
+     ) checked
+     WHERE NOT (content_ok AND link_ok AND in_place)
+     ORDER BY seq LIMIT ${MAX_PROBLEMS}`,
+    { type: QueryTypes.SELECT, transaction },
+  );
+  const problems: ChainReport['problems'] = broken.map((row) => ({
+    id: row.id,
+    seq: row.seq,
+    problem: !row.content_ok ? 'content changed' : !row.in_place ? 'rows missing before it' : 'link broken',
+  }));
+  const head = await chainHead(transaction);
+  if (head.seq !== String(last_seq ?? 0) || head.hash !== last_hash) {
+    problems.push({ id: null, seq: head.seq, problem: 'head does not name the last row' });
+  }
+  return { intact: problems.length === 0, checked: Number(checked), head, problems: problems.slice(0, MAX_PROBLEMS) };
+}
+
+export function verifyAuditChain(transaction?: Transaction): Promise<ChainReport> {
+  if (transaction) return verifyIn(transaction);
+  return sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true }, verifyIn);
 }

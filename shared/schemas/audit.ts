@@ -13,6 +13,8 @@ export type AuditQuery = z.infer<typeof auditQuerySchema>;
 
 export type AuditEventView = {
   id: string;
+  /** Position in the hash chain; rows link to the one at seq - 1. */
+  seq: string;
   occurredAt: string;
   actorEmail: string | null;
   actorRoles: string[];
@@ -23,5 +25,9 @@ export type AuditEventView = {
   after: unknown;
   requestId: string | null;
   address: string | null;
+  prevHash: string | null;
   hash: string;
 };
+
+/** The last link of the audit chain, for an outside copy to anchor. */
+export type AuditChainHead = { seq: string; hash: string | null; occurredAt: string | null };

@@ -52,7 +52,7 @@ describe('audit trail', () => {
     await rewrite({ forged: true });
     const tampered = await auditor.get('/api/audit/verify').expect(200);
     expect(tampered.body.intact).toBe(false);
-    expect(tampered.body.problems).toContainEqual({ id, problem: 'content changed' });
+    expect(tampered.body.problems).toContainEqual(expect.objectContaining({ id, problem: 'content changed' }));
     await rewrite(after);
     expect((await auditor.get('/api/audit/verify').expect(200)).body.intact).toBe(true);
   });

@@ -3,7 +3,7 @@ import { auditQuerySchema, type AuditQuery } from '../../../shared/schemas/audit
 import { allow, authenticate } from '../../auth/authenticate';
 import { actorOf, recordAudit } from '../../audit/record';
 import { AUDIT_CSV_COLUMNS, listAuditEvents, streamAuditEvents } from '../../audit/query';
-import { verifyAuditChain } from '../../audit/verify';
+import { chainHead, verifyAuditChain } from '../../audit/verify';
 import { sendCsv } from '../../http/csv';
 import { validate } from '../../http/validate';
 
@@ -15,6 +15,10 @@ auditRouter.get('/', authenticate, allow('audit.read'), validate({ query: auditQ
 
 auditRouter.get('/verify', authenticate, allow('audit.read'), async (_req, res) => {
   res.json(await verifyAuditChain());
+});
+
+auditRouter.get('/head', authenticate, allow('audit.read'), async (_req, res) => {
+  res.json(await chainHead());
 });
 
 auditRouter.get('/export.csv', authenticate, allow('audit.read'), validate({ query: auditQuerySchema }), async (req, res) => {
