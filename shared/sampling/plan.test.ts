@@ -1,12 +1,13 @@
-// Entries of ISO 2859-1:1999 Tables 1, 2-A, 2-B and 2-C, recalled from memory. The tables are
-// exact integers, so the checks are exact; the uncertainty is in the recall, not in a tolerance.
+// Worked entries of the single sampling tables: ISO 2859-1 / ANSI/ASQ Z1.4 Table 1 and Tables 2-A
+// and 2-B, and Z1.4 Table II-C for reduced inspection, as published in the AQLSchemes R package
+// (R/AAZ14Single.R, copied whole into tables.test.ts, which checks every cell). Exact integers.
 import { describe, expect, it } from 'vitest';
-import { SamplingInputError, codeLetterFor, planFor, tighterNormalAcceptance } from './plan';
+import { SamplingInputError, codeLetterFor, describeSamplingPlan, planFor, tighterNormalAcceptance } from './plan';
 import { AQL_VALUES, CODE_LETTERS, PLAN_TABLES, parseCell, type InspectionLevel } from './tables';
 
 describe('code letters', () => {
   it.each([
-    // [lot size, level, letter] — ISO 2859-1:1999 Table 1 (from memory)
+    // [lot size, level, letter] — Table 1 (AQLSchemes R/AAZ14Single.R, `letters`)
     [400, 'II', 'H'],
     [281, 'II', 'H'],
     [280, 'II', 'G'],
@@ -33,18 +34,18 @@ describe('code letters', () => {
 });
 
 const plan = (lotSize: number, level: InspectionLevel, aql: number, severity = 'normal') => planFor({ lotSize, level, aql, severity });
-const essentials = ({ codeLetter, sampleSize, accept, reject, resolvedFromLetter, hundredPercent }: ReturnType<typeof planFor>) => ({
+const essentials = ({ codeLetter, planLetter, sampleSize, accept, reject, hundredPercent }: ReturnType<typeof planFor>) => ({
   codeLetter,
+  planLetter,
   sampleSize,
   accept,
   reject,
-  resolvedFromLetter,
   hundredPercent,
 });
 
 describe('normal inspection', () => {
   it.each([
-    // [lot, level, AQL, letter, n, Ac, Re] — ISO 2859-1:1999 Table 2-A (from memory)
+    // [lot, level, AQL, letter, n, Ac, Re] — Table 2-A (AQLSchemes R/AAZ14Single.R, normal)
     [400, 'II', 1.0, 'H', 50, 1, 2],
     [400, 'II', 0.25, 'H', 50, 0, 1],
     [400, 'II', 1.5, 'H', 50, 2, 3],
@@ -63,79 +64,84 @@ describe('normal inspection', () => {
     [100, 'II', 6.5, 'F', 20, 3, 4],
     [1_000_000, 'III', 0.065, 'R', 2000, 3, 4],
   ] as const)('lot %i, level %s, AQL %s → %s, n = %i, Ac %i / Re %i', (lotSize, level, aql, codeLetter, sampleSize, accept, reject) => {
-    expect(essentials(plan(lotSize, level, aql))).toEqual({ codeLetter, sampleSize, accept, reject, resolvedFromLetter: undefined, hundredPercent: false });
+    expect(essentials(plan(lotSize, level, aql))).toEqual({ codeLetter, planLetter: codeLetter, sampleSize, accept, reject, hundredPercent: false });
   });
 });
 
 describe('arrows', () => {
   it.each([
-    // [lot, level, AQL, Table 1 letter, letter reached, n, Ac, Re] — ISO 2859-1:1999 Table 2-A (from memory)
+    // [lot, level, AQL, Table 1 letter, letter reached, n, Ac, Re] — Table 2-A (AQLSchemes R/AAZ14Single.R, normal)
     [400, 'II', 0.65, 'H', 'J', 80, 1, 2], // ↓ to the first plan below: larger n, Ac 1
     [400, 'II', 0.4, 'H', 'G', 32, 0, 1], // ↑ to the first plan above: smaller n, Ac 0
     [400, 'II', 0.1, 'H', 'K', 125, 0, 1], // ↓ over three letters
     [400, 'II', 0.065, 'H', 'L', 200, 0, 1],
+    [20, 'II', 1.0, 'C', 'E', 13, 0, 1], // a lot of 20 is code letter C; its arrow leads to the plan of E
     [2000, 'II', 0.15, 'K', 'J', 80, 0, 1], // ↑ right under the 0/1 plan
     [1_000_000, 'III', 10, 'R', 'K', 125, 21, 22], // ↑ from below the largest plan of the column
     [1_000_000, 'III', 1.0, 'R', 'Q', 1250, 21, 22],
-  ] as const)('lot %i, level %s, AQL %s: %s leads to %s, n = %i, Ac %i / Re %i', (lotSize, level, aql, fromLetter, codeLetter, sampleSize, accept, reject) => {
-    expect(essentials(plan(lotSize, level, aql))).toEqual({ codeLetter, sampleSize, accept, reject, resolvedFromLetter: fromLetter, hundredPercent: false });
+  ] as const)('lot %i, level %s, AQL %s: %s leads to %s, n = %i, Ac %i / Re %i', (lotSize, level, aql, codeLetter, planLetter, sampleSize, accept, reject) => {
+    expect(essentials(plan(lotSize, level, aql))).toEqual({ codeLetter, planLetter, sampleSize, accept, reject, hundredPercent: false });
   });
 
   it('takes the first plan below where the up arrow of code letter A at AQL 10 has none above it', () => {
-    // Table 2-A (from memory) leaves this arrow without a plan; this module's documented choice.
-    expect(essentials(plan(60, 'S-2', 10))).toEqual({ codeLetter: 'C', sampleSize: 5, accept: 1, reject: 2, resolvedFromLetter: 'B', hundredPercent: false });
-    expect(plan(400, 'S-1', 10).codeLetter).toBe('C');
-    expect(essentials(plan(8, 'S-1', 10))).toMatchObject({ codeLetter: 'C', resolvedFromLetter: 'A', sampleSize: 5, accept: 1 });
+    // AQLSchemes R/AAZ14Single.R resolves A at AQL 10 to n = 5, Ac 1 / Re 2 (C) on normal and to
+    // n = 2, Ac 0 / Re 2 (C) on reduced inspection.
+    expect(essentials(plan(60, 'S-2', 10))).toEqual({ codeLetter: 'B', planLetter: 'C', sampleSize: 5, accept: 1, reject: 2, hundredPercent: false });
+    expect(plan(400, 'S-1', 10).planLetter).toBe('C');
+    expect(essentials(plan(8, 'S-1', 10))).toMatchObject({ codeLetter: 'A', planLetter: 'C', sampleSize: 5, accept: 1 });
+    expect(essentials(plan(8, 'S-1', 10, 'reduced'))).toMatchObject({ codeLetter: 'A', planLetter: 'C', sampleSize: 2, accept: 0, reject: 2 });
   });
 });
 
 describe('tightened and reduced inspection', () => {
   it.each([
-    // [severity, lot, level, AQL, letter, n, Ac, Re, Table 1 letter if an arrow moved it]
-    // ISO 2859-1:1999 Table 2-B (from memory)
-    ['tightened', 2000, 'II', 1.0, 'K', 125, 2, 3, undefined],
-    ['tightened', 2000, 'II', 2.5, 'K', 125, 5, 6, undefined],
-    ['tightened', 2000, 'II', 6.5, 'K', 125, 12, 13, undefined],
-    ['tightened', 2000, 'II', 10, 'K', 125, 18, 19, undefined],
-    ['tightened', 400, 'II', 2.5, 'H', 50, 2, 3, undefined],
-    ['tightened', 400, 'II', 4.0, 'H', 50, 3, 4, undefined],
-    ['tightened', 400, 'II', 0.65, 'H', 50, 0, 1, undefined],
-    ['tightened', 400, 'II', 1.0, 'J', 80, 1, 2, 'H'], // ↓: tightened needs n = 80 for Ac 1 where normal had n = 50
-    ['tightened', 400, 'II', 0.25, 'K', 125, 0, 1, 'H'],
-    // ISO 2859-1:1999 Table 2-C (from memory)
-    ['reduced', 2000, 'II', 1.0, 'K', 50, 1, 2, undefined],
-    ['reduced', 2000, 'II', 2.5, 'K', 50, 3, 4, undefined],
-    ['reduced', 2000, 'II', 10, 'K', 50, 10, 11, undefined],
-    ['reduced', 2000, 'II', 0.25, 'K', 50, 0, 1, undefined],
-    ['reduced', 2000, 'II', 0.4, 'J', 32, 0, 1, 'K'],
-    ['reduced', 400, 'II', 0.65, 'H', 20, 0, 1, undefined],
-    ['reduced', 400, 'II', 1.0, 'G', 13, 0, 1, 'H'],
-    ['reduced', 10000, 'II', 4.0, 'L', 80, 7, 8, undefined],
+    // [severity, lot, level, AQL, Table 1 letter, plan letter, n, Ac, Re]
+    // Table 2-B (AQLSchemes R/AAZ14Single.R, tightened)
+    ['tightened', 2000, 'II', 1.0, 'K', 'K', 125, 2, 3],
+    ['tightened', 2000, 'II', 2.5, 'K', 'K', 125, 5, 6],
+    ['tightened', 2000, 'II', 6.5, 'K', 'K', 125, 12, 13],
+    ['tightened', 2000, 'II', 10, 'K', 'K', 125, 18, 19],
+    ['tightened', 400, 'II', 2.5, 'H', 'H', 50, 2, 3],
+    ['tightened', 400, 'II', 4.0, 'H', 'H', 50, 3, 4],
+    ['tightened', 400, 'II', 0.25, 'H', 'J', 80, 0, 1], // the 0/1 plan one letter below normal's (H)
+    ['tightened', 400, 'II', 1.0, 'H', 'J', 80, 1, 2],
+    ['tightened', 400, 'II', 0.65, 'H', 'K', 125, 1, 2], // two down arrows between 0/1 (G) and 1/2 (K)
+    // Z1.4 Table II-C (AQLSchemes R/AAZ14Single.R, reduced): n two letters up, Re with a gap
+    ['reduced', 2000, 'II', 1.0, 'K', 'K', 50, 1, 4],
+    ['reduced', 2000, 'II', 2.5, 'K', 'K', 50, 3, 6],
+    ['reduced', 2000, 'II', 10, 'K', 'K', 50, 10, 13],
+    ['reduced', 2000, 'II', 0.4, 'K', 'K', 50, 0, 2],
+    ['reduced', 2000, 'II', 0.25, 'K', 'L', 80, 0, 2],
+    ['reduced', 400, 'II', 0.065, 'H', 'L', 80, 0, 1], // normal inspection draws n = 200 here
+    ['reduced', 400, 'II', 0.65, 'H', 'J', 32, 0, 2],
+    ['reduced', 400, 'II', 1.0, 'H', 'H', 20, 0, 2],
+    ['reduced', 10000, 'II', 4.0, 'L', 'L', 80, 7, 10],
   ] as const)(
-    '%s: lot %i, level %s, AQL %s → %s, n = %i, Ac %i / Re %i',
-    (severity, lotSize, level, aql, codeLetter, sampleSize, accept, reject, resolvedFromLetter) => {
-      expect(essentials(plan(lotSize, level, aql, severity))).toEqual({ codeLetter, sampleSize, accept, reject, resolvedFromLetter, hundredPercent: false });
+    '%s: lot %i, level %s, AQL %s → code letter %s, plan %s, n = %i, Ac %i / Re %i',
+    (severity, lotSize, level, aql, codeLetter, planLetter, sampleSize, accept, reject) => {
+      expect(essentials(plan(lotSize, level, aql, severity))).toEqual({ codeLetter, planLetter, sampleSize, accept, reject, hundredPercent: false });
     },
   );
 });
 
 describe('100 % inspection when n ≥ N', () => {
   it('inspects the whole lot when the plan reached by an arrow is larger than the lot', () => {
-    // Lot of 10 at level II is B; AQL 1.0 is ↓ to E, n = 13 > 10 (ISO 2859-1:1999 Tables 1, 2-A, from memory).
-    expect(essentials(plan(10, 'II', 1.0))).toEqual({ codeLetter: 'E', sampleSize: 10, accept: 0, reject: 1, resolvedFromLetter: 'B', hundredPercent: true });
+    // Lot of 10 at level II is B; AQL 1.0 is ↓ to E, n = 13 > 10 (Tables 1, 2-A; AQLSchemes R/AAZ14Single.R,
+    // whose note says to inspect every piece when the sample size exceeds the lot size).
+    expect(essentials(plan(10, 'II', 1.0))).toEqual({ codeLetter: 'B', planLetter: 'E', sampleSize: 13, accept: 0, reject: 1, hundredPercent: true });
   });
 
   it('inspects the whole lot when n equals N', () => {
-    // Lot of 2 at level II is A, AQL 6.5 gives n = 2, Ac 0 (ISO 2859-1:1999 Tables 1, 2-A, from memory).
-    expect(essentials(plan(2, 'II', 6.5))).toEqual({ codeLetter: 'A', sampleSize: 2, accept: 0, reject: 1, resolvedFromLetter: undefined, hundredPercent: true });
+    // Lot of 2 at level II is A, AQL 6.5 gives n = 2, Ac 0 (Tables 1, 2-A; AQLSchemes R/AAZ14Single.R).
+    expect(essentials(plan(2, 'II', 6.5))).toEqual({ codeLetter: 'A', planLetter: 'A', sampleSize: 2, accept: 0, reject: 1, hundredPercent: true });
   });
 
   it('inspects a lot of one piece', () => {
-    expect(plan(1, 'II', 1.0)).toMatchObject({ sampleSize: 1, hundredPercent: true });
+    expect(plan(1, 'II', 1.0)).toMatchObject({ planLetter: 'E', sampleSize: 13, hundredPercent: true });
   });
 
   it('does not call a plan 100 % when n is below N', () => {
-    // Lot of 14 at level II is B; AQL 4.0 gives n = 3, Ac 0 (Table 2-A, from memory).
+    // Lot of 14 at level II is B; AQL 4.0 gives n = 3, Ac 0 (Table 2-A; AQLSchemes R/AAZ14Single.R).
     expect(plan(14, 'II', 4.0)).toMatchObject({ codeLetter: 'B', sampleSize: 3, hundredPercent: false });
   });
 });
@@ -164,13 +170,13 @@ describe('input validation', () => {
 
 describe('one AQL step tighter, for the switching score', () => {
   it('reads the normal plan one column to the left', () => {
-    // K at AQL 2.5 is 7/8; at 1.5 it is 5/6 (ISO 2859-1:1999 Table 2-A, from memory).
+    // K at AQL 2.5 is 7/8; at 1.5 it is 5/6 (Table 2-A; AQLSchemes R/AAZ14Single.R).
     expect(tighterNormalAcceptance('K', 2.5)).toBe(5);
     expect(tighterNormalAcceptance('H', 1.5)).toBe(1);
   });
 
   it('below the tightest AQL offered, uses the diagonal, which agrees with the direct reading wherever both exist', () => {
-    // Q at AQL 0.065 is 2/3; one step tighter (0.040) is 1/2 (Table 2-A, from memory).
+    // Q at AQL 0.065 is 2/3; one step tighter (0.040) is 1/2 (Table 2-A; AQLSchemes R/AAZ14Single.R, c4).
     expect(tighterNormalAcceptance('Q', 0.065)).toBe(1);
     for (let row = 1; row < CODE_LETTERS.length; row++) {
       for (let column = 1; column < AQL_VALUES.length; column++) {
@@ -178,5 +184,26 @@ describe('one AQL step tighter, for the switching score', () => {
         expect(tighterNormalAcceptance(CODE_LETTERS[row], AQL_VALUES[column])).toBe(fromDiagonal);
       }
     }
+  });
+});
+
+describe('the plan in words', () => {
+  it('names both letters when an arrow leads away from the code letter', () => {
+    expect(describeSamplingPlan(plan(20, 'II', 1.0))).toBe(
+      'Single sampling, normal inspection per ISO 2859-1 Table 2-A, level II, AQL 1: code letter C (plan of letter E after the arrow), n = 13, Ac 0, Re 1',
+    );
+    expect(describeSamplingPlan(plan(400, 'II', 1.0))).toContain('code letter H, n = 50, Ac 1, Re 2');
+  });
+
+  it('names the Z1.4 table on reduced inspection and says what a result inside the gap does', () => {
+    // Z1.4 reduced inspection: above Ac but below Re, the lot is accepted and normal inspection is reinstated (common practice).
+    const text = describeSamplingPlan(plan(2000, 'II', 1.0, 'reduced'));
+    expect(text).toMatch(/^Single sampling, reduced inspection per ANSI\/ASQ Z1\.4 Table II-C, level II, AQL 1: code letter K, n = 50, Ac 1, Re 4; /);
+    expect(text).toContain('a result between Ac and Re accepts the lot and normal inspection resumes');
+    expect(describeSamplingPlan(plan(400, 'II', 0.065, 'reduced'))).not.toContain('between Ac and Re');
+  });
+
+  it('says when every piece is inspected', () => {
+    expect(describeSamplingPlan({ ...plan(10, 'II', 1.0), sampleSize: 10 })).toContain('code letter B (plan of letter E after the arrow), every piece inspected (10), Ac 0, Re 1');
   });
 });

@@ -55,16 +55,16 @@ export interface SamplingPlan {
   level: InspectionLevel;
   aql: Aql;
   severity: Severity;
-  /** The code letter whose plan is used, after following any arrow of the table. */
+  /** Table 1's code letter of the lot size at the inspection level. */
   codeLetter: CodeLetter;
-  /** Pieces to inspect; equals lotSize when hundredPercent. */
+  /** The code letter whose plan is used: the row the table's arrow leads to, else codeLetter. */
+  planLetter: CodeLetter;
+  /** The table's n for the plan letter; when hundredPercent, every piece of the lot is inspected instead. */
   sampleSize: number;
   accept: number;
   reject: number;
   /** The plan's sample size reached or passed the lot size, so every piece is inspected. */
   hundredPercent: boolean;
-  /** The Table 1 letter, present only when an arrow led to another letter. */
-  resolvedFromLetter?: CodeLetter;
 }
 
 export function codeLetterFor(lotSize: number, level: InspectionLevel): CodeLetter {
@@ -91,8 +91,8 @@ function findPlanInColumn(severity: Severity, aqlIndex: number, fromLetter: numb
 
 /**
  * Follows the arrows of the table from a cell to the plan they lead to. The one arrow with no
- * plan in its direction (code letter A at AQL 10 on normal inspection) is taken the other way,
- * to the first plan below.
+ * plan in its direction (code letter A at AQL 10, normal and reduced) is taken the other way, to
+ * the first plan below, as the published tables resolve it.
  */
 export function resolveCell(severity: Severity, letter: CodeLetter, aql: Aql): ResolvedCell {
   const letterIndex = CODE_LETTERS.indexOf(letter);
@@ -114,9 +114,8 @@ export function planFor(input: SamplingInput): SamplingPlan {
   if (!parsed.success) throw new SamplingInputError(parsed.error.issues.map((issue) => issue.message));
   const { lotSize, level, severity } = parsed.data;
   const aql = parsed.data.aql as Aql;
-  const tableLetter = codeLetterFor(lotSize, level);
-  const resolved = resolveCell(severity, tableLetter, aql);
-  const codeLetter = CODE_LETTERS[resolved.letterIndex];
+  const codeLetter = codeLetterFor(lotSize, level);
+  const resolved = resolveCell(severity, codeLetter, aql);
   const tableSampleSize = SAMPLE_SIZES[severity][resolved.letterIndex];
   const hundredPercent = tableSampleSize >= lotSize;
   return {
@@ -125,11 +124,11 @@ export function planFor(input: SamplingInput): SamplingPlan {
     aql,
     severity,
     codeLetter,
-    sampleSize: hundredPercent ? lotSize : tableSampleSize,
+    planLetter: CODE_LETTERS[resolved.letterIndex],
+    sampleSize: tableSampleSize,
     accept: resolved.accept,
     reject: resolved.reject,
     hundredPercent,
-    ...(codeLetter !== tableLetter ? { resolvedFromLetter: tableLetter } : {}),
   };
 }
 
@@ -148,4 +147,39 @@ export function tighterNormalAcceptance(letter: CodeLetter, aql: Aql): number | 
         ? PLAN_TABLES.normal[CODE_LETTERS[letterIndex - 1]][aqlIndex]
         : '↓';
   return parseCell(cell)?.accept ?? null;
+}
+
+/** Where a severity's plans come from, as the plan text names it. */
+export const PLAN_TABLE_NAMES: Readonly<Record<Severity, string>> = {
+  normal: 'ISO 2859-1 Table 2-A',
+  tightened: 'ISO 2859-1 Table 2-B',
+  reduced: 'ANSI/ASQ Z1.4 Table II-C',
+};
+
+/** Both letters in words: "code letter C (plan of letter E after the arrow)". */
+export function describeLetters(codeLetter: string, planLetter: string): string {
+  return codeLetter === planLetter ? `code letter ${codeLetter}` : `code letter ${codeLetter} (plan of letter ${planLetter} after the arrow)`;
+}
+
+/** A plan as stored with a lot or answered by the look-up; sampleSize is what is inspected. */
+export interface PlanForText {
+  severity: Severity;
+  level: string;
+  aql: number;
+  codeLetter: string;
+  planLetter: string;
+  sampleSize: number;
+  accept: number;
+  reject: number;
+  hundredPercent: boolean;
+}
+
+/** The plan in one sentence, for pages, documents and the switching history. */
+export function describeSamplingPlan(plan: PlanForText): string {
+  const size = plan.hundredPercent ? `every piece inspected (${plan.sampleSize})` : `n = ${plan.sampleSize}`;
+  const gap = plan.reject > plan.accept + 1 ? `; a result between Ac and Re accepts the lot and normal inspection resumes` : '';
+  return (
+    `Single sampling, ${plan.severity} inspection per ${PLAN_TABLE_NAMES[plan.severity]}, level ${plan.level}, AQL ${plan.aql}: ` +
+    `${describeLetters(plan.codeLetter, plan.planLetter)}, ${size}, Ac ${plan.accept}, Re ${plan.reject}${gap}`
+  );
 }

@@ -1,7 +1,7 @@
-// ISO 2859-1:1999 single sampling tables by attributes (the same tables as ANSI/ASQ Z1.4),
-// encoded as data. Every table here was recalled from memory, not copied from a printed
-// copy of the standard; tables.test.ts checks the structure the real tables are known to have
-// (constant diagonals, arrows that lead to a plan) and a set of individual entries.
+// Single sampling tables by attributes, encoded as data: Table 1 (code letters) and Tables 2-A
+// (normal) and 2-B (tightened), which ISO 2859-1 and ANSI/ASQ Z1.4 share, and for reduced
+// inspection ANSI/ASQ Z1.4 Table II-C, whose plans keep a gap between Ac and Re. tables.test.ts
+// checks every cell offered here, arrows followed, against a published encoding of the tables.
 
 export const INSPECTION_LEVELS = ['S-1', 'S-2', 'S-3', 'S-4', 'I', 'II', 'III'] as const;
 export type InspectionLevel = (typeof INSPECTION_LEVELS)[number];
@@ -27,7 +27,7 @@ export interface LotSizeRow {
   readonly letters: LevelLetters;
 }
 
-/** Table 1 — sample size code letters (from memory). */
+/** Table 1 — sample size code letters. */
 export const LOT_SIZE_ROWS: readonly LotSizeRow[] = [
   //                                 S-1  S-2  S-3  S-4   I    II   III
   { min: 2, max: 8, letters: /*   */ ['A', 'A', 'A', 'A', 'A', 'A', 'B'] },
@@ -47,7 +47,7 @@ export const LOT_SIZE_ROWS: readonly LotSizeRow[] = [
   { min: 500001, max: Number.POSITIVE_INFINITY, letters: ['D', 'E', 'H', 'K', 'N', 'Q', 'R'] },
 ];
 
-/** Sample size per code letter, A to R, for each severity (from memory). */
+/** Sample size per code letter, A to R, for each severity. */
 export const SAMPLE_SIZES: Readonly<Record<Severity, readonly number[]>> = {
   normal: [2, 3, 5, 8, 13, 20, 32, 50, 80, 125, 200, 315, 500, 800, 1250, 2000],
   // Table 2-B also has a row S (n = 3150); it is only reached from AQLs below 0.065.
@@ -71,7 +71,7 @@ type PlanGrid = Readonly<Record<CodeLetter, AqlRow>>;
 // Columns in the order of AQL_VALUES:
 //        0.065    0.10    0.15    0.25    0.40    0.65     1.0     1.5     2.5     4.0     6.5      10
 
-/** Table 2-A — single sampling plans for normal inspection (from memory). */
+/** Table 2-A — single sampling plans for normal inspection. */
 const NORMAL: PlanGrid = {
   A: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑'],
   B: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓'],
@@ -91,49 +91,52 @@ const NORMAL: PlanGrid = {
   R: [  '3/4',  '5/6',  '7/8','10/11','14/15','21/22',    '↑',    '↑',    '↑',    '↑',    '↑',    '↑'],
 };
 
-/** Table 2-B — single sampling plans for tightened inspection (from memory). */
+/**
+ * Table 2-B — single sampling plans for tightened inspection. Each 0/1 plan sits one code letter
+ * below its place on normal inspection, with two down arrows between it and the next 1/2.
+ */
 const TIGHTENED: PlanGrid = {
   A: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓'],
-  B: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1'],
-  C: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓'],
-  D: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',  '1/2'],
-  E: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',  '1/2',  '2/3'],
-  F: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',  '1/2',  '2/3',  '3/4'],
-  G: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',  '1/2',  '2/3',  '3/4',  '5/6'],
-  H: [    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9'],
-  J: [    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13'],
-  K: [    '↓',    '↓',    '↓',  '0/1',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19'],
-  L: [    '↓',    '↓',  '0/1',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19',    '↑'],
-  M: [    '↓',  '0/1',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19',    '↑',    '↑'],
-  N: [  '0/1',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19',    '↑',    '↑',    '↑'],
+  B: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓'],
+  C: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',    '↓'],
+  D: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',    '↓',  '1/2'],
+  E: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',    '↓',  '1/2',  '2/3'],
+  F: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',    '↓',  '1/2',  '2/3',  '3/4'],
+  G: [    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',    '↓',  '1/2',  '2/3',  '3/4',  '5/6'],
+  H: [    '↓',    '↓',    '↓',    '↓',  '0/1',    '↓',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9'],
+  J: [    '↓',    '↓',    '↓',  '0/1',    '↓',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13'],
+  K: [    '↓',    '↓',  '0/1',    '↓',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19'],
+  L: [    '↓',  '0/1',    '↓',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19',    '↑'],
+  M: [  '0/1',    '↓',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19',    '↑',    '↑'],
+  N: [    '↓',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19',    '↑',    '↑',    '↑'],
   P: [    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19',    '↑',    '↑',    '↑',    '↑'],
   Q: [  '1/2',  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19',    '↑',    '↑',    '↑',    '↑',    '↑'],
   R: [  '2/3',  '3/4',  '5/6',  '8/9','12/13','18/19',    '↑',    '↑',    '↑',    '↑',    '↑',    '↑'],
 };
 
 /**
- * Table 2-C — single sampling plans for reduced inspection (from memory). In the 1999 edition
- * the rejection number is always Ac + 1 (the earlier editions' gap between Ac and Re is gone),
- * and from code letter C on each row repeats the normal plans of the letter two places up,
- * whose sample size it also has.
+ * ANSI/ASQ Z1.4 Table II-C — single sampling plans for reduced inspection. Its arrows are those of
+ * Table 2-A; from 1/2 on, the plans keep a gap between Ac and Re (a result inside the gap accepts
+ * the lot and ends reduced inspection). ISO 2859-1:1999 closed the gap instead; Phaselot follows
+ * Z1.4, whose table is published cell by cell.
  */
 const REDUCED: PlanGrid = {
-  A: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓'],
-  B: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1'],
-  C: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑'],
-  D: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓'],
-  E: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '1/2'],
-  F: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '1/2',  '2/3'],
-  G: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '1/2',  '2/3',  '3/4'],
-  H: [    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '1/2',  '2/3',  '3/4',  '5/6'],
-  J: [    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '7/8'],
-  K: [    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '7/8','10/11'],
-  L: [    '↓',    '↓',  '0/1',    '↑',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '7/8','10/11','14/15'],
-  M: [    '↓',  '0/1',    '↑',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '7/8','10/11','14/15','21/22'],
-  N: [  '0/1',    '↑',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '7/8','10/11','14/15','21/22',    '↑'],
-  P: [    '↑',    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '7/8','10/11','14/15','21/22',    '↑',    '↑'],
-  Q: [    '↓',  '1/2',  '2/3',  '3/4',  '5/6',  '7/8','10/11','14/15','21/22',    '↑',    '↑',    '↑'],
-  R: [  '1/2',  '2/3',  '3/4',  '5/6',  '7/8','10/11','14/15','21/22',    '↑',    '↑',    '↑',    '↑'],
+  A: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑'],
+  B: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓'],
+  C: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '0/2'],
+  D: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '0/2',  '1/3'],
+  E: [    '↓',    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '0/2',  '1/3',  '1/4'],
+  F: [    '↓',    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '0/2',  '1/3',  '1/4',  '2/5'],
+  G: [    '↓',    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '0/2',  '1/3',  '1/4',  '2/5',  '3/6'],
+  H: [    '↓',    '↓',    '↓',  '0/1',    '↑',    '↓',  '0/2',  '1/3',  '1/4',  '2/5',  '3/6',  '5/8'],
+  J: [    '↓',    '↓',  '0/1',    '↑',    '↓',  '0/2',  '1/3',  '1/4',  '2/5',  '3/6',  '5/8', '7/10'],
+  K: [    '↓',  '0/1',    '↑',    '↓',  '0/2',  '1/3',  '1/4',  '2/5',  '3/6',  '5/8', '7/10','10/13'],
+  L: [  '0/1',    '↑',    '↓',  '0/2',  '1/3',  '1/4',  '2/5',  '3/6',  '5/8', '7/10','10/13',    '↑'],
+  M: [    '↑',    '↓',  '0/2',  '1/3',  '1/4',  '2/5',  '3/6',  '5/8', '7/10','10/13',    '↑',    '↑'],
+  N: [    '↓',  '0/2',  '1/3',  '1/4',  '2/5',  '3/6',  '5/8', '7/10','10/13',    '↑',    '↑',    '↑'],
+  P: [  '0/2',  '1/3',  '1/4',  '2/5',  '3/6',  '5/8', '7/10','10/13',    '↑',    '↑',    '↑',    '↑'],
+  Q: [  '1/3',  '1/4',  '2/5',  '3/6',  '5/8', '7/10','10/13',    '↑',    '↑',    '↑',    '↑',    '↑'],
+  R: [  '1/4',  '2/5',  '3/6',  '5/8', '7/10','10/13',    '↑',    '↑',    '↑',    '↑',    '↑',    '↑'],
 };
 
 export const PLAN_TABLES: Readonly<Record<Severity, PlanGrid>> = {
