@@ -1,5 +1,6 @@
 // The shapes the inspection endpoints answer with (server/routes/inspection/presenter.ts).
 import type { LotVerdict, Disposition } from '@shared/inspection/lotVerdict';
+import type { LotState } from '@shared/schemas/stock';
 
 export type ResultView = {
   id: number;
@@ -23,7 +24,7 @@ export type ResultView = {
 };
 
 export type LotInspectionView = {
-  lot: { id: number; state: string; supplierLot: string; quantity: number; receivedAt: string; poNumber: string; lineNumber: number; part: { id: number; number: string; description: string }; supplier: { id: number; name: string } };
+  lot: { id: number; state: LotState; supplierLot: string; quantity: number; receivedAt: string; poNumber: string; lineNumber: number; part: { id: number; number: string; description: string }; supplier: { id: number; name: string } };
   spec: { nominalWaves: number; designWavelengthNm: number; retardanceTolWaves: number; axisTolDeg: number; decisionRule: 'simple' | 'guarded'; construction: string; material: string; multiOrder?: number; bandNm?: [number, number] };
   plan: { codeLetter: string; sampleSize: number; accept: number; reject: number; severity: string; level: string; aql: number; hundredPercent: boolean; seed: string; summary: string; oc: { percentDefective: number; pa: number }[] };
   switching: { severity: string; stopped?: boolean };
@@ -37,7 +38,7 @@ export type LotInspectionView = {
 
 export type QueueRow = {
   lotId: number;
-  state: string;
+  state: LotState;
   part: { number: string; description: string };
   supplier: string;
   supplierLot: string;

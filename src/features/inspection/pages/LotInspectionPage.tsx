@@ -1,11 +1,14 @@
 import { useParams } from 'react-router';
 import { can } from '@shared/policies';
 import { DISPOSITION_LABELS } from '@shared/inspection/lotVerdict';
+import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
+import { StateBadge } from '@/components/StateBadge';
 import { useSession } from '@/features/auth/api/session';
 import { useLotInspection } from '../api';
 import { DispositionPanel } from '../components/DispositionPanel';
+import { DocumentLink } from '../components/DocumentLink';
 import { MeasurementUpload } from '../components/MeasurementUpload';
 import { OcChart } from '../components/OcChart';
 import { ResultCharts } from '../components/ResultCharts';
@@ -33,14 +36,14 @@ export function LotInspectionPage() {
   if (!query.data) return <p className="text-ink-muted">Loading…</p>;
   const view = query.data;
   const { lot, spec, plan, verdict } = view;
-  const decided = lot.state === 'accepted' || lot.state === 'rejected' || lot.state === 'use-as-is';
+  const decided = DECIDED_LOT_STATES.includes(lot.state);
 
   return (
     <div className="space-y-4">
       <PageHeader
-        title={`Lot L-${lot.id} · ${lot.part.number}`}
+        title={`Lot ${lotName(lot.id)} · ${lot.part.number}`}
         subtitle={`${lot.part.description} — ${lot.supplier.name}, supplier lot ${lot.supplierLot}, ${lot.quantity} pieces, PO ${lot.poNumber} line ${lot.lineNumber}`}
-        actions={<span className="text-sm">State: <strong>{lot.state}</strong></span>}
+        actions={<StateBadge state={lot.state} label={LOT_STATE_LABELS[lot.state]} />}
       />
       <div className="grid gap-3 lg:grid-cols-3">
         <section className="rounded border border-paper-line bg-paper-card p-3">
@@ -95,14 +98,14 @@ export function LotInspectionPage() {
         <ResultsTable view={view} />
       </section>
 
-      {can(user, 'disposition.sign') && <DispositionPanel view={view} />}
+      <DispositionPanel view={view} maySign={can(user, 'disposition.sign')} />
 
       <section className="grid gap-3 lg:grid-cols-3">
         <div className="rounded border border-paper-line bg-paper-card p-3">
           <h2 className="mb-2 text-sm">Measurement files</h2>
           <ul className="space-y-1 text-xs">
             {view.files.map((f) => (
-              <li key={f.id}><span className="font-medium">{f.name}</span> · {f.method} · {f.instrument} · {f.rows} rows · {f.uploadedBy}, {new Date(f.uploadedAt).toLocaleString()}<br /><span className="font-mono text-ink-faint">{f.sha256}</span></li>
+              <li key={f.id}><span className="font-medium">{f.name}</span> · {f.method} · {f.instrument} · {f.rows} rows · {f.uploadedBy}, {new Date(f.uploadedAt).toLocaleString()}<br /><span className="font-mono break-all text-ink-faint">{f.sha256}</span></li>
             ))}
             {view.files.length === 0 && <li className="text-ink-faint">None yet.</li>}
           </ul>
@@ -123,10 +126,7 @@ export function LotInspectionPage() {
           <h2 className="mb-2 text-sm">Documents</h2>
           <ul className="space-y-1 text-xs">
             {view.documents.map((d) => (
-              <li key={d.id}>
-                <a href={`/api/documents/${encodeURIComponent(d.number)}.pdf`} target="_blank" rel="noreferrer" className="font-mono">{d.number}</a> {d.kind === 'certificate' ? 'certificate of conformance' : 'inspection report'}
-                {d.revokedAt && <span className="ml-1 font-medium text-state-fail">revoked</span>}
-              </li>
+              <li key={d.id}><DocumentLink document={d} /></li>
             ))}
             {view.documents.length === 0 && <li className="text-ink-faint">None issued.</li>}
           </ul>

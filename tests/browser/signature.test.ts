@@ -1,0 +1,107 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { stokesBenchFile } from '../../db/seeders/benchFiles';
+import { as } from '../helpers/api';
+import { receivedLot } from '../helpers/receivedLot';
+import { signedInPage, startBrowserRig, type BrowserRig } from './browser';
+
+let rig: BrowserRig;
+beforeAll(async () => {
+  rig = await startBrowserRig();
+});
+afterAll(async () => rig?.close());
+
+const shots = mkdtempSync(join(tmpdir(), 'phaselot-signature-'));
+
+/** A lot whose measured sample proposes a rejection: its first two sample pieces are out of tolerance. */
+async function lotProposingRejection() {
+  const lot = await receivedLot({ quantity: 20, level: 'II', aql: 1 });
+  const inspector = await as('inspector');
+  const view = await inspector.get(`/api/inspection/lots/${lot.lotId}`).expect(200);
+  const sample: string[] = view.body.pieces.filter((p: { inSample: boolean }) => p.inSample).map((p: { serial: string }) => p.serial);
+  const failing = sample.slice(0, 2);
+  const file = stokesBenchFile(
+    sample.map((serial) => ({ serial, wavelengthNm: 632.8, retardanceWaves: failing.includes(serial) ? 0.2555 : 0.2501, fastAxisDeg: 0.05 })),
+    { instrument: 'BENCH-2', date: new Date().toISOString().slice(0, 10), noise: 0.0004, seed: sample.length },
+  );
+  await inspector.post(`/api/inspection/lots/${lot.lotId}/measurements`).attach('files', Buffer.from(file), { filename: 'bench.csv', contentType: 'text/csv' }).expect(201);
+  const measured = await inspector.get(`/api/inspection/lots/${lot.lotId}`).expect(200);
+  expect(measured.body.verdict.proposal).toBe('reject');
+  return lot;
+}
+
+const currentDecision = async (lotId: number) => (await (await as('quality')).get(`/api/inspection/lots/${lotId}`).expect(200)).body.disposition;
+
+describe('signing a lot disposition in the browser', () => {
+  it('keeps what was typed after a wrong password, shows the signed decision after the right one, and supersedes only on purpose', async () => {
+    const lot = await lotProposingRejection();
+    const page = await signedInPage(rig, 'quality');
+    const signer = (await page.getByTestId('signed-in-user').textContent())!.trim();
+    await page.goto(`${rig.baseUrl}/inspection/lots/${lot.lotId}`);
+
+    const form = page.getByRole('form', { name: 'Sign disposition' });
+    await form.getByLabel('Use as is (deviation)').check();
+    await form.getByLabel('Deviation number').fill('DEV-0417');
+    await form.getByLabel('Justification').fill('Retardance within the limit of the assembly drawing, rev. C');
+    await form.getByLabel(/I have read the meaning/).check();
+    await form.getByLabel(/Your password/).fill('not-my-password');
+    await form.getByRole('button', { name: 'Sign: Use as is (deviation)' }).click();
+
+    // The server's refusal is shown, everything typed but the password stays, and nothing was signed.
+    await form.getByRole('alert').filter({ hasText: 'The password does not match' }).waitFor();
+    expect(await form.getByLabel('Use as is (deviation)').isChecked()).toBe(true);
+    expect(await form.getByLabel('Deviation number').inputValue()).toBe('DEV-0417');
+    expect(await form.getByLabel('Justification').inputValue()).toBe('Retardance within the limit of the assembly drawing, rev. C');
+    expect(await form.getByLabel(/I have read the meaning/).isChecked()).toBe(true);
+    expect(await form.getByLabel(/Your password/).inputValue()).toBe('');
+    expect(await currentDecision(lot.lotId)).toBeNull();
+    // Still signed in: no trip to the sign-in page, and another area opens.
+    expect(new URL(page.url()).pathname).toBe(`/inspection/lots/${lot.lotId}`);
+    expect(await page.getByTestId('signed-in-user').textContent()).toContain(signer);
+
+    await form.getByLabel(/Your password/).fill('phaselot-demo');
+    await form.getByRole('button', { name: 'Sign: Use as is (deviation)' }).click();
+    const decision = page.getByRole('region', { name: 'Signed decision' });
+    await decision.getByText(/^Signed\. Documents issued: PL/).waitFor();
+    expect(await form.count()).toBe(0);
+    const text = await decision.textContent();
+    expect(text).toContain('Use as is (deviation)');
+    expect(text).toContain(`signed by ${signer}`);
+    expect(text).toContain('I release this nonconforming lot for use as is under the deviation stated');
+    expect(text).toContain('Retardance within the limit of the assembly drawing, rev. C');
+    expect(text).toContain('DEV-0417');
+    const signed = await currentDecision(lot.lotId);
+    expect(signed.decision).toBe('use-as-is');
+    const documents = (await (await as('quality')).get(`/api/inspection/lots/${lot.lotId}`).expect(200)).body.documents as { number: string; revokedAt: string | null }[];
+    expect(documents.length).toBeGreaterThan(0);
+    for (const d of documents) expect(await decision.getByRole('link', { name: d.number }).count()).toBe(1);
+
+    await page.screenshot({ path: join(shots, 'signed-desktop.png'), fullPage: true });
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.screenshot({ path: join(shots, 'signed-390.png'), fullPage: true });
+    await decision.screenshot({ path: join(shots, 'signed-decision-390.png') });
+    await page.setViewportSize({ width: 1400, height: 900 });
+
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Lots' }).click();
+    await page.getByRole('heading', { name: 'Lots' }).waitFor();
+    expect(new URL(page.url()).pathname).toBe('/lots');
+
+    // Back on the lot: the decision stands and no form is armed until supersede is chosen.
+    await page.goto(`${rig.baseUrl}/inspection/lots/${lot.lotId}`);
+    await decision.waitFor();
+    expect(await form.count()).toBe(0);
+    await decision.getByRole('button', { name: /Supersede this decision/ }).click();
+    await form.getByText('What superseding does').waitFor();
+    expect(await form.textContent()).toContain(documents[0].number);
+    for (const label of ['Accept', 'Reject to vendor', 'Use as is (deviation)']) expect(await form.getByLabel(label, { exact: true }).isChecked()).toBe(false);
+    expect(await form.getByLabel('Note (optional)').inputValue()).toBe('');
+    expect(await form.getByLabel(/I have read the meaning/).isChecked()).toBe(false);
+    await form.screenshot({ path: join(shots, 'supersede-form.png') });
+    await form.getByRole('button', { name: 'Keep the signed decision' }).click();
+    expect(await form.count()).toBe(0);
+    expect((await currentDecision(lot.lotId)).id).toBe(signed.id);
+    await page.context().close();
+  });
+});
