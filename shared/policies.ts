@@ -19,6 +19,8 @@ export const POLICIES = {
   'instruments.read': EVERYONE,
   'instruments.manage': ['quality'],
   'sampling.manage': ['quality'],
+  'switching.read': ['quality', 'buyer', 'inspector', 'auditor'],
+  'switching.manage': ['quality'],
   'certificates.read': EVERYONE,
   'audit.read': ['auditor', 'quality', 'admin'],
   'exports.create': ['auditor', 'quality'],

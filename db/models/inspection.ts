@@ -1,5 +1,6 @@
 // Models of inspection (see migration 0205): plan and sample, bench files, readings, results,
 // switching state, dispositions and the documents they issue.
+import type { LotResult } from '../../shared/sampling';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
 const numberGetter = (field: string) => ({
@@ -40,10 +41,21 @@ export class SwitchingEvent extends Model<InferAttributes<SwitchingEvent>, Infer
   declare id: CreationOptional<number>;
   declare supplierId: number;
   declare partId: number;
-  declare lotId: number;
+  declare lotId: number | null;
+  declare kind: 'lot' | 'resume' | 'override';
+  /** Place in the supplier-part's sequence; a superseding lot result takes the place of the one it replaces. */
+  declare position: number;
+  declare result: LotResult | null;
+  declare reducedEnabled: boolean | null;
+  declare dispositionId: number | null;
+  declare severity: 'normal' | 'tightened' | 'reduced' | null;
+  declare reason: string | null;
+  declare reference: string | null;
+  declare actorId: number | null;
   declare before: unknown;
   declare after: unknown;
   declare explanation: string;
+  declare supersededAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
 }
 
@@ -147,10 +159,20 @@ export function initInspectionModels(sequelize: Sequelize) {
       id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
       supplierId: { type: DataTypes.INTEGER, allowNull: false },
       partId: { type: DataTypes.INTEGER, allowNull: false },
-      lotId: { type: DataTypes.INTEGER, allowNull: false },
+      lotId: DataTypes.INTEGER,
+      kind: { type: DataTypes.STRING(10), allowNull: false },
+      position: { type: DataTypes.INTEGER, allowNull: false },
+      result: DataTypes.JSONB,
+      reducedEnabled: DataTypes.BOOLEAN,
+      dispositionId: DataTypes.INTEGER,
+      severity: DataTypes.STRING(10),
+      reason: DataTypes.TEXT,
+      reference: DataTypes.STRING(80),
+      actorId: DataTypes.INTEGER,
       before: { type: DataTypes.JSONB, allowNull: false },
       after: { type: DataTypes.JSONB, allowNull: false },
       explanation: { type: DataTypes.TEXT, allowNull: false },
+      supersededAt: DataTypes.DATE,
       createdAt: DataTypes.DATE,
     },
     { ...common, tableName: 'switching_events', updatedAt: false },

@@ -13,7 +13,7 @@ import { queueMail } from '../mail/outbox';
 import { issueLotDocuments } from './documents';
 import { applyDispositionToLot, lotForInspection } from './lotAccess';
 import { evaluateLot } from './evaluation';
-import { recordLotInSwitching } from './sampling';
+import { recordLotInSwitching } from './switching';
 
 export async function signDisposition(signer: User, lotId: number, input: DispositionInput, request: Pick<AuditActor, 'requestId' | 'address'> = {}) {
   const actor = { ...actorFromUser(signer), ...request };
@@ -56,7 +56,7 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
       },
       { transaction },
     );
-    if (!current) await recordLotInSwitching(lot, evaluation, transaction);
+    await recordLotInSwitching(lot, evaluation, disposition, actor, transaction);
     await applyDispositionToLot(lot, input.decision, actor, transaction);
     const documents = await issueLotDocuments({ lot, evaluation, disposition, signer }, transaction);
 

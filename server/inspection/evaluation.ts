@@ -4,7 +4,7 @@ import { Op, type Transaction } from 'sequelize';
 import { PieceResult, SamplePiece } from '../../db/models';
 import { pieceVerdict, proposeLotVerdict, type LotVerdict } from '../../shared/inspection/lotVerdict';
 import type { LotForInspection } from './lotAccess';
-import { ensureInspectionPlan, describePlan } from './sampling';
+import { describePlan, discontinuedError, inspectionPlanOf } from './sampling';
 
 export type SamplePieceState = {
   pieceId: number;
@@ -22,7 +22,8 @@ export async function currentResults(pieceIds: number[], transaction?: Transacti
 }
 
 export async function evaluateLot(lot: LotForInspection, transaction?: Transaction) {
-  const plan = await ensureInspectionPlan(lot, transaction);
+  const plan = await inspectionPlanOf(lot.id, transaction);
+  if (!plan) throw discontinuedError(lot);
   const sampleIds = (await SamplePiece.findAll({ where: { inspectionId: plan.id }, transaction })).map((s) => s.pieceId);
   const results = await currentResults(lot.pieces.map((p) => p.id), transaction);
   const inSample = new Set(sampleIds);

@@ -18,6 +18,7 @@ import { lotsRouter } from './lots/router';
 import { piecesRouter } from './pieces/router';
 import { stockRouter } from './stock/router';
 import { attachmentsRouter } from './attachments/router';
+import { switchingRouter } from './switching/router';
 
 export const apiRouter = Router();
 
@@ -37,6 +38,7 @@ apiRouter.use('/pieces', piecesRouter);
 apiRouter.use('/stock', stockRouter);
 apiRouter.use('/attachments', attachmentsRouter);
 apiRouter.use('/inspection', inspectionRouter);
+apiRouter.use('/switching', switchingRouter);
 apiRouter.use('/certificates', certificatesRouter);
 apiRouter.use('/documents', documentsRouter);
 apiRouter.use('/exports', exportsRouter);

@@ -61,6 +61,8 @@ export type LotRow = {
   poNumber: string;
   lineNumber: number;
   receivedAt: string;
+  /** Received while acceptance of its part from its supplier is discontinued: waits without a plan. */
+  acceptanceDiscontinued: boolean;
 };
 
 export type HistoryEntry = { at: string; what: string; who: string | null; detail?: string };
@@ -71,6 +73,8 @@ export type LotView = {
   state: LotState;
   quantity: number;
   overReceiptReason: string | null;
+  /** Received while acceptance of its part from its supplier is discontinued: waits without a plan. */
+  acceptanceDiscontinued: boolean;
   shipment: { id: number; packingSlip: string; carrier: string; receivedAt: string; receivedBy: string | null };
   purchaseOrder: { id: number; number: string; supplier: { id: number; name: string } };
   line: { id: number; lineNumber: number; quantity: number; inspectionLevel: string; aql: number; hundredPercent: boolean; spec: PartSpec };

@@ -1,10 +1,11 @@
 // A received lot for inspection tests: supplier, part, PO line with its frozen specification,
 // shipment, lot in quarantine and its serialised pieces with their receipt moves, written straight
 // to the receiving tables (the demo seed provides the locations) so these tests do not depend on the
-// receiving screens.
+// receiving screens; then its sampling plan, drawn as at receipt.
 import { faker } from '@faker-js/faker';
 import { QueryTypes } from 'sequelize';
-import { sequelize } from '../../db';
+import { inTransaction, sequelize } from '../../db';
+import { drawPlanAtReceipt } from '../../server/inspection/sampling';
 import { partSpecSchema, type PartSpecInput } from '../../shared/schemas/spec';
 
 export const QUARTER_WAVE_633: PartSpecInput = {
@@ -58,5 +59,7 @@ export async function receivedLot(options: Options) {
      SELECT p.id, (SELECT id FROM locations WHERE kind = 'quarantine' ORDER BY code LIMIT 1), 'receipt' FROM pieces p WHERE p.lot_id = :lot ORDER BY p.id`,
     { replacements: { lot: lot.id } },
   );
+  // As at receipt: the plan and sample are drawn now, at the supplier and part's severity.
+  await inTransaction((transaction) => drawPlanAtReceipt(lot.id, transaction));
   return { lotId: lot.id, partId: part.id, supplierId: supplier.id, poNumber: po.number, serials, spec };
 }

@@ -3,7 +3,7 @@ import { DispositionRecord, Instrument, LotDocument, MeasurementFile, User } fro
 import { ocCurve } from '../../../shared/sampling';
 import { evaluateLot } from '../../inspection/evaluation';
 import { lotForInspection, lotsAwaitingInspection } from '../../inspection/lotAccess';
-import { switchingStateOf } from '../../inspection/sampling';
+import { inspectionPlanOf, switchingStateOf } from '../../inspection/sampling';
 
 const DAY_MS = 86_400_000;
 
@@ -11,16 +11,26 @@ export async function inspectionQueue() {
   const lots = await lotsAwaitingInspection();
   const rows = [];
   for (const lot of lots) {
-    const evaluation = await evaluateLot(lot);
-    rows.push({
+    const row = {
       lotId: lot.id,
       state: lot.state,
       part: lot.part,
       supplier: lot.supplier.name,
+      supplierId: lot.supplier.id,
       supplierLot: lot.supplierLot,
       quantity: lot.quantity,
       receivedAt: lot.receivedAt,
       daysInQuarantine: Math.floor((Date.now() - new Date(lot.receivedAt).getTime()) / DAY_MS),
+    };
+    // A lot received while acceptance is discontinued waits, marked, without a plan.
+    if (!(await inspectionPlanOf(lot.id))) {
+      rows.push({ ...row, acceptanceDiscontinued: true as const, plan: null, sampleSerials: [], measured: 0, proposal: null });
+      continue;
+    }
+    const evaluation = await evaluateLot(lot);
+    rows.push({
+      ...row,
+      acceptanceDiscontinued: false as const,
       plan: { codeLetter: evaluation.plan.codeLetter, sampleSize: evaluation.plan.sampleSize, accept: evaluation.plan.acceptNumber, reject: evaluation.plan.rejectNumber, severity: evaluation.plan.severity },
       sampleSerials: evaluation.samplePieces.map((p) => p.serial),
       measured: evaluation.verdict.measured,

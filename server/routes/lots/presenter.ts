@@ -6,9 +6,13 @@ import { MOVE_REASON_LABELS, type LotListQuery, type LotState, type MoveReason, 
 import { notFound } from '../../http/errors';
 import { filterWhen, type ListDefinition } from '../../http/list';
 
+/** A lot in quarantine without a plan was received while acceptance was discontinued. */
+const AWAITING_RESUMPTION = `(l.state = 'quarantine' AND NOT EXISTS (SELECT 1 FROM lot_inspections li WHERE li.lot_id = l.id))`;
+
 export const lotList: ListDefinition<LotRow, LotListQuery> = {
   select: `l.id, l.supplier_lot AS "supplierLot", l.state, l.quantity, p.number AS "partNumber", p.description AS "partDescription",
-    s.name AS "supplierName", po.number AS "poNumber", pol.line_number AS "lineNumber", sh.received_at AS "receivedAt"`,
+    s.name AS "supplierName", po.number AS "poNumber", pol.line_number AS "lineNumber", sh.received_at AS "receivedAt",
+    ${AWAITING_RESUMPTION} AS "acceptanceDiscontinued"`,
   from: `lots l
     JOIN shipments sh ON sh.id = l.shipment_id
     JOIN purchase_order_lines pol ON pol.id = l.po_line_id
@@ -47,6 +51,7 @@ export const lotList: ListDefinition<LotRow, LotListQuery> = {
     poNumber: String(r.poNumber),
     lineNumber: Number(r.lineNumber),
     receivedAt: (r.receivedAt as Date).toISOString(),
+    acceptanceDiscontinued: Boolean(r.acceptanceDiscontinued),
   }),
   csv: {
     filename: 'lots',
@@ -60,6 +65,7 @@ export const lotList: ListDefinition<LotRow, LotListQuery> = {
       { header: 'po_number', value: (r) => r.poNumber },
       { header: 'po_line', value: (r) => r.lineNumber },
       { header: 'received_at', value: (r) => r.receivedAt },
+      { header: 'acceptance_discontinued', value: (r) => (r.acceptanceDiscontinued ? 'yes' : 'no') },
     ],
   },
 };
@@ -132,6 +138,7 @@ export async function lotView(id: number): Promise<LotView> {
   const pieceStates: Partial<Record<PieceState, number>> = {};
   for (const piece of pieces) pieceStates[piece.state] = (pieceStates[piece.state] ?? 0) + 1;
   const attachments = await Attachment.findAll({ where: { lotId: id }, order: [['id', 'ASC']] });
+  const [{ waiting }] = await sequelize.query<{ waiting: boolean }>(`SELECT ${AWAITING_RESUMPTION} AS waiting FROM lots l WHERE l.id = :id`, { type: QueryTypes.SELECT, replacements: { id } });
   const receivedBy = shipment.receiver?.name ?? null;
   const history = [
     {
@@ -149,6 +156,7 @@ export async function lotView(id: number): Promise<LotView> {
     state: lot.state,
     quantity: lot.quantity,
     overReceiptReason: lot.overReceiptReason,
+    acceptanceDiscontinued: waiting,
     shipment: { id: shipment.id, packingSlip: shipment.packingSlip, carrier: shipment.carrier, receivedAt: shipment.receivedAt.toISOString(), receivedBy },
     purchaseOrder: { id: order.id, number: order.number, supplier: { id: order.supplier!.id, name: order.supplier!.name } },
     line: { id: line.id, lineNumber: line.lineNumber, quantity: line.quantity, inspectionLevel: line.inspectionLevel, aql: line.aql, hundredPercent: line.hundredPercent, spec: line.spec },

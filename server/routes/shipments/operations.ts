@@ -1,12 +1,14 @@
 // Receiving: a shipment logged against an open PO line becomes one lot of serialised pieces in
-// quarantine, with its documents. Everything is checked first and written in one transaction, so a
-// refused receipt leaves nothing behind.
+// quarantine, with its documents and its sampling plan (none while acceptance is discontinued).
+// Everything is checked first and written in one transaction, so a refused receipt leaves nothing
+// behind.
 import { QueryTypes, type Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../../db';
 import { Attachment, Lot, Piece, PurchaseOrder, PurchaseOrderLine, Shipment } from '../../../db/models';
 import { shipmentReceiveSchema, type ShipmentReceiveInput } from '../../../shared/schemas/receiving';
 import { parseSerialText, type SerialList } from '../../../shared/serials';
 import { recordAudit, type AuditActor } from '../../audit/record';
+import { drawPlanAtReceipt } from '../../inspection/sampling';
 import { AppError, badRequest, conflict, notFound } from '../../http/errors';
 import { storeBlob } from '../../storage/blobs';
 import { defaultLocation, recordReceipt } from '../../stock/ledger';
@@ -74,6 +76,7 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
     );
     const pieces = await Piece.bulkCreate(list.serials.map((serial) => ({ lotId: lot.id, partId: line.partId, serial })), { transaction });
     await recordReceipt(pieces.map((p) => p.id), quarantine.id, shipment.receivedAt, actor, transaction);
+    const plan = await drawPlanAtReceipt(lot.id, transaction);
     const attachments = await Attachment.bulkCreate(
       documents.map((d) => ({
         shipmentId: shipment.id,
@@ -102,10 +105,13 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
           overReceiptReason: lot.overReceiptReason,
           serials: list.serials,
           attachments: attachments.map((a) => ({ kind: a.kind, name: a.originalName, sha256: a.sha256 })),
+          sampling: plan
+            ? { severity: plan.severity, codeLetter: plan.codeLetter, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, seed: plan.sampleSeed }
+            : 'acceptance discontinued: the lot waits without a plan',
         },
       },
       transaction,
     );
-    return { shipment, lot, attachments };
+    return { shipment, lot, attachments, plan };
   });
 }

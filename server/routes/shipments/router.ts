@@ -30,12 +30,13 @@ export const shipmentsRouter = Router();
 mountList(shipmentsRouter, '/', 'lots.read', shipmentListQuerySchema, shipmentList);
 
 shipmentsRouter.post('/', authenticate, allow('shipments.receive'), receiptUpload, validate({ body: shipmentReceiveSchema }), async (req, res) => {
-  const { shipment, lot, attachments } = await receiveShipment(actorOf(req), req.valid.body as ShipmentReceiveInput, (req.files ?? {}) as ReceiptFiles);
+  const { shipment, lot, attachments, plan } = await receiveShipment(actorOf(req), req.valid.body as ShipmentReceiveInput, (req.files ?? {}) as ReceiptFiles);
   res.status(201).json({
     shipmentId: shipment.id,
     lotId: lot.id,
     quantity: lot.quantity,
     state: lot.state,
+    acceptanceDiscontinued: plan === null,
     attachments: attachments.map((a) => ({ id: a.id, kind: a.kind, name: a.originalName, sha256: a.sha256 })),
   });
 });
