@@ -1,5 +1,6 @@
 // Models of inspection (see migration 0205): plan and sample, bench files, readings, results,
 // switching state, dispositions and the documents they issue.
+import type { Disposition } from '../../shared/inspection/lotVerdict';
 import type { LotResult } from '../../shared/sampling';
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
@@ -98,7 +99,7 @@ export class PieceResult extends Model<InferAttributes<PieceResult>, InferCreati
 export class DispositionRecord extends Model<InferAttributes<DispositionRecord>, InferCreationAttributes<DispositionRecord>> {
   declare id: CreationOptional<number>;
   declare lotId: number;
-  declare decision: 'accept' | 'reject' | 'use-as-is';
+  declare decision: Disposition;
   declare meaning: string;
   declare deviationNumber: string | null;
   declare justification: string | null;

@@ -4,6 +4,7 @@
 import PDFDocument from 'pdfkit';
 import QRCode from 'qrcode';
 import { join, resolve } from 'node:path';
+import { lotName } from '../../shared/schemas/stock';
 
 const FONTS = resolve(import.meta.dirname, '../../fonts');
 
@@ -14,7 +15,9 @@ export type ReportPiece = {
   retardanceNm: number | null;
   retardanceErrorWaves: number | null;
   axisErrorDeg: number | null;
-  verdict: 'pass' | 'fail' | 'incomplete' | 'not sampled';
+  /** A piece without a current result is 'not measured' on a report; on a certificate it is released
+   * on the strength of the sample. */
+  verdict: 'pass' | 'fail' | 'incomplete' | 'not measured' | 'released under the sampling plan';
   reasons: string[];
 };
 
@@ -31,7 +34,7 @@ export type LotReportData = {
   sampling: { summary: string; defectives: number; result: string };
   instruments: { code: string; calibratedOn: string; calibrationDueOn: string; uncertainty: string }[];
   decisionRule: string;
-  disposition: { decision: string; signer: string; signedAt: string; meaning: string; deviation?: string };
+  disposition: { decision: string; signer: string; signedAt: string; meaning: string; deviation?: string; note?: string; outcome: string };
   pieces: ReportPiece[];
   dataHash: string;
   verifyUrl: string;
@@ -98,7 +101,7 @@ export async function renderLotReport(data: LotReportData): Promise<Buffer> {
     ['Supplier', data.supplier],
     ['Purchase order', data.purchaseOrder],
     ['Part', `${data.part.number} — ${data.part.description}`],
-    ['Supplier lot', `${data.lot.supplierLot} (Phaselot lot ${data.lot.id}), ${data.lot.quantity} pieces received ${data.lot.receivedAt}`],
+    ['Lot', `${lotName(data.lot.id)}: supplier lot ${data.lot.supplierLot}, ${data.lot.quantity} pieces received ${data.lot.receivedAt}`],
   ]);
   section('Ordered specification');
   pairs(data.specLines);
@@ -115,11 +118,14 @@ export async function renderLotReport(data: LotReportData): Promise<Buffer> {
   pairs([
     ['Decision', data.disposition.decision],
     ...(data.disposition.deviation ? ([['Deviation', data.disposition.deviation]] as [string, string][]) : []),
+    ...(data.disposition.note ? ([['Note', data.disposition.note]] as [string, string][]) : []),
     ['Signed by', `${data.disposition.signer}, ${data.disposition.signedAt}`],
     ['Meaning of the signature', data.disposition.meaning],
+    ['Pieces', data.disposition.outcome],
   ]);
 
-  section(`Pieces (${data.pieces.length})`);
+  const serials = new Set(data.pieces.map((p) => p.serial)).size;
+  section(data.kind === 'certificate' ? `Serials released (${serials})` : `Pieces (${serials})`);
   const drawHeader = () => {
     let x = left;
     const y = doc.y;
@@ -145,7 +151,7 @@ export async function renderLotReport(data: LotReportData): Promise<Buffer> {
     const y = doc.y;
     let x = left;
     for (const column of COLUMNS) {
-      const failing = column.header === 'Verdict' && piece.verdict !== 'pass';
+      const failing = column.header === 'Verdict' && (piece.verdict === 'fail' || piece.verdict === 'incomplete');
       doc.font(column.header === 'Serial' ? 'mono' : 'body').fillColor(failing ? '#b3372f' : INK);
       doc.text(column.cell(piece), x + 2, y, { width: column.width - 4, align: column.align });
       x += column.width;

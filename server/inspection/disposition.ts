@@ -1,18 +1,21 @@
 // Signing a lot disposition: the quality manager re-enters the password and confirms the meaning of
 // the signature; the decision, its documents, the stock moves, the switching state and (for a
-// rejection) the buyer's e-mail are written in one transaction. A signed decision is never edited:
-// a new one supersedes it and revokes its documents.
+// rejection or a sort) the buyer's e-mail are written in one transaction. Each piece goes where the
+// decision sends it by its own verdict (see lotAccess routeLotPieces). A signed decision is never
+// edited: a new one supersedes it and revokes its documents.
 import bcrypt from 'bcryptjs';
 import { Op } from 'sequelize';
 import { inTransaction } from '../../db';
 import { DispositionRecord, LotDocument, User } from '../../db/models';
 import { SIGNATURE_MEANINGS, type DispositionInput } from '../../shared/inspection/lotVerdict';
+import { lotName } from '../../shared/schemas/stock';
 import { actorFromUser, recordAudit, type AuditActor } from '../audit/record';
 import { AppError, conflict } from '../http/errors';
 import { queueMail } from '../mail/outbox';
 import { issueLotDocuments } from './documents';
-import { applyDispositionToLot, lotForInspection } from './lotAccess';
+import { lotForInspection, routeLotPieces, routingOutcome } from './lotAccess';
 import { evaluateLot } from './evaluation';
+import { completeSortWhenMeasured } from './sort';
 import { recordLotInSwitching } from './switching';
 
 export async function signDisposition(signer: User, lotId: number, input: DispositionInput, request: Pick<AuditActor, 'requestId' | 'address'> = {}) {
@@ -32,7 +35,7 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
     const verdict = evaluation.verdict;
     if (verdict.proposal === 'undecided') throw new AppError(409, 'lot_undecided', `The lot cannot be decided yet. ${verdict.explanation}`);
     if (input.decision === 'accept' && verdict.proposal !== 'accept') {
-      throw new AppError(409, 'decision_contradicts_verdict', 'The sample rejects this lot: it can be rejected, or used as is under a deviation');
+      throw new AppError(409, 'decision_contradicts_verdict', 'The sample rejects this lot: it can be rejected, sorted 100 %, or used as is under a deviation');
     }
     if (input.decision === 'use-as-is' && verdict.proposal !== 'reject') {
       throw new AppError(409, 'decision_contradicts_verdict', 'The sample accepts this lot: a deviation is not needed');
@@ -57,18 +60,21 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
       { transaction },
     );
     await recordLotInSwitching(lot, evaluation, disposition, actor, transaction);
-    await applyDispositionToLot(lot, input.decision, actor, transaction);
-    const documents = await issueLotDocuments({ lot, evaluation, disposition, signer }, transaction);
+    const context = { dispositionId: disposition.id, deviationNumber: disposition.deviationNumber };
+    const routed = await routeLotPieces(lot, input.decision, evaluation.pieceVerdicts, context, actor, transaction);
+    const outcome = routingOutcome(input.decision, routed, evaluation.pieceVerdicts);
+    const documents = await issueLotDocuments({ lot, evaluation, disposition, signer, released: routed.stock, outcome }, transaction);
 
-    if (input.decision === 'reject') {
+    if (input.decision === 'reject' || input.decision === 'sort') {
       const report = documents.find((d) => d.kind === 'inspection-report')!;
       const failing = evaluation.samplePieces.filter((p) => p.verdict === 'fail');
+      const sorting = input.decision === 'sort';
       await queueMail(
         {
           to: [lot.buyer?.email ?? signer.email],
-          subject: `Lot rejected: ${lot.part.number}, supplier lot ${lot.supplierLot} (${lot.supplier.name})`,
+          subject: `Lot ${lotName(lot.id)} rejected${sorting ? ', 100 % sort ordered' : ''}: ${lot.part.number}, supplier lot ${lot.supplierLot} (${lot.supplier.name})`,
           text: [
-            `Lot ${lot.id} of ${lot.part.number} (${lot.part.description}) from ${lot.supplier.name}, supplier lot ${lot.supplierLot}, PO ${lot.poNumber}, was rejected by ${signer.name} on ${disposition.signedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC.`,
+            `Lot ${lotName(lot.id)} of ${lot.part.number} (${lot.part.description}) from ${lot.supplier.name}, supplier lot ${lot.supplierLot}, PO ${lot.poNumber}, was rejected by ${signer.name} on ${disposition.signedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC${sorting ? ', with a 100 % sort' : ''}.`,
             '',
             `Sampling: ${evaluation.planSummary}. ${verdict.explanation}.`,
             '',
@@ -76,7 +82,9 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
             ...failing.map((p) => `  ${p.serial}: ${p.reasons.join('; ')}`),
             '',
             input.justification ? `Note from quality: ${input.justification}` : '',
-            `The inspection report ${report.number} is attached. The lot has been moved to return-to-vendor.`,
+            sorting
+              ? `The inspection report ${report.number} is attached. Every remaining piece is being measured: conforming pieces will be released to stock, nonconforming ones returned to the supplier.`
+              : `The inspection report ${report.number} is attached. The lot has been moved to return-to-vendor.`,
           ].join('\n'),
           attachments: [{ filename: `${report.number}.pdf`, contentType: 'application/pdf', content: report.pdf }],
           related: { type: 'lot', id: lot.id },
@@ -91,10 +99,12 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
         entityType: 'lot',
         entityId: lotId,
         before: current ? { dispositionId: current.id, decision: current.decision } : { state: lot.state },
-        after: { dispositionId: disposition.id, decision: input.decision, meaning: disposition.meaning, deviationNumber: disposition.deviationNumber, documents: documents.map((d) => d.number) },
+        after: { dispositionId: disposition.id, decision: input.decision, meaning: disposition.meaning, deviationNumber: disposition.deviationNumber, note: disposition.justification, pieces: outcome, documents: documents.map((d) => d.number) },
       },
       transaction,
     );
-    return { disposition, documents: documents.map(({ pdf: _pdf, ...rest }) => rest) };
+    // A sort of a lot whose pieces all have a verdict already (e.g. inspected 100 %) completes at once.
+    const sorted = input.decision === 'sort' ? await completeSortWhenMeasured(lot, evaluation, actor, transaction) : null;
+    return { disposition, documents: [...documents.map(({ pdf: _pdf, ...rest }) => rest), ...(sorted?.documents ?? [])] };
   });
 }

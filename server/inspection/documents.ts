@@ -1,6 +1,7 @@
 // Issues the documents of a disposition: an inspection report always, a certificate of conformance
-// when the lot is accepted. Each carries the SHA-256 of its certified data (canonical JSON,
-// RFC 8785), which the public verification checks.
+// when pieces are released as conforming (an accepted lot, or a sorted one once every piece is
+// measured). The certificate lists every serial it releases. Each document carries the SHA-256 of
+// its certified data (canonical JSON, RFC 8785), which the public verification checks.
 import canonicalize from 'canonicalize';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
@@ -23,12 +24,14 @@ export function certifiedDataHash(data: Omit<LotReportData, 'dataHash' | 'verify
   return sha256(canonicalize(data)!);
 }
 
-function reportPieces(evaluation: LotEvaluation): ReportPiece[] {
-  return evaluation.samplePieces.flatMap((piece): ReportPiece[] => {
-    if (piece.results.length === 0) {
-      return [{ serial: piece.serial, wavelengthNm: null, retardanceWaves: null, retardanceNm: null, retardanceErrorWaves: null, axisErrorDeg: null, verdict: 'not sampled', reasons: ['not measured'] }];
+/** One row per current result of each piece; a piece without one gets a row saying why. */
+function pieceRows(pieces: { id: number; serial: string }[], evaluation: LotEvaluation, unmeasured: ReportPiece['verdict']): ReportPiece[] {
+  return pieces.flatMap((piece): ReportPiece[] => {
+    const results = evaluation.allResults.get(piece.id) ?? [];
+    if (results.length === 0) {
+      return [{ serial: piece.serial, wavelengthNm: null, retardanceWaves: null, retardanceNm: null, retardanceErrorWaves: null, axisErrorDeg: null, verdict: unmeasured, reasons: [] }];
     }
-    return piece.results.map((r) => ({
+    return results.map((r) => ({
       serial: piece.serial,
       wavelengthNm: r.wavelengthNm,
       retardanceWaves: (r.result.retardanceWaves as number | null) ?? null,
@@ -41,8 +44,14 @@ function reportPieces(evaluation: LotEvaluation): ReportPiece[] {
   });
 }
 
+/** The report shows the sample and any other piece measured (every piece, once a lot is sorted). */
+function reportedPieces(lot: LotForInspection, evaluation: LotEvaluation) {
+  const inSample = new Set(evaluation.samplePieces.map((p) => p.pieceId));
+  return lot.pieces.filter((p) => inSample.has(p.id) || evaluation.allResults.has(p.id));
+}
+
 async function instrumentsUsed(evaluation: LotEvaluation, transaction: Transaction) {
-  const fileIds = [...new Set(evaluation.samplePieces.flatMap((p) => p.results.map((r) => r.fileId)))];
+  const fileIds = [...new Set([...evaluation.allResults.values()].flatMap((rows) => rows.map((r) => r.fileId)))];
   const files = await MeasurementFile.findAll({ where: { id: fileIds }, transaction });
   const instruments = await Instrument.findAll({ where: { id: [...new Set(files.map((f) => f.instrumentId))] }, order: [['code', 'ASC']], transaction });
   return instruments.map((i) => ({
@@ -53,16 +62,29 @@ async function instrumentsUsed(evaluation: LotEvaluation, transaction: Transacti
   }));
 }
 
-type Issue = { lot: LotForInspection; evaluation: LotEvaluation; disposition: DispositionRecord; signer: User };
+type Issue = {
+  lot: LotForInspection;
+  evaluation: LotEvaluation;
+  disposition: DispositionRecord;
+  signer: User;
+  /** The pieces the decision releases to stock: with them, a certificate is issued that lists each one. */
+  released: number[];
+  /** Where the decision sent the lot's pieces, in words. */
+  outcome: string;
+  /** When the documents are issued: at the signature, or when the sort it ordered is complete. */
+  issuedAt?: Date;
+};
 
-export async function issueLotDocuments({ lot, evaluation, disposition, signer }: Issue, transaction: Transaction) {
+export async function issueLotDocuments({ lot, evaluation, disposition, signer, released, outcome, issuedAt = disposition.signedAt }: Issue, transaction: Transaction) {
   const [{ n }] = await sequelize.query<{ n: string }>("SELECT nextval('certificate_numbers') AS n", { type: QueryTypes.SELECT, transaction });
-  const serial = `${disposition.signedAt.getUTCFullYear()}-${String(n).padStart(5, '0')}`;
+  const serial = `${issuedAt.getUTCFullYear()}-${String(n).padStart(5, '0')}`;
   const site = await readSiteSettings(transaction);
-  const kinds: LotReportData['kind'][] = disposition.decision === 'accept' ? ['certificate', 'inspection-report'] : ['inspection-report'];
+  const certifies = released.length > 0 && (disposition.decision === 'accept' || disposition.decision === 'sort');
+  const kinds: LotReportData['kind'][] = certifies ? ['certificate', 'inspection-report'] : ['inspection-report'];
+  const releasedIds = new Set(released);
   const { verdict } = evaluation;
   const common = {
-    issuedAt: utc(disposition.signedAt),
+    issuedAt: utc(issuedAt),
     siteName: site.siteName,
     supplier: lot.supplier.name,
     purchaseOrder: `${lot.poNumber} line ${lot.lineNumber}`,
@@ -77,14 +99,19 @@ export async function issueLotDocuments({ lot, evaluation, disposition, signer }
       signer: `${signer.name} (${signer.email})`,
       signedAt: utc(disposition.signedAt),
       meaning: disposition.meaning,
-      deviation: disposition.deviationNumber ? `${disposition.deviationNumber}: ${disposition.justification}` : undefined,
+      deviation: disposition.deviationNumber ?? undefined,
+      note: disposition.justification ?? undefined,
+      outcome,
     },
-    pieces: reportPieces(evaluation),
   };
   const issued = [];
   for (const kind of kinds) {
     const number = `${kind === 'certificate' ? 'PLC' : 'PLR'}-${serial}`;
-    const certified = { ...common, kind, number };
+    const pieces =
+      kind === 'certificate'
+        ? pieceRows(lot.pieces.filter((p) => releasedIds.has(p.id)), evaluation, 'released under the sampling plan')
+        : pieceRows(reportedPieces(lot, evaluation), evaluation, 'not measured');
+    const certified = { ...common, kind, number, pieces };
     const dataHash = certifiedDataHash(certified);
     const pdf = await renderLotReport({ ...certified, dataHash, verifyUrl: verifyUrl(number, dataHash) });
     const document = await LotDocument.create(

@@ -21,6 +21,8 @@ export async function currentResults(pieceIds: number[], transaction?: Transacti
   return byPiece;
 }
 
+const judgedOnly = (rows: PieceResult[]) => rows.filter((r) => r.result.judged !== false);
+
 export async function evaluateLot(lot: LotForInspection, transaction?: Transaction) {
   const plan = await inspectionPlanOf(lot.id, transaction);
   if (!plan) throw discontinuedError(lot);
@@ -30,7 +32,7 @@ export async function evaluateLot(lot: LotForInspection, transaction?: Transacti
   const samplePieces: SamplePieceState[] = lot.pieces
     .filter((p) => inSample.has(p.id))
     .map((p) => {
-      const judged = (results.get(p.id) ?? []).filter((r) => r.result.judged !== false);
+      const judged = judgedOnly(results.get(p.id) ?? []);
       return {
         pieceId: p.id,
         serial: p.serial,
@@ -43,7 +45,9 @@ export async function evaluateLot(lot: LotForInspection, transaction?: Transacti
     samplePieces.map((p) => ({ serial: p.serial, verdicts: p.results.filter((r) => r.result.judged !== false).map((r) => r.verdict) })),
     { accept: plan.acceptNumber, reject: plan.rejectNumber },
   );
-  return { plan, planSummary: describePlan(plan), samplePieces, allResults: results, verdict };
+  // Every piece's own verdict, in the sample or not: what a decision routes each piece by.
+  const pieceVerdicts = new Map(lot.pieces.map((p) => [p.id, pieceVerdict(judgedOnly(results.get(p.id) ?? []).map((r) => r.verdict))]));
+  return { plan, planSummary: describePlan(plan), samplePieces, allResults: results, pieceVerdicts, verdict };
 }
 
 export type LotEvaluation = Awaited<ReturnType<typeof evaluateLot>>;

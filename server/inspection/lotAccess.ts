@@ -3,9 +3,9 @@
 // state and stock moves that a decision causes.
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
-import type { Disposition } from '../../shared/inspection/lotVerdict';
+import type { Disposition, PieceVerdict } from '../../shared/inspection/lotVerdict';
 import type { PartSpec } from '../../shared/schemas/spec';
-import type { LocationKind, LotState } from '../../shared/schemas/stock';
+import { LOCATION_KIND_LABELS, lotName, type LocationKind, type LotState, type MoveReason } from '../../shared/schemas/stock';
 import type { AuditActor } from '../audit/record';
 import { defaultLocation, movePieces } from '../stock/ledger';
 import { AppError, notFound } from '../http/errors';
@@ -82,7 +82,7 @@ export async function lotForInspection(lotId: number, transaction?: Transaction,
 }
 
 export async function lotsAwaitingInspection() {
-  const rows = await sequelize.query<LotRow>(`${LOT_SELECT} WHERE l.state IN ('quarantine', 'inspection', 'awaiting-disposition') ORDER BY s.received_at, l.id`, { type: QueryTypes.SELECT });
+  const rows = await sequelize.query<LotRow>(`${LOT_SELECT} WHERE l.state IN ('quarantine', 'inspection', 'awaiting-disposition', 'sorting') ORDER BY s.received_at, l.id`, { type: QueryTypes.SELECT });
   return withPieces(rows);
 }
 
@@ -95,28 +95,103 @@ export async function markLotInspected(lot: LotForInspection, sampleDecides: boo
   });
 }
 
-const OUTCOME: Record<Disposition, { lotState: LotState; locationKind: LocationKind; reason: 'release' | 'return-to-vendor' }> = {
-  accept: { lotState: 'accepted', locationKind: 'stock', reason: 'release' },
-  'use-as-is': { lotState: 'use-as-is', locationKind: 'stock', reason: 'release' },
-  reject: { lotState: 'rejected', locationKind: 'return-to-vendor', reason: 'return-to-vendor' },
-};
+/** What moves a lot's pieces: a signed decision, or the end of the 100 % sort a 'sort' decision ordered. */
+export type Routing = Disposition | 'sorted';
+type Destination = 'stock' | 'material-review' | 'return-to-vendor' | 'quarantine';
 
-/** Sets the lot's state and moves every piece still on site (not issued, not already there) to
- * where the decision sends it through the stock ledger: the default stock bin for accepted pieces,
- * return-to-vendor for a rejected lot. */
-export async function applyDispositionToLot(lot: LotForInspection, decision: Disposition, actor: AuditActor, transaction: Transaction) {
-  const outcome = OUTCOME[decision];
-  await sequelize.query('UPDATE lots SET state = :state, updated_at = now() WHERE id = :lotId', { transaction, replacements: { state: outcome.lotState, lotId: lot.id } });
-  const destination = await defaultLocation(outcome.locationKind, transaction).catch(() => {
-    throw new AppError(409, 'no_location', `No active ${outcome.locationKind} location is set up to receive the lot`);
-  });
-  const onSite = await sequelize.query<{ id: number }>(
-    `SELECT p.id FROM pieces p JOIN piece_locations pl ON pl.piece_id = p.id
-     WHERE p.lot_id = :lotId AND pl.location_id IS NOT NULL AND pl.location_id <> :to ORDER BY p.id`,
-    { type: QueryTypes.SELECT, transaction, replacements: { lotId: lot.id, to: destination.id } },
-  );
-  if (onSite.length) {
-    await movePieces({ pieceIds: onSite.map((p) => p.id), toLocationId: destination.id, reason: outcome.reason, note: `lot L-${lot.id} disposition: ${decision}` }, actor, transaction);
+const LOT_STATE_UNDER: Record<Routing, LotState> = { accept: 'accepted', reject: 'rejected', sort: 'sorting', sorted: 'sorted', 'use-as-is': 'use-as-is' };
+const REASON_TO: Record<Destination, Exclude<MoveReason, 'receipt'>> = { stock: 'release', 'material-review': 'hold', 'return-to-vendor': 'return-to-vendor', quarantine: 'inspection' };
+
+/** Where a decision sends one piece, by the piece's own current verdict. */
+function destinationOf(routing: Routing, verdict: PieceVerdict | 'unmeasured'): Destination {
+  switch (routing) {
+    case 'accept':
+      // Conforming and unmeasured pieces are released under the sampling plan; failed ones never.
+      return verdict === 'fail' ? 'material-review' : 'stock';
+    case 'use-as-is':
+      return 'stock';
+    case 'reject':
+      return 'return-to-vendor';
+    case 'sort':
+      // Every remaining piece waits in quarantine to be measured.
+      return 'quarantine';
+    case 'sorted':
+      return verdict === 'pass' ? 'stock' : 'return-to-vendor';
   }
-  return destination;
+}
+
+export type DecisionContext = { dispositionId: number; deviationNumber: string | null };
+
+function moveNote(lot: LotForInspection, routing: Routing, destination: Destination, failing: boolean, context: DecisionContext) {
+  const name = `lot ${lotName(lot.id)}`;
+  switch (routing) {
+    case 'accept':
+      return destination === 'stock' ? `${name} accepted` : `${name} accepted; this piece failed inspection, so to material review`;
+    case 'use-as-is':
+      return failing ? `Released as is under deviation ${context.deviationNumber} (${name}): this piece failed inspection` : `${name} used as is under deviation ${context.deviationNumber}`;
+    case 'reject':
+      return `${name} rejected to vendor`;
+    case 'sort':
+      return `${name} to be sorted 100 %`;
+    case 'sorted':
+      return destination === 'stock' ? `${name} sorted: conforming` : `${name} sorted: nonconforming, back to the vendor`;
+  }
+}
+
+/** Sets the lot's state and moves every piece still on site (issued ones stay issued) to where the
+ * decision sends it, by its own verdict, through the stock ledger. A piece already in a location of
+ * the right kind stays where it is. Answers the pieces by destination, those that stayed included. */
+export async function routeLotPieces(
+  lot: LotForInspection,
+  routing: Routing,
+  verdicts: Map<number, PieceVerdict | 'unmeasured'>,
+  context: DecisionContext,
+  actor: AuditActor,
+  transaction: Transaction,
+) {
+  await sequelize.query('UPDATE lots SET state = :state, updated_at = now() WHERE id = :lotId', { transaction, replacements: { state: LOT_STATE_UNDER[routing], lotId: lot.id } });
+  const onSite = await sequelize.query<{ id: number; kind: LocationKind }>(
+    `SELECT p.id, loc.kind FROM pieces p JOIN piece_locations pl ON pl.piece_id = p.id JOIN locations loc ON loc.id = pl.location_id
+      WHERE p.lot_id = :lotId ORDER BY p.id`,
+    { type: QueryTypes.SELECT, transaction, replacements: { lotId: lot.id } },
+  );
+  const routed: Record<Destination, number[]> = { stock: [], 'material-review': [], 'return-to-vendor': [], quarantine: [] };
+  // One ledger move per destination and note, so the history reads as a few events.
+  const batches = new Map<string, { destination: Destination; note: string; pieceIds: number[] }>();
+  for (const piece of onSite) {
+    const verdict = verdicts.get(piece.id) ?? 'unmeasured';
+    const destination = destinationOf(routing, verdict);
+    routed[destination].push(piece.id);
+    if (piece.kind === destination) continue;
+    const note = moveNote(lot, routing, destination, verdict === 'fail', context);
+    const batch = batches.get(note) ?? { destination, note, pieceIds: [] };
+    batch.pieceIds.push(piece.id);
+    batches.set(note, batch);
+  }
+  for (const { destination, note, pieceIds } of batches.values()) {
+    const location = await defaultLocation(destination, transaction).catch(() => {
+      throw new AppError(409, 'no_location', `No active ${LOCATION_KIND_LABELS[destination].toLowerCase()} location is set up to receive pieces of lot ${lotName(lot.id)}`);
+    });
+    await movePieces({ pieceIds, toLocationId: location.id, reason: REASON_TO[destination], note, signedDispositionId: context.dispositionId }, actor, transaction);
+  }
+  return routed;
+}
+
+const count = (n: number, what: string) => `${n} piece${n === 1 ? '' : 's'} ${what}`;
+
+/** Where a routing sent the lot's pieces, in words, for its documents. */
+export function routingOutcome(routing: Routing, routed: Awaited<ReturnType<typeof routeLotPieces>>, verdicts: Map<number, PieceVerdict | 'unmeasured'>) {
+  const failed = routed.stock.filter((id) => verdicts.get(id) === 'fail').length;
+  switch (routing) {
+    case 'accept':
+      return [count(routed.stock.length, 'released to stock (measured conforming, or released under the sampling plan)'), routed['material-review'].length && count(routed['material-review'].length, 'failed inspection: to material review')].filter(Boolean).join('; ');
+    case 'use-as-is':
+      return `${count(routed.stock.length, 'released to stock under the deviation')}${failed ? `, ${failed} of them failed inspection and released as is` : ''}`;
+    case 'reject':
+      return count(routed['return-to-vendor'].length, 'to return-to-vendor');
+    case 'sort':
+      return count(routed.quarantine.length, 'held in quarantine to be measured one by one (100 % sort)');
+    case 'sorted':
+      return `100 % sort: ${count(routed.stock.length, 'conforming released to stock')}; ${count(routed['return-to-vendor'].length, 'nonconforming to return-to-vendor')}`;
+  }
 }

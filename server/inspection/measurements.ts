@@ -6,11 +6,13 @@ import type { Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
 import { Instrument, MeasurementFile, PieceResult, Reading } from '../../db/models';
 import { analyzeBuffer, readMetadata, type AnalysisResult, type LineMessage, type PieceResult as EnginePieceResult } from '../../shared/optics';
+import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName, type LotState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { AppError, badRequest } from '../http/errors';
 import { sha256, storeBlob } from '../storage/blobs';
 import { lotForInspection, markLotInspected, type LotForInspection } from './lotAccess';
 import { evaluateLot } from './evaluation';
+import { completeSortWhenMeasured } from './sort';
 import { pieceSpecFor } from './spec';
 
 export const MAX_MEASUREMENT_BYTES = 50 * 1024 * 1024;
@@ -30,10 +32,11 @@ export type FilePreview = {
   fatal?: string;
 };
 
-const DECIDED = ['accepted', 'rejected', 'use-as-is'];
-
 function openLot(lot: LotForInspection) {
-  if (DECIDED.includes(lot.state)) throw new AppError(409, 'lot_decided', `Lot ${lot.id} is already decided (${lot.state}); its measurements are closed`);
+  const state = lot.state as LotState;
+  if (DECIDED_LOT_STATES.includes(state)) {
+    throw new AppError(409, 'lot_decided', `Lot ${lotName(lot.id)} is already decided (${LOT_STATE_LABELS[state].toLowerCase()}); its measurements are closed`);
+  }
   return lot;
 }
 
@@ -76,7 +79,7 @@ async function previewFile(file: UploadedFile, lot: LotForInspection, chosenInst
   const strangers = result.pieces.filter((p) => !serials.has(p.serial));
   const errors = [
     ...result.errors,
-    ...strangers.flatMap((p) => p.lines.map((line) => ({ line, message: `Serial ${p.serial} is not in lot ${lot.id}` }))),
+    ...strangers.flatMap((p) => p.lines.map((line) => ({ line, message: `Serial ${p.serial} is not in lot ${lotName(lot.id)}` }))),
   ].sort((a, b) => a.line - b.line);
   return {
     ...base,
@@ -162,8 +165,10 @@ export function commitMeasurements(actor: AuditActor & { id: number }, lotId: nu
       );
       committed.push({ fileId: stored.id, name: preview.name, sha256: preview.sha256, pieces: preview.pieces.length, rows: rows.length });
     }
-    const { verdict } = await evaluateLot(lot, transaction);
-    await markLotInspected(lot, verdict.proposal !== 'undecided', transaction);
-    return { files: committed };
+    const evaluation = await evaluateLot(lot, transaction);
+    await markLotInspected(lot, evaluation.verdict.proposal !== 'undecided', transaction);
+    // The file that measures the last piece of a sort completes it, in this same transaction.
+    const sortCompleted = lot.state === 'sorting' ? await completeSortWhenMeasured(lot, evaluation, actor, transaction) : null;
+    return { files: committed, sortCompleted };
   });
 }

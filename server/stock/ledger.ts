@@ -7,9 +7,10 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
 import { Location, Piece, StockMove } from '../../db/models';
-import { LOCATION_KIND_LABELS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, pieceStateAt, type LocationKind, type LotState, type MoveReason, type PieceState } from '../../shared/schemas/stock';
+import { LOCATION_KIND_LABELS, LOT_STATE_LABELS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, lotName, pieceStateAt, type LocationKind, type LotState, type MoveReason, type PieceState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { badRequest, conflict, notFound } from '../http/errors';
+import { failingNowSql, usedAsIsSql } from './standing';
 
 export type MoveRequest = {
   pieceIds: number[];
@@ -20,9 +21,15 @@ export type MoveRequest = {
   note?: string | null;
   /** The states the pieces must be in; if any piece is in another, nothing moves (409). */
   fromStates?: readonly PieceState[];
+  /** The signed lot decision that orders this move: it may take pieces out of material review or
+   * return-to-vendor, since the decision re-routes its whole lot. */
+  signedDispositionId?: number;
 };
 
-type LockedPiece = { id: number; serial: string; state: PieceState; lotId: number; lotState: LotState; locationId: number | null; locationCode: string | null };
+type LockedPiece = {
+  id: number; serial: string; state: PieceState; lotId: number; lotState: LotState; locationId: number | null; locationCode: string | null;
+  locationKind: LocationKind | null; failing: boolean; usedAsIs: boolean;
+};
 
 const listSerials = (pieces: { serial: string }[], most = 12) =>
   pieces.length <= most ? pieces.map((p) => p.serial).join(', ') : `${pieces.slice(0, most).map((p) => p.serial).join(', ')} and ${pieces.length - most} more`;
@@ -32,7 +39,8 @@ async function lockPieces(pieceIds: number[], transaction: Transaction): Promise
   const locked = await Piece.findAll({ where: { id: pieceIds }, order: [['id', 'ASC']], lock: transaction.LOCK.UPDATE, transaction });
   if (locked.length !== pieceIds.length) throw notFound('Piece');
   return sequelize.query<LockedPiece>(
-    `SELECT p.id, p.serial, p.state, p.lot_id AS "lotId", l.state AS "lotState", pl.location_id AS "locationId", loc.code AS "locationCode"
+    `SELECT p.id, p.serial, p.state, p.lot_id AS "lotId", l.state AS "lotState", pl.location_id AS "locationId", loc.code AS "locationCode",
+            loc.kind AS "locationKind", ${failingNowSql('p.id')} AS failing, ${usedAsIsSql('l.id')} AS "usedAsIs"
        FROM pieces p
        JOIN lots l ON l.id = p.lot_id
        JOIN piece_locations pl ON pl.piece_id = p.id
@@ -61,12 +69,31 @@ function refuseUnless(pieces: LockedPiece[], bad: (piece: LockedPiece) => boolea
   if (offending.length) throw conflict(message(offending), { serials: offending.map((p) => p.serial) });
 }
 
+/** Why a piece may not go to stock or a work order, or null. Pieces of a lot used as is under a signed
+ * deviation are the one exception: that decision released them, failed ones included. */
+function unfitForUse(piece: LockedPiece, request: MoveRequest): string | null {
+  if (piece.usedAsIs) return null;
+  if (piece.failing) return 'failed inspection';
+  const setAside = piece.locationKind === 'material-review' || piece.locationKind === 'return-to-vendor';
+  if (setAside && request.signedDispositionId === undefined) return `in ${LOCATION_KIND_LABELS[piece.locationKind!].toLowerCase()} at ${piece.locationCode}`;
+  return null;
+}
+
 /** Moves pieces in the caller's transaction and records one ledger row per piece. */
 export async function movePieces(request: MoveRequest, actor: AuditActor, transaction: Transaction): Promise<StockMove[]> {
   const pieceIds = [...new Set(request.pieceIds)];
   if (pieceIds.length === 0) throw badRequest('No pieces to move');
   const destination = await destinationOf(request, transaction);
   const pieces = await lockPieces(pieceIds, transaction);
+
+  // Nonconforming material never reaches a stock bin or a work order.
+  if (destination?.kind === 'stock' || request.reason === 'issue') {
+    refuseUnless(
+      pieces,
+      (p) => unfitForUse(p, request) !== null,
+      (bad) => `Nonconforming pieces cannot ${request.reason === 'issue' ? 'be issued' : 'go to stock'}: ${listSerials(bad.map((p) => ({ serial: `${p.serial} (${unfitForUse(p, request)})` })))}`,
+    );
+  }
 
   if (request.fromStates) {
     const allowed = request.fromStates;
@@ -80,12 +107,12 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
   else refuseUnless(pieces, (p) => p.locationId === null, (bad) => `Already issued: ${listSerials(bad)}`);
   if (destination) {
     refuseUnless(pieces, (p) => p.locationId === destination.id, (bad) => `Already in ${destination.code}: ${listSerials(bad)}`);
-    // Nothing reaches a stock bin before its lot has been accepted (or taken as is).
+    // Nothing reaches a stock bin before its lot has been accepted (or sorted, or taken as is).
     if (destination.kind === 'stock') {
       refuseUnless(
         pieces,
         (p) => !RELEASABLE_LOT_STATES.includes(p.lotState),
-        (bad) => `Only pieces of accepted lots go to stock; lot L-${bad[0].lotId} is ${bad[0].lotState}: ${listSerials(bad)}`,
+        (bad) => `Only pieces of accepted lots go to stock; lot ${lotName(bad[0].lotId)} is ${LOT_STATE_LABELS[bad[0].lotState].toLowerCase()}: ${listSerials(bad)}`,
       );
     }
   }

@@ -46,17 +46,20 @@ export function proposeLotVerdict(sample: SamplePieceOutcome[], plan: { accept: 
   return { ...base, proposal: 'accept', explanation: `${defectives} defective(s) in the sample, within Ac ${plan.accept}` };
 }
 
-export const DISPOSITIONS = ['accept', 'reject', 'use-as-is'] as const;
+// A sort takes the place of a plain reject: the lot reopens for a 100 % measurement and each piece
+// then goes by its own verdict (conforming to stock, nonconforming back to the vendor).
+export const DISPOSITIONS = ['accept', 'reject', 'sort', 'use-as-is'] as const;
 export type Disposition = (typeof DISPOSITIONS)[number];
 
 /** What a signature means, shown before signing and stored with it. */
 export const SIGNATURE_MEANINGS: Record<Disposition, string> = {
   accept: 'I approve this lot for use: the sample met the ordered specification under the applied sampling plan.',
   reject: 'I reject this lot as nonconforming; it is to be returned to the supplier.',
+  sort: 'I reject this lot as sampled and order a 100 % sort: every remaining piece is to be measured; the conforming pieces are released for use, the nonconforming ones returned to the supplier.',
   'use-as-is': 'I release this nonconforming lot for use as is under the deviation stated, for the reason given.',
 };
 
-export const DISPOSITION_LABELS: Record<Disposition, string> = { accept: 'Accept', reject: 'Reject to vendor', 'use-as-is': 'Use as is (deviation)' };
+export const DISPOSITION_LABELS: Record<Disposition, string> = { accept: 'Accept', reject: 'Reject to vendor', sort: 'Sort 100 %', 'use-as-is': 'Use as is (deviation)' };
 
 export const dispositionInputSchema = z
   .object({

@@ -2,6 +2,7 @@
 import { z } from 'zod';
 import { listQuerySchema } from './paging';
 import { partSpecSchema, type PartSpec } from './spec';
+import type { PieceQuantities } from './stock';
 
 export const INSPECTION_LEVELS = ['S-1', 'S-2', 'S-3', 'S-4', 'I', 'II', 'III'] as const;
 export const AQL_VALUES = [0.065, 0.1, 0.15, 0.25, 0.4, 0.65, 1, 1.5, 2.5, 4, 6.5, 10] as const;
@@ -88,7 +89,7 @@ export type PartView = {
   onHand: number;
 };
 
-export type PoLineView = {
+export type PoLineView = PieceQuantities & {
   id: number;
   lineNumber: number;
   part: { id: number; number: string; description: string };
@@ -114,7 +115,7 @@ export type PurchaseOrderView = {
   lines: PoLineView[];
 };
 
-export type PurchaseOrderRow = {
+export type PurchaseOrderRow = PieceQuantities & {
   id: number;
   number: string;
   supplierName: string;

@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { listQuerySchema } from './paging';
 import type { PartSpec } from './spec';
-import type { LocationKind, LotState, MoveReason, PieceState } from './stock';
+import type { LocationKind, LotState, MoveReason, PieceQuantities, PieceState } from './stock';
 
 export const MAX_ATTACHMENT_BYTES = 20 * 1024 * 1024;
 export const ATTACHMENT_TYPES = ['application/pdf', 'image/png', 'image/jpeg'] as const;
@@ -50,7 +50,7 @@ export type ShipmentRow = {
   pieces: number;
 };
 
-export type LotRow = {
+export type LotRow = PieceQuantities & {
   id: number;
   supplierLot: string;
   state: LotState;
@@ -67,7 +67,7 @@ export type LotRow = {
 
 export type HistoryEntry = { at: string; what: string; who: string | null; detail?: string };
 
-export type LotView = {
+export type LotView = PieceQuantities & {
   id: number;
   supplierLot: string;
   state: LotState;

@@ -2,7 +2,9 @@
 import { z } from 'zod';
 import { listQuerySchema } from './paging';
 
-export const LOT_STATES = ['quarantine', 'inspection', 'awaiting-disposition', 'accepted', 'rejected', 'use-as-is'] as const;
+// A lot under a sort decision is 'sorting' while its remaining pieces are measured, and 'sorted' once
+// every piece has gone by its own verdict.
+export const LOT_STATES = ['quarantine', 'inspection', 'awaiting-disposition', 'accepted', 'rejected', 'sorting', 'sorted', 'use-as-is'] as const;
 export const lotStateSchema = z.enum(LOT_STATES);
 export type LotState = z.infer<typeof lotStateSchema>;
 export const LOT_STATE_LABELS: Record<LotState, string> = {
@@ -11,10 +13,22 @@ export const LOT_STATE_LABELS: Record<LotState, string> = {
   'awaiting-disposition': 'Awaiting disposition',
   accepted: 'Accepted',
   rejected: 'Rejected',
+  sorting: 'Sorting 100 %',
+  sorted: 'Sorted',
   'use-as-is': 'Use as is',
 };
-/** Lots whose pieces may go to a stock bin. */
-export const RELEASABLE_LOT_STATES: readonly LotState[] = ['accepted', 'use-as-is'];
+/** Lots whose pieces may go to a stock bin (each piece still by its own verdict). */
+export const RELEASABLE_LOT_STATES: readonly LotState[] = ['accepted', 'sorted', 'use-as-is'];
+/** States in which a lot's decision is signed and its measurements are closed. */
+export const DECIDED_LOT_STATES: readonly LotState[] = ['accepted', 'rejected', 'sorted', 'use-as-is'];
+
+/** The one name of a lot on pages, in mails, documents and audit notes. */
+export const lotName = (lotId: number) => `L-${lotId}`;
+
+/** Pieces of a lot (or of every lot of a PO or PO line) by outcome: accepted = released to stock (in
+ * a bin, or issued since); nonconforming = current verdict fail (wherever the piece is); returned =
+ * in return-to-vendor. */
+export type PieceQuantities = { accepted: number; nonconforming: number; returned: number };
 
 export const PIECE_STATES = ['quarantine', 'held', 'in-stock', 'issued', 'returned'] as const;
 export const pieceStateSchema = z.enum(PIECE_STATES);

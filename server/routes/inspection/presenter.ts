@@ -3,6 +3,7 @@ import { DispositionRecord, Instrument, LotDocument, MeasurementFile, User } fro
 import { ocCurve } from '../../../shared/sampling';
 import { evaluateLot } from '../../inspection/evaluation';
 import { lotForInspection, lotsAwaitingInspection } from '../../inspection/lotAccess';
+import { piecesLeftToSort } from '../../inspection/sort';
 import { inspectionPlanOf, switchingStateOf } from '../../inspection/sampling';
 
 const DAY_MS = 86_400_000;
@@ -34,6 +35,7 @@ export async function inspectionQueue() {
       plan: { codeLetter: evaluation.plan.codeLetter, sampleSize: evaluation.plan.sampleSize, accept: evaluation.plan.acceptNumber, reject: evaluation.plan.rejectNumber, severity: evaluation.plan.severity },
       sampleSerials: evaluation.samplePieces.map((p) => p.serial),
       measured: evaluation.verdict.measured,
+      sortRemaining: lot.state === 'sorting' ? piecesLeftToSort(lot, evaluation).length : null,
       proposal: evaluation.verdict.proposal,
     });
   }
@@ -54,6 +56,8 @@ export async function lotInspectionView(lotId: number) {
   const instruments = new Map((await Instrument.findAll()).map((i) => [i.id, i.code]));
   const inSample = new Set(evaluation.samplePieces.map((p) => p.pieceId));
   const current = dispositions.find((d) => !d.supersededAt) ?? null;
+  // A sort puts every piece still on site up for measurement, not only the sample.
+  const sorting = lot.state === 'sorting';
   return {
     lot: { id: lot.id, state: lot.state, supplierLot: lot.supplierLot, quantity: lot.quantity, receivedAt: lot.receivedAt, poNumber: lot.poNumber, lineNumber: lot.lineNumber, part: lot.part, supplier: lot.supplier },
     spec: lot.spec,
@@ -64,11 +68,14 @@ export async function lotInspectionView(lotId: number) {
     },
     switching,
     verdict: evaluation.verdict,
+    sort: sorting ? { remaining: piecesLeftToSort(lot, evaluation).length } : null,
     pieces: lot.pieces.map((p) => ({
       id: p.id,
       serial: p.serial,
       state: p.state,
       inSample: inSample.has(p.id),
+      toMeasure: sorting ? p.state !== 'issued' : inSample.has(p.id),
+      verdict: evaluation.pieceVerdicts.get(p.id) ?? 'unmeasured',
       results: (evaluation.allResults.get(p.id) ?? []).map((r) => ({ id: r.id, fileId: r.fileId, wavelengthNm: r.wavelengthNm, verdict: r.verdict, ...r.result, createdAt: r.createdAt.toISOString() })),
     })),
     files: files.map((f) => ({

@@ -5,6 +5,7 @@ import type { AttachmentView, HistoryEntry, LotRow, LotView } from '../../../sha
 import { MOVE_REASON_LABELS, type LotListQuery, type LotState, type MoveReason, type PieceState } from '../../../shared/schemas/stock';
 import { notFound } from '../../http/errors';
 import { filterWhen, type ListDefinition } from '../../http/list';
+import { pieceQuantities, pieceQuantitiesSql } from '../../stock/standing';
 
 /** A lot in quarantine without a plan was received while acceptance was discontinued. */
 const AWAITING_RESUMPTION = `(l.state = 'quarantine' AND NOT EXISTS (SELECT 1 FROM lot_inspections li WHERE li.lot_id = l.id))`;
@@ -12,13 +13,14 @@ const AWAITING_RESUMPTION = `(l.state = 'quarantine' AND NOT EXISTS (SELECT 1 FR
 export const lotList: ListDefinition<LotRow, LotListQuery> = {
   select: `l.id, l.supplier_lot AS "supplierLot", l.state, l.quantity, p.number AS "partNumber", p.description AS "partDescription",
     s.name AS "supplierName", po.number AS "poNumber", pol.line_number AS "lineNumber", sh.received_at AS "receivedAt",
-    ${AWAITING_RESUMPTION} AS "acceptanceDiscontinued"`,
+    ${AWAITING_RESUMPTION} AS "acceptanceDiscontinued", q.accepted, q.nonconforming, q.returned`,
   from: `lots l
     JOIN shipments sh ON sh.id = l.shipment_id
     JOIN purchase_order_lines pol ON pol.id = l.po_line_id
     JOIN purchase_orders po ON po.id = pol.purchase_order_id
     JOIN suppliers s ON s.id = po.supplier_id
-    JOIN parts p ON p.id = l.part_id`,
+    JOIN parts p ON p.id = l.part_id
+    CROSS JOIN LATERAL ${pieceQuantitiesSql('pc.lot_id = l.id')} AS q`,
   sortable: {
     id: 'l.id',
     supplierLot: 'l.supplier_lot',
@@ -28,12 +30,15 @@ export const lotList: ListDefinition<LotRow, LotListQuery> = {
     supplierName: 's.name',
     poNumber: 'po.number',
     receivedAt: 'sh.received_at',
+    accepted: 'q.accepted',
+    nonconforming: 'q.nonconforming',
+    returned: 'q.returned',
   },
   defaultSort: '-receivedAt',
   tieBreaker: 'l.id',
   // A lot is also found by any of its serials, or by its number as shown (L-12).
   search: ['l.supplier_lot', 'p.number', 's.name', 'po.number', "'L-' || l.id", 'sh.packing_slip', 'EXISTS (SELECT 1 FROM pieces pc WHERE pc.lot_id = l.id AND pc.serial ILIKE :q)'],
-  totals: { quantity: 'sum(quantity)' },
+  totals: { quantity: 'sum(quantity)', accepted: 'sum(accepted)', nonconforming: 'sum(nonconforming)', returned: 'sum(returned)' },
   filters: (query) => {
     const filters = filterWhen({ clauses: [], replacements: {} }, query.state, 'l.state = :state', 'state');
     filterWhen(filters, query.partId, 'l.part_id = :partId', 'partId');
@@ -52,6 +57,7 @@ export const lotList: ListDefinition<LotRow, LotListQuery> = {
     lineNumber: Number(r.lineNumber),
     receivedAt: (r.receivedAt as Date).toISOString(),
     acceptanceDiscontinued: Boolean(r.acceptanceDiscontinued),
+    ...pieceQuantities(r),
   }),
   csv: {
     filename: 'lots',
@@ -66,6 +72,9 @@ export const lotList: ListDefinition<LotRow, LotListQuery> = {
       { header: 'po_line', value: (r) => r.lineNumber },
       { header: 'received_at', value: (r) => r.receivedAt },
       { header: 'acceptance_discontinued', value: (r) => (r.acceptanceDiscontinued ? 'yes' : 'no') },
+      { header: 'accepted', value: (r) => r.accepted },
+      { header: 'nonconforming', value: (r) => r.nonconforming },
+      { header: 'returned', value: (r) => r.returned },
     ],
   },
 };
@@ -138,6 +147,7 @@ export async function lotView(id: number): Promise<LotView> {
   const pieceStates: Partial<Record<PieceState, number>> = {};
   for (const piece of pieces) pieceStates[piece.state] = (pieceStates[piece.state] ?? 0) + 1;
   const attachments = await Attachment.findAll({ where: { lotId: id }, order: [['id', 'ASC']] });
+  const [quantities] = await sequelize.query<Record<string, unknown>>(`SELECT * FROM ${pieceQuantitiesSql('pc.lot_id = :id')} AS q`, { type: QueryTypes.SELECT, replacements: { id } });
   const [{ waiting }] = await sequelize.query<{ waiting: boolean }>(`SELECT ${AWAITING_RESUMPTION} AS waiting FROM lots l WHERE l.id = :id`, { type: QueryTypes.SELECT, replacements: { id } });
   const receivedBy = shipment.receiver?.name ?? null;
   const history = [
@@ -157,6 +167,7 @@ export async function lotView(id: number): Promise<LotView> {
     quantity: lot.quantity,
     overReceiptReason: lot.overReceiptReason,
     acceptanceDiscontinued: waiting,
+    ...pieceQuantities(quantities),
     shipment: { id: shipment.id, packingSlip: shipment.packingSlip, carrier: shipment.carrier, receivedAt: shipment.receivedAt.toISOString(), receivedBy },
     purchaseOrder: { id: order.id, number: order.number, supplier: { id: order.supplier!.id, name: order.supplier!.name } },
     line: { id: line.id, lineNumber: line.lineNumber, quantity: line.quantity, inspectionLevel: line.inspectionLevel, aql: line.aql, hundredPercent: line.hundredPercent, spec: line.spec },

@@ -8,6 +8,7 @@ import { purchaseOrderInputSchema, type PurchaseOrderInput } from '../../../shar
 import { recordAudit, type AuditActor } from '../../audit/record';
 import { badRequest, conflict, notFound } from '../../http/errors';
 import { containing } from '../../http/list';
+import { pieceQuantities, pieceQuantitiesSql } from '../../stock/standing';
 
 type ParsedInput = ReturnType<typeof purchaseOrderInputSchema.parse>;
 
@@ -40,6 +41,16 @@ export async function receivedByLine(purchaseOrderId: number, transaction?: Tran
     { type: QueryTypes.SELECT, replacements: { purchaseOrderId }, transaction },
   );
   return new Map(rows.map((r) => [Number(r.lineId), Number(r.received)]));
+}
+
+/** Accepted, nonconforming and returned pieces per line of a PO. */
+async function outcomesByLine(purchaseOrderId: number) {
+  const rows = await sequelize.query<Record<string, unknown>>(
+    `SELECT pol.id AS "lineId", q.* FROM purchase_order_lines pol CROSS JOIN LATERAL ${pieceQuantitiesSql('ql.po_line_id = pol.id')} AS q
+      WHERE pol.purchase_order_id = :purchaseOrderId`,
+    { type: QueryTypes.SELECT, replacements: { purchaseOrderId } },
+  );
+  return new Map(rows.map((r) => [Number(r.lineId), pieceQuantities(r)]));
 }
 
 const lineFields = (line: ParsedInput['lines'][number]) => ({
@@ -131,7 +142,7 @@ export async function findPurchaseOrder(id: number) {
     order: [[{ model: PurchaseOrderLine, as: 'lines' }, 'lineNumber', 'ASC']],
   });
   if (!order) throw notFound('Purchase order');
-  return { order, received: await receivedByLine(id) };
+  return { order, received: await receivedByLine(id), outcomes: await outcomesByLine(id) };
 }
 
 /** Lines of open POs, for the clerk to receive against; `q` matches PO, supplier or part. */

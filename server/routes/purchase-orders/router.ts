@@ -22,8 +22,8 @@ mountRecord(purchaseOrdersRouter, {
   write: 'catalog.write',
   schema: purchaseOrderInputSchema,
   view: async (id) => {
-    const { order, received } = await findPurchaseOrder(id);
-    return presentPurchaseOrder(order, received);
+    const { order, received, outcomes } = await findPurchaseOrder(id);
+    return presentPurchaseOrder(order, received, outcomes);
   },
   create: createPurchaseOrder,
   update: updatePurchaseOrder,

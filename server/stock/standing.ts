@@ -1,0 +1,24 @@
+// A piece's standing as SQL, shared by the stock ledger (what may go to stock or a work order) and
+// the lot and PO quantities. `piece` and `lot` are SQL expressions naming the piece's and lot's id.
+import type { PieceQuantities } from '../../shared/schemas/stock';
+
+/** The piece's current results (superseded ones aside) include a fail. */
+export const failingNowSql = (piece: string) =>
+  `EXISTS (SELECT 1 FROM piece_results r WHERE r.piece_id = ${piece} AND r.superseded_by_file_id IS NULL AND r.verdict = 'fail')`;
+
+/** The lot's current signed decision is use as is: its failed pieces are released under that decision. */
+export const usedAsIsSql = (lot: string) =>
+  `EXISTS (SELECT 1 FROM dispositions d WHERE d.lot_id = ${lot} AND d.superseded_at IS NULL AND d.decision = 'use-as-is')`;
+
+/** The PieceQuantities of the pieces `where` selects (pieces alias `pc`, their lots `ql`). */
+export const pieceQuantitiesSql = (where: string) => `(
+  SELECT count(*) FILTER (WHERE pc.state IN ('in-stock', 'issued')) AS accepted,
+         count(*) FILTER (WHERE ${failingNowSql('pc.id')}) AS nonconforming,
+         count(*) FILTER (WHERE pc.state = 'returned') AS returned
+    FROM pieces pc JOIN lots ql ON ql.id = pc.lot_id WHERE ${where})`;
+
+export const pieceQuantities = (row: Record<string, unknown>): PieceQuantities => ({
+  accepted: Number(row.accepted ?? 0),
+  nonconforming: Number(row.nonconforming ?? 0),
+  returned: Number(row.returned ?? 0),
+});
