@@ -1,9 +1,7 @@
-// Serves the API and the built client: `npm start` calls startServer; `npm run dev:server` runs this
-// file, which also works the background jobs (as every server process does) and stops both on SIGTERM.
+// Serves the API and the built client: `npm start` calls startServer; `npm run dev:server` runs this file.
 import type { Server } from 'node:http';
 import { config } from './config';
 import { createApp } from './app';
-import { startBackgroundWork, stopBackgroundWork } from './background';
 import { logger } from './logger';
 
 export function startServer(port = config.PORT, host = config.HOST): Promise<Server> {
@@ -16,12 +14,6 @@ export function startServer(port = config.PORT, host = config.HOST): Promise<Ser
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   const server = await startServer();
-  await startBackgroundWork();
   logger.info(`Phaselot listening on http://${config.HOST}:${config.PORT}`);
-  process.on('SIGTERM', async () => {
-    server.close();
-    // A job still running is handed back to the queue, which retries it in another process.
-    await stopBackgroundWork();
-    process.exit(0);
-  });
+  process.on('SIGTERM', () => server.close());
 }

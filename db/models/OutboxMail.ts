@@ -1,7 +1,6 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-/** An attached file, kept in the file store under its SHA-256. */
-export type OutboxAttachment = { filename: string; contentType: string; storageKey: string };
+export type OutboxAttachment = { filename: string; contentType: string; contentBase64: string };
 
 export class OutboxMail extends Model<InferAttributes<OutboxMail>, InferCreationAttributes<OutboxMail>> {
   declare id: CreationOptional<number>;

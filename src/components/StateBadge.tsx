@@ -19,6 +19,9 @@ const STATE_TONES: Record<string, Tone> = {
   accepted: 'pass',
   'use-as-is': 'hold',
   rejected: 'fail',
+  // A sort holds the lot until every piece has its verdict; a sorted lot went both ways.
+  sorting: 'hold',
+  sorted: 'neutral',
   held: 'hold',
   'material-review': 'hold',
   'in-stock': 'pass',

@@ -1,6 +1,7 @@
 import { createColumnHelper } from '@tanstack/react-table';
 import { FileText } from 'lucide-react';
 import { DISPOSITION_LABELS } from '@shared/inspection/lotVerdict';
+import { lotName } from '@shared/schemas/stock';
 import { DataTable, useListState } from '@/components/DataTable';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
@@ -42,7 +43,7 @@ const columns = [
     cell: ({ row: { original: d } }) => (
       <>
         {d.supplier.name}
-        <span className="block font-mono text-xs text-ink-muted">L-{d.lot.id} · {d.lot.supplierLot}</span>
+        <span className="block font-mono text-xs text-ink-muted">{lotName(d.lot.id)} · {d.lot.supplierLot}</span>
       </>
     ),
   }),

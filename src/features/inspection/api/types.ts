@@ -1,5 +1,5 @@
 // The shapes the inspection endpoints answer with (server/routes/inspection/presenter.ts).
-import type { LotVerdict, Disposition } from '@shared/inspection/lotVerdict';
+import type { LotVerdict, Disposition, PieceVerdict } from '@shared/inspection/lotVerdict';
 import type { LotState } from '@shared/schemas/stock';
 
 export type ResultView = {
@@ -29,7 +29,10 @@ export type LotInspectionView = {
   plan: { codeLetter: string; sampleSize: number; accept: number; reject: number; severity: string; level: string; aql: number; hundredPercent: boolean; seed: string; summary: string; oc: { percentDefective: number; pa: number }[] };
   switching: { severity: string; stopped?: boolean };
   verdict: LotVerdict;
-  pieces: { id: number; serial: string; state: string; inSample: boolean; results: ResultView[] }[];
+  /** While a 100 % sort runs: the pieces still without a verdict. */
+  sort: { remaining: number } | null;
+  /** toMeasure: in the sample, or any piece on site while the lot is sorted 100 %. */
+  pieces: { id: number; serial: string; state: string; inSample: boolean; toMeasure: boolean; verdict: PieceVerdict | 'unmeasured'; results: ResultView[] }[];
   files: { id: number; name: string; sha256: string; sizeBytes: number; method: string; rows: number; instrument: string | null; uploadedBy: string | null; uploadedAt: string }[];
   disposition: { id: number; decision: Disposition } | null;
   dispositions: { id: number; decision: Disposition; meaning: string; deviationNumber: string | null; justification: string | null; signer: string | null; signedAt: string; supersededAt: string | null }[];
@@ -48,6 +51,8 @@ export type QueueRow = {
   plan: { codeLetter: string; sampleSize: number; accept: number; reject: number; severity: string };
   sampleSerials: string[];
   measured: number;
+  /** While a 100 % sort runs: the pieces still without a verdict. */
+  sortRemaining: number | null;
   proposal: LotVerdict['proposal'];
 };
 

@@ -70,6 +70,12 @@ export function DispositionPanel({ view, maySign }: { view: LotInspectionView; m
         }
       >
         {!formOpen && (failure || signed)}
+        {view.sort && (
+          <Notice tone="info" title="100 % sort under way">
+            {view.sort.remaining} of {view.lot.quantity} pieces still need a verdict. When the last one is measured, each piece goes by its own verdict (conforming to stock,
+            nonconforming back to the vendor) and the certificate is issued for the released serials.
+          </Notice>
+        )}
       </SignedDecision>
       {formOpen && form}
     </div>

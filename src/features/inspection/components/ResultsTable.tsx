@@ -5,13 +5,13 @@ import { VerdictBadge } from './VerdictBadge';
 const num = (v: number | null | undefined, digits: number, signed = false) => (v === null || v === undefined ? '—' : `${signed && v >= 0 ? '+' : ''}${v.toFixed(digits)}`);
 
 export function ResultsTable({ view }: { view: LotInspectionView }) {
-  const [onlySample, setOnlySample] = useState(true);
-  const pieces = view.pieces.filter((p) => !onlySample || p.inSample);
+  const [onlyToMeasure, setOnlyToMeasure] = useState(true);
+  const pieces = view.pieces.filter((p) => !onlyToMeasure || p.toMeasure);
   return (
     <div className="rounded border border-paper-line bg-paper-card">
       <div className="flex items-center justify-between border-b border-paper-line px-3 py-1.5 text-xs text-ink-muted">
         <span>{pieces.length} piece(s)</span>
-        <label className="inline-flex items-center gap-1.5"><input type="checkbox" checked={onlySample} onChange={(e) => setOnlySample(e.target.checked)} /> sample only</label>
+        <label className="inline-flex items-center gap-1.5"><input type="checkbox" checked={onlyToMeasure} onChange={(e) => setOnlyToMeasure(e.target.checked)} /> {view.sort ? 'pieces of the sort only' : 'sample only'}</label>
       </div>
       <div className="max-h-[28rem] overflow-y-auto">
         <table className="w-full text-sm" aria-label="Piece results">

@@ -1,6 +1,8 @@
 import { Link } from 'react-router';
+import { LOT_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
+import { StateBadge } from '@/components/StateBadge';
 import { useInspectionQueue } from '../api';
 import { VerdictBadge } from '../components/VerdictBadge';
 
@@ -23,14 +25,14 @@ export function InspectionQueuePage() {
           <tbody>
             {rows.map((r) => (
               <tr key={r.lotId} className="border-t border-paper-line/70 align-top hover:bg-paper">
-                <td className="px-2.5 py-1 font-mono whitespace-nowrap"><Link to={`/inspection/lots/${r.lotId}`}>L-{r.lotId}</Link></td>
+                <td className="px-2.5 py-1 whitespace-nowrap"><Link to={`/inspection/lots/${r.lotId}`} className="font-mono">{lotName(r.lotId)}</Link><span className="block"><StateBadge state={r.state} label={LOT_STATE_LABELS[r.state]} /></span></td>
                 <td className="px-2.5 py-1"><span className="font-mono">{r.part.number}</span><span className="block text-xs text-ink-muted">{r.part.description}</span></td>
                 <td className="px-2.5 py-1">{r.supplier}<span className="block font-mono text-xs text-ink-muted">{r.supplierLot}</span></td>
                 <td className="px-2.5 py-1 text-right">{r.quantity}</td>
                 <td className={`px-2.5 py-1 text-right ${r.daysInQuarantine > 10 ? 'font-medium text-state-fail' : ''}`}>{r.daysInQuarantine}</td>
                 <td className="px-2.5 py-1 text-xs whitespace-nowrap">{r.plan.severity}, {r.plan.codeLetter}: n {r.plan.sampleSize}, Ac {r.plan.accept}/Re {r.plan.reject}</td>
                 <td className="max-w-xs px-2.5 py-1 font-mono text-2xs text-ink-muted">{r.sampleSerials.slice(0, 8).join(' ')}{r.sampleSerials.length > 8 ? ` … +${r.sampleSerials.length - 8}` : ''}</td>
-                <td className="px-2.5 py-1 text-right">{r.measured}/{r.plan.sampleSize}</td>
+                <td className="px-2.5 py-1 text-right whitespace-nowrap">{r.sortRemaining === null ? `${r.measured}/${r.plan.sampleSize}` : `${r.quantity - r.sortRemaining}/${r.quantity}`}</td>
                 <td className="px-2.5 py-1"><VerdictBadge value={r.proposal} /></td>
               </tr>
             ))}

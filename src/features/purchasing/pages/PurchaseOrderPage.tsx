@@ -1,9 +1,11 @@
 import { Link, useNavigate, useParams } from 'react-router';
 import { Pencil } from 'lucide-react';
 import { can } from '@shared/policies';
+import type { PieceQuantities } from '@shared/schemas/stock';
 import { Details, Panel } from '@/components/Details';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
+import { PieceOutcomes } from '@/components/PieceOutcomes';
 import { SpecSummary } from '@/components/SpecSummary';
 import { StateBadge } from '@/components/StateBadge';
 import { useSession } from '@/features/auth/api/session';
@@ -40,6 +42,8 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
   const ordered = po.lines.reduce((sum, l) => sum + l.quantity, 0);
   const received = po.lines.reduce((sum, l) => sum + l.received, 0);
   const value = po.lines.reduce((sum, l) => sum + l.quantity * l.unitPrice, 0);
+  const sumOf = (key: keyof PieceQuantities) => po.lines.reduce((sum, l) => sum + l[key], 0);
+  const outcomes: PieceQuantities = { accepted: sumOf('accepted'), nonconforming: sumOf('nonconforming'), returned: sumOf('returned') };
   return (
     <div className="max-w-6xl space-y-3">
       {header}
@@ -53,6 +57,7 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
             ['Buyer', po.buyer?.name],
             ['Value', money(value, po.currency)],
             ['Pieces', `${received} of ${ordered} received`],
+            ['Outcome', <PieceOutcomes key="o" quantities={outcomes} />],
             ['Receipts', <Link key="l" to={`/lots?purchaseOrderId=${po.id}`}>Lots of this PO</Link>],
             ['Notes', po.notes || '—'],
           ]}
@@ -72,6 +77,7 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
                 ['Unit price', money(line.unitPrice, po.currency)],
                 ['Sampling', `Level ${line.inspectionLevel}, AQL ${line.aql}`],
                 ['100 % inspection', line.hundredPercent ? 'Yes' : 'No'],
+                ['Outcome', <PieceOutcomes key="o" quantities={line} />],
               ]}
             />
             <div className="rounded bg-paper px-3 py-2">

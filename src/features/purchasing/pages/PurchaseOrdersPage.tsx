@@ -8,6 +8,7 @@ import { DataTable, useListState } from '@/components/DataTable';
 import { FilterSelect, ListToolbar } from '@/components/ListToolbar';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
+import { outcomeColumns, outcomeSummary } from '@/components/PieceOutcomes';
 import { StateBadge } from '@/components/StateBadge';
 import { counted } from '@/lib/plural';
 import { useSession } from '@/features/auth/api/session';
@@ -37,6 +38,7 @@ export function PurchaseOrdersPage() {
           <span className={`tabular-nums ${row.original.received >= row.original.ordered ? 'text-state-pass' : ''}`}>{row.original.received}</span>
         ),
       }),
+      ...outcomeColumns(column),
       column.accessor('value', { header: 'Value', cell: ({ row }) => <span className="tabular-nums">{money(row.original.value, row.original.currency)}</span> }),
     ],
     [],
@@ -55,7 +57,7 @@ export function PurchaseOrdersPage() {
         filters={{ status }}
         placeholder="Search PO, supplier, notes"
         exportPath="/purchase-orders"
-        summary={totals && `${counted(orders.data?.total ?? 0, 'PO')} · ${counted(totals.ordered, 'piece')} ordered · ${totals.received} received`}
+        summary={totals && `${counted(orders.data?.total ?? 0, 'PO')} · ${counted(totals.ordered, 'piece')} ordered · ${totals.received} received · ${outcomeSummary(totals)}`}
       >
         <FilterSelect label="Status" value={status} onChange={(value) => update({ status: value })} options={PO_STATUSES.map((s) => ({ value: s, label: s === 'open' ? 'Open' : 'Closed' }))} />
       </ListToolbar>

@@ -2,11 +2,12 @@ import { Link, useParams, useSearchParams } from 'react-router';
 import { FileText } from 'lucide-react';
 import { can } from '@shared/policies';
 import { ATTACHMENT_KIND_LABELS } from '@shared/schemas/receiving';
-import { LOT_STATE_LABELS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, type PieceState } from '@shared/schemas/stock';
+import { LOT_STATE_LABELS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, lotName, type PieceState } from '@shared/schemas/stock';
 import { Details, Panel } from '@/components/Details';
 import { HistoryList } from '@/components/HistoryList';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
+import { PieceOutcomes } from '@/components/PieceOutcomes';
 import { SpecSummary } from '@/components/SpecSummary';
 import { StateBadge } from '@/components/StateBadge';
 import { useSession } from '@/features/auth/api/session';
@@ -28,7 +29,7 @@ export function LotPage() {
   return (
     <div className="max-w-6xl space-y-3">
       <PageHeader
-        title={`Lot L-${l.id}`}
+        title={`Lot ${lotName(l.id)}`}
         subtitle={
           <>
             {l.part.number} · {l.part.description} · supplier lot <span className="font-mono">{l.supplierLot}</span>
@@ -61,6 +62,7 @@ export function LotPage() {
                 ['Received', new Date(l.shipment.receivedAt).toLocaleString()],
                 ['Received by', l.shipment.receivedBy],
                 ['Pieces', l.quantity],
+                ['Outcome', <PieceOutcomes key="o" quantities={l} />],
               ]}
             />
             {l.overReceiptReason && (

@@ -2,12 +2,13 @@ import { useMemo } from 'react';
 import { useNavigate } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
 import type { LotRow } from '@shared/schemas/receiving';
-import { LOT_STATES, LOT_STATE_LABELS } from '@shared/schemas/stock';
+import { LOT_STATES, LOT_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { DataTable, useListState } from '@/components/DataTable';
 import { FilterSelect, ListToolbar } from '@/components/ListToolbar';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { PartLabel } from '@/components/PartLabel';
+import { outcomeColumns, outcomeSummary } from '@/components/PieceOutcomes';
 import { StateBadge } from '@/components/StateBadge';
 import { counted } from '@/lib/plural';
 import { useLots } from '../api';
@@ -21,7 +22,7 @@ export function LotsPage() {
   const lots = useLots({ ...state, ...filters });
   const columns = useMemo(
     () => [
-      column.accessor('id', { header: 'Lot', cell: ({ getValue }) => <span className="font-mono">L-{getValue()}</span> }),
+      column.accessor('id', { header: 'Lot', cell: ({ getValue }) => <span className="font-mono">{lotName(getValue())}</span> }),
       column.accessor('state', { header: 'State', cell: ({ getValue }) => <StateBadge state={getValue()} label={LOT_STATE_LABELS[getValue()]} /> }),
       column.accessor('partNumber', {
         header: 'Part',
@@ -31,6 +32,7 @@ export function LotsPage() {
       column.accessor('supplierLot', { header: 'Supplier lot', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
       column.accessor('poNumber', { header: 'PO / line', cell: ({ row }) => <span className="font-mono">{row.original.poNumber} / {row.original.lineNumber}</span> }),
       column.accessor('quantity', { header: 'Pieces', cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
+      ...outcomeColumns(column),
       column.accessor('receivedAt', { header: 'Received', cell: ({ getValue }) => new Date(getValue()).toLocaleDateString() }),
     ],
     [],
@@ -43,7 +45,7 @@ export function LotsPage() {
         filters={filters}
         placeholder="Lot, serial, part, supplier, PO"
         exportPath="/lots"
-        summary={lots.data && `${counted(lots.data.total, 'lot')} · ${counted(lots.data.totals.quantity, 'piece')}`}
+        summary={lots.data && `${counted(lots.data.total, 'lot')} · ${counted(lots.data.totals.quantity, 'piece')} · ${outcomeSummary(lots.data.totals)}`}
       >
         <FilterSelect label="State" value={filters.state} onChange={(value) => update({ state: value })} options={LOT_STATES.map((s) => ({ value: s, label: LOT_STATE_LABELS[s] }))} />
         {filters.purchaseOrderId && (

@@ -2,6 +2,7 @@ import { useMemo } from 'react';
 import { Link, useNavigate } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
 import type { ShipmentRow } from '@shared/schemas/receiving';
+import { lotName } from '@shared/schemas/stock';
 import { DataTable, useListState } from '@/components/DataTable';
 import { ListToolbar } from '@/components/ListToolbar';
 import { Notice } from '@/components/Notice';
@@ -28,7 +29,7 @@ export function ShipmentsPage() {
       column.accessor('lotIds', {
         header: 'Lots',
         enableSorting: false,
-        cell: ({ getValue }) => getValue().map((id) => <Link key={id} to={`/lots/${id}`} onClick={(e) => e.stopPropagation()} className="mr-1 font-mono">L-{id}</Link>),
+        cell: ({ getValue }) => getValue().map((id) => <Link key={id} to={`/lots/${id}`} onClick={(e) => e.stopPropagation()} className="mr-1 font-mono">{lotName(id)}</Link>),
       }),
       column.accessor('pieces', { header: 'Pieces', cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
     ],

@@ -2,7 +2,7 @@
 // the server refuses the whole move if any piece is not where, or in the state, the move needs.
 import { useForm, type FieldValues, type Path, type UseFormReturn } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { issueInputSchema, releaseInputSchema, transferInputSchema } from '@shared/schemas/stock';
+import { issueInputSchema, lotName, releaseInputSchema, transferInputSchema } from '@shared/schemas/stock';
 import { parseSerialText } from '@shared/serials';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
@@ -100,13 +100,13 @@ export function PutAwayForm({ lotId, onDone }: { lotId?: string; onDone: Done })
   const release = useRelease();
   const form = useForm({ resolver: zodResolver(releaseInputSchema), defaultValues: { lotId: lotId ?? '', toLocationId: '', serials: '' } });
   const submit = form.handleSubmit((input) =>
-    release.mutate(input, { onSuccess: (r) => { form.reset({ lotId: '', toLocationId: '', serials: '' }); onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} of lot L-${input.lotId} put away.`); }, onError: (e) => showServerFieldErrors(e, form.setError) }),
+    release.mutate(input, { onSuccess: (r) => { form.reset({ lotId: '', toLocationId: '', serials: '' }); onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} of lot ${lotName(Number(input.lotId))} put away.`); }, onError: (e) => showServerFieldErrors(e, form.setError) }),
   );
   return (
     <form onSubmit={submit} noValidate aria-label="Put away an accepted lot" className="space-y-3">
       {release.error && <Notice tone="error" title="Nothing was put away">{release.error.message}</Notice>}
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field label="Lot number" htmlFor="move-lot" error={form.formState.errors.lotId?.message} hint="The number after L-, e.g. 12 for L-12. Only accepted lots go to stock.">
+        <Field label="Lot number" htmlFor="move-lot" error={form.formState.errors.lotId?.message} hint={`The lot's number, e.g. 12 for ${lotName(12)}. Only accepted lots go to stock.`}>
           <input id="move-lot" inputMode="numeric" className={`${inputClass} font-mono`} {...form.register('lotId')} />
         </Field>
         <BinField form={form} label="Into bin" />

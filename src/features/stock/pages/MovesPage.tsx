@@ -1,7 +1,7 @@
 import { useMemo } from 'react';
 import { Link } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
-import { MOVE_REASONS, MOVE_REASON_LABELS, type MoveView } from '@shared/schemas/stock';
+import { MOVE_REASONS, MOVE_REASON_LABELS, lotName, type MoveView } from '@shared/schemas/stock';
 import { DataTable, useListState } from '@/components/DataTable';
 import { FilterSelect, ListToolbar } from '@/components/ListToolbar';
 import { Notice } from '@/components/Notice';
@@ -29,7 +29,7 @@ export function MovesPage() {
       column.accessor('movedAt', { header: 'When', cell: ({ getValue }) => new Date(getValue()).toLocaleString() }),
       column.accessor('serial', { header: 'Serial', cell: ({ getValue }) => <Link to={`/pieces/${encodeURIComponent(getValue())}`} className="font-mono">{getValue()}</Link> }),
       column.accessor('partNumber', { header: 'Part', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
-      column.accessor('lotId', { header: 'Lot', enableSorting: false, cell: ({ getValue }) => <Link to={`/lots/${getValue()}`} className="font-mono">L-{getValue()}</Link> }),
+      column.accessor('lotId', { header: 'Lot', enableSorting: false, cell: ({ getValue }) => <Link to={`/lots/${getValue()}`} className="font-mono">{lotName(getValue())}</Link> }),
       column.accessor('reason', { header: 'Move', cell: ({ getValue }) => MOVE_REASON_LABELS[getValue()] }),
       column.accessor('from', { header: 'From', cell: ({ getValue }) => place(getValue(), 'supplier / work order') }),
       column.accessor('to', { header: 'To', cell: ({ getValue }) => place(getValue(), 'issued out') }),

@@ -1,6 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { Link, useNavigate, useParams } from 'react-router';
-import { LOCATION_KIND_LABELS, LOT_STATE_LABELS, MOVE_REASON_LABELS, PIECE_STATE_LABELS } from '@shared/schemas/stock';
+import { LOCATION_KIND_LABELS, LOT_STATE_LABELS, MOVE_REASON_LABELS, PIECE_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { Button } from '@/components/Button';
 import { Details, Panel } from '@/components/Details';
 import { inputClass } from '@/components/Field';
@@ -40,7 +40,7 @@ export function PiecePage() {
                 ['Part', <Link key="p" to={`/purchasing/parts/${piece.part.id}`}>{piece.part.number}</Link>],
                 ['Supplier', piece.supplier.name],
                 ['PO / line', <span key="po" className="font-mono">{piece.purchaseOrder.number} / {piece.purchaseOrder.lineNumber}</span>],
-                ['Lot', <Link key="l" to={`/lots/${piece.lot.id}`} className="font-mono">L-{piece.lot.id}</Link>],
+                ['Lot', <Link key="l" to={`/lots/${piece.lot.id}`} className="font-mono">{lotName(piece.lot.id)}</Link>],
                 ['Supplier lot', <span key="sl" className="font-mono">{piece.lot.supplierLot}</span>],
                 ['Lot state', <Link key="ls" to={`/inspection/lots/${piece.lot.id}`} title="Readings, verdicts and the lot's decision">{LOT_STATE_LABELS[piece.lot.state]}</Link>],
                 ['Now at', piece.location ? `${piece.location.code} (${LOCATION_KIND_LABELS[piece.location.kind].toLowerCase()})` : 'issued out of stores'],
