@@ -17,7 +17,10 @@ export class LotInspection extends Model<InferAttributes<LotInspection>, InferCr
   declare severity: 'normal' | 'tightened' | 'reduced';
   declare inspectionLevel: string;
   declare aql: number;
+  /** Table 1's code letter of the lot size at the inspection level. */
   declare codeLetter: string;
+  /** The letter whose plan is used: the row the table's arrow leads to (codeLetter when no arrow). */
+  declare planLetter: string;
   declare sampleSize: number;
   declare acceptNumber: number;
   declare rejectNumber: number;
@@ -133,6 +136,7 @@ export function initInspectionModels(sequelize: Sequelize) {
       inspectionLevel: { type: DataTypes.STRING(4), allowNull: false },
       aql: { type: DataTypes.DECIMAL(6, 3), allowNull: false, ...numberGetter('aql') },
       codeLetter: { type: DataTypes.CHAR(1), allowNull: false },
+      planLetter: { type: DataTypes.CHAR(1), allowNull: false },
       sampleSize: { type: DataTypes.INTEGER, allowNull: false },
       acceptNumber: { type: DataTypes.INTEGER, allowNull: false },
       rejectNumber: { type: DataTypes.INTEGER, allowNull: false },

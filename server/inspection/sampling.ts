@@ -7,7 +7,7 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
 import { LotInspection, SamplePiece } from '../../db/models';
-import { drawSample, initialSwitchingState, newSampleSeed, planFor, type SwitchingState } from '../../shared/sampling';
+import { describeSamplingPlan, drawSample, initialSwitchingState, newSampleSeed, planFor, type SwitchingState } from '../../shared/sampling';
 import { AppError } from '../http/errors';
 import { lotForInspection, type LotForInspection } from './lotAccess';
 
@@ -28,8 +28,10 @@ export async function switchingStateOf(supplierId: number, partId: number, trans
 }
 
 export function describePlan(plan: LotInspection) {
-  const inspection = plan.hundredPercent ? '100 % inspection' : `${plan.severity} inspection, level ${plan.inspectionLevel}, AQL ${plan.aql}`;
-  return `ISO 2859-1 single sampling, ${inspection}: code letter ${plan.codeLetter}, n = ${plan.sampleSize}, Ac ${plan.acceptNumber}, Re ${plan.rejectNumber}`;
+  return describeSamplingPlan({
+    severity: plan.severity, level: plan.inspectionLevel, aql: plan.aql, codeLetter: plan.codeLetter, planLetter: plan.planLetter,
+    sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, hundredPercent: plan.hundredPercent,
+  });
 }
 
 /** The lot's plan as drawn, or null while the lot waits for inspection to resume. Never writes. */
@@ -58,7 +60,8 @@ async function drawPlan(lot: LotForInspection, state: SwitchingState, transactio
       severity: state.severity,
       inspectionLevel: lot.inspectionLevel,
       aql: lot.aql,
-      codeLetter: plan.planLetter,
+      codeLetter: plan.codeLetter,
+      planLetter: plan.planLetter,
       sampleSize,
       // 100 % inspection keeps the plan's Ac/Re: the lot is judged on every piece instead of a sample.
       acceptNumber: plan.accept,

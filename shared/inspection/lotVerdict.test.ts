@@ -26,6 +26,21 @@ describe('proposeLotVerdict', () => {
     expect(proposeLotVerdict(sample([['pass', 'fail', 'fail'], ['pass', 'pass']]), plan)).toMatchObject({ proposal: 'accept', defectives: 1 });
   });
 
+  it('accepts a result between Ac and Re of a reduced plan, saying that normal inspection resumes', () => {
+    // ANSI/ASQ Z1.4 reduced inspection (common practice): Ac exceeded but Re not reached accepts the
+    // lot and reinstates normal inspection. Plan K at AQL 1.0, Ac 1 / Re 4 (Z1.4 Table II-C).
+    const gap = { accept: 1, reject: 4 };
+    const twoFailed = proposeLotVerdict(sample([['fail'], ['fail'], ['pass']]), gap);
+    expect(twoFailed).toMatchObject({ proposal: 'accept', defectives: 2 });
+    expect(twoFailed.explanation).toBe('2 defective(s) in the sample, above Ac 1 but below Re 4: the lot is accepted and normal inspection resumes');
+    expect(proposeLotVerdict(sample([['fail'], ['fail'], ['fail'], ['fail']]), gap).proposal).toBe('reject');
+    expect(proposeLotVerdict(sample([['fail'], ['pass']]), gap).explanation).toBe('1 defective(s) in the sample, within Ac 1');
+  });
+
+  it('keeps a result inside the gap undecided while the sample is open, as Re may still be reached', () => {
+    expect(proposeLotVerdict(sample([['fail'], ['fail'], []]), { accept: 1, reject: 4 }).proposal).toBe('undecided');
+  });
+
   it('with Ac 0 a single defective rejects', () => {
     expect(proposeLotVerdict(sample([['pass'], ['fail']]), { accept: 0, reject: 1 }).proposal).toBe('reject');
   });

@@ -1,7 +1,7 @@
 // From per-piece results to the proposed lot verdict: the defectives in the sample against the
-// plan's Ac/Re (ISO 2859-1 single sampling). A piece measured at several wavelengths (an achromatic
-// part) is defective when any of its wavelengths fails; a sample piece without a usable result
-// keeps the lot undecided.
+// plan's Ac/Re (ISO 2859-1 / ANSI/ASQ Z1.4 single sampling). A piece measured at several
+// wavelengths (an achromatic part) is defective when any of its wavelengths fails; a sample piece
+// without a usable result keeps the lot undecided.
 import { z } from 'zod';
 
 export type PieceVerdict = 'pass' | 'fail' | 'incomplete';
@@ -43,7 +43,16 @@ export function proposeLotVerdict(sample: SamplePieceOutcome[], plan: { accept: 
     const open = [incomplete.length && `${incomplete.length} incomplete`, unmeasured.length && `${unmeasured.length} not yet measured`].filter(Boolean).join(', ');
     return { ...base, proposal: 'undecided', explanation: `The sample is not complete: ${open}` };
   }
-  return { ...base, proposal: 'accept', explanation: `${defectives} defective(s) in the sample, within Ac ${plan.accept}` };
+  if (defectives <= plan.accept) {
+    return { ...base, proposal: 'accept', explanation: `${defectives} defective(s) in the sample, within Ac ${plan.accept}` };
+  }
+  // Only reduced plans (ANSI/ASQ Z1.4) leave a gap between Ac and Re: a result inside it accepts the
+  // lot, and the switching rules then return to normal inspection.
+  return {
+    ...base,
+    proposal: 'accept',
+    explanation: `${defectives} defective(s) in the sample, above Ac ${plan.accept} but below Re ${plan.reject}: the lot is accepted and normal inspection resumes`,
+  };
 }
 
 // A sort takes the place of a plain reject: the lot reopens for a 100 % measurement and each piece

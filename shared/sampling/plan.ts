@@ -132,6 +132,22 @@ export function planFor(input: SamplingInput): SamplingPlan {
   };
 }
 
+/** What the plan look-up answers (command line and API): the letters, the table's n, Ac and Re. */
+export interface PlanLookup {
+  codeLetter: CodeLetter;
+  planLetter: CodeLetter;
+  sampleSize: number;
+  accept: number;
+  reject: number;
+  severity: Severity;
+  hundredPercent: boolean;
+}
+
+export function lookUpPlan(input: SamplingInput): PlanLookup {
+  const { codeLetter, planLetter, sampleSize, accept, reject, severity, hundredPercent } = planFor(input);
+  return { codeLetter, planLetter, sampleSize, accept, reject, severity, hundredPercent };
+}
+
 /**
  * Acceptance number of the normal plan at the same code letter with the AQL one step tighter,
  * for the switching score. Below the tightest AQL offered, the diagonal structure of Table 2-A
@@ -156,9 +172,9 @@ export const PLAN_TABLE_NAMES: Readonly<Record<Severity, string>> = {
   reduced: 'ANSI/ASQ Z1.4 Table II-C',
 };
 
-/** Both letters in words: "code letter C (plan of letter E after the arrow)". */
-export function describeLetters(codeLetter: string, planLetter: string): string {
-  return codeLetter === planLetter ? `code letter ${codeLetter}` : `code letter ${codeLetter} (plan of letter ${planLetter} after the arrow)`;
+/** The code letter, and the plan's letter when an arrow leads elsewhere: "C (plan of letter E after the arrow)". */
+export function codeLetterText(codeLetter: string, planLetter: string): string {
+  return codeLetter === planLetter ? codeLetter : `${codeLetter} (plan of letter ${planLetter} after the arrow)`;
 }
 
 /** A plan as stored with a lot or answered by the look-up; sampleSize is what is inspected. */
@@ -180,6 +196,6 @@ export function describeSamplingPlan(plan: PlanForText): string {
   const gap = plan.reject > plan.accept + 1 ? `; a result between Ac and Re accepts the lot and normal inspection resumes` : '';
   return (
     `Single sampling, ${plan.severity} inspection per ${PLAN_TABLE_NAMES[plan.severity]}, level ${plan.level}, AQL ${plan.aql}: ` +
-    `${describeLetters(plan.codeLetter, plan.planLetter)}, ${size}, Ac ${plan.accept}, Re ${plan.reject}${gap}`
+    `code letter ${codeLetterText(plan.codeLetter, plan.planLetter)}, ${size}, Ac ${plan.accept}, Re ${plan.reject}${gap}`
   );
 }

@@ -1,7 +1,8 @@
 // Switching rules of ISO 2859-1:1999, clause 9 (from memory): 2 of 5 lots not accepted → tightened;
 // 5 consecutive accepted on tightened → normal; 5 not accepted on tightened → discontinued;
 // switching score ≥ 30 with steady production and approval → reduced; a lot not accepted on
-// reduced → normal. Plans are those of Table 2-A/2-B/2-C (from memory).
+// reduced → normal; and, from ANSI/ASQ Z1.4 (from memory), a reduced sample between Ac and Re
+// accepts the lot and returns to normal. Plans come from planFor (tables.test.ts checks them).
 import { describe, expect, it } from 'vitest';
 import { planFor, type SamplingPlan } from './plan';
 import {
@@ -17,13 +18,13 @@ import type { Severity } from './tables';
 const enabled: SwitchingSettings = { reducedEnabled: true };
 const disabled: SwitchingSettings = { reducedEnabled: false };
 
-// Lot of 400 at level II, AQL 1.0: normal H n = 50, Ac 1; tightened J n = 80, Ac 1; reduced G n = 13, Ac 0.
+// Lot of 400 at level II, AQL 1.0: normal H n = 50, Ac 1; tightened J n = 80, Ac 1; reduced H n = 20, Ac 0 / Re 2.
 const acOnePlan = (severity: Severity) => planFor({ lotSize: 400, level: 'II', aql: 1.0, severity });
 // Lot of 2000 at level II, AQL 2.5: normal K n = 125, Ac 7; one AQL step tighter (1.5) Ac 5.
 const acSevenPlan = planFor({ lotSize: 2000, level: 'II', aql: 2.5, severity: 'normal' });
 
 function lot(plan: SamplingPlan, defectives: number, productionIrregular?: boolean) {
-  return { plan, defectives, accepted: defectives <= plan.accept, ...(productionIrregular === undefined ? {} : { productionIrregular }) };
+  return { plan, defectives, accepted: defectives < plan.reject, ...(productionIrregular === undefined ? {} : { productionIrregular }) };
 }
 
 /** Feeds lots 'a' (accepted, no defectives) and 'r' (not accepted) in order, each on the current severity. */
@@ -159,6 +160,16 @@ describe('reduced → normal', () => {
     expect(outcome.explanation).toMatch(/irregular/);
   });
 
+  it('returns to normal when a lot is accepted with its sample between Ac and Re', () => {
+    // Lot of 2000 at level II, AQL 1.0 on reduced inspection: K, n = 50, Ac 1 / Re 4 (Z1.4 Table II-C).
+    const gapPlan = planFor({ lotSize: 2000, level: 'II', aql: 1.0, severity: 'reduced' });
+    expect(nextSwitchingState(reduced, lot(gapPlan, 1), enabled).change).toBeNull();
+    const outcome = nextSwitchingState(reduced, lot(gapPlan, 3), enabled);
+    expect(outcome.change).toEqual({ from: 'reduced', to: 'normal' });
+    expect(outcome.state).toEqual(initialSwitchingState('normal'));
+    expect(outcome.explanation).toBe('lot accepted on reduced inspection; its 3 defective(s) lie between Ac 1 and Re 4, so normal inspection resumes (ANSI/ASQ Z1.4)');
+  });
+
   it('stays on reduced while lots are accepted', () => {
     expect(run('aaaaaaaaaa', enabled, reduced).state).toMatchObject({ severity: 'reduced', consecutiveAccepted: 10 });
   });
@@ -181,7 +192,7 @@ describe('checks on what is fed in', () => {
   });
 
   it('accepts a plan read back from storage as plain strings and numbers', () => {
-    const stored = { codeLetter: 'H', sampleSize: 50, accept: 1, reject: 2, severity: 'normal', aql: 1, level: 'II' };
+    const stored = { planLetter: 'H', sampleSize: 50, accept: 1, reject: 2, severity: 'normal', aql: 1, level: 'II' };
     expect(nextSwitchingState(initialSwitchingState(), { plan: stored, defectives: 1, accepted: true }, enabled).state.switchingScore).toBe(2);
   });
 });

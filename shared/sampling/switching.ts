@@ -38,7 +38,8 @@ const lotResultSchema = z.object({
   accepted: z.boolean(),
   defectives: z.number().int().min(0),
   plan: z.object({
-    codeLetter: z.enum(CODE_LETTERS),
+    /** The letter whose plan was used (after the table's arrow): the switching score reads its row. */
+    planLetter: z.enum(CODE_LETTERS),
     sampleSize: z.number().int().min(1),
     accept: z.number().int().min(0),
     reject: z.number().int().min(1),
@@ -54,7 +55,7 @@ const lotResultSchema = z.object({
 export interface LotResult {
   accepted: boolean;
   defectives: number;
-  plan: { codeLetter: string; sampleSize: number; accept: number; reject: number; severity: string; aql: number; level?: string };
+  plan: { planLetter: string; sampleSize: number; accept: number; reject: number; severity: string; aql: number; level?: string };
   productionIrregular?: boolean;
 }
 
@@ -87,7 +88,7 @@ function nextSwitchingScore(score: number, lot: z.infer<typeof lotResultSchema>)
   // The score counts lots on normal inspection; an acceptance on a stricter plan leaves it as it is.
   if (plan.severity !== 'normal') return score;
   if (plan.accept >= 2) {
-    const tighterAccept = tighterNormalAcceptance(plan.codeLetter, plan.aql as Aql);
+    const tighterAccept = tighterNormalAcceptance(plan.planLetter, plan.aql as Aql);
     return tighterAccept !== null && lot.defectives <= tighterAccept ? score + 3 : 0;
   }
   return score + 2;
@@ -152,14 +153,15 @@ export function nextSwitchingState(state: SwitchingState, lotResult: LotResult, 
   }
 
   if (before.severity === 'reduced') {
-    if (!lot.accepted || lot.productionIrregular) {
-      const reason = lot.accepted ? 'production is irregular or delayed' : 'a lot was not accepted';
-      return switched(
-        initialSwitchingState('normal'),
-        'reduced',
-        'normal',
-        `${lotText}; ${reason}, so normal inspection resumes (ISO 2859-1, 9.3.4)`,
-      );
+    // A reduced plan's sample between Ac and Re accepts the lot but ends reduced inspection (ANSI/ASQ Z1.4).
+    const inGap = lot.accepted && lot.defectives > lot.plan.accept;
+    if (!lot.accepted || inGap || lot.productionIrregular) {
+      const reason = !lot.accepted
+        ? 'a lot was not accepted, so normal inspection resumes (ISO 2859-1, 9.3.4)'
+        : inGap
+          ? `its ${lot.defectives} defective(s) lie between Ac ${lot.plan.accept} and Re ${lot.plan.reject}, so normal inspection resumes (ANSI/ASQ Z1.4)`
+          : 'production is irregular or delayed, so normal inspection resumes (ISO 2859-1, 9.3.4)';
+      return switched(initialSwitchingState('normal'), 'reduced', 'normal', `${lotText}; ${reason}`);
     }
     return {
       state: { ...before, consecutiveAccepted },

@@ -78,6 +78,8 @@ export type LotView = PieceQuantities & {
   shipment: { id: number; packingSlip: string; carrier: string; receivedAt: string; receivedBy: string | null };
   purchaseOrder: { id: number; number: string; supplier: { id: number; name: string } };
   line: { id: number; lineNumber: number; quantity: number; inspectionLevel: string; aql: number; hundredPercent: boolean; spec: PartSpec };
+  /** The sampling plan drawn at receipt (null while the lot waits without one): Table 1's code letter and the plan's letter. */
+  plan: { severity: string; codeLetter: string; planLetter: string; sampleSize: number; accept: number; reject: number; hundredPercent: boolean; summary: string } | null;
   part: { id: number; number: string; description: string };
   pieceStates: Partial<Record<PieceState, number>>;
   pieces: { id: number; serial: string; state: PieceState; location: string | null }[];

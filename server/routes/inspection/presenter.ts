@@ -32,7 +32,7 @@ export async function inspectionQueue() {
     rows.push({
       ...row,
       acceptanceDiscontinued: false as const,
-      plan: { codeLetter: evaluation.plan.codeLetter, sampleSize: evaluation.plan.sampleSize, accept: evaluation.plan.acceptNumber, reject: evaluation.plan.rejectNumber, severity: evaluation.plan.severity },
+      plan: { codeLetter: evaluation.plan.codeLetter, planLetter: evaluation.plan.planLetter, sampleSize: evaluation.plan.sampleSize, accept: evaluation.plan.acceptNumber, reject: evaluation.plan.rejectNumber, severity: evaluation.plan.severity },
       sampleSerials: evaluation.samplePieces.map((p) => p.serial),
       measured: evaluation.verdict.measured,
       sortRemaining: lot.state === 'sorting' ? piecesLeftToSort(lot, evaluation).length : null,
@@ -62,9 +62,10 @@ export async function lotInspectionView(lotId: number) {
     lot: { id: lot.id, state: lot.state, supplierLot: lot.supplierLot, quantity: lot.quantity, receivedAt: lot.receivedAt, poNumber: lot.poNumber, lineNumber: lot.lineNumber, part: lot.part, supplier: lot.supplier },
     spec: lot.spec,
     plan: {
-      codeLetter: plan.codeLetter, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, severity: plan.severity,
+      codeLetter: plan.codeLetter, planLetter: plan.planLetter, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, severity: plan.severity,
       level: plan.inspectionLevel, aql: plan.aql, hundredPercent: plan.hundredPercent, seed: plan.sampleSeed, summary: evaluation.planSummary,
-      oc: ocCurve({ sampleSize: plan.sampleSize, accept: plan.acceptNumber }, 41),
+      // The lot is accepted below Re, which a reduced plan's gap puts above Ac + 1.
+      oc: ocCurve({ sampleSize: plan.sampleSize, accept: plan.rejectNumber - 1 }, 41),
     },
     switching,
     verdict: evaluation.verdict,

@@ -5,6 +5,7 @@ import type { AttachmentView, HistoryEntry, LotRow, LotView } from '../../../sha
 import { MOVE_REASON_LABELS, type LotListQuery, type LotState, type MoveReason, type PieceState } from '../../../shared/schemas/stock';
 import { notFound } from '../../http/errors';
 import { filterWhen, type ListDefinition } from '../../http/list';
+import { describePlan, inspectionPlanOf } from '../../inspection/sampling';
 import { pieceQuantities, pieceQuantitiesSql } from '../../stock/standing';
 
 /** A lot in quarantine without a plan was received while acceptance was discontinued. */
@@ -147,6 +148,7 @@ export async function lotView(id: number): Promise<LotView> {
   const pieceStates: Partial<Record<PieceState, number>> = {};
   for (const piece of pieces) pieceStates[piece.state] = (pieceStates[piece.state] ?? 0) + 1;
   const attachments = await Attachment.findAll({ where: { lotId: id }, order: [['id', 'ASC']] });
+  const inspection = await inspectionPlanOf(id);
   const [quantities] = await sequelize.query<Record<string, unknown>>(`SELECT * FROM ${pieceQuantitiesSql('pc.lot_id = :id')} AS q`, { type: QueryTypes.SELECT, replacements: { id } });
   const [{ waiting }] = await sequelize.query<{ waiting: boolean }>(`SELECT ${AWAITING_RESUMPTION} AS waiting FROM lots l WHERE l.id = :id`, { type: QueryTypes.SELECT, replacements: { id } });
   const receivedBy = shipment.receiver?.name ?? null;
@@ -171,6 +173,10 @@ export async function lotView(id: number): Promise<LotView> {
     shipment: { id: shipment.id, packingSlip: shipment.packingSlip, carrier: shipment.carrier, receivedAt: shipment.receivedAt.toISOString(), receivedBy },
     purchaseOrder: { id: order.id, number: order.number, supplier: { id: order.supplier!.id, name: order.supplier!.name } },
     line: { id: line.id, lineNumber: line.lineNumber, quantity: line.quantity, inspectionLevel: line.inspectionLevel, aql: line.aql, hundredPercent: line.hundredPercent, spec: line.spec },
+    plan: inspection && {
+      severity: inspection.severity, codeLetter: inspection.codeLetter, planLetter: inspection.planLetter, sampleSize: inspection.sampleSize,
+      accept: inspection.acceptNumber, reject: inspection.rejectNumber, hundredPercent: inspection.hundredPercent, summary: describePlan(inspection),
+    },
     part: { id: lot.part!.id, number: lot.part!.number, description: lot.part!.description },
     pieceStates,
     pieces,

@@ -26,7 +26,7 @@ export type ResultView = {
 export type LotInspectionView = {
   lot: { id: number; state: LotState; supplierLot: string; quantity: number; receivedAt: string; poNumber: string; lineNumber: number; part: { id: number; number: string; description: string }; supplier: { id: number; name: string } };
   spec: { nominalWaves: number; designWavelengthNm: number; retardanceTolWaves: number; axisTolDeg: number; decisionRule: 'simple' | 'guarded'; construction: string; material: string; multiOrder?: number; bandNm?: [number, number] };
-  plan: { codeLetter: string; sampleSize: number; accept: number; reject: number; severity: string; level: string; aql: number; hundredPercent: boolean; seed: string; summary: string; oc: { percentDefective: number; pa: number }[] };
+  plan: { codeLetter: string; planLetter: string; sampleSize: number; accept: number; reject: number; severity: string; level: string; aql: number; hundredPercent: boolean; seed: string; summary: string; oc: { percentDefective: number; pa: number }[] };
   switching: { severity: string; stopped?: boolean };
   verdict: LotVerdict;
   /** While a 100 % sort runs: the pieces still without a verdict. */
@@ -48,7 +48,7 @@ export type QueueRow = {
   quantity: number;
   receivedAt: string;
   daysInQuarantine: number;
-  plan: { codeLetter: string; sampleSize: number; accept: number; reject: number; severity: string };
+  plan: { codeLetter: string; planLetter: string; sampleSize: number; accept: number; reject: number; severity: string };
   sampleSerials: string[];
   measured: number;
   /** While a 100 % sort runs: the pieces still without a verdict. */

@@ -30,7 +30,7 @@ export function InspectionQueuePage() {
                 <td className="px-2.5 py-1">{r.supplier}<span className="block font-mono text-xs text-ink-muted">{r.supplierLot}</span></td>
                 <td className="px-2.5 py-1 text-right">{r.quantity}</td>
                 <td className={`px-2.5 py-1 text-right ${r.daysInQuarantine > 10 ? 'font-medium text-state-fail' : ''}`}>{r.daysInQuarantine}</td>
-                <td className="px-2.5 py-1 text-xs whitespace-nowrap">{r.plan.severity}, {r.plan.codeLetter}: n {r.plan.sampleSize}, Ac {r.plan.accept}/Re {r.plan.reject}</td>
+                <td className="px-2.5 py-1 text-xs whitespace-nowrap">{r.plan.severity}, {r.plan.codeLetter}{r.plan.planLetter !== r.plan.codeLetter && `→${r.plan.planLetter}`}: n {r.plan.sampleSize}, Ac {r.plan.accept}/Re {r.plan.reject}</td>
                 <td className="max-w-xs px-2.5 py-1 font-mono text-2xs text-ink-muted">{r.sampleSerials.slice(0, 8).join(' ')}{r.sampleSerials.length > 8 ? ` … +${r.sampleSerials.length - 8}` : ''}</td>
                 <td className="px-2.5 py-1 text-right whitespace-nowrap">{r.sortRemaining === null ? `${r.measured}/${r.plan.sampleSize}` : `${r.quantity - r.sortRemaining}/${r.quantity}`}</td>
                 <td className="px-2.5 py-1"><VerdictBadge value={r.proposal} /></td>

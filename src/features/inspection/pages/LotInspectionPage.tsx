@@ -1,6 +1,7 @@
 import { useParams } from 'react-router';
 import { can } from '@shared/policies';
 import { DISPOSITION_LABELS } from '@shared/inspection/lotVerdict';
+import { codeLetterText } from '@shared/sampling/plan';
 import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
@@ -64,7 +65,7 @@ export function LotInspectionPage() {
             rows={[
               ['Severity', `${plan.severity}${plan.hundredPercent ? ' · 100 % inspection' : ''}`],
               ['Level / AQL', `${plan.level} / ${plan.aql}`],
-              ['Code letter', plan.codeLetter],
+              ['Code letter', codeLetterText(plan.codeLetter, plan.planLetter)],
               ['Sample', `n = ${plan.sampleSize}, Ac ${plan.accept}, Re ${plan.reject}`],
               ['Seed', <span className="font-mono text-xs">{plan.seed}</span>],
             ]}

@@ -1,6 +1,7 @@
 import { Link, useParams, useSearchParams } from 'react-router';
 import { FileText } from 'lucide-react';
 import { can } from '@shared/policies';
+import { codeLetterText } from '@shared/sampling/plan';
 import { ATTACHMENT_KIND_LABELS } from '@shared/schemas/receiving';
 import { LOT_STATE_LABELS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, lotName, type PieceState } from '@shared/schemas/stock';
 import { Details, Panel } from '@/components/Details';
@@ -57,6 +58,12 @@ export function LotPage() {
                 ['PO / line', <span key="po" className="font-mono">{l.purchaseOrder.number} / {l.line.lineNumber}</span>],
                 ['Line quantity', l.line.quantity],
                 ['Sampling', `Level ${l.line.inspectionLevel}, AQL ${l.line.aql}${l.line.hundredPercent ? ', 100 % inspection' : ''}`],
+                [
+                  'Plan',
+                  l.plan
+                    ? `${l.plan.severity}, code letter ${codeLetterText(l.plan.codeLetter, l.plan.planLetter)}: n = ${l.plan.sampleSize}${l.plan.hundredPercent ? ' (every piece)' : ''}, Ac ${l.plan.accept}, Re ${l.plan.reject}`
+                    : '—',
+                ],
                 ['Packing slip', <span key="ps" className="font-mono">{l.shipment.packingSlip}</span>],
                 ['Carrier', l.shipment.carrier || '—'],
                 ['Received', new Date(l.shipment.receivedAt).toLocaleString()],
