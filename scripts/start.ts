@@ -26,7 +26,7 @@ const { migrate } = await import('../db/migrator');
 const { seedDemo, isDatabaseEmpty, DEMO_PASSWORD } = await import('../db/seeders/demo');
 const { startMailCatcher } = await import('../server/mail/catcher');
 const { startServer } = await import('../server/main');
-const { startOutboxWorker } = await import('../server/mail/outbox');
+const { startBackgroundWork, stopBackgroundWork } = await import('../server/background');
 const { config, isProduction } = await import('../server/config');
 const { ROLES } = await import('../shared/schemas/roles');
 
@@ -41,7 +41,8 @@ if (!isProduction && (await isDatabaseEmpty())) {
 const catcher = await startMailCatcher({ port: SMTP_PORT, dir: process.env.MAIL_CATCHER_DIR });
 step(`mail catcher on smtp://127.0.0.1:${SMTP_PORT}, messages kept in ${catcher.dir}`);
 
-const outboxWorker = startOutboxWorker();
+await startBackgroundWork();
+step('background jobs started (exports, mail, sweeps)');
 step(`client ${await buildClientIfStale()}`);
 
 const server = await startServer();
@@ -59,7 +60,7 @@ async function stop() {
   console.log('\nphaselot: stopping');
   server.closeAllConnections();
   await new Promise((done) => server.close(done));
-  outboxWorker.stop();
+  await stopBackgroundWork();
   await catcher.close();
   await sequelize.close();
   cluster.stop();

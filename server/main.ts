@@ -1,7 +1,9 @@
-// Serves the API and the built client: `npm start` calls startServer; `npm run dev:server` runs this file.
+// Serves the API and the built client: `npm start` calls startServer; `npm run dev:server` runs this
+// file, which also works the background jobs (as every server process does) and stops both on SIGTERM.
 import type { Server } from 'node:http';
 import { config } from './config';
 import { createApp } from './app';
+import { startBackgroundWork, stopBackgroundWork } from './background';
 import { logger } from './logger';
 
 export function startServer(port = config.PORT, host = config.HOST): Promise<Server> {
@@ -14,6 +16,12 @@ export function startServer(port = config.PORT, host = config.HOST): Promise<Ser
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   const server = await startServer();
+  await startBackgroundWork();
   logger.info(`Phaselot listening on http://${config.HOST}:${config.PORT}`);
-  process.on('SIGTERM', () => server.close());
+  process.on('SIGTERM', async () => {
+    server.close();
+    // A job still running is handed back to the queue, which retries it in another process.
+    await stopBackgroundWork();
+    process.exit(0);
+  });
 }

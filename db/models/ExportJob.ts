@@ -14,6 +14,9 @@ export class ExportJob extends Model<InferAttributes<ExportJob>, InferCreationAt
   declare sha256: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare finishedAt: CreationOptional<Date | null>;
+  /** The queue's job that builds it, and the try (the queue's retry count) whose work counts. */
+  declare queueJobId: CreationOptional<string | null>;
+  declare attempt: CreationOptional<number>;
 
   static initModel(sequelize: Sequelize) {
     ExportJob.init(
@@ -31,6 +34,8 @@ export class ExportJob extends Model<InferAttributes<ExportJob>, InferCreationAt
         sha256: DataTypes.CHAR(64),
         createdAt: DataTypes.DATE,
         finishedAt: DataTypes.DATE,
+        queueJobId: DataTypes.UUID,
+        attempt: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
       },
       { sequelize, tableName: 'export_jobs', underscored: true, updatedAt: false },
     );

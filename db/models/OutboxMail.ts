@@ -1,6 +1,7 @@
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from 'sequelize';
 
-export type OutboxAttachment = { filename: string; contentType: string; contentBase64: string };
+/** An attached file, kept in the file store under its SHA-256. */
+export type OutboxAttachment = { filename: string; contentType: string; storageKey: string };
 
 export class OutboxMail extends Model<InferAttributes<OutboxMail>, InferCreationAttributes<OutboxMail>> {
   declare id: CreationOptional<number>;

@@ -2,7 +2,7 @@
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../db';
 import type { AuditEventView, AuditQuery } from '../../shared/schemas/audit';
-import { badRequest } from '../http/errors';
+import { sortOf } from '../http/list';
 
 type Filter = Omit<AuditQuery, 'page' | 'pageSize' | 'sort'> & { entityIds?: string[]; uptoSeq?: string };
 
@@ -33,10 +33,10 @@ const present = (r: Row): AuditEventView => ({
 
 export async function listAuditEvents(query: AuditQuery) {
   const { sql, replacements } = whereOf(query);
-  const order = query.sort === 'occurredAt' ? 'ASC' : 'DESC';
-  if (query.sort && query.sort.replace(/^-/, '') !== 'occurredAt') throw badRequest(`Cannot sort the audit trail by "${query.sort}"; sort by occurredAt or -occurredAt`);
+  // Chain order is the order events were recorded in.
+  const { direction } = sortOf({ occurredAt: 'seq' }, query.sort || '-occurredAt');
   const [{ total }] = await sequelize.query<{ total: string }>(`SELECT count(*) AS total FROM audit_events ${sql}`, { type: QueryTypes.SELECT, replacements });
-  const rows = await sequelize.query<Row>(`SELECT * FROM audit_events ${sql} ORDER BY seq ${order} LIMIT :limit OFFSET :offset`, {
+  const rows = await sequelize.query<Row>(`SELECT * FROM audit_events ${sql} ORDER BY seq ${direction} LIMIT :limit OFFSET :offset`, {
     type: QueryTypes.SELECT,
     replacements: { ...replacements, limit: query.pageSize, offset: (query.page - 1) * query.pageSize },
   });

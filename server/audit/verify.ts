@@ -3,22 +3,22 @@
 // chain order, or that follows a gap; and a head that does not name the last row (rows cut off the end). Everything is read from one snapshot, so writers running meanwhile never look like a break.
 import { QueryTypes, Transaction } from 'sequelize';
 import { sequelize } from '../../db';
+import type { AuditAnchor, AuditAnchorCheck, AuditChainHead } from '../../shared/schemas/audit';
 
 export type ChainProblem = 'content changed' | 'link broken' | 'rows missing before it' | 'head does not name the last row';
 
-export type ChainHead = { seq: string; hash: string | null; occurredAt: string | null };
 
 export type ChainReport = {
   intact: boolean;
   checked: number;
-  head: ChainHead;
+  head: AuditChainHead;
   problems: { id: string | null; seq: string; problem: ChainProblem }[];
 };
 
 const MAX_PROBLEMS = 50;
 
 /** The last link of the chain: the number of events so far and the hash an outside copy can anchor. */
-export async function chainHead(transaction?: Transaction): Promise<ChainHead> {
+export async function chainHead(transaction?: Transaction): Promise<AuditChainHead> {
   const [head] = await sequelize.query<{ seq: string; hash: string | null; occurred_at: Date | null }>(
     `SELECT h.seq, h.hash, e.occurred_at FROM audit_chain_head h LEFT JOIN audit_events e ON e.seq = h.seq`,
     { type: QueryTypes.SELECT, transaction },
@@ -59,4 +59,14 @@ async function verifyIn(transaction: Transaction): Promise<ChainReport> {
 export function verifyAuditChain(transaction?: Transaction): Promise<ChainReport> {
   if (transaction) return verifyIn(transaction);
   return sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true }, verifyIn);
+}
+
+/** Whether the row at an anchored position still carries the anchored hash. With an intact chain,
+ * a match means nothing up to that position has changed since the anchor was taken. */
+export async function checkAnchor(anchor: AuditAnchor): Promise<AuditAnchorCheck> {
+  const [row] = await sequelize.query<{ hash: string }>('SELECT hash FROM audit_events WHERE seq = :seq', { type: QueryTypes.SELECT, replacements: { seq: anchor.seq } });
+  const seq = String(anchor.seq);
+  if (!row) return { seq, matches: false, message: `The trail has no event at position ${seq}: events have been removed, or the anchor is from another site.` };
+  if (row.hash !== anchor.hash) return { seq, matches: false, message: `The event at position ${seq} carries another hash: the trail up to there has changed since the anchor was taken.` };
+  return { seq, matches: true, message: `The event at position ${seq} carries the anchored hash: if the chain verifies, nothing up to there has changed since.` };
 }

@@ -1,6 +1,7 @@
 // The export bundle: one ZIP of the documents' PDFs, an index of them, the audit events of their
 // lots and a manifest of SHA-256 sums. Everything is streamed: PDFs come from the file store, the
-// CSVs go through temporary files, and the ZIP is written straight into the store, hashing as it goes.
+// CSVs and the ZIP go through a temporary folder, the ZIP hashed as it is written, and the caller
+// keeps the finished ZIP (in the file store) before the folder is removed.
 import archiver from 'archiver';
 import { stringify } from 'csv-stringify';
 import { createHash } from 'node:crypto';
@@ -14,7 +15,9 @@ import { DISPOSITION_LABELS } from '../../shared/inspection/lotVerdict';
 import { AUDIT_CSV_COLUMNS, streamAuditEvents } from '../audit/query';
 import { escapeCsvCell, type CsvColumn } from '../http/csv';
 import type { documentsForExport } from '../routes/certificates/queries';
-import { adoptBlobFile, blobStream, partialBlobPath } from '../storage/blobs';
+import { JobFailure } from '../jobs/queue';
+import { openBlob } from '../storage/blobs';
+import { BlobMissingError } from '../storage/store';
 
 export type ExportDocument = Awaited<ReturnType<typeof documentsForExport>>[number];
 
@@ -72,11 +75,22 @@ function appendEntry(archive: archiver.Archiver, name: string, source: Readable,
   });
 }
 
-export type BundleFile = { key: string; size: number; sha256: string };
+export type BundleFile = { path: string; size: number; sha256: string };
 
-export async function writeExportBundle(documents: ExportDocument[], onPdfAdded: (done: number) => Promise<void>): Promise<BundleFile> {
+/** Opens a document's stored PDF; a PDF that is not there is a failure no retry can mend. */
+async function storedPdf(document: ExportDocument) {
+  try {
+    return await openBlob(document.storageKey);
+  } catch (error) {
+    if (error instanceof BlobMissingError) throw new JobFailure(`The stored PDF of ${document.number} could not be read (it is missing from the file store)`);
+    throw error;
+  }
+}
+
+/** Writes the bundle and hands the finished ZIP to `keep` while it still exists; answers what `keep` answers. */
+export async function writeExportBundle<T>(documents: ExportDocument[], onPdfAdded: (done: number) => Promise<void>, keep: (file: BundleFile) => Promise<T>): Promise<T> {
   const workDir = await mkdtemp(join(tmpdir(), 'phaselot-export-'));
-  const zipPath = partialBlobPath('export');
+  const zipPath = join(workDir, 'bundle.zip');
   const archive = archiver('zip', { zlib: { level: 6 } });
   const zipHash = hashing();
   const written = pipeline(archive, zipHash.stream, createWriteStream(zipPath));
@@ -95,13 +109,13 @@ export async function writeExportBundle(documents: ExportDocument[], onPdfAdded:
     for (const [i, document] of documents.entries()) {
       const path = `pdf/${document.number}.pdf`;
       const pdfHash = hashing();
-      const source = blobStream(document.storageKey).once('error', (error: NodeJS.ErrnoException) => {
+      const source = (await storedPdf(document)).once('error', (error: NodeJS.ErrnoException) => {
         pdfHash.stream.destroy(new Error(`The stored PDF of ${document.number} could not be read (${error.code ?? error.message})`));
       });
       // PDFs are compressed already; deflating them again costs time and saves nothing.
       await appendEntry(archive, path, source.pipe(pdfHash.stream), { store: true });
       const sha256 = pdfHash.digest();
-      if (sha256 !== document.pdfSha256) throw new Error(`The stored PDF of ${document.number} does not match the SHA-256 recorded when it was issued`);
+      if (sha256 !== document.pdfSha256) throw new JobFailure(`The stored PDF of ${document.number} does not match the SHA-256 recorded when it was issued`);
       sums.push({ path, sha256 });
       await onPdfAdded(i + 1);
     }
@@ -109,11 +123,9 @@ export async function writeExportBundle(documents: ExportDocument[], onPdfAdded:
     await appendEntry(archive, 'manifest.sha256', Readable.from([Buffer.from(manifest)]));
     await archive.finalize();
     await written;
-    const sha256 = zipHash.digest();
-    return { key: adoptBlobFile(zipPath, sha256), size: zipHash.bytes(), sha256 };
+    return await keep({ path: zipPath, size: zipHash.bytes(), sha256: zipHash.digest() });
   } catch (error) {
     archive.abort();
-    await rm(zipPath, { force: true });
     throw error;
   } finally {
     await rm(workDir, { recursive: true, force: true });

@@ -47,12 +47,17 @@ const escapeLike = (text: string) => text.replace(/[\\%_]/g, (c) => `\\${c}`);
 /** `%text%` for ILIKE, with the text's own % and _ taken literally. */
 export const containing = (text: string) => `%${escapeLike(text)}%`;
 
-function orderOf<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, sort: string | undefined) {
-  const requested = sort || definition.defaultSort;
+/** The SQL a sort key (`column` or `-column`) orders by, and its direction; 400 for a key not in
+ * `sortable`. Own keys only: "__proto__" or "constructor" must not find Object's members. */
+export function sortOf(sortable: Record<string, string>, requested: string) {
   const key = requested.replace(/^-/, '');
-  const expression = definition.sortable[key];
-  if (!expression) throw badRequest(`Cannot sort by "${key}"; sort by one of: ${Object.keys(definition.sortable).join(', ')}`);
-  const direction = requested.startsWith('-') ? 'DESC' : 'ASC';
+  const expression = Object.hasOwn(sortable, key) ? sortable[key] : undefined;
+  if (!expression) throw badRequest(`Cannot sort by "${key}"; sort by one of: ${Object.keys(sortable).join(', ')}`);
+  return { expression, direction: requested.startsWith('-') ? 'DESC' : 'ASC' };
+}
+
+function orderOf<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, sort: string | undefined) {
+  const { expression, direction } = sortOf(definition.sortable, sort || definition.defaultSort);
   return `${expression} ${direction} NULLS LAST, ${definition.tieBreaker} ${direction}`;
 }
 

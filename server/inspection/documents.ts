@@ -115,7 +115,7 @@ export async function issueLotDocuments({ lot, evaluation, disposition, signer, 
     const dataHash = certifiedDataHash(certified);
     const pdf = await renderLotReport({ ...certified, dataHash, verifyUrl: verifyUrl(number, dataHash) });
     const document = await LotDocument.create(
-      { lotId: lot.id, dispositionId: disposition.id, kind, number, dataHash, pdfSha256: sha256(pdf), storageKey: storeBlob(pdf) },
+      { lotId: lot.id, dispositionId: disposition.id, kind, number, dataHash, pdfSha256: sha256(pdf), storageKey: await storeBlob(pdf, transaction) },
       { transaction },
     );
     issued.push({ id: document.id, kind, number, dataHash, pdf });

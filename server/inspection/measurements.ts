@@ -130,7 +130,7 @@ export function commitMeasurements(actor: AuditActor & { id: number }, lotId: nu
         {
           lotId, instrumentId: preview.instrument!.id, originalName: preview.name, sha256: preview.sha256, sizeBytes: preview.sizeBytes,
           method: preview.method!, metadata: preview.metadata as Record<string, string>, rowCount: 0, warnings: preview.warnings,
-          storageKey: storeBlob(buffer), uploadedBy: actor.id,
+          storageKey: await storeBlob(buffer, transaction), uploadedBy: actor.id,
         },
         { transaction },
       );

@@ -1,12 +1,16 @@
-// Queueing and delivering mail. queueMail runs inside the caller's transaction; the worker sends
-// due messages one at a time under a row lock (SKIP LOCKED lets two workers share the queue without
-// sending a message twice) and backs off exponentially when the relay fails.
-import { Op, type Transaction } from 'sequelize';
+// Queueing and delivering mail. queueMail runs inside the caller's transaction: the outbox row, its
+// attachments in the file store and a delivery job land together or not at all. The job (any
+// server process) sends the message under the row's lock; SKIP LOCKED and the row's status make
+// the row the idempotency key, so two processes never send it twice. The queue retries a failed
+// send quickly; past that, a scheduled sweep sends whatever is due, backing off to half an hour.
+import { Op, type Transaction, type WhereOptions } from 'sequelize';
+import type { Transporter } from 'nodemailer';
 import { sequelize } from '../../db';
 import { OutboxMail, type OutboxAttachment } from '../../db/models';
 import { config } from '../config';
+import { enqueue, QUEUES, type JobDefinition } from '../jobs/queue';
 import { logger } from '../logger';
-import type { Transporter } from 'nodemailer';
+import { readBlob, storeBlob } from '../storage/blobs';
 import { mailTransport } from './transport';
 
 export type MailDraft = {
@@ -17,13 +21,14 @@ export type MailDraft = {
   related?: { type: string; id: string | number };
 };
 
-export function queueMail(draft: MailDraft, transaction: Transaction) {
-  const attachments: OutboxAttachment[] = (draft.attachments ?? []).map((a) => ({
-    filename: a.filename,
-    contentType: a.contentType,
-    contentBase64: a.content.toString('base64'),
-  }));
-  return OutboxMail.create(
+type MailJobData = { outboxId: number };
+
+export async function queueMail(draft: MailDraft, transaction: Transaction) {
+  const attachments: OutboxAttachment[] = [];
+  for (const a of draft.attachments ?? []) {
+    attachments.push({ filename: a.filename, contentType: a.contentType, storageKey: await storeBlob(a.content, transaction) });
+  }
+  const mail = await OutboxMail.create(
     {
       recipients: draft.to,
       subject: draft.subject,
@@ -34,6 +39,9 @@ export function queueMail(draft: MailDraft, transaction: Transaction) {
     },
     { transaction },
   );
+  const data: MailJobData = { outboxId: mail.id };
+  await enqueue(QUEUES.mailDeliver, data, transaction);
+  return mail;
 }
 
 const BASE_DELAY_MS = 5_000;
@@ -42,10 +50,13 @@ const MAX_DELAY_MS = 30 * 60_000;
 /** Delay before the next try after `attempts` failures: 5 s, 10 s, 20 s … capped at 30 min. */
 export const retryDelayMs = (attempts: number) => Math.min(MAX_DELAY_MS, BASE_DELAY_MS * 2 ** Math.max(0, attempts - 1));
 
-async function deliverOne(transport: Transporter): Promise<'sent' | 'failed' | 'none'> {
+type Outcome = 'sent' | 'failed' | 'none';
+
+/** Sends the first queued message matching `where` that no other process holds, and records the try. */
+async function deliverOne(transport: Transporter, where: WhereOptions<OutboxMail>): Promise<Outcome> {
   return sequelize.transaction(async (transaction) => {
     const mail = await OutboxMail.findOne({
-      where: { status: 'queued', nextAttemptAt: { [Op.lte]: new Date() } },
+      where: { ...where, status: 'queued' },
       order: [['nextAttemptAt', 'ASC'], ['id', 'ASC']],
       lock: transaction.LOCK.UPDATE,
       skipLocked: true,
@@ -61,7 +72,7 @@ async function deliverOne(transport: Transporter): Promise<'sent' | 'failed' | '
         // A stable Message-ID lets a receiving server drop a duplicate should a crash land between
         // the relay's acceptance and our commit.
         messageId: `<outbox-${mail.id}@phaselot.local>`,
-        attachments: mail.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, content: Buffer.from(a.contentBase64, 'base64') })),
+        attachments: await Promise.all(mail.attachments.map(async (a) => ({ filename: a.filename, contentType: a.contentType, content: await readBlob(a.storageKey) }))),
       });
       mail.status = 'sent';
       mail.sentAt = new Date();
@@ -80,28 +91,32 @@ async function deliverOne(transport: Transporter): Promise<'sent' | 'failed' | '
   });
 }
 
+/** Sends one message now unless it is sent already or another process is sending it. */
+export const deliverOutboxMail = (id: number, transport: Transporter = mailTransport) => deliverOne(transport, { id });
+
 /** Sends every message that is due now; returns how many were sent and how many failed. */
 export async function deliverDueMail(transport: Transporter = mailTransport) {
   const tally = { sent: 0, failed: 0 };
   for (;;) {
-    const outcome = await deliverOne(transport);
+    const outcome = await deliverOne(transport, { nextAttemptAt: { [Op.lte]: new Date() } });
     if (outcome === 'none') return tally;
     tally[outcome] += 1;
   }
 }
 
-export function startOutboxWorker(intervalMs = 3_000) {
-  let running = false;
-  const timer = setInterval(async () => {
-    if (running) return;
-    running = true;
-    try {
-      await deliverDueMail();
-    } catch (error) {
-      logger.error({ err: error }, 'outbox worker pass failed');
-    } finally {
-      running = false;
-    }
-  }, intervalMs);
-  return { stop: () => clearInterval(timer) };
-}
+const deliverJob: JobDefinition<MailJobData> = {
+  queue: QUEUES.mailDeliver,
+  async run({ outboxId }) {
+    if ((await deliverOutboxMail(outboxId)) === 'failed') throw new Error(`Mail ${outboxId} was not accepted by the relay`);
+  },
+};
+
+const sweepJob: JobDefinition = {
+  queue: QUEUES.mailSweep,
+  schedule: '*/5 * * * *',
+  async run() {
+    await deliverDueMail();
+  },
+};
+
+export const mailJobs = [deliverJob, sweepJob];

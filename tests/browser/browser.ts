@@ -4,6 +4,7 @@ import { chromium, type Browser, type Page } from 'playwright-core';
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 import { startServer } from '../../server/main';
+import { startBackgroundWork, stopBackgroundWork } from '../../server/background';
 import { demoLogin } from '../../db/seeders/demo';
 import type { Role } from '../../shared/schemas/roles';
 
@@ -21,6 +22,8 @@ export type BrowserRig = { browser: Browser; server: Server; baseUrl: string; cl
 
 export async function startBrowserRig(): Promise<BrowserRig> {
   const server = await startServer(0, '127.0.0.1');
+  // Exports and mail are queue jobs, worked by the server's process as under npm start.
+  await startBackgroundWork();
   const { port } = server.address() as AddressInfo;
   const browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
@@ -34,6 +37,7 @@ export async function startBrowserRig(): Promise<BrowserRig> {
     baseUrl: `http://127.0.0.1:${port}`,
     async close() {
       await browser.close();
+      await stopBackgroundWork();
       server.closeAllConnections();
       await new Promise((done) => server.close(done));
     },

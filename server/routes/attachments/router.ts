@@ -4,7 +4,7 @@ import { allow, authenticate } from '../../auth/authenticate';
 import { notFound } from '../../http/errors';
 import { idParams, type IdParams } from '../../http/params';
 import { validate } from '../../http/validate';
-import { blobStream } from '../../storage/blobs';
+import { openBlob } from '../../storage/blobs';
 
 export const attachmentsRouter = Router();
 
@@ -12,10 +12,11 @@ export const attachmentsRouter = Router();
 attachmentsRouter.get('/:id', authenticate, allow('lots.read'), validate({ params: idParams }), async (req, res) => {
   const attachment = await Attachment.findByPk((req.valid.params as IdParams).id);
   if (!attachment) throw notFound('Attachment');
+  const stored = await openBlob(attachment.sha256);
   res.setHeader('Content-Type', attachment.mediaType);
   res.setHeader('Content-Length', String(attachment.sizeBytes));
   res.setHeader('Content-Disposition', `inline; filename*=UTF-8''${encodeURIComponent(attachment.originalName)}`);
   res.setHeader('X-Content-Type-Options', 'nosniff');
   res.setHeader('Digest', `sha-256=${Buffer.from(attachment.sha256, 'hex').toString('base64')}`);
-  blobStream(attachment.sha256).on('error', () => res.destroy()).pipe(res);
+  stored.on('error', () => res.destroy()).pipe(res);
 });

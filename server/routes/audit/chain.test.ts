@@ -118,6 +118,16 @@ describe('audit chain tampering', () => {
     expect(new Date(head.body.occurredAt).getTime()).not.toBeNaN();
     await (await as('buyer')).get('/api/audit/head').expect(403);
   });
+
+  it('checks an anchor taken earlier: a match, another hash, a position the trail does not have', async () => {
+    const auditor = await as('auditor');
+    const head = (await auditor.get('/api/audit/head').expect(200)).body;
+    const anchor = (query: Record<string, string>) => auditor.get('/api/audit/anchor').query(query);
+    expect((await anchor({ seq: head.seq, hash: head.hash.toUpperCase() }).expect(200)).body).toMatchObject({ seq: head.seq, matches: true });
+    expect((await anchor({ seq: head.seq, hash: '0'.repeat(64) }).expect(200)).body).toMatchObject({ matches: false, message: expect.stringMatching(/carries another hash/) });
+    expect((await anchor({ seq: '999999999', hash: head.hash }).expect(200)).body).toMatchObject({ matches: false, message: expect.stringMatching(/no event at position 999999999/) });
+    expect((await anchor({ seq: '1', hash: 'abc' }).expect(400)).body.error.details).toEqual([{ path: 'hash', message: expect.stringMatching(/64-character SHA-256/) }]);
+  });
 });
 
 describe('the migration to chain positions', () => {

@@ -1,9 +1,9 @@
 import { Router } from 'express';
-import { auditQuerySchema, type AuditQuery } from '../../../shared/schemas/audit';
+import { auditAnchorSchema, auditQuerySchema, type AuditAnchor, type AuditQuery } from '../../../shared/schemas/audit';
 import { allow, authenticate } from '../../auth/authenticate';
 import { actorOf, recordAudit } from '../../audit/record';
 import { AUDIT_CSV_COLUMNS, listAuditEvents, streamAuditEvents } from '../../audit/query';
-import { chainHead, verifyAuditChain } from '../../audit/verify';
+import { chainHead, checkAnchor, verifyAuditChain } from '../../audit/verify';
 import { sendCsv } from '../../http/csv';
 import { validate } from '../../http/validate';
 
@@ -19,6 +19,10 @@ auditRouter.get('/verify', authenticate, allow('audit.read'), async (_req, res) 
 
 auditRouter.get('/head', authenticate, allow('audit.read'), async (_req, res) => {
   res.json(await chainHead());
+});
+
+auditRouter.get('/anchor', authenticate, allow('audit.read'), validate({ query: auditAnchorSchema }), async (req, res) => {
+  res.json(await checkAnchor(req.valid.query as AuditAnchor));
 });
 
 auditRouter.get('/export.csv', authenticate, allow('audit.read'), validate({ query: auditQuerySchema }), async (req, res) => {

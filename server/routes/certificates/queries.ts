@@ -1,5 +1,6 @@
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../../db';
+import { sortOf } from '../../http/list';
 import { DISPOSITION_LABELS, type Disposition } from '../../../shared/inspection/lotVerdict';
 import type { CertificateListQuery, VerificationResult } from '../../../shared/schemas/certificates';
 
@@ -51,8 +52,8 @@ export type DocumentView = ReturnType<typeof present>;
 
 export async function listDocuments(query: CertificateListQuery) {
   const { sql, replacements } = whereOf(query);
-  const sortKey = query.sort?.replace(/^-/, '') ?? 'issuedAt';
-  const order = `${SORTABLE[sortKey] ?? SORTABLE.issuedAt} ${query.sort && !query.sort.startsWith('-') ? 'ASC' : 'DESC'}, d.id DESC`;
+  const { expression, direction } = sortOf(SORTABLE, query.sort || '-issuedAt');
+  const order = `${expression} ${direction}, d.id DESC`;
   const [{ total }] = await sequelize.query<{ total: string }>(`SELECT count(*) AS total FROM (${DOCUMENT_SELECT} ${sql}) matching`, { type: QueryTypes.SELECT, replacements });
   const rows = await sequelize.query<DocumentRow>(`${DOCUMENT_SELECT} ${sql} ORDER BY ${order} LIMIT :limit OFFSET :offset`, {
     type: QueryTypes.SELECT,

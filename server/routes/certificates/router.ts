@@ -5,7 +5,7 @@ import { certificateListSchema, verifyQuerySchema, type CertificateListQuery } f
 import { allow, authenticate } from '../../auth/authenticate';
 import { notFound } from '../../http/errors';
 import { validate } from '../../http/validate';
-import { blobStream } from '../../storage/blobs';
+import { openBlob } from '../../storage/blobs';
 import { listDocuments, verifyDocument } from './queries';
 
 export const certificatesRouter = Router();
@@ -26,8 +26,9 @@ documentsRouter.get('/:file', authenticate, allow('certificates.read'), async (r
   const number = String(req.params.file).replace(/\.pdf$/, '');
   const document = await LotDocument.findOne({ where: { number } });
   if (!document) throw notFound('Document');
+  const stored = await openBlob(document.storageKey);
   res.setHeader('Content-Type', 'application/pdf');
   res.setHeader('Content-Disposition', `inline; filename="${document.number}.pdf"`);
   res.setHeader('X-Content-SHA256', document.pdfSha256);
-  blobStream(document.storageKey).pipe(res);
+  stored.on('error', () => res.destroy()).pipe(res);
 });

@@ -1,9 +1,10 @@
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { parse } from 'csv-parse/sync';
 import { QueryTypes } from 'sequelize';
 import { renameSync } from 'node:fs';
 import { join } from 'node:path';
 import { sequelize } from '../../../db';
+import { startBackgroundWork, stopBackgroundWork } from '../../background';
 import { sha256 } from '../../storage/blobs';
 import { as } from '../../../tests/helpers/api';
 import { acceptedLot, rejectAfterAcceptance } from '../../../tests/helpers/acceptedLot';
@@ -17,12 +18,16 @@ let revokedLot: Awaited<ReturnType<typeof acceptedLot>>;
 let issuedNumbers: string[];
 
 beforeAll(async () => {
+  // Bundles are built by the queue's workers, here in the test's own process.
+  await startBackgroundWork();
   auditor = await as('auditor');
   // Accepted, then rejected after all: a revoked certificate and a current inspection report.
   revokedLot = await acceptedLot(20);
   const rejected = await rejectAfterAcceptance(revokedLot);
   issuedNumbers = [...revokedLot.documents, ...rejected].map((d) => d.number);
 });
+
+afterAll(() => stopBackgroundWork());
 
 async function finished(id: number): Promise<ExportJobView> {
   for (let attempt = 0; attempt < 200; attempt++) {

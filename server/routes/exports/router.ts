@@ -4,7 +4,7 @@ import { exportFilterSchema, type ExportFilter } from '../../../shared/schemas/e
 import { actorOf } from '../../audit/record';
 import { allow, authenticate } from '../../auth/authenticate';
 import { validate } from '../../http/validate';
-import { blobStream } from '../../storage/blobs';
+import { openBlob } from '../../storage/blobs';
 import { exportForDownload, findExportJob, recentExports, requestExport } from './operations';
 import { bundleFileName, presentExportJob } from './presenter';
 
@@ -29,9 +29,10 @@ exportsRouter.get('/:id', authenticate, allow('exports.create'), validate({ para
 
 exportsRouter.get('/:id/download', authenticate, allow('exports.create'), validate({ params: idParams }), async (req, res) => {
   const job = await exportForDownload(actorOf(req), (req.valid.params as IdParams).id);
+  const stored = await openBlob(job.storageKey!);
   res.setHeader('Content-Type', 'application/zip');
   res.setHeader('Content-Length', String(job.size));
   res.setHeader('Content-Disposition', `attachment; filename="${bundleFileName(job)}"`);
   res.setHeader('X-Content-SHA256', job.sha256!);
-  blobStream(job.storageKey!).pipe(res);
+  stored.on('error', () => res.destroy()).pipe(res);
 });

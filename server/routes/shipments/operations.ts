@@ -77,15 +77,17 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
     const pieces = await Piece.bulkCreate(list.serials.map((serial) => ({ lotId: lot.id, partId: line.partId, serial })), { transaction });
     await recordReceipt(pieces.map((p) => p.id), quarantine.id, shipment.receivedAt, actor, transaction);
     const plan = await drawPlanAtReceipt(lot.id, transaction);
+    const keys: string[] = [];
+    for (const d of documents) keys.push(await storeBlob(d.data, transaction));
     const attachments = await Attachment.bulkCreate(
-      documents.map((d) => ({
+      documents.map((d, i) => ({
         shipmentId: shipment.id,
         lotId: lot.id,
         kind: d.kind,
         originalName: d.name,
         mediaType: d.mediaType,
         sizeBytes: d.data.length,
-        sha256: storeBlob(d.data),
+        sha256: keys[i],
         uploadedBy: actor.id,
       })),
       { transaction },
@@ -106,7 +108,7 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
           serials: list.serials,
           attachments: attachments.map((a) => ({ kind: a.kind, name: a.originalName, sha256: a.sha256 })),
           sampling: plan
-            ? { severity: plan.severity, codeLetter: plan.codeLetter, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, seed: plan.sampleSeed }
+            ? { severity: plan.severity, codeLetter: plan.codeLetter, planLetter: plan.planLetter, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, seed: plan.sampleSeed }
             : 'acceptance discontinued: the lot waits without a plan',
         },
       },

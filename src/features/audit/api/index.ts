@@ -1,5 +1,5 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { AuditEventView } from '@shared/schemas/audit';
+import type { AuditAnchor, AuditAnchorCheck, AuditChainHead, AuditEventView } from '@shared/schemas/audit';
 import type { VerificationResult } from '@shared/schemas/certificates';
 import type { ExportFilter, ExportJobView } from '@shared/schemas/exports';
 import type { ListResponse } from '@shared/schemas/paging';
@@ -22,7 +22,7 @@ export type IssuedDocument = {
   signer: string;
 };
 
-export type ChainReport = { intact: boolean; checked: number; problems: { id: string; problem: 'content changed' | 'link broken' }[] };
+export type ChainReport = { intact: boolean; checked: number; head: AuditChainHead; problems: { id: string | null; seq: string; problem: string }[] };
 
 type SupplierOption = { id: number; name: string };
 type PartOption = { id: number; number: string; description: string };
@@ -31,6 +31,7 @@ export const auditKeys = {
   all: ['audit'] as const,
   documents: (query: Query) => [...auditKeys.all, 'documents', query] as const,
   events: (query: Query) => [...auditKeys.all, 'events', query] as const,
+  head: () => [...auditKeys.all, 'chain-head'] as const,
   exports: () => [...auditKeys.all, 'exports'] as const,
   exportJob: (id: number) => [...auditKeys.all, 'exports', id] as const,
   suppliers: () => [...auditKeys.all, 'supplier-options'] as const,
@@ -44,7 +45,18 @@ export const useDocuments = (query: Query) =>
 export const useAuditEvents = (query: Query) =>
   useQuery({ queryKey: auditKeys.events(query), queryFn: () => api<ListResponse<AuditEventView>>('/audit', { query }), placeholderData: keepPreviousData });
 
-export const useVerifyChain = () => useMutation({ mutationFn: () => api<ChainReport>('/audit/verify') });
+export function useVerifyChain() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => api<ChainReport>('/audit/verify'),
+    // The report carries the head it checked up to: show that one, not an older reading.
+    onSuccess: (report) => queryClient.setQueryData(auditKeys.head(), report.head),
+  });
+}
+
+export const useChainHead = () => useQuery({ queryKey: auditKeys.head(), queryFn: () => api<AuditChainHead>('/audit/head') });
+
+export const useCheckAnchor = () => useMutation({ mutationFn: (anchor: AuditAnchor) => api<AuditAnchorCheck>('/audit/anchor', { query: anchor }) });
 
 export const useExportJobs = () => useQuery({ queryKey: auditKeys.exports(), queryFn: () => api<ListResponse<ExportJobView>>('/exports') });
 

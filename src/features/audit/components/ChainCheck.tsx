@@ -15,7 +15,7 @@ export function ChainCheck() {
       {verify.error && <Notice tone="error">{verify.error.message}</Notice>}
       {report?.intact && (
         <Notice tone="info" title="Chain intact">
-          All {report.checked} events match their digests and each links to the one before it.
+          All {report.checked} events match their digests, each links to the one before it, and the head names the last.
         </Notice>
       )}
       {report && !report.intact && (
@@ -23,7 +23,9 @@ export function ChainCheck() {
           <p>{report.checked} events checked; these rows no longer match the chain{report.problems.length === 50 ? ' (first 50 shown)' : ''}:</p>
           <ul className="mt-1 font-mono text-xs">
             {report.problems.map((p) => (
-              <li key={p.id}>event {p.id}: {p.problem}</li>
+              <li key={`${p.seq}-${p.problem}`}>
+                position {p.seq}{p.id ? ` (event ${p.id})` : ''}: {p.problem}
+              </li>
             ))}
           </ul>
         </Notice>

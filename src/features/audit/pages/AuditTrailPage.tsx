@@ -7,6 +7,7 @@ import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { apiUrl } from '@/lib/api';
 import { useAuditEvents } from '../api';
+import { ChainAnchor } from '../components/ChainAnchor';
 import { ChainCheck } from '../components/ChainCheck';
 import { FilterBar } from '../components/FilterBar';
 
@@ -48,7 +49,7 @@ const columns = [
     ),
   }),
   column.display({ id: 'origin', header: 'Request', cell: ({ row: { original: e } }) => <span className="font-mono text-2xs text-ink-muted">{e.address}<span className="block">{e.requestId}</span></span> }),
-  column.display({ id: 'hash', header: 'Digest', cell: ({ row }) => <span className="font-mono text-2xs text-ink-muted" title={row.original.hash}>{row.original.id} · {row.original.hash.slice(0, 10)}…</span> }),
+  column.display({ id: 'hash', header: 'Digest', cell: ({ row }) => <span className="font-mono text-2xs text-ink-muted" title={row.original.hash}>#{row.original.seq} · {row.original.hash.slice(0, 10)}…</span> }),
 ];
 
 export function AuditTrailPage() {
@@ -71,7 +72,8 @@ export function AuditTrailPage() {
           </a>
         }
       />
-      <div className="mb-3">
+      <div className="mb-3 space-y-3">
+        <ChainAnchor />
         <ChainCheck />
       </div>
       <FilterBar key={params.toString()} label="Filter events" onApply={update} onClear={() => update(Object.fromEntries(FILTERS.map((key) => [key, undefined])))}>

@@ -1,0 +1,19 @@
+// The background work every server process takes part in (server/jobs): export bundles, mail
+// delivery, and the scheduled sweeps of due mail and of orphan files. Whichever process takes a
+// job does it; a job whose process dies is retried by another.
+import { startJobs, stopJobs, QUEUES, type JobDefinition } from './jobs/queue';
+import { mailJobs } from './mail/outbox';
+import { exportJob } from './routes/exports/operations';
+import { sweepOrphanBlobs } from './storage/sweep';
+
+const blobSweepJob: JobDefinition = {
+  queue: QUEUES.blobSweep,
+  schedule: '17 * * * *',
+  async run() {
+    await sweepOrphanBlobs();
+  },
+};
+
+export const startBackgroundWork = () => startJobs([exportJob, ...mailJobs, blobSweepJob]);
+
+export const stopBackgroundWork = stopJobs;
