@@ -13,14 +13,15 @@ declare global {
   }
 }
 
-/** Parses the request's parts with zod schemas from shared/; 400 with the failing fields. */
+/** Parses the request's parts with zod schemas from shared/; 400 with the failing fields.
+ * Parsed asynchronously, since some checks (password strength) load their data on first use. */
 export function validate(schemas: Schemas): RequestHandler {
-  return (req, _res, next) => {
+  return async (req, _res, next) => {
     req.valid = {};
     for (const part of ['params', 'query', 'body'] as const) {
       const schema = schemas[part];
       if (!schema) continue;
-      const result = schema.safeParse(req[part] ?? {});
+      const result = await schema.safeParseAsync(req[part] ?? {});
       if (!result.success) {
         next(new AppError(400, 'validation', `Some ${part === 'body' ? 'fields' : part} are not valid`, zodDetails(result.error)));
         return;
