@@ -2,6 +2,7 @@
 // build, then the whole vitest suite (unit, API against PostgreSQL, browser). Extra arguments go
 // to vitest, e.g. `npm test -- server/routes/auth`.
 import { spawn } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import { rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { ensureCluster, ensureDatabase, databaseUrl, dropDatabase, otherDatabasesInUse } from './lib/postgres';
@@ -27,6 +28,8 @@ Object.assign(process.env, {
   SMTP_URL: `smtp://127.0.0.1:${catcher.port}`,
   MAIL_CATCHER_DIR: mailDir,
   UPLOAD_DIR: join(runDir, 'uploads'),
+  // A signing key of this run only: nothing the tests sign is valid anywhere else.
+  JWT_SECRET: randomBytes(32).toString('base64url'),
 });
 
 const { sequelize } = await import('../db');

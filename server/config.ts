@@ -1,4 +1,7 @@
 // Every setting the server reads, validated once at start. See README "Configuration".
+import { randomBytes } from 'node:crypto';
+import { linkSync, mkdirSync, readFileSync, unlinkSync, writeFileSync } from 'node:fs';
+import { dirname, join, resolve } from 'node:path';
 import { z } from 'zod';
 
 const schema = z.object({
@@ -7,11 +10,18 @@ const schema = z.object({
   HOST: z.string().default('127.0.0.1'),
   DATABASE_URL: z.string().default('postgres://phaselot@127.0.0.1:54870/phaselot'),
   JWT_SECRET: z.string().min(16).optional(),
+  JWT_SECRET_FILE: z.string().default(join(resolve(import.meta.dirname, '..'), '.data', 'jwt-secret')),
   TOKEN_TTL_HOURS: z.coerce.number().positive().default(12),
   SMTP_URL: z.string().default('smtp://127.0.0.1:2525'),
   MAIL_FROM: z.string().default('Phaselot <phaselot@phaselot.test>'),
   MAIL_CATCHER_DIR: z.string().optional(),
-  PUBLIC_URL: z.string().default('http://127.0.0.1:4870'),
+  // The address printed in links; a comma-separated list when several addresses reach the same
+  // servers (behind a proxy): the first is printed, all are accepted as origins of changes.
+  PUBLIC_URL: z
+    .string()
+    .default('http://127.0.0.1:4870')
+    .transform((value) => value.split(',').map((entry) => entry.trim()).filter(Boolean))
+    .pipe(z.array(z.url({ protocol: /^https?$/ })).min(1)),
   UPLOAD_DIR: z.string().optional(),
   LOG_LEVEL: z.string().default('info'),
   // The file store: a local folder (UPLOAD_DIR) or an S3-compatible bucket.
@@ -29,7 +39,7 @@ const schema = z.object({
   JOBS_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(60),
 });
 
-export type Config = z.infer<typeof schema> & { JWT_SECRET: string };
+export type Config = Omit<z.infer<typeof schema>, 'PUBLIC_URL'> & { JWT_SECRET: string; PUBLIC_URL: string; PUBLIC_ORIGINS: string[] };
 
 function load(): Config {
   const parsed = schema.safeParse(process.env);
@@ -42,8 +52,42 @@ function load(): Config {
   }
   if (env.STORAGE === 's3' && !env.S3_BUCKET) throw new Error('S3_BUCKET must be set when STORAGE=s3');
   if (Boolean(env.S3_ACCESS_KEY_ID) !== Boolean(env.S3_SECRET_ACCESS_KEY)) throw new Error('S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY are set together (or neither, for the AWS SDK\'s own credential chain)');
-  // Outside production a fixed development secret keeps tokens valid across restarts.
-  return { ...env, JWT_SECRET: env.JWT_SECRET ?? 'phaselot-development-secret-not-for-production' };
+  return {
+    ...env,
+    JWT_SECRET: env.JWT_SECRET ?? storedSecret(env.JWT_SECRET_FILE),
+    PUBLIC_URL: env.PUBLIC_URL[0].replace(/\/+$/, ''),
+    PUBLIC_ORIGINS: env.PUBLIC_URL.map((url) => new URL(url).origin),
+  };
+}
+
+const MIN_STORED_SECRET = 32;
+
+/** Outside production, without JWT_SECRET: a random secret made on the first start and kept in
+ * the git-ignored data folder, so sessions outlive a restart and no secret sits in the repository.
+ * It is written to a temporary file and linked into place, so no process ever reads a half-written
+ * secret: of two starting at once, the first to link wins and the other reads its secret. */
+function storedSecret(file: string): string {
+  const read = () => {
+    const secret = readFileSync(file, 'utf8').trim();
+    if (secret.length < MIN_STORED_SECRET) throw new Error(`${file} holds no usable secret (under ${MIN_STORED_SECRET} characters): delete it and start again`);
+    return secret;
+  };
+  try {
+    return read();
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== 'ENOENT') throw error;
+  }
+  mkdirSync(dirname(file), { recursive: true });
+  const temporary = `${file}.${process.pid}.${randomBytes(4).toString('hex')}`;
+  writeFileSync(temporary, `${randomBytes(48).toString('base64url')}\n`, { mode: 0o600 });
+  try {
+    linkSync(temporary, file);
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== 'EEXIST') throw error;
+  } finally {
+    unlinkSync(temporary);
+  }
+  return read();
 }
 
 export const config = load();

@@ -5,6 +5,8 @@ import type { Role } from './schemas/roles';
 const EVERYONE: Role[] = ['admin', 'clerk', 'inspector', 'quality', 'buyer', 'auditor'];
 
 export const POLICIES = {
+  // One's own account (changing one's password): everyone signed in.
+  'account.password': EVERYONE,
   'users.manage': ['admin'],
   'settings.manage': ['admin'],
   'mail.read': ['admin'],
@@ -18,6 +20,8 @@ export const POLICIES = {
   'disposition.sign': ['quality'],
   'instruments.read': EVERYONE,
   'instruments.manage': ['quality'],
+  // The plan a lot size, level and AQL give (a look-up in the published tables).
+  'sampling.read': EVERYONE,
   'sampling.manage': ['quality'],
   'switching.read': ['quality', 'buyer', 'inspector', 'auditor'],
   'switching.manage': ['quality'],

@@ -9,6 +9,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare roles: Role[];
   declare active: CreationOptional<boolean>;
   declare lastSignInAt: CreationOptional<Date | null>;
+  /** Signing is refused until then after too many wrong signature passwords (server/auth/signature.ts). */
+  declare signingLockedUntil: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -26,6 +28,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         roles: { type: DataTypes.ARRAY(DataTypes.STRING(20)), allowNull: false },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         lastSignInAt: { type: DataTypes.DATE, allowNull: true },
+        signingLockedUntil: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -15,6 +15,7 @@ import { StockMove } from './StockMove';
 import { Attachment } from './Attachment';
 import { ExportJob } from './ExportJob';
 import { initInspectionModels } from './inspection';
+import { initAuthModels } from './auth';
 
 export function initModels(sequelize: Sequelize) {
   User.initModel(sequelize);
@@ -23,7 +24,8 @@ export function initModels(sequelize: Sequelize) {
   ExportJob.initModel(sequelize);
   initReceivingModels(sequelize);
   const inspection = initInspectionModels(sequelize);
-  return { User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
+  const auth = initAuthModels(sequelize);
+  return { ...auth, User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
 }
 
 /** Purchasing, receiving and stock (migration 0101). */
@@ -46,4 +48,5 @@ function initReceivingModels(sequelize: Sequelize) {
 
 export { User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment };
 export type { OutboxAttachment } from './OutboxMail';
+export { Session, PasswordResetToken, type SessionEndReason } from './auth';
 export { LotInspection, SamplePiece, SwitchingStateRecord, SwitchingEvent, MeasurementFile, Reading, PieceResult, DispositionRecord, LotDocument } from './inspection';

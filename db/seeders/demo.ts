@@ -7,7 +7,7 @@ import { seedInspectionDemo } from './inspectionDemo';
 import { seedReceivingDemo, seedStockDemo } from './receivingDemo';
 import { ROLES, type Role } from '../../shared/schemas/roles';
 import { instrumentInputSchema, type InstrumentInput } from '../../shared/schemas/instruments';
-import { hashPassword } from '../../server/routes/users/operations';
+import { hashPassword } from '../../server/auth/passwords';
 
 export const DEMO_PASSWORD = 'phaselot-demo';
 export const DEMO_DOMAIN = 'phaselot.test';

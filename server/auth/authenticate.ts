@@ -1,43 +1,50 @@
-import type { RequestHandler } from 'express';
-import { User } from '../../db/models';
+import type { Request, RequestHandler } from 'express';
+import type { User } from '../../db/models';
 import { can, type Permission } from '../../shared/policies';
 import { forbidden, unauthorized } from '../http/errors';
-import { SESSION_COOKIE, userIdFromToken } from './tokens';
+import { sessionOfToken } from './sessions';
+import { SESSION_COOKIE } from './tokens';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {
     interface Request {
       user?: User;
+      /** The server-side session the request is signed in with. */
+      sessionId?: string;
     }
   }
 }
 
-function tokenOf(req: Parameters<RequestHandler>[0]): string | undefined {
+/** The request's bearer token, else its session cookie. */
+export function tokenOf(req: Request): string | undefined {
   const header = req.get('authorization');
   if (header?.startsWith('Bearer ')) return header.slice(7).trim();
   return req.cookies?.[SESSION_COOKIE];
 }
 
-/** Signs the request in from its bearer token or session cookie; 401 when it has neither. The
- * user is re-read on every request so that deactivation and role changes apply at once. */
+/** Signs the request in from its bearer token or session cookie; 401 when it has neither, or when
+ * its session has ended. The session and user are re-read on every request, so that sign-out,
+ * password changes, deactivation and role changes apply at once. */
 export const authenticate: RequestHandler = async (req, _res, next) => {
   const token = tokenOf(req);
-  const id = token ? userIdFromToken(token) : null;
-  const user = id ? await User.findByPk(id) : null;
-  if (!user || !user.active) {
+  const signedIn = token ? await sessionOfToken(token) : null;
+  if (!signedIn) {
     next(unauthorized());
     return;
   }
-  req.user = user;
+  req.user = signedIn.user;
+  req.sessionId = signedIn.sessionId;
   next();
 };
 
-/** The route's policy: 403 unless one of the user's roles holds the permission. */
-export function allow(permission: Permission): RequestHandler {
-  return (req, _res, next) => {
+/** The route's policy: 403 unless one of the user's roles holds the permission. The handler names
+ * its permission, so the route table can be checked against shared/policies.ts. */
+export function allow(permission: Permission): RequestHandler & { permission: Permission } {
+  const handler: RequestHandler = (req, _res, next) => {
     if (!req.user) next(unauthorized());
     else if (!can(req.user, permission)) next(forbidden());
     else next();
   };
+  return Object.assign(handler, { permission });
 }

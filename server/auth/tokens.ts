@@ -3,16 +3,19 @@ import { config } from '../config';
 
 export const SESSION_COOKIE = 'phaselot_session';
 
-export function issueToken(userId: number): string {
-  return jwt.sign({}, config.JWT_SECRET, { subject: String(userId), expiresIn: `${config.TOKEN_TTL_HOURS}h`, issuer: 'phaselot' });
+/** A signed token naming the user and the server-side session (`jti`) it belongs to; the token is
+ * valid only as long as that session row is open (server/auth/sessions.ts). */
+export function issueToken(userId: number, sessionId: string, expiresAt: Date): string {
+  return jwt.sign({ exp: Math.floor(expiresAt.getTime() / 1000) }, config.JWT_SECRET, { subject: String(userId), jwtid: sessionId, issuer: 'phaselot' });
 }
 
-/** The user id inside a valid token, or null for a missing, forged or expired one. */
-export function userIdFromToken(token: string): number | null {
+/** The user and session a valid token names, or null for a missing, forged or expired one. */
+export function claimsOf(token: string): { userId: number; sessionId: string } | null {
   try {
     const payload = jwt.verify(token, config.JWT_SECRET, { issuer: 'phaselot' });
-    const id = Number(typeof payload === 'object' ? payload.sub : NaN);
-    return Number.isInteger(id) ? id : null;
+    if (typeof payload !== 'object') return null;
+    const userId = Number(payload.sub);
+    return Number.isInteger(userId) && typeof payload.jti === 'string' ? { userId, sessionId: payload.jti } : null;
   } catch {
     return null;
   }

@@ -3,13 +3,13 @@
 // rejection or a sort) the buyer's e-mail are written in one transaction. Each piece goes where the
 // decision sends it by its own verdict (see lotAccess routeLotPieces). A signed decision is never
 // edited: a new one supersedes it and revokes its documents.
-import bcrypt from 'bcryptjs';
 import { Op } from 'sequelize';
 import { inTransaction } from '../../db';
 import { DispositionRecord, LotDocument, User } from '../../db/models';
 import { SIGNATURE_MEANINGS, type DispositionInput } from '../../shared/inspection/lotVerdict';
 import { lotName } from '../../shared/schemas/stock';
 import { actorFromUser, recordAudit, type AuditActor } from '../audit/record';
+import { verifySignature } from '../auth/signature';
 import { AppError, conflict } from '../http/errors';
 import { queueMail } from '../mail/outbox';
 import { issueLotDocuments } from './documents';
@@ -21,10 +21,7 @@ import { recordLotInSwitching } from './switching';
 export async function signDisposition(signer: User, lotId: number, input: DispositionInput, request: Pick<AuditActor, 'requestId' | 'address'> = {}) {
   const actor = { ...actorFromUser(signer), ...request };
   // The password is checked before anything is locked: a wrong one costs no one a wait.
-  if (!(await bcrypt.compare(input.password, signer.passwordHash))) {
-    await recordAudit(actor, { action: 'disposition.signature-refused', entityType: 'lot', entityId: lotId });
-    throw new AppError(401, 'signature_refused', 'The password does not match: the disposition was not signed');
-  }
+  await verifySignature(signer, input.password, actor, undefined, { entityType: 'lot', entityId: lotId });
   return inTransaction(async (transaction) => {
     const lot = await lotForInspection(lotId, transaction, { lock: true });
     const current = await DispositionRecord.findOne({ where: { lotId, supersededAt: { [Op.is]: null } }, transaction });

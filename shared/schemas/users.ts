@@ -1,14 +1,16 @@
 import { z } from 'zod';
+import { checkPasswordStrength, newPasswordSchema, passwordLengthSchema } from './password';
 import { roleSchema } from './roles';
 
-const password = z.string().min(10, 'At least 10 characters').max(200);
-
-export const userCreateSchema = z.object({
-  email: z.string().trim().toLowerCase().email('Enter a valid e-mail address'),
-  name: z.string().trim().min(1, 'Name is required').max(120),
-  password,
-  roles: z.array(roleSchema).min(1, 'Give the user at least one role'),
-});
+export const userCreateSchema = z
+  .object({
+    email: z.string().trim().toLowerCase().email('Enter a valid e-mail address'),
+    name: z.string().trim().min(1, 'Name is required').max(120),
+    password: passwordLengthSchema,
+    roles: z.array(roleSchema).min(1, 'Give the user at least one role'),
+  })
+  // The strength check sees the name and e-mail, which a password must not be built from.
+  .superRefine(checkPasswordStrength('password', ['email', 'name']));
 export type UserCreateInput = z.infer<typeof userCreateSchema>;
 
 export const userUpdateSchema = z
@@ -16,7 +18,7 @@ export const userUpdateSchema = z
     name: z.string().trim().min(1).max(120),
     roles: z.array(roleSchema).min(1, 'Give the user at least one role'),
     active: z.boolean(),
-    password,
+    password: newPasswordSchema,
   })
   .partial();
 export type UserUpdateInput = z.infer<typeof userUpdateSchema>;
@@ -29,4 +31,6 @@ export type UserView = {
   active: boolean;
   createdAt: string;
   lastSignInAt: string | null;
+  /** Signing is locked after too many wrong signature passwords until then (ISO time), or null. */
+  signingLockedUntil: string | null;
 };

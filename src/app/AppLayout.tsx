@@ -1,5 +1,5 @@
-import { NavLink, Navigate, Outlet, useLocation, useNavigate } from 'react-router';
-import { LogOut } from 'lucide-react';
+import { Link, NavLink, Navigate, Outlet, useLocation, useNavigate } from 'react-router';
+import { KeyRound, LogOut } from 'lucide-react';
 import { can } from '@shared/policies';
 import { ROLE_LABELS } from '@shared/schemas/roles';
 import { useSession, useSignOut } from '@/features/auth/api/session';
@@ -57,13 +57,18 @@ export function AppLayout() {
             {user.name}
           </p>
           <p className="text-white/60">{user.roles.map((r) => ROLE_LABELS[r]).join(', ')}</p>
-          <button
-            type="button"
-            className="mt-2 inline-flex items-center gap-1 text-white/70 hover:text-white"
-            onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
-          >
-            <LogOut className="h-3.5 w-3.5" aria-hidden /> Sign out
-          </button>
+          <div className="mt-2 flex flex-col items-start gap-1">
+            <Link to="/account/password" className="inline-flex items-center gap-1 text-white/70 no-underline hover:text-white">
+              <KeyRound className="h-3.5 w-3.5" aria-hidden /> Change password
+            </Link>
+            <button
+              type="button"
+              className="inline-flex items-center gap-1 text-white/70 hover:text-white"
+              onClick={() => signOut.mutate(undefined, { onSuccess: () => navigate('/sign-in') })}
+            >
+              <LogOut className="h-3.5 w-3.5" aria-hidden /> Sign out
+            </button>
+          </div>
         </div>
       </aside>
       <main className="min-w-0 flex-1 px-6 py-5">

@@ -2,6 +2,9 @@ import { createBrowserRouter, Navigate } from 'react-router';
 import { AppLayout } from './AppLayout';
 import { RequirePermission } from './RequirePermission';
 import { SignInPage } from '@/features/auth/pages/SignInPage';
+import { ForgotPasswordPage } from '@/features/auth/pages/ForgotPasswordPage';
+import { ResetPasswordPage } from '@/features/auth/pages/ResetPasswordPage';
+import { ChangePasswordPage } from '@/features/auth/pages/ChangePasswordPage';
 import { OverviewPage } from '@/features/overview/pages/OverviewPage';
 import { UsersPage } from '@/features/admin/pages/UsersPage';
 import { CaughtMailPage } from '@/features/admin/pages/CaughtMailPage';
@@ -29,11 +32,14 @@ import { PiecePage } from '@/features/stock/pages/PiecePage';
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
+  { path: '/forgot-password', element: <ForgotPasswordPage /> },
+  { path: '/reset-password', element: <ResetPasswordPage /> },
   { path: '/verify', element: <VerifyPage /> },
   {
     element: <AppLayout />,
     children: [
       { index: true, element: <OverviewPage /> },
+      { path: 'account/password', element: <ChangePasswordPage /> },
       { path: 'purchasing', element: <Navigate to="/purchasing/orders" replace /> },
       { path: 'purchasing/orders', element: <PurchaseOrdersPage /> },
       { path: 'purchasing/orders/new', element: <PurchaseOrderPage /> },

@@ -1,10 +1,15 @@
-import { describe, expect, it } from 'vitest';
+import { afterAll, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import jwt from 'jsonwebtoken';
+import { sequelize } from '../../../db';
+import { Session } from '../../../db/models';
 import { app, freshUser, tokenFor } from '../../../tests/helpers/api';
 import { demoLogin } from '../../../db/seeders/demo';
 import { ROLES } from '../../../shared/schemas/roles';
 import { updateUser } from '../users/operations';
+
+// The refused sign-ins of this file must not count against the site-wide limit in later files.
+afterAll(() => sequelize.query('DELETE FROM refused_sign_ins'));
 
 describe('POST /api/auth/login', () => {
   it.each(ROLES)('signs in the demo %s with a token, the user and an httpOnly SameSite=Strict cookie', async (role) => {
@@ -38,11 +43,12 @@ describe('POST /api/auth/login', () => {
     await request(app).post('/api/auth/login').send({ email, password }).expect(401);
   });
 
-  it('rate-limits repeated failures for one address', async () => {
+  it('throttles an account after 10 refused sign-ins', async () => {
     const { email } = await freshUser(['buyer']);
     for (let i = 0; i < 10; i++) await request(app).post('/api/auth/login').send({ email, password: 'wrong-password' }).expect(401);
     const limited = await request(app).post('/api/auth/login').send({ email, password: 'wrong-password' }).expect(429);
     expect(limited.body.error.code).toBe('too_many_attempts');
+    expect(limited.body.error.message).toMatch(/^Too many refused sign-ins for this account\. Try again in 1[45] minutes\.$/);
   });
 });
 
@@ -57,6 +63,34 @@ describe('GET /api/auth/me and sessions', () => {
     expect(viaCookie.body.user.roles).toEqual(['quality']);
     await agent.post('/api/auth/logout').expect(204);
     await agent.get('/api/auth/me').expect(401);
+  });
+
+  it('ends the session on sign-out, for the bearer token and for a kept copy of the cookie', async () => {
+    const { email, password } = await freshUser(['clerk']);
+    const bearer = (await request(app).post('/api/auth/login').send({ email, password }).expect(200)).body.token;
+    await request(app).get('/api/auth/me').set('Authorization', `Bearer ${bearer}`).expect(200);
+    await request(app).post('/api/auth/logout').set('Authorization', `Bearer ${bearer}`).expect(204);
+    await request(app).get('/api/auth/me').set('Authorization', `Bearer ${bearer}`).expect(401);
+
+    const signIn = await request(app).post('/api/auth/login').send({ email, password }).expect(200);
+    const cookie = String(signIn.headers['set-cookie']).match(/phaselot_session=[^;]+/)![0];
+    await request(app).get('/api/auth/me').set('Cookie', cookie).expect(200);
+    const out = await request(app).post('/api/auth/logout').set('Cookie', cookie).expect(204);
+    expect(String(out.headers['set-cookie'])).toMatch(/phaselot_session=;/);
+    // The browser forgets the cookie; a copy kept elsewhere must not work either.
+    await request(app).get('/api/auth/me').set('Cookie', cookie).expect(401);
+    const session = await Session.findByPk((jwt.decode(cookie.split('=')[1]) as { jti: string }).jti);
+    expect(session?.endReason).toBe('sign-out');
+  });
+
+  it('refuses a validly signed token whose session does not exist', async () => {
+    const { user } = await freshUser(['buyer']);
+    const { config } = await import('../../config');
+    const orphan = jwt.sign({}, config.JWT_SECRET, { subject: String(user.id), jwtid: 'no-such-session', issuer: 'phaselot', expiresIn: '1h' });
+    await request(app).get('/api/auth/me').set('Authorization', `Bearer ${orphan}`).expect(401);
+    // A token of the old kind, without a session id, is refused as well.
+    const old = jwt.sign({}, config.JWT_SECRET, { subject: String(user.id), issuer: 'phaselot', expiresIn: '1h' });
+    await request(app).get('/api/auth/me').set('Authorization', `Bearer ${old}`).expect(401);
   });
 
   it('401s without a token, with a forged one and with an expired one', async () => {
@@ -75,5 +109,9 @@ describe('GET /api/auth/me and sessions', () => {
     const { body } = await request(app).post('/api/auth/login').send({ email, password }).expect(200);
     await updateUser({ id: admin.id, email: admin.email, roles: admin.roles }, user.id, { active: false });
     await request(app).get('/api/auth/me').set('Authorization', `Bearer ${body.token}`).expect(401);
+    // Reactivating the account does not bring the old session back.
+    await updateUser({ id: admin.id, email: admin.email, roles: admin.roles }, user.id, { active: true });
+    await request(app).get('/api/auth/me').set('Authorization', `Bearer ${body.token}`).expect(401);
+    expect(await Session.count({ where: { userId: user.id, endReason: 'deactivated' } })).toBe(1);
   });
 });

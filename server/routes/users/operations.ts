@@ -1,14 +1,11 @@
-import bcrypt from 'bcryptjs';
 import { inTransaction } from '../../../db';
 import { User } from '../../../db/models';
 import type { UserCreateInput, UserUpdateInput } from '../../../shared/schemas/users';
 import { recordAudit, type AuditActor } from '../../audit/record';
+import { hashPassword } from '../../auth/passwords';
+import { endSessionsOf } from '../../auth/sessions';
 import { badRequest, notFound } from '../../http/errors';
 import { presentUser } from './presenter';
-
-const BCRYPT_COST = 10;
-
-export const hashPassword = (password: string) => bcrypt.hash(password, BCRYPT_COST);
 
 export function createUser(actor: AuditActor, input: UserCreateInput) {
   return inTransaction(async (transaction) => {
@@ -22,7 +19,8 @@ export function createUser(actor: AuditActor, input: UserCreateInput) {
 }
 
 /** Updates a user; an administrator cannot lock themself out by removing their own admin role
- * or deactivating their own account. */
+ * or deactivating their own account. Deactivating the account or setting its password ends every
+ * session of it. */
 export function updateUser(actor: AuditActor, id: number, input: UserUpdateInput) {
   return inTransaction(async (transaction) => {
     const user = await User.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
@@ -36,7 +34,9 @@ export function updateUser(actor: AuditActor, id: number, input: UserUpdateInput
     if (input.active !== undefined) user.active = input.active;
     if (input.password !== undefined) user.passwordHash = await hashPassword(input.password);
     await user.save({ transaction });
-    const after = { ...presentUser(user), passwordChanged: input.password !== undefined || undefined };
+    const endReason = input.active === false ? 'deactivated' : input.password !== undefined ? 'password-reset' : null;
+    const sessionsEnded = endReason ? await endSessionsOf(user.id, endReason, transaction) : undefined;
+    const after = { ...presentUser(user), passwordChanged: input.password !== undefined || undefined, sessionsEnded };
     await recordAudit(actor, { action: 'user.update', entityType: 'user', entityId: user.id, before, after }, transaction);
     return user;
   });

@@ -12,5 +12,6 @@ export function presentUser(user: User): UserView {
     active: user.active,
     createdAt: user.createdAt.toISOString(),
     lastSignInAt: user.lastSignInAt?.toISOString() ?? null,
+    signingLockedUntil: user.signingLockedUntil && user.signingLockedUntil.getTime() > Date.now() ? user.signingLockedUntil.toISOString() : null,
   };
 }

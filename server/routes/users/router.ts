@@ -5,6 +5,8 @@ import { userCreateSchema, userUpdateSchema, type UserCreateInput, type UserUpda
 import { allow, authenticate } from '../../auth/authenticate';
 import { validate } from '../../http/validate';
 import { actorOf } from '../../audit/record';
+import { sendResetLink } from '../../auth/passwords';
+import { unlockSigning } from '../../auth/signature';
 import { createUser, updateUser } from './operations';
 import { presentUser } from './presenter';
 
@@ -26,4 +28,17 @@ usersRouter.patch('/:id', authenticate, allow('users.manage'), validate({ params
   const { id } = req.valid.params as z.infer<typeof idParams>;
   const user = await updateUser(actorOf(req), id, req.valid.body as UserUpdateInput);
   res.json(presentUser(user));
+});
+
+/** Mails the user a one-time link to choose a new password. */
+usersRouter.post('/:id/password-reset-link', authenticate, allow('users.manage'), validate({ params: idParams }), async (req, res) => {
+  const { id } = req.valid.params as z.infer<typeof idParams>;
+  await sendResetLink(actorOf(req), id);
+  res.status(202).json({ message: 'A link to choose a new password was mailed to the user. It is valid for one hour.' });
+});
+
+/** Lifts the signing lock after too many wrong signature passwords. */
+usersRouter.post('/:id/signing-unlock', authenticate, allow('users.manage'), validate({ params: idParams }), async (req, res) => {
+  const { id } = req.valid.params as z.infer<typeof idParams>;
+  res.json(presentUser(await unlockSigning(actorOf(req), id)));
 });

@@ -42,6 +42,18 @@ export function useUpdateUser() {
   });
 }
 
+export function useSendResetLink() {
+  return useMutation({ mutationFn: (id: number) => api<{ message: string }>(`/users/${id}/password-reset-link`, { method: 'POST' }) });
+}
+
+export function useUnlockSigning() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (id: number) => api<UserView>(`/users/${id}/signing-unlock`, { method: 'POST' }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: adminKeys.users }),
+  });
+}
+
 export const useCaughtMail = () =>
   useQuery({
     queryKey: adminKeys.caughtMail,

@@ -1,5 +1,6 @@
 import { Controller, useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { PASSWORD_HINT } from '@shared/schemas/password';
 import { userCreateSchema, type UserCreateInput } from '@shared/schemas/users';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
@@ -22,7 +23,7 @@ export function NewUserForm({ onDone }: { onDone: () => void }) {
         <Field label="E-mail" htmlFor="new-email" error={errors.email?.message}>
           <input id="new-email" type="email" className={inputClass} {...form.register('email')} />
         </Field>
-        <Field label="Initial password" htmlFor="new-password" error={errors.password?.message} hint="At least 10 characters; the user changes it later.">
+        <Field label="Initial password" htmlFor="new-password" error={errors.password?.message} hint={`${PASSWORD_HINT} The user can change it later.`}>
           <input id="new-password" type="password" autoComplete="new-password" className={inputClass} {...form.register('password')} />
         </Field>
       </div>

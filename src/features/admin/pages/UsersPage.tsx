@@ -10,6 +10,7 @@ import { PageHeader } from '@/components/PageHeader';
 import { useUpdateUser, useUsers } from '../api';
 import { NewUserForm } from '../components/NewUserForm';
 import { RolePicker } from '../components/RolePicker';
+import { UserAccessCell } from '../components/UserAccessCell';
 
 const column = createColumnHelper<UserView>();
 
@@ -60,6 +61,7 @@ export function UsersPage() {
       column.accessor('email', { header: 'E-mail' }),
       column.display({ id: 'roles', header: 'Roles', cell: ({ row }) => <RolesCell user={row.original} /> }),
       column.display({ id: 'active', header: 'Status', cell: ({ row }) => <ActiveCell user={row.original} /> }),
+      column.display({ id: 'access', header: 'Password and signing', cell: ({ row }) => <UserAccessCell user={row.original} /> }),
       column.accessor('lastSignInAt', { header: 'Last sign-in', cell: ({ getValue }) => (getValue() ? new Date(getValue()!).toLocaleString() : '—') }),
     ],
     [],

@@ -1,0 +1,46 @@
+// Server-side sessions: every token carries the id of a session row (its `jti`), and a request is
+// signed in only while that row is open. Sign-out ends one session; a password change ends the
+// others; a password reset and a deactivation end them all, at once.
+import { randomBytes } from 'node:crypto';
+import { Op, type Transaction } from 'sequelize';
+import { Session, User, type SessionEndReason } from '../../db/models';
+import { config } from '../config';
+import { claimsOf, issueToken } from './tokens';
+
+/** Opens a session for the user and answers its signed token. */
+export async function startSession(user: User, transaction: Transaction): Promise<string> {
+  const id = randomBytes(32).toString('base64url');
+  const expiresAt = new Date(Date.now() + config.TOKEN_TTL_HOURS * 3600 * 1000);
+  // The user's expired sessions are of no further use; the audit trail keeps the sign-ins.
+  await Session.destroy({ where: { userId: user.id, expiresAt: { [Op.lt]: new Date() } }, transaction });
+  await Session.create({ id, userId: user.id, expiresAt }, { transaction });
+  return issueToken(user.id, id, expiresAt);
+}
+
+/** The active user and open session a token belongs to, or null. */
+export async function sessionOfToken(token: string): Promise<{ user: User; sessionId: string } | null> {
+  const claims = claimsOf(token);
+  if (!claims) return null;
+  const session = await Session.findOne({
+    where: { id: claims.sessionId, endedAt: { [Op.is]: null }, expiresAt: { [Op.gt]: new Date() } },
+    include: [{ model: User, as: 'user' }],
+  });
+  const user = session?.user;
+  if (!user || user.id !== claims.userId || !user.active) return null;
+  return { user, sessionId: claims.sessionId };
+}
+
+/** Ends one session; answers whether it was open. */
+export async function endSession(sessionId: string, reason: SessionEndReason, transaction?: Transaction): Promise<boolean> {
+  const [ended] = await Session.update({ endedAt: new Date(), endReason: reason }, { where: { id: sessionId, endedAt: { [Op.is]: null } }, transaction });
+  return ended > 0;
+}
+
+/** Ends every open session of a user (but `keep`, when given); answers how many it ended. */
+export async function endSessionsOf(userId: number, reason: SessionEndReason, transaction: Transaction, keep?: string): Promise<number> {
+  const [ended] = await Session.update(
+    { endedAt: new Date(), endReason: reason },
+    { where: { userId, endedAt: { [Op.is]: null }, ...(keep ? { id: { [Op.ne]: keep } } : {}) }, transaction },
+  );
+  return ended;
+}
