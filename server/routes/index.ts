@@ -19,6 +19,7 @@ import { piecesRouter } from './pieces/router';
 import { stockRouter } from './stock/router';
 import { attachmentsRouter } from './attachments/router';
 import { switchingRouter } from './switching/router';
+import { samplingRouter } from './sampling/router';
 
 export const apiRouter = Router();
 
@@ -39,6 +40,7 @@ apiRouter.use('/stock', stockRouter);
 apiRouter.use('/attachments', attachmentsRouter);
 apiRouter.use('/inspection', inspectionRouter);
 apiRouter.use('/switching', switchingRouter);
+apiRouter.use('/sampling', samplingRouter);
 apiRouter.use('/certificates', certificatesRouter);
 apiRouter.use('/documents', documentsRouter);
 apiRouter.use('/exports', exportsRouter);
