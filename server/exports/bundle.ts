@@ -13,6 +13,7 @@ import { Readable, Transform } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import { DISPOSITION_LABELS } from '../../shared/inspection/lotVerdict';
 import { AUDIT_CSV_COLUMNS, streamAuditEvents } from '../audit/query';
+import { chainHead } from '../audit/verify';
 import { escapeCsvCell, type CsvColumn } from '../http/csv';
 import type { documentsForExport } from '../routes/certificates/queries';
 import { JobFailure } from '../jobs/queue';
@@ -97,12 +98,15 @@ export async function writeExportBundle<T>(documents: ExportDocument[], onPdfAdd
   // An archive error rejects `written`; until it is awaited, keep it from counting as unhandled.
   written.catch(() => undefined);
   try {
+    // The audit chain's head when the bundle was made: printed in the manifest so a copy kept
+    // outside can anchor the trail, and the lots' audit log ends there.
+    const head = await chainHead();
     const sums: { path: string; sha256: string }[] = [];
     const indexPath = join(workDir, 'index.csv');
     sums.push({ path: 'index.csv', sha256: await writeCsvFile(indexPath, INDEX_CSV_COLUMNS, documents) });
     const auditPath = join(workDir, 'audit-log.csv');
     const lotIds = [...new Set(documents.map((d) => String(d.lot.id)))];
-    sums.push({ path: 'audit-log.csv', sha256: await writeCsvFile(auditPath, AUDIT_CSV_COLUMNS, streamAuditEvents({ entityType: 'lot', entityIds: lotIds })) });
+    sums.push({ path: 'audit-log.csv', sha256: await writeCsvFile(auditPath, AUDIT_CSV_COLUMNS, streamAuditEvents({ entityType: 'lot', entityIds: lotIds, uptoSeq: head.seq })) });
 
     await appendEntry(archive, 'index.csv', createReadStream(indexPath));
     await appendEntry(archive, 'audit-log.csv', createReadStream(auditPath));
@@ -119,7 +123,9 @@ export async function writeExportBundle<T>(documents: ExportDocument[], onPdfAdd
       sums.push({ path, sha256 });
       await onPdfAdded(i + 1);
     }
-    const manifest = sums.map((s) => `${s.sha256}  ${s.path}\n`).join('');
+    // A '#' line is a comment to sha256sum -c.
+    const headLine = `# audit chain head: position ${head.seq}, sha256 ${head.hash ?? 'none'}, recorded ${head.occurredAt ?? 'never'}\n`;
+    const manifest = headLine + sums.map((s) => `${s.sha256}  ${s.path}\n`).join('');
     await appendEntry(archive, 'manifest.sha256', Readable.from([Buffer.from(manifest)]));
     await archive.finalize();
     await written;

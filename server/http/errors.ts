@@ -1,6 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { ZodError } from 'zod';
-import { UniqueConstraintError, ForeignKeyConstraintError } from 'sequelize';
+import { DatabaseError, UniqueConstraintError, ForeignKeyConstraintError } from 'sequelize';
 import multer from 'multer';
 import { logger } from '../logger';
 
@@ -25,6 +25,19 @@ export const conflict = (message: string, details?: unknown) => new AppError(409
 export function zodDetails(error: ZodError) {
   return error.issues.map((issue) => ({ path: issue.path.join('.'), message: issue.message }));
 }
+
+export const JSON_LIMIT = '2mb';
+
+/** PostgreSQL's refusals of a value that came in with the request (a check at the edge missed it):
+ * the client's to fix, not a fault of the server. */
+const REFUSED_VALUES: Record<string, string> = {
+  '22021': 'A text holds a character that cannot be stored (such as NUL, U+0000)',
+  '22P05': 'A text holds a character that cannot be stored',
+  '22003': 'A number is out of the range that can be stored',
+  '22001': 'A text is longer than can be stored',
+  '22007': 'A date or time is not valid',
+  '22008': 'A date or time is out of range',
+};
 
 export const notFoundHandler: RequestHandler = (req, _res, next) => {
   next(new AppError(404, 'not_found', `No API route ${req.method} ${req.path}`));
@@ -55,6 +68,20 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   if (err?.type === 'entity.parse.failed') {
     res.status(400).json({ error: { code: 'bad_json', message: 'The request body is not valid JSON' } });
+    return;
+  }
+  if (err?.type === 'entity.too.large') {
+    res.status(413).json({ error: { code: 'too_large', message: `The request body is larger than the ${JSON_LIMIT} allowed; send files as uploads` } });
+    return;
+  }
+  // Other refusals of the body parser (unknown charset or encoding) carry their own 4xx status.
+  if (err?.expose && err.status >= 400 && err.status < 500) {
+    res.status(err.status).json({ error: { code: 'bad_request', message: err.message } });
+    return;
+  }
+  const refused = err instanceof DatabaseError ? REFUSED_VALUES[(err.parent as { code?: string }).code ?? ''] : undefined;
+  if (refused) {
+    res.status(400).json({ error: { code: 'bad_value', message: refused } });
     return;
   }
   logger.error({ err, requestId: req.id }, 'unhandled error');

@@ -67,7 +67,12 @@ describe('export bundle', () => {
     const certificateNumber = revokedLot.certificate.number;
     expect([...entries.keys()].sort()).toEqual(['audit-log.csv', 'index.csv', 'manifest.sha256', ...issuedNumbers.map((number) => `pdf/${number}.pdf`)].sort());
 
-    const manifest = entries.get('manifest.sha256')!.toString('utf8').trim().split('\n').map((line) => line.match(/^([0-9a-f]{64}) {2}(.+)$/)!.slice(1));
+    const manifestLines = entries.get('manifest.sha256')!.toString('utf8').trim().split('\n');
+    // The audit chain head, as a comment line (sha256sum -c skips it): the hash of the event at that position.
+    const [, headSeq, headHash] = manifestLines[0].match(/^# audit chain head: position (\d+), sha256 ([0-9a-f]{64}), recorded \S+$/)!;
+    const [headRow] = await sequelize.query<{ hash: string }>('SELECT hash FROM audit_events WHERE seq = :seq', { type: QueryTypes.SELECT, replacements: { seq: headSeq } });
+    expect(headRow.hash).toBe(headHash);
+    const manifest = manifestLines.slice(1).map((line) => line.match(/^([0-9a-f]{64}) {2}(.+)$/)!.slice(1));
     expect(manifest.map(([, path]) => path).sort()).toEqual([...entries.keys()].filter((path) => path !== 'manifest.sha256').sort());
     for (const [sum, path] of manifest) expect(sha256(entries.get(path)!), path).toBe(sum);
 
@@ -83,6 +88,7 @@ describe('export bundle', () => {
     expect(index.find((r) => r.number === certificateNumber)).toMatchObject({ kind: 'certificate', decision: 'Accept', revoked_at: expect.stringMatching(/^\d{4}-/) });
 
     const auditLog = parse(entries.get('audit-log.csv')!, { columns: true, bom: true }) as Record<string, string>[];
+    expect(auditLog.every((row) => BigInt(row.seq) <= BigInt(headSeq))).toBe(true);
     expect(auditLog.every((row) => row.entity_type === 'lot' && row.entity_id === String(revokedLot.lotId))).toBe(true);
     const [{ count }] = await sequelize.query<{ count: string }>("SELECT count(*) FROM audit_events WHERE entity_type = 'lot' AND entity_id = :id", {
       type: QueryTypes.SELECT, replacements: { id: String(revokedLot.lotId) },
