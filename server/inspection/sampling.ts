@@ -8,6 +8,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
 import { LotInspection, SamplePiece } from '../../db/models';
 import { describeSamplingPlan, drawSample, initialSwitchingState, newSampleSeed, planFor, type SwitchingState } from '../../shared/sampling';
+import { lotName } from '../../shared/schemas/stock';
 import { AppError } from '../http/errors';
 import { lotForInspection, type LotForInspection } from './lotAccess';
 
@@ -43,7 +44,7 @@ export function discontinuedError(lot: Pick<LotForInspection, 'id' | 'supplier' 
   return new AppError(
     409,
     'acceptance_discontinued',
-    `Lot L-${lot.id} waits without a sampling plan: acceptance inspection of ${lot.part.number} from ${lot.supplier.name} is discontinued until a quality manager resumes it`,
+    `Lot ${lotName(lot.id)} waits without a sampling plan: acceptance inspection of ${lot.part.number} from ${lot.supplier.name} is discontinued until a quality manager resumes it`,
     { lotId: lot.id, supplierId: lot.supplier.id, partId: lot.part.id },
   );
 }

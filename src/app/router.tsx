@@ -29,6 +29,8 @@ import { StockPage } from '@/features/stock/pages/StockPage';
 import { MovesPage } from '@/features/stock/pages/MovesPage';
 import { StockMovePage } from '@/features/stock/pages/StockMovePage';
 import { PiecePage } from '@/features/stock/pages/PiecePage';
+import { SwitchingListPage } from '@/features/switching/pages/SwitchingListPage';
+import { SwitchingPage } from '@/features/switching/pages/SwitchingPage';
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
@@ -61,6 +63,8 @@ export const router = createBrowserRouter([
       { path: 'pieces/:serial', element: <PiecePage /> },
       { path: 'inspection', element: <InspectionQueuePage /> },
       { path: 'inspection/lots/:lotId', element: <LotInspectionPage /> },
+      { path: 'switching', element: <RequirePermission permission="switching.read"><SwitchingListPage /></RequirePermission> },
+      { path: 'switching/:supplierId/:partId', element: <RequirePermission permission="switching.read"><SwitchingPage /></RequirePermission> },
       { path: 'instruments', element: <InstrumentsPage /> },
       { path: 'certificates', element: <RequirePermission permission="certificates.read"><CertificatesPage /></RequirePermission> },
       { path: 'exports', element: <RequirePermission permission="exports.create"><ExportsPage /></RequirePermission> },

@@ -25,7 +25,7 @@ export async function inspectionQueue() {
     };
     // A lot received while acceptance is discontinued waits, marked, without a plan.
     if (!(await inspectionPlanOf(lot.id))) {
-      rows.push({ ...row, acceptanceDiscontinued: true as const, plan: null, sampleSerials: [], measured: 0, proposal: null });
+      rows.push({ ...row, acceptanceDiscontinued: true as const, plan: null, sampleSerials: [], measured: 0, sortRemaining: null, proposal: null });
       continue;
     }
     const evaluation = await evaluateLot(lot);

@@ -42,18 +42,21 @@ export type LotInspectionView = {
 export type QueueRow = {
   lotId: number;
   state: LotState;
-  part: { number: string; description: string };
+  part: { id: number; number: string; description: string };
   supplier: string;
   supplierLot: string;
   quantity: number;
   receivedAt: string;
   daysInQuarantine: number;
-  plan: { codeLetter: string; planLetter: string; sampleSize: number; accept: number; reject: number; severity: string };
+  supplierId: number;
+  /** Received while acceptance is discontinued: no plan, no sample, no proposal until inspection resumes. */
+  acceptanceDiscontinued: boolean;
+  plan: { codeLetter: string; planLetter: string; sampleSize: number; accept: number; reject: number; severity: string } | null;
   sampleSerials: string[];
   measured: number;
   /** While a 100 % sort runs: the pieces still without a verdict. */
   sortRemaining: number | null;
-  proposal: LotVerdict['proposal'];
+  proposal: LotVerdict['proposal'] | null;
 };
 
 export type LineMessage = { line: number; message: string };

@@ -1,4 +1,4 @@
-import { useParams } from 'react-router';
+import { Link, useParams } from 'react-router';
 import { can } from '@shared/policies';
 import { DISPOSITION_LABELS } from '@shared/inspection/lotVerdict';
 import { codeLetterText } from '@shared/sampling/plan';
@@ -7,6 +7,7 @@ import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { StateBadge } from '@/components/StateBadge';
 import { useSession } from '@/features/auth/api/session';
+import { ApiError } from '@/lib/api';
 import { useLotInspection } from '../api';
 import { DispositionPanel } from '../components/DispositionPanel';
 import { DocumentLink } from '../components/DocumentLink';
@@ -33,7 +34,17 @@ export function LotInspectionPage() {
   const lotId = Number(useParams().lotId);
   const { data: user } = useSession();
   const query = useLotInspection(lotId);
-  if (query.error) return <Notice tone="error">{query.error.message}</Notice>;
+  if (query.error) {
+    const held = query.error instanceof ApiError && query.error.code === 'acceptance_discontinued' ? (query.error.details as { supplierId: number; partId: number }) : null;
+    if (!held) return <Notice tone="error">{query.error.message}</Notice>;
+    // Received while acceptance is discontinued: there is no plan to inspect against yet.
+    return (
+      <Notice tone="caution" title="Acceptance discontinued">
+        {query.error.message}. <Link to={`/lots/${lotId}`}>The lot</Link>
+        {can(user, 'switching.read') && <> · <Link to={`/switching/${held.supplierId}/${held.partId}`}>switching page</Link></>}
+      </Notice>
+    );
+  }
   if (!query.data) return <p className="text-ink-muted">Loading…</p>;
   const view = query.data;
   const { lot, spec, plan, verdict } = view;

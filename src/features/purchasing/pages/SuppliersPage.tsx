@@ -1,4 +1,5 @@
 import { useMemo, useState } from 'react';
+import { Link } from 'react-router';
 import { createColumnHelper } from '@tanstack/react-table';
 import { Plus } from 'lucide-react';
 import { can } from '@shared/policies';
@@ -20,6 +21,7 @@ const column = createColumnHelper<SupplierView>();
 export function SuppliersPage() {
   const { data: user } = useSession();
   const mayEdit = can(user, 'catalog.write');
+  const maySeeSwitching = can(user, 'switching.read');
   const { state, update, params } = useListState({ sort: 'name' });
   const active = params.get('active') ?? undefined;
   const suppliers = useSuppliers({ ...state, active });
@@ -32,8 +34,21 @@ export function SuppliersPage() {
       column.accessor('openOrders', { header: 'Open POs', cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
       column.accessor('active', { header: 'Status', cell: ({ getValue }) => <StateBadge state={getValue() ? 'open' : 'closed'} label={getValue() ? 'Active' : 'Inactive'} /> }),
       column.accessor('notes', { header: 'Notes', enableSorting: false, cell: ({ getValue }) => <span className="text-xs text-ink-muted">{getValue()}</span> }),
+      ...(maySeeSwitching
+        ? [
+            column.display({
+              id: 'switching',
+              header: 'Inspection severity',
+              cell: ({ row }) => (
+                <Link to={`/switching?supplierId=${row.original.id}`} onClick={(e) => e.stopPropagation()} className="text-xs whitespace-nowrap">
+                  Switching by part
+                </Link>
+              ),
+            }),
+          ]
+        : []),
     ],
-    [],
+    [maySeeSwitching],
   );
   return (
     <div>

@@ -26,6 +26,8 @@ export function LotPage() {
   if (!lot.data) return <p className="text-ink-muted">Loading…</p>;
   const l = lot.data;
   const waiting = (l.pieceStates.quarantine ?? 0) + (l.pieceStates.held ?? 0);
+  const maySeeSwitching = can(user, 'switching.read');
+  const switchingPath = `/switching/${l.purchaseOrder.supplier.id}/${l.part.id}`;
   const mayPutAway = can(user, 'stock.move') && RELEASABLE_LOT_STATES.includes(l.state) && waiting > 0;
   return (
     <div className="max-w-6xl space-y-3">
@@ -40,10 +42,17 @@ export function LotPage() {
           <div className="flex items-center gap-2">
             <StateBadge state={l.state} label={LOT_STATE_LABELS[l.state]} />
             <Link to={`/inspection/lots/${l.id}`} className="rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm text-ink no-underline hover:bg-paper-sunk">Inspection record</Link>
+            {maySeeSwitching && <Link to={switchingPath} className="rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm text-ink no-underline hover:bg-paper-sunk">Switching</Link>}
             {mayPutAway && <Link to={`/stock/put-away?lot=${l.id}`} className="rounded bg-frame px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-frame-deep">Put away in stock</Link>}
           </div>
         }
       />
+      {l.acceptanceDiscontinued && (
+        <Notice tone="caution" title="Acceptance discontinued">
+          Acceptance inspection of this part from {l.purchaseOrder.supplier.name} is discontinued. The lot is recorded and waits in quarantine without a sampling plan until a quality manager
+          resumes inspection{maySeeSwitching ? <> on the <Link to={switchingPath}>switching page</Link></> : ''}; it will then be sampled on tightened inspection.
+        </Notice>
+      )}
       {params.get('received') && (
         <Notice tone="info" title="Received">
           {l.quantity} pieces are in quarantine. They wait there until inspection decides the lot.

@@ -23,7 +23,15 @@ export function LotsPage() {
   const columns = useMemo(
     () => [
       column.accessor('id', { header: 'Lot', cell: ({ getValue }) => <span className="font-mono">{lotName(getValue())}</span> }),
-      column.accessor('state', { header: 'State', cell: ({ getValue }) => <StateBadge state={getValue()} label={LOT_STATE_LABELS[getValue()]} /> }),
+      column.accessor('state', {
+        header: 'State',
+        cell: ({ getValue, row }) => (
+          <span className="flex flex-wrap gap-1">
+            <StateBadge state={getValue()} label={LOT_STATE_LABELS[getValue()]} />
+            {row.original.acceptanceDiscontinued && <StateBadge state="acceptance-discontinued" tone="fail" label="Acceptance discontinued" />}
+          </span>
+        ),
+      }),
       column.accessor('partNumber', {
         header: 'Part',
         cell: ({ row }) => <PartLabel number={row.original.partNumber} description={row.original.partDescription} />,

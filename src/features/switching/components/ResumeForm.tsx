@@ -1,0 +1,55 @@
+// Resuming acceptance inspection after discontinuation (ISO 2859-1, 9.4): the supplier's corrective
+// action is recorded with its reference, the quality manager signs, and inspection resumes on
+// tightened; lots that waited in quarantine get their plans.
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { PlayCircle } from 'lucide-react';
+import { RESUME_MEANING, resumeInspectionSchema, type ResumeInspectionInput } from '@shared/schemas/switching';
+import { Button } from '@/components/Button';
+import { Field, inputClass } from '@/components/Field';
+import { Notice } from '@/components/Notice';
+import { useResumeInspection } from '../api';
+import { SignatureFields } from './SignatureFields';
+
+type Props = { supplierId: number; partId: number; waitingLots: number; onResumed(plansDrawnFor: number[]): void };
+
+export function ResumeForm({ supplierId, partId, waitingLots, onResumed }: Props) {
+  const resume = useResumeInspection(supplierId, partId);
+  const form = useForm<ResumeInspectionInput>({
+    resolver: zodResolver(resumeInspectionSchema),
+    defaultValues: { correctiveAction: '', reference: '', password: '', meaningAcknowledged: false as unknown as true },
+  });
+  const errors = form.formState.errors;
+  const submit = form.handleSubmit((values) =>
+    resume.mutate(values, {
+      onSuccess: (answer) => onResumed(answer.plansDrawnFor),
+      // What was typed stays; a refused password is typed again.
+      onError: () => {
+        form.setValue('password', '');
+        form.setFocus('password');
+      },
+    }),
+  );
+  return (
+    <form onSubmit={submit} noValidate aria-label="Resume inspection" className="space-y-3 rounded border border-state-fail/40 bg-paper-card p-4">
+      <h2 className="flex items-center gap-2">
+        <PlayCircle className="h-4 w-4" aria-hidden /> Resume inspection
+      </h2>
+      <p className="text-sm text-ink-muted">
+        Acceptance stays discontinued until the supplier has acted to improve what it submits. Record that action; inspection then resumes on tightened
+        inspection{waitingLots > 0 ? `, and ${waitingLots === 1 ? 'the lot waiting in quarantine gets its sampling plan' : `the ${waitingLots} lots waiting in quarantine get their sampling plans`}` : ''}.
+      </p>
+      {resume.error && <Notice tone="error">{resume.error.message}</Notice>}
+      <Field label="Supplier's corrective action" htmlFor="corrective-action" error={errors.correctiveAction?.message}>
+        <textarea id="corrective-action" rows={3} className={inputClass} {...form.register('correctiveAction')} />
+      </Field>
+      <Field label="Reference of the corrective action" htmlFor="corrective-reference" hint="The supplier's report or your request number." error={errors.reference?.message}>
+        <input id="corrective-reference" className={`${inputClass} max-w-xs font-mono`} {...form.register('reference')} />
+      </Field>
+      <SignatureFields meaning={RESUME_MEANING} register={form.register} errors={errors} idPrefix="resume" />
+      <Button type="submit" disabled={resume.isPending}>
+        {resume.isPending ? 'Signing…' : 'Sign: resume on tightened inspection'}
+      </Button>
+    </form>
+  );
+}
