@@ -86,6 +86,14 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
   const destination = await destinationOf(request, transaction);
   const pieces = await lockPieces(pieceIds, transaction);
 
+  // Nothing reaches a stock bin before its lot has been accepted (or sorted, or taken as is).
+  if (destination?.kind === 'stock') {
+    refuseUnless(
+      pieces,
+      (p) => !RELEASABLE_LOT_STATES.includes(p.lotState),
+      (bad) => `Only pieces of accepted lots go to stock; lot ${lotName(bad[0].lotId)} is ${LOT_STATE_LABELS[bad[0].lotState].toLowerCase()}: ${listSerials(bad)}`,
+    );
+  }
   // Nonconforming material never reaches a stock bin or a work order.
   if (destination?.kind === 'stock' || request.reason === 'issue') {
     refuseUnless(
@@ -105,17 +113,7 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
   }
   if (request.reason === 'return') refuseUnless(pieces, (p) => p.locationId !== null, (bad) => `Not issued, so nothing to return: ${listSerials(bad)}`);
   else refuseUnless(pieces, (p) => p.locationId === null, (bad) => `Already issued: ${listSerials(bad)}`);
-  if (destination) {
-    refuseUnless(pieces, (p) => p.locationId === destination.id, (bad) => `Already in ${destination.code}: ${listSerials(bad)}`);
-    // Nothing reaches a stock bin before its lot has been accepted (or sorted, or taken as is).
-    if (destination.kind === 'stock') {
-      refuseUnless(
-        pieces,
-        (p) => !RELEASABLE_LOT_STATES.includes(p.lotState),
-        (bad) => `Only pieces of accepted lots go to stock; lot ${lotName(bad[0].lotId)} is ${LOT_STATE_LABELS[bad[0].lotState].toLowerCase()}: ${listSerials(bad)}`,
-      );
-    }
-  }
+  if (destination) refuseUnless(pieces, (p) => p.locationId === destination.id, (bad) => `Already in ${destination.code}: ${listSerials(bad)}`);
 
   // One time for the whole move, so the pieces moved together read as one event.
   const movedAt = new Date();

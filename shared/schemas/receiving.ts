@@ -101,4 +101,6 @@ export type PieceHistoryView = {
   /** What the bench measured on this piece (superseded results too) and the lot's documents. */
   readings: { wavelengthNm: number; verdict: 'pass' | 'fail' | 'incomplete'; retardanceWaves: number | null; retardanceErrorWaves: number | null; axisErrorDeg: number | null; reasons: string[]; file: string; instrument: string; measuredAt: string; current: boolean }[];
   documents: { number: string; kind: 'certificate' | 'inspection-report'; issuedAt: string; revokedAt: string | null }[];
+  /** Set when the piece failed inspection and is in use under its lot's signed use-as-is decision. */
+  releasedAsIs: { deviationNumber: string; justification: string | null; signedBy: string | null; signedAt: string } | null;
 };

@@ -7,28 +7,14 @@ import { join } from 'node:path';
 import nodemailer from 'nodemailer';
 import { sequelize } from '../../../db';
 import { Instrument, MeasurementFile, OutboxMail, PieceResult, Reading } from '../../../db/models';
-import { stokesBenchFile } from '../../../db/seeders/benchFiles';
 import { app, as } from '../../../tests/helpers/api';
-import { pdfPages } from '../../../tests/helpers/pdfText';
+import { benchFile, documentText, sampleOf } from '../../../tests/helpers/bench';
 import { receivedLot } from '../../../tests/helpers/receivedLot';
 import { startMailCatcher } from '../../mail/catcher';
 import { readCaughtMail } from '../../mail/caughtMail';
 import { deliverDueMail } from '../../mail/outbox';
 
 const TODAY = new Date().toISOString().slice(0, 10);
-
-/** Quarter-wave plates at 632.8 nm; `bad` ones are 0.006 λ long, twice the ±0.003 λ tolerance. */
-function benchFile(serials: string[], bad: string[] = [], instrument = 'BENCH-2') {
-  return stokesBenchFile(
-    serials.map((serial, i) => ({ serial, wavelengthNm: 632.8, retardanceWaves: bad.includes(serial) ? 0.256 : 0.25 + ((i % 5) - 2) * 0.0003, fastAxisDeg: 0.1 })),
-    { instrument, date: TODAY, noise: 0.0005, seed: serials.length },
-  );
-}
-
-async function sampleOf(lotId: number) {
-  const view = await (await as('inspector')).get(`/api/inspection/lots/${lotId}`).expect(200);
-  return { view: view.body, sample: view.body.pieces.filter((p: { inSample: boolean }) => p.inSample).map((p: { serial: string }) => p.serial) as string[] };
-}
 
 let inspector: Awaited<ReturnType<typeof as>>;
 let quality: Awaited<ReturnType<typeof as>>;
@@ -69,7 +55,7 @@ describe('inspection of a lot through the API', () => {
 
     const preview = await upload(`/api/inspection/lots/${lot.lotId}/measurements/preview`, 'bench.csv', broken).expect(200);
     const [file] = preview.body.files;
-    expect(file.errors).toEqual(expect.arrayContaining([expect.objectContaining({ line: 7 }), { line: lines.length, message: `Serial ZZ-9999 is not in lot ${lot.lotId}` }]));
+    expect(file.errors).toEqual(expect.arrayContaining([expect.objectContaining({ line: 7 }), { line: lines.length, message: `Serial ZZ-9999 is not in lot L-${lot.lotId}` }]));
     expect(file.pieces.length).toBeGreaterThan(0);
 
     const refused = await upload(`/api/inspection/lots/${lot.lotId}/measurements`, 'bench.csv', broken).expect(422);
@@ -187,12 +173,7 @@ describe('inspection of a lot through the API', () => {
     expect(Number(in_stock)).toBe(60);
 
     // Round trip: the stored result of a piece and the certificate's text show the same numbers.
-    const pdf = await (await as('auditor')).get(`/api/documents/${certificate.number}.pdf`).buffer(true).parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    }).expect(200);
-    const text = (await pdfPages(pdf.body as Buffer)).join('\n');
+    const text = await documentText(certificate.number);
     const [stored] = await PieceResult.findAll({ include: [], where: { fileId: committed.body.files[0].fileId }, limit: 1, order: [['id', 'ASC']] });
     expect(text).toContain(certificate.number);
     expect(text).toContain(String(stored.result.retardanceWaves === null ? '' : (stored.result.retardanceWaves as number).toFixed(4)));

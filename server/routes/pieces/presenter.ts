@@ -3,6 +3,7 @@ import { sequelize } from '../../../db';
 import type { PieceHistoryView } from '../../../shared/schemas/receiving';
 import type { LocationKind, LotState, MoveReason, PieceState } from '../../../shared/schemas/stock';
 import { notFound } from '../../http/errors';
+import { failingNowSql } from '../../stock/standing';
 import { lotAuditHistory } from '../lots/presenter';
 
 type PieceRow = {
@@ -12,6 +13,7 @@ type PieceRow = {
 };
 type ReadingRow = { wavelength_nm: string; verdict: 'pass' | 'fail' | 'incomplete'; result: { retardanceWaves: number | null; retardanceErrorWaves: number | null; axisErrorDeg: number | null; reasons: string[] }; file: string; instrument: string; measured_at: Date; superseded: boolean };
 type DocumentRow = { number: string; kind: 'certificate' | 'inspection-report'; issued_at: Date; revoked_at: Date | null };
+type AsIsRow = { deviation_number: string; justification: string | null; signed_at: Date; signer: string | null };
 
 async function inspectionOf(pieceId: number, lotId: number) {
   const readings = await sequelize.query<ReadingRow>(
@@ -25,7 +27,15 @@ async function inspectionOf(pieceId: number, lotId: number) {
     type: QueryTypes.SELECT,
     replacements: { lotId },
   });
+  // A failed piece in use is so only under its lot's signed use-as-is decision: its history says which.
+  const [asIs] = await sequelize.query<AsIsRow>(
+    `SELECT d.deviation_number, d.justification, d.signed_at, u.name AS signer
+       FROM dispositions d LEFT JOIN users u ON u.id = d.signer_id
+      WHERE d.lot_id = :lotId AND d.decision = 'use-as-is' AND d.superseded_at IS NULL AND ${failingNowSql(':pieceId')}`,
+    { type: QueryTypes.SELECT, replacements: { lotId, pieceId } },
+  );
   return {
+    releasedAsIs: asIs ? { deviationNumber: asIs.deviation_number, justification: asIs.justification, signedBy: asIs.signer, signedAt: asIs.signed_at.toISOString() } : null,
     readings: readings.map((r) => ({
       wavelengthNm: Number(r.wavelength_nm), verdict: r.verdict, retardanceWaves: r.result.retardanceWaves, retardanceErrorWaves: r.result.retardanceErrorWaves,
       axisErrorDeg: r.result.axisErrorDeg, reasons: r.result.reasons, file: r.file, instrument: r.instrument, measuredAt: r.measured_at.toISOString(), current: !r.superseded,

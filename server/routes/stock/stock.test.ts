@@ -1,7 +1,9 @@
 import { QueryTypes } from 'sequelize';
 import { describe, expect, it } from 'vitest';
-import { sequelize } from '../../../db';
-import { StockMove } from '../../../db/models';
+import { inTransaction, sequelize } from '../../../db';
+import { Piece, StockMove } from '../../../db/models';
+import { SYSTEM_ACTOR } from '../../audit/record';
+import { movePieces } from '../../stock/ledger';
 import { as } from '../../../tests/helpers/api';
 import { receiveThroughApi } from '../../../tests/helpers/purchasing';
 
@@ -67,6 +69,26 @@ describe('/api/stock', () => {
     ]);
     const csv = await (await as('auditor')).get('/api/stock/moves/export.csv?workOrder=WO-T-77').expect(200);
     expect(csv.text.trim().split('\n')).toHaveLength(3);
+  });
+
+  it('never stocks or issues a piece set aside in material review or return-to-vendor', async () => {
+    const clerk = await as('clerk');
+    const lot = await receiveThroughApi(3);
+    await acceptLot(lot.lotId);
+    await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') }).expect(201);
+    const [mrb, rtv] = lot.serials;
+    const pieces = await Piece.findAll({ where: { lotId: lot.lotId }, order: [['serial', 'ASC']] });
+    await inTransaction(async (t) => {
+      await movePieces({ pieceIds: [pieces[0].id], toLocationId: await locationId('MRB'), reason: 'hold' }, SYSTEM_ACTOR, t);
+      await movePieces({ pieceIds: [pieces[1].id], toLocationId: await locationId('RTV'), reason: 'return-to-vendor' }, SYSTEM_ACTOR, t);
+    });
+    const back = await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A2'), serials: `${mrb}, ${rtv}` }).expect(409);
+    expect(back.body.error).toMatchObject({
+      message: `Nonconforming pieces cannot go to stock: ${mrb} (in material review at MRB), ${rtv} (in return to vendor at RTV)`,
+      details: { serials: [mrb, rtv] },
+    });
+    const issue = await clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: mrb, workOrder: 'WO-MRB-1' }).expect(409);
+    expect(issue.body.error.message).toBe(`Nonconforming pieces cannot be issued: ${mrb} (in material review at MRB)`);
   });
 
   it('lets one of two clerks issuing the same serial at once succeed; the other gets 409', async () => {
