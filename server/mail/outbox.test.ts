@@ -8,7 +8,9 @@ import { OutboxMail } from '../../db/models';
 import { as } from '../../tests/helpers/api';
 import { startMailCatcher } from './catcher';
 import { readCaughtMail } from './caughtMail';
-import { deliverDueMail, queueMail, retryDelayMs } from './outbox';
+import { deliverDueMail, deliverOutboxMail, queueMail, retryDelayMs } from './outbox';
+import { QueryTypes } from 'sequelize';
+import { sequelize } from '../../db';
 
 
 describe('mail outbox', () => {
@@ -59,6 +61,44 @@ describe('mail outbox', () => {
 
     const outbox = await (await as('admin')).get('/api/mail/outbox').expect(200);
     expect(outbox.body.data.find((m: { id: number }) => m.id === queued.id)).toMatchObject({ status: 'sent', attempts: 2, related: { type: 'lot', id: '42' } });
+  });
+
+  it('sends a message once when two workers take it at the same moment, and queues its delivery job with it', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'phaselot-catcher-'));
+    const catcher = await startMailCatcher({ port: 0, dir });
+    try {
+      const relay = nodemailer.createTransport(`smtp://127.0.0.1:${catcher.port}`);
+      const mail = await inTransaction((t) => queueMail({ to: ['buyer@phaselot.test'], subject: 'Raced for', text: 'Once only.' }, t));
+      // The delivery job was queued in the same transaction, for the queue's workers.
+      const jobs = await sequelize.query<{ state: string }>("SELECT state FROM pgboss.job WHERE name = 'mail-deliver' AND data->>'outboxId' = :id", {
+        type: QueryTypes.SELECT, replacements: { id: String(mail.id) },
+      });
+      expect(jobs).toHaveLength(1);
+
+      const outcomes = await Promise.all([deliverOutboxMail(mail.id, relay), deliverOutboxMail(mail.id, relay), deliverDueMail(relay)]);
+      expect(outcomes.slice(0, 2).filter((o) => o === 'sent').length + outcomes[2].sent).toBe(1);
+      expect((await readCaughtMail(dir)).filter((m) => m.subject === 'Raced for')).toHaveLength(1);
+      await mail.reload();
+      expect(mail).toMatchObject({ status: 'sent', attempts: 1 });
+      // A later run of the job (a retry) finds it sent and sends nothing.
+      expect(await deliverOutboxMail(mail.id, relay)).toBe('none');
+    } finally {
+      await catcher.close();
+    }
+  });
+
+  it('queues no delivery job for a message whose transaction rolls back', async () => {
+    const subject = `Never sent ${Math.random()}`;
+    await expect(inTransaction(async (t) => {
+      await queueMail({ to: ['buyer@phaselot.test'], subject, text: 'Rolled back.' }, t);
+      throw new Error('the event failed');
+    })).rejects.toThrow('the event failed');
+    expect(await OutboxMail.count({ where: { subject } })).toBe(0);
+    const [{ orphans }] = await sequelize.query<{ orphans: string }>(
+      "SELECT count(*) AS orphans FROM pgboss.job j WHERE j.name = 'mail-deliver' AND NOT EXISTS (SELECT 1 FROM mail_outbox m WHERE m.id = (j.data->>'outboxId')::int)",
+      { type: QueryTypes.SELECT },
+    );
+    expect(Number(orphans)).toBe(0);
   });
 
   it('backs off exponentially up to half an hour', () => {
