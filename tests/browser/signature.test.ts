@@ -89,7 +89,7 @@ describe('signing a lot disposition in the browser', () => {
     expect(new URL(page.url()).pathname).toBe('/lots');
 
     // Back on the lot: the decision stands and no form is armed until supersede is chosen.
-    await page.goto(`${rig.baseUrl}/inspection/lots/${lot.lotId}`);
+    await page.goBack();
     await decision.waitFor();
     expect(await form.count()).toBe(0);
     await decision.getByRole('button', { name: /Supersede this decision/ }).click();
@@ -102,6 +102,47 @@ describe('signing a lot disposition in the browser', () => {
     await form.getByRole('button', { name: 'Keep the signed decision' }).click();
     expect(await form.count()).toBe(0);
     expect((await currentDecision(lot.lotId)).id).toBe(signed.id);
+    await page.context().close();
+  });
+
+  it('shows what became of the pieces of a rejected lot on the lot list, the lot page and the PO page', async () => {
+    const lot = await lotProposingRejection();
+    const quality = await as('quality');
+    await quality
+      .post(`/api/inspection/lots/${lot.lotId}/dispositions`)
+      .send({ decision: 'reject', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: null })
+      .expect(201);
+    // A plain rejection sends every piece back; the two measured out of tolerance are the nonconforming ones.
+    const figures = (await quality.get(`/api/lots/${lot.lotId}`).expect(200)).body;
+    expect({ accepted: figures.accepted, nonconforming: figures.nonconforming, returned: figures.returned }).toEqual({ accepted: 0, nonconforming: 2, returned: 20 });
+    const shown = '0 accepted2 nonconforming20 returned';
+
+    const page = await signedInPage(rig, 'buyer');
+    await page.goto(`${rig.baseUrl}/lots/${lot.lotId}`);
+    await page.getByRole('heading', { name: `Lot L-${lot.lotId}` }).waitFor();
+    expect(await page.getByLabel('Piece outcomes').textContent()).toBe(shown);
+    await page.screenshot({ path: join(shots, 'lot-desktop.png'), fullPage: true });
+
+    await page.goto(`${rig.baseUrl}/lots?q=L-${lot.lotId}`);
+    const row = page.getByRole('row').filter({ hasText: `L-${lot.lotId}` });
+    await row.waitFor();
+    const headers = (await page.getByRole('columnheader').allTextContents()).map((h) => h.trim());
+    const cells = (await row.getByRole('cell').allTextContents()).map((c) => c.trim());
+    for (const [header, value] of [['Accepted', '0'], ['Nonconforming', '2'], ['Returned', '20']]) expect(cells[headers.indexOf(header)]).toBe(value);
+    await page.screenshot({ path: join(shots, 'lots-desktop.png'), fullPage: true });
+
+    const po = (await quality.get('/api/purchase-orders').query({ q: lot.poNumber }).expect(200)).body.data[0];
+    await page.goto(`${rig.baseUrl}/purchasing/orders/${po.id}`);
+    const line = page.getByRole('region', { name: /^Line 1:/ });
+    await line.waitFor();
+    expect(await line.getByLabel('Piece outcomes').textContent()).toBe(shown);
+    expect(await page.getByRole('region', { name: 'Order' }).getByLabel('Piece outcomes').textContent()).toBe(shown);
+    await page.screenshot({ path: join(shots, 'po-desktop.png'), fullPage: true });
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.screenshot({ path: join(shots, 'po-390.png'), fullPage: true });
+    await page.goto(`${rig.baseUrl}/lots/${lot.lotId}`);
+    await page.getByLabel('Piece outcomes').waitFor();
+    await page.screenshot({ path: join(shots, 'lot-390.png'), fullPage: true });
     await page.context().close();
   });
 });
