@@ -3,7 +3,7 @@ import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { stokesBenchFile } from '../../db/seeders/benchFiles';
-import { as } from '../helpers/api';
+import { as, freshUser } from '../helpers/api';
 import { receivedLot } from '../helpers/receivedLot';
 import { signedInPage, startBrowserRig, type BrowserRig } from './browser';
 
@@ -103,6 +103,43 @@ describe('signing a lot disposition in the browser', () => {
     expect(await form.count()).toBe(0);
     expect((await currentDecision(lot.lotId)).id).toBe(signed.id);
     await page.context().close();
+  });
+
+  it('shows the lock-out after repeated wrong passwords the same way, with the form kept and the session alive', async () => {
+    const lot = await lotProposingRejection();
+    // A quality manager of this test only: the lock-out must not reach the demo account other tests sign with.
+    const manager = await freshUser(['quality']);
+    const context = await rig.browser.newContext({ viewport: { width: 1400, height: 900 } });
+    context.setDefaultTimeout(10_000);
+    const page = await context.newPage();
+    await page.goto(`${rig.baseUrl}/sign-in`);
+    await page.getByLabel('E-mail').fill(manager.email);
+    await page.getByLabel('Password').fill(manager.password);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.getByTestId('signed-in-user').waitFor();
+    await page.goto(`${rig.baseUrl}/inspection/lots/${lot.lotId}`);
+
+    const form = page.getByRole('form', { name: 'Sign disposition' });
+    await form.getByLabel('Reject to vendor').check();
+    await form.getByLabel('Note (optional)').fill('Two plates out of tolerance at 632.8 nm');
+    await form.getByLabel(/I have read the meaning/).check();
+    // Five wrong passwords in a row lock signing (a rule of the product); the fifth answer says so.
+    for (let attempt = 1; attempt <= 5; attempt++) {
+      await form.getByLabel(/Your password/).fill(`wrong-${attempt}`);
+      await form.getByRole('button', { name: 'Sign: Reject to vendor' }).click();
+      await form.getByRole('alert').filter({ hasText: attempt < 5 ? `${5 - attempt} tr` : 'is locked until' }).waitFor();
+    }
+    expect(await form.getByLabel('Reject to vendor').isChecked()).toBe(true);
+    expect(await form.getByLabel('Note (optional)').inputValue()).toBe('Two plates out of tolerance at 632.8 nm');
+    // Even the right password is refused while locked, with the same message and nothing signed.
+    await form.getByLabel(/Your password/).fill(manager.password);
+    await form.getByRole('button', { name: 'Sign: Reject to vendor' }).click();
+    await form.getByRole('alert').filter({ hasText: /^Signing is locked until/ }).waitFor();
+    expect(await currentDecision(lot.lotId)).toBeNull();
+    expect(new URL(page.url()).pathname).toBe(`/inspection/lots/${lot.lotId}`);
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Lots' }).click();
+    await page.getByRole('heading', { name: 'Lots' }).waitFor();
+    await context.close();
   });
 
   it('shows what became of the pieces of a rejected lot on the lot list, the lot page and the PO page', async () => {
