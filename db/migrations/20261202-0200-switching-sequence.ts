@@ -5,10 +5,12 @@
 // superseded and kept. Existing events were lots' first decisions: their results are filled in from
 // the signed disposition and the lot's plan, as they were fed at the time (accepted = the sample
 // accepted the lot), and the stored states stay as they are.
+import type { Sequelize, Transaction } from 'sequelize';
 import type { Migration } from '../migrator';
 
-export const up: Migration = async ({ sequelize }) => {
-  await sequelize.query(`
+export async function sequenceSwitchingEvents(sequelize: Sequelize, transaction: Transaction) {
+  await sequelize.query(
+    `
     ALTER TABLE switching_events
       ALTER COLUMN lot_id DROP NOT NULL,
       ADD COLUMN kind varchar(10) NOT NULL DEFAULT 'lot' CHECK (kind IN ('lot', 'resume', 'override')),
@@ -46,16 +48,26 @@ export const up: Migration = async ({ sequelize }) => {
       ADD CONSTRAINT switching_events_override CHECK (kind <> 'override' OR (severity IS NOT NULL AND reason IS NOT NULL AND actor_id IS NOT NULL));
     CREATE UNIQUE INDEX switching_events_position ON switching_events (supplier_id, part_id, position) WHERE superseded_at IS NULL;
     CREATE UNIQUE INDEX switching_events_current_lot ON switching_events (lot_id) WHERE superseded_at IS NULL AND kind = 'lot';
-  `);
-};
+  `,
+    { transaction },
+  );
+}
 
-export const down: Migration = async ({ sequelize }) => {
-  await sequelize.query(`
+/** Back to lots' first decisions only: resumptions, overrides and superseded results are dropped. */
+export async function unsequenceSwitchingEvents(sequelize: Sequelize, transaction: Transaction) {
+  await sequelize.query(
+    `
     DELETE FROM switching_events WHERE kind <> 'lot' OR superseded_at IS NOT NULL;
     DROP INDEX switching_events_position, switching_events_current_lot;
     ALTER TABLE switching_events
       DROP COLUMN kind, DROP COLUMN position, DROP COLUMN result, DROP COLUMN reduced_enabled, DROP COLUMN disposition_id,
       DROP COLUMN severity, DROP COLUMN reason, DROP COLUMN reference, DROP COLUMN actor_id, DROP COLUMN superseded_at,
       ALTER COLUMN lot_id SET NOT NULL;
-  `);
-};
+  `,
+    { transaction },
+  );
+}
+
+export const up: Migration = ({ sequelize }) => sequelize.transaction((transaction) => sequenceSwitchingEvents(sequelize, transaction));
+
+export const down: Migration = ({ sequelize }) => sequelize.transaction((transaction) => unsequenceSwitchingEvents(sequelize, transaction));
