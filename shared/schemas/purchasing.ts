@@ -3,9 +3,10 @@ import { z } from 'zod';
 import { listQuerySchema } from './paging';
 import { partSpecSchema, type PartSpec } from './spec';
 import type { PieceQuantities } from './stock';
+import { AQL_VALUES, INSPECTION_LEVELS } from '../sampling/tables';
 
-export const INSPECTION_LEVELS = ['S-1', 'S-2', 'S-3', 'S-4', 'I', 'II', 'III'] as const;
-export const AQL_VALUES = [0.065, 0.1, 0.15, 0.25, 0.4, 0.65, 1, 1.5, 2.5, 4, 6.5, 10] as const;
+// A PO line offers the levels and AQLs the sampling tables have.
+export { AQL_VALUES, INSPECTION_LEVELS };
 export const PO_STATUSES = ['open', 'closed'] as const;
 export type PoStatus = (typeof PO_STATUSES)[number];
 

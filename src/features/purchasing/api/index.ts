@@ -1,5 +1,7 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ListResponse } from '@shared/schemas/paging';
+import type { PlanLookup } from '@shared/sampling/plan';
+import type { PlanQuery } from '@shared/schemas/sampling';
 import type { PartInput, PartView, PurchaseOrderInput, PurchaseOrderRow, PurchaseOrderView, SupplierInput, SupplierView } from '@shared/schemas/purchasing';
 import type { ListState } from '@/components/DataTable';
 import { api } from '@/lib/api';
@@ -14,6 +16,7 @@ export const purchasingKeys = {
   part: (id: number) => [...purchasingKeys.all, 'part', id] as const,
   orders: (query: Filters) => [...purchasingKeys.all, 'orders', query] as const,
   order: (id: number) => [...purchasingKeys.all, 'order', id] as const,
+  plan: (query: PlanQuery | null) => [...purchasingKeys.all, 'plan', query] as const,
 };
 
 const listQuery = <T,>(key: readonly unknown[], path: string, query: Filters) =>
@@ -25,6 +28,15 @@ export const usePurchaseOrders = (query: ListState & Filters) => useQuery(listQu
 
 export const usePart = (id: number | undefined) =>
   useQuery({ queryKey: purchasingKeys.part(id ?? 0), queryFn: () => api<PartView>(`/parts/${id}`), enabled: id !== undefined });
+/** The plan the tables give for a line; null asks nothing (the line is not complete yet). */
+export const useSamplingPlan = (query: PlanQuery | null) =>
+  useQuery({
+    queryKey: purchasingKeys.plan(query),
+    queryFn: () => api<PlanLookup>('/sampling/plan', { query: query! }),
+    enabled: query !== null,
+    // The tables do not change while the app runs.
+    staleTime: Number.POSITIVE_INFINITY,
+  });
 export const usePurchaseOrder = (id: number | undefined) =>
   useQuery({ queryKey: purchasingKeys.order(id ?? 0), queryFn: () => api<PurchaseOrderView>(`/purchase-orders/${id}`), enabled: id !== undefined });
 

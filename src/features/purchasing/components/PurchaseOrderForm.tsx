@@ -1,6 +1,7 @@
 // A purchase order and its lines. Each line copies the part's specification when the PO is saved;
 // lines that have received pieces keep their part, and their quantity cannot fall below what came.
-import { useFieldArray, useForm } from 'react-hook-form';
+import { Fragment } from 'react';
+import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Plus, Trash2 } from 'lucide-react';
 import { AQL_VALUES, INSPECTION_LEVELS, purchaseOrderInputSchema, type PartView, type PurchaseOrderInput, type PurchaseOrderView, type SupplierView } from '@shared/schemas/purchasing';
@@ -9,6 +10,7 @@ import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useParts, useSavePurchaseOrder, useSuppliers } from '../api';
+import { LinePlan } from './LinePlan';
 
 const ALL = { page: 1, pageSize: 500 };
 const newLine = { partId: '', quantity: '', unitPrice: '', inspectionLevel: 'II', aql: 1, hundredPercent: false } as const;
@@ -41,6 +43,7 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
   const save = useSavePurchaseOrder();
   const form = useForm({ resolver: zodResolver(purchaseOrderInputSchema), defaultValues: valuesOf(order) });
   const lines = useFieldArray({ control: form.control, name: 'lines' });
+  const watchedLines = useWatch({ control: form.control, name: 'lines' });
   const errors = form.formState.errors;
   const received = new Map(order?.lines.map((l) => [l.id, l.received]) ?? []);
   const submit = form.handleSubmit((input) =>
@@ -92,53 +95,62 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
             {lines.fields.map((field, index) => {
               const lineId = form.getValues(`lines.${index}.id`) as number | undefined;
               const got = lineId ? (received.get(lineId) ?? 0) : 0;
+              const watched = watchedLines[index] ?? field;
               return (
-                <tr key={field.id} className="border-t border-paper-line/70 align-top" aria-label={`Line ${index + 1}`}>
-                  <td className="px-2 py-1.5 text-ink-muted">{index + 1}</td>
-                  <td className="px-2 py-1">
-                    {got > 0 ? (
-                      <>
-                        <input type="hidden" {...form.register(`lines.${index}.partId`)} />
-                        <p className="py-1.5 font-mono">{order?.lines.find((l) => l.id === lineId)?.part.number}</p>
-                        <p className="text-2xs text-ink-faint">{got} received; the part is fixed</p>
-                      </>
-                    ) : (
-                      <select aria-label={`Part of line ${index + 1}`} className={`${inputClass} w-full`} {...form.register(`lines.${index}.partId`)}>
-                        <option value="">Choose a part…</option>
-                        {parts.filter((p) => p.active || p.id === Number(field.partId)).map((p) => (
-                          <option key={p.id} value={p.id}>{p.number} — {p.description}</option>
-                        ))}
+                <Fragment key={field.id}>
+                  <tr className="border-t border-paper-line/70 align-top" aria-label={`Line ${index + 1}`}>
+                    <td className="px-2 py-1.5 text-ink-muted">{index + 1}</td>
+                    <td className="px-2 py-1">
+                      {got > 0 ? (
+                        <>
+                          <input type="hidden" {...form.register(`lines.${index}.partId`)} />
+                          <p className="py-1.5 font-mono">{order?.lines.find((l) => l.id === lineId)?.part.number}</p>
+                          <p className="text-2xs text-ink-faint">{got} received; the part is fixed</p>
+                        </>
+                      ) : (
+                        <select aria-label={`Part of line ${index + 1}`} className={`${inputClass} w-full`} {...form.register(`lines.${index}.partId`)}>
+                          <option value="">Choose a part…</option>
+                          {parts.filter((p) => p.active || p.id === Number(field.partId)).map((p) => (
+                            <option key={p.id} value={p.id}>{p.number} — {p.description}</option>
+                          ))}
+                        </select>
+                      )}
+                      {lineError(index, 'partId') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'partId')}</p>}
+                    </td>
+                    <td className="px-2 py-1">
+                      <input aria-label={`Quantity of line ${index + 1}`} inputMode="numeric" className={`${inputClass} w-24`} {...form.register(`lines.${index}.quantity`)} />
+                      {lineError(index, 'quantity') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'quantity')}</p>}
+                    </td>
+                    <td className="px-2 py-1">
+                      <input aria-label={`Unit price of line ${index + 1}`} inputMode="decimal" className={`${inputClass} w-24`} {...form.register(`lines.${index}.unitPrice`)} />
+                      {lineError(index, 'unitPrice') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'unitPrice')}</p>}
+                    </td>
+                    <td className="px-2 py-1">
+                      <select aria-label={`Inspection level of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.inspectionLevel`)}>
+                        {INSPECTION_LEVELS.map((level) => <option key={level} value={level}>{level}</option>)}
                       </select>
-                    )}
-                    {lineError(index, 'partId') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'partId')}</p>}
-                  </td>
-                  <td className="px-2 py-1">
-                    <input aria-label={`Quantity of line ${index + 1}`} inputMode="numeric" className={`${inputClass} w-24`} {...form.register(`lines.${index}.quantity`)} />
-                    {lineError(index, 'quantity') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'quantity')}</p>}
-                  </td>
-                  <td className="px-2 py-1">
-                    <input aria-label={`Unit price of line ${index + 1}`} inputMode="decimal" className={`${inputClass} w-24`} {...form.register(`lines.${index}.unitPrice`)} />
-                    {lineError(index, 'unitPrice') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'unitPrice')}</p>}
-                  </td>
-                  <td className="px-2 py-1">
-                    <select aria-label={`Inspection level of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.inspectionLevel`)}>
-                      {INSPECTION_LEVELS.map((level) => <option key={level} value={level}>{level}</option>)}
-                    </select>
-                  </td>
-                  <td className="px-2 py-1">
-                    <select aria-label={`AQL of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.aql`)}>
-                      {AQL_VALUES.map((aql) => <option key={aql} value={aql}>{aql}</option>)}
-                    </select>
-                  </td>
-                  <td className="px-2 py-2 text-center">
-                    <input type="checkbox" aria-label={`100 % inspection of line ${index + 1}`} {...form.register(`lines.${index}.hundredPercent`)} />
-                  </td>
-                  <td className="px-2 py-1">
-                    <Button look="quiet" aria-label={`Remove line ${index + 1}`} disabled={got > 0 || lines.fields.length === 1} onClick={() => lines.remove(index)}>
-                      <Trash2 className="h-4 w-4" aria-hidden />
-                    </Button>
-                  </td>
-                </tr>
+                    </td>
+                    <td className="px-2 py-1">
+                      <select aria-label={`AQL of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.aql`)}>
+                        {AQL_VALUES.map((aql) => <option key={aql} value={aql}>{aql}</option>)}
+                      </select>
+                    </td>
+                    <td className="px-2 py-2 text-center">
+                      <input type="checkbox" aria-label={`100 % inspection of line ${index + 1}`} {...form.register(`lines.${index}.hundredPercent`)} />
+                    </td>
+                    <td className="px-2 py-1">
+                      <Button look="quiet" aria-label={`Remove line ${index + 1}`} disabled={got > 0 || lines.fields.length === 1} onClick={() => lines.remove(index)}>
+                        <Trash2 className="h-4 w-4" aria-hidden />
+                      </Button>
+                    </td>
+                  </tr>
+                  <tr aria-label={`Sampling plan of line ${index + 1}`}>
+                    <td />
+                    <td colSpan={7} className="px-2 pb-1.5 text-xs text-ink-muted">
+                      <LinePlan quantity={watched.quantity} level={watched.inspectionLevel} aql={watched.aql} hundredPercent={watched.hundredPercent} />
+                    </td>
+                  </tr>
+                </Fragment>
               );
             })}
           </tbody>
