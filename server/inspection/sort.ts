@@ -4,6 +4,7 @@
 // lot 'sorted' and issues the certificate of the released serials, all in that commit's transaction.
 import { Op, type Transaction } from 'sequelize';
 import { DispositionRecord, User } from '../../db/models';
+import { lotName } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { issueLotDocuments } from './documents';
 import type { LotEvaluation } from './evaluation';
@@ -21,7 +22,7 @@ export function piecesLeftToSort(lot: LotForInspection, evaluation: LotEvaluatio
 export async function completeSortWhenMeasured(lot: LotForInspection, evaluation: LotEvaluation, actor: AuditActor, transaction: Transaction) {
   if (piecesLeftToSort(lot, evaluation).length > 0) return null;
   const disposition = await DispositionRecord.findOne({ where: { lotId: lot.id, decision: 'sort', supersededAt: { [Op.is]: null } }, transaction });
-  if (!disposition) throw new Error(`Lot ${lot.id} is being sorted without a current sort decision`);
+  if (!disposition) throw new Error(`Lot ${lotName(lot.id)} is being sorted without a current sort decision`);
   const signer = (await User.findByPk(disposition.signerId, { transaction }))!;
   const routed = await routeLotPieces(lot, 'sorted', evaluation.pieceVerdicts, { dispositionId: disposition.id, deviationNumber: null }, actor, transaction);
   const documents = await issueLotDocuments(

@@ -63,6 +63,9 @@ describe('pieces follow their verdict', () => {
     expect(moved.body.error.message).toBe(`Nonconforming pieces cannot go to stock: ${failed} (failed inspection)`);
     const putAway = await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-B1'), serials: failed }).expect(409);
     expect(putAway.body.error.message).toBe(`Nonconforming pieces cannot go to stock: ${failed} (failed inspection)`);
+    // Putting away "whatever is waiting" leaves the piece under review where it is.
+    const nothing = await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-B1') }).expect(400);
+    expect(nothing.body.error.message).toBe(`Lot L-${lot.lotId} has no pieces waiting to be put away`);
     const good = sample[1];
     await clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: good, workOrder: 'WO-NC-1' }).expect(201);
 

@@ -2,7 +2,7 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../../db';
 import { Attachment, Lot, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Supplier, User } from '../../../db/models';
 import type { AttachmentView, HistoryEntry, LotRow, LotView } from '../../../shared/schemas/receiving';
-import { MOVE_REASON_LABELS, type LotListQuery, type LotState, type MoveReason, type PieceState } from '../../../shared/schemas/stock';
+import { MOVE_REASON_LABELS, lotName, type LotListQuery, type LotState, type MoveReason, type PieceState } from '../../../shared/schemas/stock';
 import { notFound } from '../../http/errors';
 import { filterWhen, type ListDefinition } from '../../http/list';
 import { describePlan, inspectionPlanOf } from '../../inspection/sampling';
@@ -63,7 +63,7 @@ export const lotList: ListDefinition<LotRow, LotListQuery> = {
   csv: {
     filename: 'lots',
     columns: [
-      { header: 'lot', value: (r) => `L-${r.id}` },
+      { header: 'lot', value: (r) => lotName(r.id) },
       { header: 'supplier_lot', value: (r) => r.supplierLot },
       { header: 'state', value: (r) => r.state },
       { header: 'quantity', value: (r) => r.quantity },

@@ -6,6 +6,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../../db';
 import { Attachment, Lot, Piece, PurchaseOrder, PurchaseOrderLine, Shipment } from '../../../db/models';
 import { shipmentReceiveSchema, type ShipmentReceiveInput } from '../../../shared/schemas/receiving';
+import { lotName } from '../../../shared/schemas/stock';
 import { parseSerialText, type SerialList } from '../../../shared/serials';
 import { recordAudit, type AuditActor } from '../../audit/record';
 import { drawPlanAtReceipt } from '../../inspection/sampling';
@@ -61,7 +62,7 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
       { type: QueryTypes.SELECT, replacements: { partId: line.partId, serials: list.serials }, transaction },
     );
     if (known.length) {
-      const shown = known.slice(0, 12).map((k) => `${k.serial} (lot L-${k.lotId})`).join(', ');
+      const shown = known.slice(0, 12).map((k) => `${k.serial} (lot ${lotName(k.lotId)})`).join(', ');
       throw conflict(`Already received for this part: ${shown}${known.length > 12 ? ` and ${known.length - 12} more` : ''}`, { serials: known.map((k) => k.serial) });
     }
 

@@ -1,5 +1,6 @@
 import type { z } from 'zod';
 import type { ShipmentRow, shipmentListQuerySchema } from '../../../shared/schemas/receiving';
+import { lotName } from '../../../shared/schemas/stock';
 import { filterWhen, type ListDefinition } from '../../http/list';
 
 export const shipmentList: ListDefinition<ShipmentRow & { lotIds: number[] }, z.infer<typeof shipmentListQuerySchema>> = {
@@ -38,7 +39,7 @@ export const shipmentList: ListDefinition<ShipmentRow & { lotIds: number[] }, z.
       { header: 'packing_slip', value: (r) => r.packingSlip },
       { header: 'carrier', value: (r) => r.carrier },
       { header: 'received_by', value: (r) => r.receivedBy },
-      { header: 'lots', value: (r) => r.lotIds.map((id) => `L-${id}`).join(' ') },
+      { header: 'lots', value: (r) => r.lotIds.map(lotName).join(' ') },
       { header: 'pieces', value: (r) => r.pieces },
     ],
   },

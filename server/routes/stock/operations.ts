@@ -1,9 +1,9 @@
 // What the clerk does with stock: issue serials to a work order, transfer them between bins, and
 // put the pieces of an accepted lot away. Each is one transaction around the ledger's operations.
-import type { Transaction } from 'sequelize';
-import { inTransaction } from '../../../db';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { inTransaction, sequelize } from '../../../db';
 import { Location, Lot, Part, Piece } from '../../../db/models';
-import { issueInputSchema, releaseInputSchema, transferInputSchema, type IssueInput, type ReleaseInput, type TransferInput } from '../../../shared/schemas/stock';
+import { issueInputSchema, lotName, releaseInputSchema, transferInputSchema, type IssueInput, type ReleaseInput, type TransferInput } from '../../../shared/schemas/stock';
 import { parseSerialText } from '../../../shared/serials';
 import type { AuditActor } from '../../audit/record';
 import { AppError, badRequest, notFound } from '../../http/errors';
@@ -47,6 +47,17 @@ export function transferBetweenBins(actor: AuditActor, rawInput: TransferInput) 
   });
 }
 
+/** Pieces of a lot waiting to be put away: in quarantine or on the inspection hold rack (not those set
+ * aside in material review or return-to-vendor). */
+async function waitingPieces(lotId: number, transaction: Transaction) {
+  const rows = await sequelize.query<{ id: number }>(
+    `SELECT p.id FROM pieces p JOIN piece_locations pl ON pl.piece_id = p.id JOIN locations loc ON loc.id = pl.location_id
+      WHERE p.lot_id = :lotId AND loc.kind IN ('quarantine', 'inspection-hold')`,
+    { type: QueryTypes.SELECT, replacements: { lotId }, transaction },
+  );
+  return Piece.findAll({ where: { id: rows.map((r) => r.id) }, transaction });
+}
+
 /** Puts away the pieces of an accepted lot: the serials given, or all of its pieces still waiting. */
 export function putAwayLot(actor: AuditActor, rawInput: ReleaseInput) {
   const input = releaseInputSchema.parse(rawInput);
@@ -56,10 +67,10 @@ export function putAwayLot(actor: AuditActor, rawInput: ReleaseInput) {
     if (!lot) throw notFound('Lot');
     const pieces = serials
       ? await piecesOfPart(lot.partId, serials, transaction)
-      : await Piece.findAll({ where: { lotId: lot.id, state: ['quarantine', 'held'] }, transaction });
+      : await waitingPieces(lot.id, transaction);
     const strangers = pieces.filter((p) => p.lotId !== lot.id);
-    if (strangers.length) throw badRequest(`Not pieces of lot L-${lot.id}: ${strangers.map((p) => p.serial).join(', ')}`);
-    if (pieces.length === 0) throw badRequest(`Lot L-${lot.id} has no pieces waiting to be put away`);
+    if (strangers.length) throw badRequest(`Not pieces of lot ${lotName(lot.id)}: ${strangers.map((p) => p.serial).join(', ')}`);
+    if (pieces.length === 0) throw badRequest(`Lot ${lotName(lot.id)} has no pieces waiting to be put away`);
     return releasePiecesToLocation(pieces.map((p) => p.id), input.toLocationId, actor, transaction);
   });
 }

@@ -1,5 +1,5 @@
 import type { Location } from '../../../db/models';
-import type { LocationKind, LocationView, MoveListQuery, MoveReason, MoveView, StockQuery, StockRow } from '../../../shared/schemas/stock';
+import { lotName, type LocationKind, type LocationView, type MoveListQuery, type MoveReason, type MoveView, type StockQuery, type StockRow } from '../../../shared/schemas/stock';
 import { filterWhen, type ListDefinition } from '../../http/list';
 
 export const presentLocation = (l: Location): LocationView => ({ id: l.id, code: l.code, name: l.name, kind: l.kind, active: l.active });
@@ -77,7 +77,7 @@ export const moveList: ListDefinition<MoveView, MoveListQuery> = {
       { header: 'moved_at', value: (r) => r.movedAt },
       { header: 'serial', value: (r) => r.serial },
       { header: 'part_number', value: (r) => r.partNumber },
-      { header: 'lot', value: (r) => `L-${r.lotId}` },
+      { header: 'lot', value: (r) => lotName(r.lotId) },
       { header: 'from', value: (r) => r.from },
       { header: 'to', value: (r) => r.to },
       { header: 'reason', value: (r) => r.reason },
