@@ -15,18 +15,22 @@ afterAll(async () => rig?.close());
 
 const shots = mkdtempSync(join(tmpdir(), 'phaselot-signature-'));
 
+/** Measures the given pieces of a lot on the bench (through the API): those in `failing` out of tolerance. */
+async function measure(lotId: number, serials: string[], failing: string[] = []) {
+  const file = stokesBenchFile(
+    serials.map((serial) => ({ serial, wavelengthNm: 632.8, retardanceWaves: failing.includes(serial) ? 0.2555 : 0.2501, fastAxisDeg: 0.05 })),
+    { instrument: 'BENCH-2', date: new Date().toISOString().slice(0, 10), noise: 0.0004, seed: serials.length },
+  );
+  await (await as('inspector')).post(`/api/inspection/lots/${lotId}/measurements`).attach('files', Buffer.from(file), { filename: 'bench.csv', contentType: 'text/csv' }).expect(201);
+}
+
 /** A lot whose measured sample proposes a rejection: its first two sample pieces are out of tolerance. */
 async function lotProposingRejection() {
   const lot = await receivedLot({ quantity: 20, level: 'II', aql: 1 });
   const inspector = await as('inspector');
   const view = await inspector.get(`/api/inspection/lots/${lot.lotId}`).expect(200);
   const sample: string[] = view.body.pieces.filter((p: { inSample: boolean }) => p.inSample).map((p: { serial: string }) => p.serial);
-  const failing = sample.slice(0, 2);
-  const file = stokesBenchFile(
-    sample.map((serial) => ({ serial, wavelengthNm: 632.8, retardanceWaves: failing.includes(serial) ? 0.2555 : 0.2501, fastAxisDeg: 0.05 })),
-    { instrument: 'BENCH-2', date: new Date().toISOString().slice(0, 10), noise: 0.0004, seed: sample.length },
-  );
-  await inspector.post(`/api/inspection/lots/${lot.lotId}/measurements`).attach('files', Buffer.from(file), { filename: 'bench.csv', contentType: 'text/csv' }).expect(201);
+  await measure(lot.lotId, sample, sample.slice(0, 2));
   const measured = await inspector.get(`/api/inspection/lots/${lot.lotId}`).expect(200);
   expect(measured.body.verdict.proposal).toBe('reject');
   return lot;
@@ -140,6 +144,45 @@ describe('signing a lot disposition in the browser', () => {
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Lots' }).click();
     await page.getByRole('heading', { name: 'Lots' }).waitFor();
     await context.close();
+  });
+
+  it('shows a 100 % sort under way, every piece to measure, and the sorted lot when the last piece is measured', async () => {
+    const lot = await lotProposingRejection();
+    const quality = await as('quality');
+    await quality
+      .post(`/api/inspection/lots/${lot.lotId}/dispositions`)
+      .send({ decision: 'sort', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: null, justification: 'Sort at our bench; supplier informed' })
+      .expect(201);
+    const view = (await quality.get(`/api/inspection/lots/${lot.lotId}`).expect(200)).body;
+    const unmeasured: string[] = view.pieces.filter((p: { results: unknown[] }) => p.results.length === 0).map((p: { serial: string }) => p.serial);
+    expect(view.sort).toEqual({ remaining: unmeasured.length });
+    expect(unmeasured.length).toBeGreaterThan(0);
+
+    const page = await signedInPage(rig, 'inspector');
+    await page.goto(`${rig.baseUrl}/inspection/lots/${lot.lotId}`);
+    const decision = page.getByRole('region', { name: 'Signed decision' });
+    await decision.getByText('100 % sort under way').waitFor();
+    expect(await decision.textContent()).toContain(`${unmeasured.length} of 20 pieces still need a verdict`);
+    expect(await decision.textContent()).toContain('Sort 100 %');
+    expect(await page.locator('[data-state="sorting"]').textContent()).toBe('Sorting 100 %');
+    // Every piece is up for measurement, not only the sample, and the bench upload is open.
+    const results = page.getByRole('table', { name: 'Piece results' });
+    expect(await results.getByText('not measured').count()).toBe(unmeasured.length);
+    await page.getByLabel('Bench files (CSV)').waitFor();
+    await page.screenshot({ path: join(shots, 'sorting-desktop.png'), fullPage: true });
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Inspection' }).click();
+    const queued = page.getByRole('row').filter({ hasText: `L-${lot.lotId}` });
+    expect(await queued.textContent()).toContain(`${20 - unmeasured.length}/20`);
+
+    await measure(lot.lotId, unmeasured);
+    await page.goto(`${rig.baseUrl}/inspection/lots/${lot.lotId}`);
+    await page.locator('[data-state="sorted"]').waitFor();
+    expect(await decision.getByText('100 % sort under way').count()).toBe(0);
+    const documents = (await quality.get(`/api/inspection/lots/${lot.lotId}`).expect(200)).body.documents as { number: string; kind: string; revokedAt: string | null }[];
+    const certificate = documents.find((d) => d.kind === 'certificate' && !d.revokedAt);
+    expect(certificate).toBeDefined();
+    await decision.getByRole('link', { name: certificate!.number }).waitFor();
+    await page.context().close();
   });
 
   it('shows what became of the pieces of a rejected lot on the lot list, the lot page and the PO page', async () => {
