@@ -9,7 +9,7 @@ import { commitMeasurements } from '../../server/inspection/measurements';
 import { actorFromUser } from '../../server/audit/record';
 import { stokesBenchFile } from './benchFiles';
 
-type Plan = 'accept' | 'reject' | 'awaiting' | 'partial' | 'deviation';
+type Plan = 'accept' | 'reject' | 'awaiting' | 'partial' | 'deviation' | 'sort';
 
 function benchFileFor(lot: LotForInspection, serials: string[], failing: Set<string>, seed: number) {
   const whole = lot.spec.construction === 'multi-order' ? (lot.spec.multiOrder ?? 0) : 0;
@@ -31,29 +31,37 @@ export async function seedInspectionDemo(password: string) {
   const quality = await User.findOne({ where: { email: 'quality@phaselot.test' } });
   if (!inspector || !quality) return [];
   const lots = await lotsAwaitingInspection();
-  const plans: Plan[] = ['accept', 'reject', 'awaiting', 'partial', 'deviation'];
+  const plans: Plan[] = ['accept', 'reject', 'awaiting', 'partial', 'deviation', 'sort'];
   const done: { lotId: number; plan: Plan }[] = [];
   for (const [index, plan] of plans.entries()) {
     const lot = lots[index];
     if (!lot) break;
     const sample = (await evaluateLot(lot)).samplePieces.map((p) => p.serial);
     const measured = plan === 'partial' ? sample.slice(0, Math.ceil(sample.length / 2)) : sample;
-    const failing = new Set(plan === 'reject' ? measured.slice(0, 4) : plan === 'deviation' ? measured.slice(0, 1) : []);
-    await commitMeasurements({ ...actorFromUser(inspector), id: inspector.id }, lot.id, [{ originalname: `bench-L${lot.id}.csv`, buffer: benchFileFor(lot, measured, failing, lot.id) }]);
-    if (plan === 'accept' || plan === 'reject' || plan === 'deviation') {
+    const failing = new Set(plan === 'reject' || plan === 'sort' ? measured.slice(0, 4) : plan === 'deviation' ? measured.slice(0, 1) : []);
+    const bench = { ...actorFromUser(inspector), id: inspector.id };
+    await commitMeasurements(bench, lot.id, [{ originalname: `bench-L${lot.id}.csv`, buffer: benchFileFor(lot, measured, failing, lot.id) }]);
+    if (plan === 'accept' || plan === 'reject' || plan === 'deviation' || plan === 'sort') {
       const verdict = (await evaluateLot(await lotForInspection(lot.id))).verdict;
-      const decision = verdict.proposal === 'accept' ? 'accept' : plan === 'deviation' ? 'use-as-is' : 'reject';
+      const decision = verdict.proposal === 'accept' ? 'accept' : plan === 'deviation' ? 'use-as-is' : plan === 'sort' ? 'sort' : 'reject';
       await signDisposition(quality, lot.id, {
         decision,
         password,
         meaningAcknowledged: true,
         expectedDispositionId: null,
         ...(decision === 'reject' && { justification: 'Retardance out of tolerance on several sample pieces.' }),
+        ...(decision === 'sort' && { justification: 'The build needs these plates now: sort at our bench, return the nonconforming ones. Agreed with the supplier.' }),
         ...(decision === 'use-as-is' && {
           deviationNumber: 'DEV-2026-014',
           justification: 'One plate 0.005 λ long; the alignment fixture it goes into tolerates ±0.01 λ. Agreed with engineering.',
         }),
       });
+      // The 100 % sort: the rest of the lot measured on the bench, a few plates out of tolerance.
+      if (decision === 'sort') {
+        const rest = lot.pieces.map((p) => p.serial).filter((serial) => !sample.includes(serial));
+        const outOfTolerance = new Set(rest.filter((_, i) => i % 23 === 7));
+        await commitMeasurements(bench, lot.id, [{ originalname: `sort-L${lot.id}.csv`, buffer: benchFileFor(lot, rest, outOfTolerance, lot.id + 1) }]);
+      }
     }
     done.push({ lotId: lot.id, plan });
   }
