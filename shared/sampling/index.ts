@@ -1,6 +1,6 @@
 /**
- * Sampling for incoming inspection: ISO 2859-1:1999 single sampling plans by attributes (code
- * letters, normal/tightened/reduced tables with their arrows resolved, 100 % when n ≥ N), the
+ * Sampling for incoming inspection: single sampling plans by attributes (ISO 2859-1 code letters,
+ * normal and tightened tables, ANSI/ASQ Z1.4 reduced table, arrows resolved, 100 % when n ≥ N), the
  * switching rules between severities per supplier and part, the operating characteristic of a
  * plan, and a reproducible random sample drawn from a stored seed. Pure: no I/O, no database.
  */

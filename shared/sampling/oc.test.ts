@@ -11,7 +11,8 @@ const { jStat } = createRequire(import.meta.url)('jstat') as {
   };
 };
 
-// Plans of ISO 2859-1:1999 Table 2-A (from memory), and p across their working range.
+// Plans (n, Ac) of Table 2-A, normal inspection (as checked cell by cell in tables.test.ts), and p
+// across their working range.
 const plans: [number, number][] = [
   [2, 0],
   [13, 0],
