@@ -62,8 +62,8 @@ function queueClient() {
   return boss;
 }
 
-/** Runs pg-boss's SQL through the application's connections, in `transaction` when one is given. */
-const onDatabase = (transaction?: Transaction): PgBoss.Db => ({
+/** Runs pg-boss's SQL in the caller's transaction. */
+const onTransaction = (transaction: Transaction): PgBoss.Db => ({
   async executeSql(text, values) {
     // pg takes undefined for NULL; Sequelize's bind refuses it.
     const bind = values.map((value) => (value === undefined ? null : value));
@@ -73,7 +73,7 @@ const onDatabase = (transaction?: Transaction): PgBoss.Db => ({
 
 /** Queues a job in `transaction`: it exists exactly when the transaction commits. Answers its id. */
 export async function enqueue(queue: QueueName, data: object, transaction: Transaction, options: PgBoss.SendOptions = {}) {
-  const id = await queueClient().send(queue, data, { ...options, db: onDatabase(transaction) });
+  const id = await queueClient().send(queue, data, { ...options, db: onTransaction(transaction) });
   if (!id) throw new Error(`The job queue refused a job for ${queue}`);
   return id;
 }
@@ -111,9 +111,4 @@ export async function stopJobs(timeoutMs = 10_000) {
   const stopping = boss;
   boss = undefined;
   await stopping?.stop({ graceful: true, timeout: timeoutMs });
-}
-
-/** How the queue saw a job: its state and how many retries it took (for operators and tests). */
-export async function jobRecord(queue: QueueName, id: string) {
-  return queueClient().getJobById(queue, id, { includeArchive: true, db: onDatabase() });
 }
