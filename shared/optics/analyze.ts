@@ -2,11 +2,12 @@
 import { collectStream, collectText } from './csv.js';
 import { evaluate } from './evaluate.js';
 import { ReadingCollector } from './readings.js';
+import { decodeBenchFile, normalizeText } from './text.js';
 import { parsePieceSpec, type PieceSpec, type PieceSpecInput } from './spec.js';
 import { DEFAULT_MAX_BYTES, DEFAULT_MAX_ROWS, type AnalysisResult, type AnalyzeOptions } from './types.js';
 
 function fatalResult(fatal: string): AnalysisResult {
-  return { method: null, metadata: {}, pieces: [], serials: [], warnings: [], errors: [], fatal };
+  return { method: null, metadata: {}, columns: [], rows: [], pieces: [], serials: [], warnings: [], errors: [], fatal };
 }
 
 function start(specInput: PieceSpecInput, options: AnalyzeOptions): { spec: PieceSpec; collector: ReadingCollector } | string {
@@ -15,44 +16,40 @@ function start(specInput: PieceSpecInput, options: AnalyzeOptions): { spec: Piec
   const { spec } = parsed;
   return {
     spec,
-    collector: new ReadingCollector({ s3Sign: spec.s3Sign, angleSign: spec.angleSign }, options.maxRows ?? DEFAULT_MAX_ROWS),
+    collector: new ReadingCollector({ s3Sign: spec.s3Sign, angleSign: spec.angleSign }, options.maxRows ?? DEFAULT_MAX_ROWS, options.keepRows ?? false),
   };
 }
 
 function finish(collector: ReadingCollector, spec: PieceSpec): AnalysisResult {
   const collected = collector.result();
-  const { method, metadata, warnings, errors, fatal } = collected;
+  const { method, metadata, columns, rows, warnings, errors, fatal } = collected;
   if (fatal !== undefined || method === null) {
-    return { method, metadata, pieces: [], serials: [], warnings, errors, fatal: fatal ?? 'no recognisable header' };
+    return { method, metadata, columns, rows: [], pieces: [], serials: [], warnings, errors, fatal: fatal ?? 'no recognisable header' };
   }
   const { pieces, serials } = evaluate(method, collected.groups, spec, errors);
-  return { method, metadata, pieces, serials, warnings, errors };
+  return { method, metadata, columns, rows, pieces, serials, warnings, errors };
 }
 
 export function analyzeText(csvText: string, spec: PieceSpecInput, options: AnalyzeOptions = {}): AnalysisResult {
-  const begun = start(spec, options);
-  if (typeof begun === 'string') return fatalResult(begun);
   const maxBytes = options.maxBytes ?? DEFAULT_MAX_BYTES;
   if (csvText.length > maxBytes || Buffer.byteLength(csvText) > maxBytes) {
     return fatalResult(`the file is larger than ${maxBytes} bytes`);
   }
   if (csvText.includes('\0')) return fatalResult('the file is not text (it contains NUL bytes): expected a CSV file');
-  const text = csvText.charCodeAt(0) === 0xfeff ? csvText.slice(1) : csvText;
-  collectText(text, begun.collector, options.maxRows ?? DEFAULT_MAX_ROWS);
-  return finish(begun.collector, begun.spec);
+  return analyzeNormalized(normalizeText(csvText), spec, options);
 }
 
 export function analyzeBuffer(buffer: Uint8Array, spec: PieceSpecInput, options: AnalyzeOptions = {}): AnalysisResult {
-  const maxBytes = options.maxBytes ?? DEFAULT_MAX_BYTES;
-  if (buffer.byteLength > maxBytes) return fatalResult(`the file is larger than ${maxBytes} bytes`);
-  if (buffer.includes(0)) return fatalResult('the file is not text (it contains NUL bytes): expected a CSV file');
-  let text: string;
-  try {
-    text = new TextDecoder('utf-8', { fatal: true }).decode(buffer);
-  } catch {
-    return fatalResult('the file is not UTF-8 text');
-  }
-  return analyzeText(text, spec, options);
+  const decoded = decodeBenchFile(buffer, options.maxBytes ?? DEFAULT_MAX_BYTES);
+  return 'fatal' in decoded ? fatalResult(decoded.fatal) : analyzeNormalized(decoded.text, spec, options);
+}
+
+/** Text already through normalizeText (or decodeBenchFile): LF line ends, no byte-order mark. */
+function analyzeNormalized(text: string, spec: PieceSpecInput, options: AnalyzeOptions): AnalysisResult {
+  const begun = start(spec, options);
+  if (typeof begun === 'string') return fatalResult(begun);
+  collectText(text, begun.collector, options.maxRows ?? DEFAULT_MAX_ROWS);
+  return finish(begun.collector, begun.spec);
 }
 
 export async function analyzeStream(

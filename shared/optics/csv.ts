@@ -1,11 +1,13 @@
 /**
  * CSV reading with csv-parse, feeding a ReadingCollector record by record with source line numbers.
- * `#` lines are comments to csv-parse; they are read here on the side for the metadata.
+ * `#` lines are comments to csv-parse; they are read here on the side for the metadata. Both paths
+ * read normalised text (text.ts: no byte-order mark, LF line ends), so they see the same lines.
  */
 import { once } from 'node:events';
 import { CsvError, Parser, type Options } from 'csv-parse';
 import { parse as parseSync } from 'csv-parse/sync';
 import type { ReadingCollector } from './readings.js';
+import { lineEndNormalizer } from './text.js';
 
 /** The csv-parse options of the engine (the benchmark times csv-parse alone with these too). */
 export const CSV_OPTIONS: Options = {
@@ -19,8 +21,6 @@ export const CSV_OPTIONS: Options = {
 
 const skipMessage = (error: CsvError) => `the CSV could not be read here: ${error.message}`;
 
-const stripCarriageReturn = (line: string) => (line.endsWith('\r') ? line.slice(0, -1) : line);
-
 /** Text is parsed in slices of about this many characters, cut at line ends, so records die young. */
 const SLICE_CHARS = 1 << 20;
 
@@ -33,7 +33,7 @@ interface Slice {
 }
 
 /**
- * Reads a whole text. Its `#` lines go to the collector first; then csv-parse reads it slice by
+ * Reads a whole normalised text (normalizeText). Its `#` lines go to the collector first; then csv-parse reads it slice by
  * slice. Line numbers come from the text's own lines when every record is one line (every line's
  * quotes balance and the record count agrees); otherwise csv-parse is asked for them, which costs
  * it about twice the time.
@@ -50,8 +50,8 @@ export function collectText(text: string, collector: ReadingCollector, maxRows: 
     line++;
     const first = text.charCodeAt(start);
     if (first === 35 /* # */) {
-      collector.comment(line, stripCarriageReturn(text.slice(start, end)));
-    } else if (end > start && !(end === start + 1 && first === 13 /* \r */)) {
+      collector.comment(line, text.slice(start, end));
+    } else if (end > start) {
       slices[slices.length - 1].recordLines.push(line);
       recordCount++;
       if (checkQuotes && quotesBalance) quotesBalance = text.slice(start, end).split('"').length % 2 === 1;
@@ -96,7 +96,10 @@ function collectSlice(text: string, slice: Slice, collector: ReadingCollector, l
   }
 }
 
-/** Reads chunks as they come; stops at maxBytes. Comments are tapped before the parser sees each chunk. */
+/**
+ * Reads chunks as they come; stops at maxBytes. Each chunk is decoded and normalised, its comments
+ * tapped, and then handed to the parser, so the parser and the tap see the same lines.
+ */
 export async function collectStream(
   source: AsyncIterable<Uint8Array | string>,
   collector: ReadingCollector,
@@ -104,7 +107,6 @@ export async function collectStream(
 ): Promise<void> {
   const parser = new Parser({
     ...CSV_OPTIONS,
-    bom: true,
     info: true,
     on_skip: (error) =>
       void collector.recordError(Number((error as CsvError).lines) || 0, skipMessage(error as CsvError)),
@@ -115,6 +117,8 @@ export async function collectStream(
     }
   })();
   const decoder = new TextDecoder('utf-8', { fatal: true });
+  const encoder = new TextEncoder();
+  const normalize = lineEndNormalizer();
   let pending = '';
   let line = 0;
   const tap = (text: string, final: boolean) => {
@@ -122,13 +126,17 @@ export async function collectStream(
     pending = final ? '' : parts.pop()!;
     for (const part of parts) {
       line++;
-      if (part.startsWith('#')) collector.comment(line, stripCarriageReturn(part));
+      if (part.startsWith('#')) collector.comment(line, part);
     }
+  };
+  const feed = async (text: string, final: boolean) => {
+    tap(text, final);
+    if (text !== '' && !parser.write(text)) await once(parser, 'drain');
   };
   let bytes = 0;
   try {
     for await (const chunk of source) {
-      const buffer = typeof chunk === 'string' ? Buffer.from(chunk) : chunk;
+      const buffer = typeof chunk === 'string' ? encoder.encode(chunk) : chunk;
       bytes += buffer.byteLength;
       if (bytes > maxBytes) {
         collector.fail(`the file is larger than ${maxBytes} bytes`);
@@ -138,10 +146,9 @@ export async function collectStream(
         collector.fail('the file is not text (it contains NUL bytes): expected a CSV file');
         break;
       }
-      tap(decoder.decode(buffer, { stream: true }), false);
-      if (!parser.write(buffer)) await once(parser, 'drain');
+      await feed(normalize(decoder.decode(buffer, { stream: true }), false), false);
     }
-    if (!collector.failed) tap(decoder.decode(), true);
+    if (!collector.failed) await feed(normalize(decoder.decode(), true), true);
   } catch (error) {
     collector.fail(error instanceof TypeError ? 'the file is not UTF-8 text' : `the file could not be read: ${String(error)}`);
   }

@@ -12,17 +12,26 @@
  *     The text and byte forms parse in slices and take line numbers from the text itself; the
  *     stream form asks csv-parse for them, about twice its parse time. The results are the same.
  *
- *   AnalyzeOptions = { maxBytes?: number (default 32 MiB), maxRows?: number (default 200,000) }
+ *   AnalyzeOptions = { maxBytes?: number (default 32 MiB), maxRows?: number (default 200,000),
+ *                      keepRows?: boolean (default false: rows stay empty) }
+ *
+ *     Every form reads the text as normalizeText leaves it: no byte-order mark, CRLF and CR line
+ *     ends as LF, so line numbers and `#` lines are the same for all of them.
  *
  *   AnalysisResult = {
  *     method: 'stokes' | 'scan' | 'direct' | null,
  *     metadata: { instrument?, operator?, method?, ...every `# key: value` line },
+ *     columns: string[],          the header's names, trimmed and lower-case
+ *     rows: ParsedRow[],          with keepRows, every data row that became a reading: { line, serial,
+ *                                 wavelengthNm, cells }, in file order (what the server stores)
  *     pieces: PieceResult[],      one per serial and wavelength, in file order
  *     serials: SerialResult[],    one per serial: its verdict over all its wavelengths
  *     warnings: { line, message }[],
- *     errors: { line, message }[],   every bad row with its line; never thrown
+ *     errors: { line, message }[],   every bad row with its line (a repeated row names the line
+ *                                 it repeats); never thrown
  *     fatal?: string,             the file could not be read at all (not text, not CSV, no header,
- *                                 too large, too many rows, invalid spec); then pieces is empty
+ *                                 no data rows, contradicting instrument or date lines, too large,
+ *                                 too many rows, invalid spec); then pieces and rows are empty
  *   }
  *
  *   PieceResult: serial, wavelengthNm, retardanceWaves, retardanceNm, retardanceErrorWaves,
@@ -32,6 +41,9 @@
  *     diattenuation, depolarization, depolarizationIndex, circularRetardanceDeg, mueller,
  *     fitResidual; several wavelengths of a quartz or MgF2 plate: estimatedOrder, thicknessMm,
  *     totalRetardanceWaves, orderAmbiguous. See types.ts.
+ *
+ *   readMetadata(text): the `# key: value` lines alone, with their line numbers, for choosing the
+ *     instrument before the analysis; decodeBenchFile(bytes, maxBytes): bytes to normalised text.
  *
  *   pieceSpecSchema (zod) / parsePieceSpec(json) for SPEC.json; PieceSpec is the parsed form.
  *
@@ -51,3 +63,4 @@ export { MATERIALS, estimateOrder, type Material, type OrderEstimate } from './d
 export { MARK_ON_SLOW_AXIS, accepts, describeAlongMark, judge, measuredFromAlongMark } from './judge.js';
 export { DESIGN_WAVELENGTH_WINDOW_NM } from './evaluate.js';
 export { readMetadata } from './readings.js';
+export { decodeBenchFile, normalizeText } from './text.js';

@@ -193,12 +193,12 @@ describe('one reading of the text, whatever its line ends', () => {
   };
 
   it('gives the same metadata, rows and results as LF', () => {
-    const reference = analyzeText(lf, QWP);
+    const reference = analyzeText(lf, QWP, { keepRows: true });
     expect(reference.metadata).toEqual({ instrument: 'BENCH-2', date: '2026-11-30' });
     expect(reference.rows.map((r) => r.line)).toEqual(Array.from({ length: 12 }, (_, i) => i + 4));
     for (const [name, text] of Object.entries(variants)) {
-      expect(analyzeText(text, QWP), name).toEqual(reference);
-      expect(analyzeBuffer(Buffer.from(text), QWP), name).toEqual(reference);
+      expect(analyzeText(text, QWP, { keepRows: true }), name).toEqual(reference);
+      expect(analyzeBuffer(Buffer.from(text), QWP, { keepRows: true }), name).toEqual(reference);
     }
   });
 
@@ -209,7 +209,8 @@ describe('one reading of the text, whatever its line ends', () => {
   });
 
   it('returns the rows it read, with their lines, serials, wavelengths and cells', () => {
-    const result = analyzeText(lines('# instrument: BENCH-2', `${STOKES_HEADER},temperature_c`, '', good().map((r) => `${r},21.5`)), QWP);
+    const result = analyzeText(lines('# instrument: BENCH-2', `${STOKES_HEADER},temperature_c`, '', good().map((r) => `${r},21.5`)), QWP, { keepRows: true });
+    expect(analyzeText(lines(STOKES_HEADER, good()), QWP).rows).toEqual([]);
     expect(result.columns).toEqual([...STOKES_HEADER.split(','), 'temperature_c']);
     expect(result.rows).toHaveLength(6);
     expect(result.rows[0]).toEqual({ line: 4, serial: 'QW-0001', wavelengthNm: 632.8, cells: `${good()[0]},21.5`.split(',') });
@@ -220,7 +221,7 @@ describe('one reading of the text, whatever its line ends', () => {
 describe('files that must be refused whole', () => {
   it('refuses a file with a header and no data rows', () => {
     for (const text of [lines('# instrument: BENCH-2', STOKES_HEADER), lines(STOKES_HEADER, '', ''), `${STOKES_HEADER}\r\n\r\n`]) {
-      const result = analyzeText(text, QWP);
+      const result = analyzeText(text, QWP, { keepRows: true });
       expect(result.fatal).toMatch(/^line [12]: the header is not followed by any data rows$/);
       expect(result.rows).toEqual([]);
     }

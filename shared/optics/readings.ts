@@ -5,7 +5,8 @@
  */
 import { ANALYZERS, type Analyzer, type ScanReading } from './scan.js';
 import { degreeOfPolarization, inputStateReader, toOurFrame, type InstrumentProfile, type Stokes } from './stokes.js';
-import { METHODS, type FileMetadata, type LineMessage, type Method } from './types.js';
+import { normalizeText } from './text.js';
+import { METHODS, type FileMetadata, type LineMessage, type Method, type ParsedRow } from './types.js';
 import { DEG, parseRetardanceUnit, toWaves } from './units.js';
 
 export interface StokesReading {
@@ -35,11 +36,15 @@ export interface Group<M extends Method = Method> {
   /** Lines of this piece's rows that had errors (those rows are not in `readings`). */
   errorLines: number[];
   readings: ReadingsByMethod[M][];
+  /** What each reading measured (repeatKey) and on which line, to catch a row read twice. */
+  measuredOn: Map<string, number>;
 }
 
 export interface Collected {
   method: Method | null;
   metadata: FileMetadata;
+  columns: string[];
+  rows: ParsedRow[];
   groups: Group[];
   warnings: LineMessage[];
   errors: LineMessage[];
@@ -143,6 +148,42 @@ const ROW_PARSERS: { [M in Method]: RowParser<M> } = {
   },
 };
 
+/**
+ * What a reading measured, for telling a second reading of the same thing: the input state by its
+ * polarisation (so H, h, 0 and 180 are one state), the analyzer and stage angle, and for direct
+ * readings (whose repeats are averaged) the reading itself, so only a copied row counts.
+ */
+interface RepeatCheck<M extends Method> {
+  key(reading: ReadingsByMethod[M]): string;
+  /** What was measured twice, in the file's own words (only built for a repeat). */
+  what(reading: ReadingsByMethod[M], fields: readonly string[], columns: Columns): string;
+}
+
+const inputKeys = new WeakMap<Stokes, string>();
+
+const REPEATS: { [M in Method]: RepeatCheck<M> } = {
+  stokes: {
+    key: ({ input }) => {
+      // The reader hands out one array per distinct cell, so the key is built once per input state.
+      let key = inputKeys.get(input);
+      if (key === undefined) {
+        key = `${Math.round(input[1] * 1e9)},${Math.round(input[2] * 1e9)},${Math.round(input[3] * 1e9)}`;
+        inputKeys.set(input, key);
+      }
+      return key;
+    },
+    what: (_reading, fields, columns) => `input ${fields[columns.input].trim()}`,
+  },
+  scan: {
+    key: ({ analyzer, angle }) => (analyzer === 'open' ? analyzer : `${analyzer}@${angle}`),
+    what: ({ analyzer }, fields, columns) => (analyzer === 'open' ? 'analyzer open' : `analyzer ${analyzer} at ${fields[columns.angle_deg].trim()}°`),
+  },
+  direct: { key: ({ waves, fastAxisDeg }) => `${waves}@${fastAxisDeg}`, what: () => 'the same reading' },
+};
+
+/** Metadata that decides how a file is judged (on which instrument, on which day): stated once. */
+const GOVERNING_KEYS = new Set(['instrument', 'date']);
+
 /** `# key: value`, the key one word (instrument, operator, method, date...); other `#` lines are plain comments. */
 const METADATA_LINE = /^#\s*([A-Za-z][\w-]*)\s*:\s*(.*?)\s*$/;
 
@@ -153,26 +194,36 @@ export function metadataEntry(line: string): [key: string, value: string] | null
 }
 
 /** Only the `# key: value` lines of a file, without reading its rows: enough to know which
- * instrument (and so which profile) the file has to be analysed with. */
-export function readMetadata(text: string): FileMetadata {
+ * instrument (and so which profile) the file has to be analysed with. Lines are counted as the
+ * engine counts them, whatever the file's line ends; `lines` says where each key was (last) given. */
+export function readMetadata(text: string): { metadata: FileMetadata; lines: Record<string, number> } {
   const metadata: FileMetadata = {};
-  for (const line of text.split(/\r?\n/)) {
-    const entry = line.startsWith('#') ? metadataEntry(line) : null;
-    if (entry) metadata[entry[0]] = entry[1];
-  }
-  return metadata;
+  const lines: Record<string, number> = {};
+  normalizeText(text)
+    .split('\n')
+    .forEach((line, index) => {
+      const entry = line.startsWith('#') ? metadataEntry(line) : null;
+      if (!entry) return;
+      metadata[entry[0]] = entry[1];
+      lines[entry[0]] = index + 1;
+    });
+  return { metadata, lines };
 }
 
 export class ReadingCollector {
   private method: Method | null = null;
   private methodLine: { line: number; method: Method } | null = null;
   private columns: Columns | null = null;
+  private columnNames: string[] = [];
+  private headerLine = 0;
   private headerWidth = 0;
   /** Reused for every row: the hot path of files with 100,000 rows. */
   private readonly context: RowContext;
   private rows = 0;
   private fatal: string | undefined;
   private readonly metadata: FileMetadata = {};
+  private readonly metadataLines = new Map<string, number>();
+  private readonly parsedRows: ParsedRow[] = [];
   /** By serial, then by wavelength; `ordered` keeps the file's order. */
   private readonly groups = new Map<string, Map<number, Group>>();
   private readonly ordered: Group[] = [];
@@ -182,6 +233,7 @@ export class ReadingCollector {
   constructor(
     private readonly profile: InstrumentProfile,
     private readonly maxRows: number,
+    private readonly keepRows = false,
   ) {
     this.context = { profile, readInput: inputStateReader(profile), line: 0, wavelengthNm: NaN };
   }
@@ -202,7 +254,14 @@ export class ReadingCollector {
     const entry = metadataEntry(text);
     if (!entry) return;
     const [key, value] = entry;
+    const earlier = this.metadataLines.get(key);
+    if (GOVERNING_KEYS.has(key) && earlier !== undefined && this.metadata[key] !== value) {
+      const [first, second] = earlier < line ? [earlier, line] : [line, earlier];
+      const [firstValue, secondValue] = earlier < line ? [this.metadata[key], value] : [value, this.metadata[key]];
+      this.fail(`line ${second}: "# ${key}: ${secondValue}" contradicts "# ${key}: ${firstValue}" on line ${first}`);
+    }
     this.metadata[key] = value;
+    this.metadataLines.set(key, line);
     if (key !== 'method') return;
     const method = value.toLowerCase() as Method;
     if (!METHODS.includes(method)) {
@@ -263,6 +322,8 @@ export class ReadingCollector {
     });
     this.method = method;
     this.columns = columns;
+    this.columnNames = names;
+    this.headerLine = line;
     this.headerWidth = fields.length;
   }
 
@@ -289,6 +350,12 @@ export class ReadingCollector {
     if (group && problems.length === 0 && group.readings.length > 0 && mountDeg !== group.mountDeg) {
       problems.push(`mount_deg ${mountDeg} differs from ${group.mountDeg} on line ${group.lines[0]} for the same piece`);
     }
+    const repeats = REPEATS[method] as RepeatCheck<Method>;
+    const key = group && problems.length === 0 ? repeats.key(reading) : '';
+    const measuredOn = group && problems.length === 0 ? group.measuredOn.get(key) : undefined;
+    if (measuredOn !== undefined) {
+      problems.push(`repeats line ${measuredOn}: ${serial} at ${wavelengthNm} nm with ${repeats.what(reading, fields, columns)} is already measured there`);
+    }
     if (problems.length > 0) {
       for (const message of problems) this.errors.push({ line, message });
       group?.errorLines.push(line);
@@ -296,7 +363,9 @@ export class ReadingCollector {
     }
     if (group!.readings.length === 0) group!.mountDeg = mountDeg;
     group!.lines.push(line);
+    group!.measuredOn.set(key, line);
     (group!.readings as ReadingsByMethod[Method][]).push(reading);
+    if (this.keepRows) this.parsedRows.push({ line, serial, wavelengthNm, cells: fields });
   }
 
   private group(serial: string, wavelengthNm: number, mountDeg: number): Group {
@@ -307,7 +376,7 @@ export class ReadingCollector {
     }
     let group = bySerial.get(wavelengthNm);
     if (!group) {
-      group = { serial, wavelengthNm, mountDeg, lines: [], errorLines: [], readings: [] };
+      group = { serial, wavelengthNm, mountDeg, lines: [], errorLines: [], readings: [], measuredOn: new Map() };
       bySerial.set(wavelengthNm, group);
       this.ordered.push(group);
     }
@@ -316,9 +385,12 @@ export class ReadingCollector {
 
   result(): Collected {
     if (!this.fatal && !this.columns) this.fail('no recognisable header: the file has no rows');
+    if (!this.fatal && this.rows === 0) this.fail(`line ${this.headerLine}: the header is not followed by any data rows`);
     return {
       method: this.method,
       metadata: this.metadata,
+      columns: this.columnNames,
+      rows: this.parsedRows,
       groups: this.ordered,
       warnings: this.warnings,
       errors: this.errors,

@@ -39,25 +39,32 @@ export function toOurFrame(s: Stokes, profile: InstrumentProfile): Stokes {
   return [s[0], s[1], s[2] * profile.angleSign, s[3] * profile.s3Sign];
 }
 
+/** Bounds the reader's cache on a file whose every row names another angle. */
+const MAX_CACHED_CELLS = 4096;
+
 /**
  * A reader of input-state cells for one instrument: a code (H, V, D, A, R, L, any case) or a linear
  * polarisation angle in degrees, as a Stokes vector in our frame; null when the cell is neither.
- * Coded states are converted once, not per row.
+ * Coded states, and the first few thousand distinct angles, are converted once, not per row: the
+ * same cell gives the same array.
  */
 export function inputStateReader(profile: InstrumentProfile): (cell: string) => Stokes | null {
-  const coded = new Map<string, Stokes>();
+  const known = new Map<string, Stokes>();
   for (const code of INPUT_STATE_CODES) {
     const state = toOurFrame(CODED_STATES[code], profile);
-    coded.set(code, state);
-    coded.set(code.toLowerCase(), state);
+    known.set(code, state);
+    known.set(code.toLowerCase(), state);
   }
   return (cell) => {
-    const state = coded.get(cell) ?? coded.get(cell.trim());
+    const state = known.get(cell) ?? known.get(cell.trim());
     if (state) return state;
     const text = cell.trim();
     if (text === '') return null;
     const angle = Number(text);
-    return Number.isFinite(angle) ? linearStokes(angle * profile.angleSign * DEG) : null;
+    if (!Number.isFinite(angle)) return null;
+    const linear = linearStokes(angle * profile.angleSign * DEG);
+    if (known.size < MAX_CACHED_CELLS) known.set(text, linear);
+    return linear;
   };
 }
 

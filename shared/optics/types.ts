@@ -78,9 +78,22 @@ export interface SerialResult {
   orderAmbiguous?: boolean;
 }
 
+/** One data row of the file that became a reading: where it is, whose it is, and its cells as read. */
+export interface ParsedRow {
+  line: number;
+  serial: string;
+  wavelengthNm: number;
+  /** The row's fields in header order, untrimmed (`columns` names them). */
+  cells: readonly string[];
+}
+
 export interface AnalysisResult {
   method: Method | null;
   metadata: FileMetadata;
+  /** The header's names, trimmed and lower-case, in file order (unknown ones too). */
+  columns: string[];
+  /** With `keepRows`: every data row that became a reading, in file order; empty when the file is refused whole. */
+  rows: ParsedRow[];
   pieces: PieceResult[];
   serials: SerialResult[];
   warnings: LineMessage[];
@@ -94,6 +107,8 @@ export interface AnalyzeOptions {
   maxBytes?: number;
   /** Most data rows accepted (default 200,000). */
   maxRows?: number;
+  /** Return the rows read (`rows`), as the server does to store them; holding them costs memory and time. */
+  keepRows?: boolean;
 }
 
 export const DEFAULT_MAX_BYTES = 32 * 1024 * 1024;
