@@ -117,10 +117,10 @@ export async function resetPassword(token: string, newPassword: string, request:
   return inTransaction(async (transaction) => {
     const link = await PasswordResetToken.findOne({ where: { tokenHash: tokenHash(token) }, transaction, lock: transaction.LOCK.UPDATE });
     const user = link && (await User.findByPk(link.userId, { transaction, lock: transaction.LOCK.UPDATE }));
-    if (!link || !user?.active) throw new AppError(400, 'reset_link_invalid', 'This reset link is not valid. Ask for a new one on the sign-in page.');
-    if (link.usedAt) throw new AppError(400, 'reset_link_used', 'This reset link has already been used, or a newer one was used. Ask for a new one if you need to.');
+    if (!link || !user?.active) throw new AppError(400, 'reset_link_invalid', 'This reset link is not valid.');
+    if (link.usedAt) throw new AppError(400, 'reset_link_used', 'This reset link has already been used, or a newer one was used instead.');
     if (link.expiresAt.getTime() <= Date.now()) {
-      throw new AppError(400, 'reset_link_expired', `This reset link has expired (links are valid for ${RESET_LINK_MINUTES} minutes). Ask for a new one on the sign-in page.`);
+      throw new AppError(400, 'reset_link_expired', `This reset link has expired: links are valid for ${RESET_LINK_MINUTES} minutes.`);
     }
     user.passwordHash = await hashPassword(newPassword);
     await user.save({ transaction });

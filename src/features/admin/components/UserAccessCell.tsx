@@ -13,10 +13,10 @@ import { useSendResetLink, useUnlockSigning, useUpdateUser } from '../api';
 const setPasswordSchema = userUpdateSchema.pick({ password: true }).required();
 type SetPasswordInput = { password: string };
 
-function SetPasswordForm({ user, onDone }: { user: UserView; onDone: () => void }) {
+function SetPasswordForm({ user, onDone }: { user: UserView; onDone: (saved: boolean) => void }) {
   const update = useUpdateUser();
   const form = useForm<SetPasswordInput>({ resolver: zodResolver(setPasswordSchema), defaultValues: { password: '' } });
-  const submit = form.handleSubmit((values) => update.mutate({ id: user.id, ...values }, { onSuccess: onDone, onError: (error) => showServerFieldErrors(error, form.setError) }));
+  const submit = form.handleSubmit((values) => update.mutate({ id: user.id, ...values }, { onSuccess: () => onDone(true), onError: (error) => showServerFieldErrors(error, form.setError) }));
   const error = form.formState.errors.password?.message ?? (update.error && !form.formState.errors.password ? update.error.message : undefined);
   return (
     <form onSubmit={submit} noValidate aria-label={`New password for ${user.name}`} className="w-64 space-y-1.5">
@@ -25,7 +25,7 @@ function SetPasswordForm({ user, onDone }: { user: UserView; onDone: () => void 
       </Field>
       <div className="flex gap-1">
         <Button type="submit" className="!py-0.5" disabled={update.isPending || form.formState.isSubmitting}>Set password</Button>
-        <Button look="quiet" className="!py-0.5" onClick={onDone}>Cancel</Button>
+        <Button look="quiet" className="!py-0.5" onClick={() => onDone(false)}>Cancel</Button>
       </div>
     </form>
   );
@@ -34,9 +34,20 @@ function SetPasswordForm({ user, onDone }: { user: UserView; onDone: () => void 
 /** Password and signing of one account: mail a reset link, set a password, lift a signing lock. */
 export function UserAccessCell({ user }: { user: UserView }) {
   const [setting, setSetting] = useState(false);
+  const [passwordSet, setPasswordSet] = useState(false);
   const sendLink = useSendResetLink();
   const unlock = useUnlockSigning();
-  if (setting) return <SetPasswordForm user={user} onDone={() => setSetting(false)} />;
+  if (setting) {
+    return (
+      <SetPasswordForm
+        user={user}
+        onDone={(saved) => {
+          setSetting(false);
+          setPasswordSet(saved);
+        }}
+      />
+    );
+  }
   return (
     <div className="space-y-1">
       {user.signingLockedUntil && (
@@ -58,6 +69,7 @@ export function UserAccessCell({ user }: { user: UserView }) {
         </Button>
       </div>
       {sendLink.data && <p className="text-xs text-ink-muted" role="status">{sendLink.data.message}</p>}
+      {passwordSet && <p className="text-xs text-ink-muted" role="status">Password set. The user's sessions have ended.</p>}
       {(sendLink.error ?? unlock.error) && <p className="text-xs text-state-fail">{(sendLink.error ?? unlock.error)!.message}</p>}
     </div>
   );

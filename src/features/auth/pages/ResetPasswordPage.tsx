@@ -7,6 +7,7 @@ import { Button } from '@/components/Button';
 import { Field } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { PasswordInput } from '@/components/PasswordInput';
+import { ApiError } from '@/lib/api';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useResetPassword } from '../api/password';
 import { AuthFrame } from '../components/AuthFrame';
@@ -17,13 +18,15 @@ export function ResetPasswordPage() {
   const reset = useResetPassword();
   const form = useForm<PasswordResetInput>({ resolver: zodResolver(passwordResetSchema), defaultValues: { token, newPassword: '' } });
   const submit = form.handleSubmit((values) => reset.mutate(values, { onError: (error) => showServerFieldErrors(error, form.setError) }));
-  const problem = !token
+  const busy = reset.isPending || form.formState.isSubmitting;
+  // A link that cannot be used (missing, unknown, used, expired) leaves nothing to type.
+  const deadLink = !token
     ? 'This page opens from the link in the reset mail, and the link here is incomplete.'
-    : (form.formState.errors.token?.message ?? (reset.error && !form.formState.errors.newPassword ? reset.error.message : undefined));
+    : (form.formState.errors.token?.message ?? (reset.error instanceof ApiError && reset.error.code.startsWith('reset_link_') ? reset.error.message : undefined));
 
   return (
     <AuthFrame>
-      <form onSubmit={submit} noValidate className="space-y-4" aria-label="New password">
+      <form onSubmit={submit} noValidate className="space-y-4" aria-label="Choose a new password">
         <div>
           <h1>Choose a new password</h1>
           <p className="text-sm text-ink-muted">Choosing it signs your account out everywhere.</p>
@@ -32,18 +35,18 @@ export function ResetPasswordPage() {
           <Notice tone="info" title="Password changed">
             Sign in with your new password.
           </Notice>
+        ) : deadLink ? (
+          <Notice tone="error">
+            {deadLink} <Link to="/forgot-password">Ask for a new link</Link>
+          </Notice>
         ) : (
           <>
-            {problem && (
-              <Notice tone="error">
-                {problem} <Link to="/forgot-password">Ask for a new link</Link>
-              </Notice>
-            )}
+            {reset.error && !form.formState.errors.newPassword && <Notice tone="error">{reset.error.message}</Notice>}
             <Field label="New password" htmlFor="new-password" error={form.formState.errors.newPassword?.message} hint={PASSWORD_HINT}>
               <PasswordInput id="new-password" autoComplete="new-password" {...form.register('newPassword')} />
             </Field>
-            <Button type="submit" className="w-full justify-center" disabled={reset.isPending || form.formState.isSubmitting}>
-              {reset.isPending || form.formState.isSubmitting ? 'Checking…' : 'Set new password'}
+            <Button type="submit" className="w-full justify-center" disabled={busy}>
+              {busy ? 'Checking…' : 'Set new password'}
             </Button>
           </>
         )}
