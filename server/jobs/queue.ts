@@ -26,7 +26,8 @@ export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];
 /** A failure that trying again cannot mend (a stored file that is missing or altered): the job ends at once. */
 export class JobFailure extends Error {}
 
-export type JobRun = { id: string; retryCount: number; retryLimit: number };
+/** Which try this is: 0 for the first, then the queue's retry count. */
+export type JobRun = { retryCount: number };
 
 export type JobDefinition<T extends object = object> = {
   queue: QueueName;
@@ -84,9 +85,8 @@ export async function startJobs(definitions: JobDefinition<never>[]) {
   await client.start();
   for (const definition of definitions as JobDefinition[]) {
     await client.work<object>(definition.queue, { includeMetadata: true, batchSize: 1 }, async ([job]) => {
-      const run = { id: job.id, retryCount: job.retryCount, retryLimit: job.retryLimit };
       try {
-        await definition.run(job.data, run);
+        await definition.run(job.data, { retryCount: job.retryCount });
       } catch (error) {
         if (!(error instanceof JobFailure)) {
           logger.warn({ err: error, queue: definition.queue, job: job.id, retryCount: job.retryCount }, 'job failed; the queue retries it while tries remain');
