@@ -1,5 +1,8 @@
 // Pieces follow their verdict: where each decision sends a lot's pieces, what the stock ledger then
-// refuses, the 100 % sort, and the documents that list what they certify.
+// refuses, the 100 % sort, and the documents that list what they certify. That a failed piece is
+// segregated (material review) and never used without a signed deviation, and that a rejected lot
+// may be screened 100 % with only the conforming pieces kept, is common practice of incoming
+// inspection; ISO 2859-1 leaves the disposal of rejected lots to the responsible authority.
 import { QueryTypes } from 'sequelize';
 import { describe, expect, it } from 'vitest';
 import { sequelize } from '../../../db';
@@ -149,6 +152,19 @@ describe('pieces follow their verdict', () => {
     expect(refused.body.error.message).toBe(`Nonconforming pieces cannot be issued: ${secondHalf[0]} (failed inspection)`);
     await clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: secondHalf[1], workOrder: 'WO-SORT-1' }).expect(201);
     expect((await quantitiesOf(lot.lotId)).lot).toEqual({ accepted: 27, nonconforming: 3, returned: 3 });
+  });
+
+  it('sort of a lot whose every piece is measured already completes at the signature', async () => {
+    const lot = await receivedLot({ quantity: 8, level: 'II', aql: 1, hundredPercent: true });
+    const { sample } = await sampleOf(lot.lotId);
+    expect(sample).toHaveLength(8);
+    await uploadBench(lot.lotId, 'all.csv', benchFile(sample, [sample[2]]));
+    const signed = await signDecision(lot.lotId, 'sort', null);
+    expect(signed.body.documents.map((d: { kind: string }) => d.kind)).toEqual(['inspection-report', 'certificate', 'inspection-report']);
+    const where = await whereabouts(lot.lotId);
+    expect(serialsAt(where, 'return-to-vendor')).toEqual([sample[2]]);
+    expect(serialsAt(where, 'stock')).toHaveLength(7);
+    expect((await sampleOf(lot.lotId)).view.lot.state).toBe('sorted');
   });
 
   it('use as is: failed pieces go to stock only under the signed deviation, can be issued, and their history says so', async () => {
