@@ -1,6 +1,7 @@
 // The job queue's own schema (pg-boss 10) and Phaselot's queues with their retry policies, made
 // here by the role that runs migrations, so that at run time the application only reads and writes
-// rows in it. A later pg-boss upgrade that changes its schema comes as its own migration
+// rows in it (the migrator grants the application's role the rows of every schema the owner has, this
+// one included). A later pg-boss upgrade that changes its schema comes as its own migration
 // (PgBoss.getMigrationPlans).
 import PgBoss from 'pg-boss';
 import type { Migration } from '../migrator';
@@ -26,22 +27,6 @@ export const up: Migration = async ({ sequelize }) => {
   for (const [name, options] of QUEUES) {
     await sequelize.query(`SELECT ${SCHEMA}.create_queue(:name, CAST(:options AS json))`, { replacements: { name, options: JSON.stringify(options) } });
   }
-  // Whoever may write the application's tables (the app role) may use the queue: rows only.
-  await sequelize.query(`
-    DO $grant$
-    DECLARE grantee_role text;
-    BEGIN
-      FOR grantee_role IN
-        SELECT DISTINCT grantee FROM information_schema.role_table_grants
-        WHERE table_schema = 'public' AND privilege_type = 'INSERT' AND grantee NOT IN (current_user, 'PUBLIC')
-      LOOP
-        EXECUTE format('GRANT USAGE ON SCHEMA ${SCHEMA} TO %I', grantee_role);
-        EXECUTE format('GRANT SELECT, INSERT, UPDATE, DELETE ON ALL TABLES IN SCHEMA ${SCHEMA} TO %I', grantee_role);
-        EXECUTE format('GRANT EXECUTE ON ALL FUNCTIONS IN SCHEMA ${SCHEMA} TO %I', grantee_role);
-      END LOOP;
-    END
-    $grant$;
-  `);
 };
 
 export const down: Migration = async ({ sequelize }) => {
