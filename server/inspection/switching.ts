@@ -6,7 +6,7 @@
 import { Op, QueryTypes, type Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
 import { SwitchingEvent, type DispositionRecord, type User } from '../../db/models';
-import { replaySwitching, type LotResult, type SwitchingEntry, type SwitchingState } from '../../shared/sampling';
+import { replaySwitching, switchingPhaseOf, type LotResult, type SwitchingEntry, type SwitchingState } from '../../shared/sampling';
 import { OVERRIDE_MEANING, RESUME_MEANING, type ResumeInspectionInput, type SeverityOverrideInput } from '../../shared/schemas/switching';
 import { actorFromUser, recordAudit, type AuditActor } from '../audit/record';
 import { verifySignature } from '../auth/signature';
@@ -15,8 +15,6 @@ import { readSiteSettings } from '../routes/settings/operations';
 import type { LotEvaluation } from './evaluation';
 import type { LotForInspection } from './lotAccess';
 import { drawWaitingPlans, switchingStateOf } from './sampling';
-
-export const phaseOf = (state: SwitchingState) => (state.stopped ? 'stopped' : state.severity);
 
 const entityId = (supplierId: number, partId: number) => `${supplierId}/${partId}`;
 
@@ -61,7 +59,7 @@ async function feedSequence(
   const later = sequence.length - 1 - index;
   const explanation = replacing
     ? `the lot's result was replaced by a new decision (${resultText(replacing.result!)} → ${resultText(event.result!)}) and the sequence recomputed from its first lot: ${outcomes[index].explanation}` +
-      (later ? `; after ${later} later ${later === 1 ? 'entry' : 'entries'}, the state is ${phaseOf(state)}` : '')
+      (later ? `; after ${later} later ${later === 1 ? 'entry' : 'entries'}, the state is ${switchingPhaseOf(state)}` : '')
     : outcomes[index].explanation;
   const created = await SwitchingEvent.create(
     { supplierId, partId, position, before, after: state, explanation, lotId: null, result: null, reducedEnabled: null, dispositionId: null, severity: null, reason: null, reference: null, actorId: null, ...event },
@@ -109,7 +107,7 @@ export async function recordLotInSwitching(lot: LotForInspection, evaluation: Lo
     transaction,
     replacing ?? undefined,
   );
-  if (phaseOf(before) !== phaseOf(fed.state)) {
+  if (switchingPhaseOf(before) !== switchingPhaseOf(fed.state)) {
     await recordAudit(
       actor,
       { action: 'switching.change', entityType: 'switching', entityId: entityId(supplierId, partId), before, after: { state: fed.state, lotId: lot.id, explanation: fed.event.explanation } },
@@ -119,14 +117,16 @@ export async function recordLotInSwitching(lot: LotForInspection, evaluation: Lo
   return fed;
 }
 
-async function requirePair(supplierId: number, partId: number, transaction: Transaction) {
-  const [pair] = await sequelize.query<{ supplier: string | null; part: string | null }>(
-    'SELECT (SELECT name FROM suppliers WHERE id = :supplierId) AS supplier, (SELECT number FROM parts WHERE id = :partId) AS part',
+/** The supplier's name and the part's number and description; 404 when either does not exist. */
+export async function supplierAndPart(supplierId: number, partId: number, transaction?: Transaction) {
+  const [pair] = await sequelize.query<{ supplier: string | null; part: string | null; description: string | null }>(
+    `SELECT (SELECT name FROM suppliers WHERE id = :supplierId) AS supplier, (SELECT number FROM parts WHERE id = :partId) AS part,
+            (SELECT description FROM parts WHERE id = :partId) AS description`,
     { type: QueryTypes.SELECT, transaction, replacements: { supplierId, partId } },
   );
   if (!pair.supplier) throw notFound('Supplier');
   if (!pair.part) throw notFound('Part');
-  return { supplier: pair.supplier, part: pair.part };
+  return { supplier: pair.supplier, part: pair.part, description: pair.description ?? '' };
 }
 
 type Request = Pick<AuditActor, 'requestId' | 'address'>;
@@ -137,7 +137,7 @@ export async function resumeInspection(signer: User, supplierId: number, partId:
   const actor = { ...actorFromUser(signer), ...request };
   await verifySignature(signer, input.password, actor, undefined, { entityType: 'switching', entityId: entityId(supplierId, partId) });
   return inTransaction(async (transaction) => {
-    const names = await requirePair(supplierId, partId, transaction);
+    const names = await supplierAndPart(supplierId, partId, transaction);
     const before = await switchingStateOf(supplierId, partId, transaction, 'update');
     if (!before.stopped) throw conflict(`Acceptance inspection of ${names.part} from ${names.supplier} is not discontinued; it is on ${before.severity} inspection`);
     const fed = await feedSequence(supplierId, partId, before, { kind: 'resume', reason: input.correctiveAction, reference: input.reference, actorId: signer.id }, actor, transaction);
@@ -157,7 +157,7 @@ export async function overrideSeverity(signer: User, supplierId: number, partId:
   const actor = { ...actorFromUser(signer), ...request };
   await verifySignature(signer, input.password, actor, undefined, { entityType: 'switching', entityId: entityId(supplierId, partId) });
   return inTransaction(async (transaction) => {
-    const names = await requirePair(supplierId, partId, transaction);
+    const names = await supplierAndPart(supplierId, partId, transaction);
     const before = await switchingStateOf(supplierId, partId, transaction, 'update');
     if (before.stopped) throw conflict(`Acceptance inspection of ${names.part} from ${names.supplier} is discontinued: resume it, recording the supplier’s corrective action`);
     if (before.severity === input.severity) throw conflict(`${names.part} from ${names.supplier} is already on ${input.severity} inspection`);

@@ -9,6 +9,7 @@ import {
   resumeAfterDiscontinuation,
   type LotResult,
   type SwitchingOutcome,
+  type SwitchingPhase,
   type SwitchingSettings,
   type SwitchingState,
 } from './switching';
@@ -22,7 +23,8 @@ export type SwitchingEntry =
   /** The quality manager puts the supplier and part on a severity, for a stated reason. */
   | { kind: 'override'; severity: Severity };
 
-const phaseOf = (state: SwitchingState) => (state.stopped ? 'stopped' : state.severity);
+/** Where inspection stands: the severity in effect, or stopped while acceptance is discontinued. */
+export const switchingPhaseOf = (state: SwitchingState): SwitchingPhase => (state.stopped ? 'stopped' : state.severity);
 
 export function applySwitchingEntry(state: SwitchingState, entry: SwitchingEntry): SwitchingOutcome {
   if (entry.kind === 'lot') return nextSwitchingState(state, entry.result, entry.settings);
@@ -41,7 +43,7 @@ export function applySwitchingEntry(state: SwitchingState, entry: SwitchingEntry
   }
   return {
     state: initialSwitchingState(entry.severity),
-    change: entry.severity === state.severity ? null : { from: phaseOf(state), to: entry.severity },
+    change: entry.severity === state.severity ? null : { from: switchingPhaseOf(state), to: entry.severity },
     explanation: `severity set to ${entry.severity} by the quality manager; counts and switching score start again`,
   };
 }

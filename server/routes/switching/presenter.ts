@@ -2,12 +2,11 @@
 // pair's state, counts, waiting lots and history.
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../../db';
-import type { SwitchingPhase, SwitchingState } from '../../../shared/sampling';
+import { switchingPhaseOf, type SwitchingPhase, type SwitchingState } from '../../../shared/sampling';
 import type { SwitchingHistoryEntry, SwitchingListQuery, SwitchingRow, SwitchingView } from '../../../shared/schemas/switching';
-import { notFound } from '../../http/errors';
 import { filterWhen, type ListDefinition } from '../../http/list';
 import { lotsWaitingForPlans, switchingStateOf } from '../../inspection/sampling';
-import { phaseOf } from '../../inspection/switching';
+import { supplierAndPart } from '../../inspection/switching';
 import { readSiteSettings } from '../settings/operations';
 
 const PHASE = `CASE WHEN coalesce((ss.state->>'stopped')::boolean, false) THEN 'stopped' ELSE coalesce(ss.state->>'severity', 'normal') END`;
@@ -72,13 +71,7 @@ type EventRow = {
 };
 
 export async function switchingView(supplierId: number, partId: number): Promise<SwitchingView> {
-  const [names] = await sequelize.query<{ supplier: string | null; part_number: string | null; part_description: string | null }>(
-    `SELECT (SELECT name FROM suppliers WHERE id = :supplierId) AS supplier, p.number AS part_number, p.description AS part_description
-       FROM (SELECT 1) one LEFT JOIN parts p ON p.id = :partId`,
-    { type: QueryTypes.SELECT, replacements: { supplierId, partId } },
-  );
-  if (!names.supplier) throw notFound('Supplier');
-  if (!names.part_number) throw notFound('Part');
+  const names = await supplierAndPart(supplierId, partId);
   const [state, settings, waiting, open, events] = await Promise.all([
     switchingStateOf(supplierId, partId),
     readSiteSettings(),
@@ -100,8 +93,8 @@ export async function switchingView(supplierId: number, partId: number): Promise
   ]);
   return {
     supplier: { id: supplierId, name: names.supplier },
-    part: { id: partId, number: names.part_number, description: names.part_description ?? '' },
-    phase: phaseOf(state),
+    part: { id: partId, number: names.part, description: names.description },
+    phase: switchingPhaseOf(state),
     state,
     reducedEnabled: settings.reducedInspectionEnabled,
     waitingLots: waiting.map((l) => ({ id: l.id, supplierLot: l.supplierLot, quantity: l.quantity, receivedAt: l.receivedAt.toISOString() })),
@@ -119,8 +112,8 @@ export async function switchingView(supplierId: number, partId: number): Promise
       reason: e.reason,
       reference: e.reference,
       by: e.by,
-      from: phaseOf(e.before),
-      to: phaseOf(e.after),
+      from: switchingPhaseOf(e.before),
+      to: switchingPhaseOf(e.after),
       explanation: e.explanation,
       at: e.created_at.toISOString(),
       superseded: e.superseded_at !== null,
