@@ -2,9 +2,10 @@
 // now give, at the severity they were sampled under, their old plan kept and audited; decided lots
 // stay as signed. Plans drawn before the correction are made here by writing the old, wrong plan
 // over a lot's plan, then the migration's redraw runs in a transaction that is rolled back.
-import { QueryTypes, type Transaction } from 'sequelize';
-import { describe, expect, it } from 'vitest';
+import { QueryTypes, Sequelize, type Transaction } from 'sequelize';
+import { afterAll, describe, expect, it } from 'vitest';
 import { sequelize } from '../../db';
+import { config } from '../config';
 import { redrawUndecidedPlans, REDRAW_REASON } from '../../db/migrations/20261202-0201-redraw-undecided-plans';
 import { drawSample } from '../../shared/sampling';
 import { acceptedLot } from '../../tests/helpers/acceptedLot';
@@ -12,16 +13,21 @@ import { as } from '../../tests/helpers/api';
 import { receivedLot } from '../../tests/helpers/receivedLot';
 import { benchFile } from '../../tests/helpers/switching';
 
+// Migrations run as the database owner.
+const owner = new Sequelize(process.env.MIGRATION_DATABASE_URL ?? config.DATABASE_URL, { dialect: 'postgres', logging: false, pool: { max: 1 } });
+afterAll(() => owner.close());
+
 type Plan = { sampleSize: number; planLetter: string; accept: number; reject: number; severity: string; seed: string; sample: string[]; state: string };
 
 async function planOf(lotId: number, transaction?: Transaction): Promise<Plan> {
-  const [plan] = await sequelize.query<Omit<Plan, 'sample'> & { id: number }>(
+  const db = transaction ? owner : sequelize;
+  const [plan] = await db.query<Omit<Plan, 'sample'> & { id: number }>(
     `SELECT li.id, li.sample_size AS "sampleSize", li.plan_letter AS "planLetter", li.accept_number AS accept, li.reject_number AS reject,
             li.severity, li.sample_seed AS seed, l.state
        FROM lot_inspections li JOIN lots l ON l.id = li.lot_id WHERE li.lot_id = :lotId`,
     { type: QueryTypes.SELECT, transaction, replacements: { lotId } },
   );
-  const sample = await sequelize.query<{ serial: string }>(
+  const sample = await db.query<{ serial: string }>(
     'SELECT p.serial FROM sample_pieces sp JOIN pieces p ON p.id = sp.piece_id WHERE sp.inspection_id = :id ORDER BY p.serial',
     { type: QueryTypes.SELECT, transaction, replacements: { id: plan.id } },
   );
@@ -44,8 +50,9 @@ async function outdate(lotId: number, old: { severity: string; planLetter: strin
   });
 }
 
+/** Runs `work` as the owner in a transaction that is always rolled back. */
 async function rolledBack<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
-  const transaction = await sequelize.transaction();
+  const transaction = await owner.transaction();
   try {
     return await work(transaction);
   } finally {
@@ -68,7 +75,7 @@ describe('redrawing the plans of undecided lots from the corrected tables', () =
     expect(before).toMatchObject({ sampleSize: 32, planLetter: 'G' });
 
     await rolledBack(async (transaction) => {
-      const redrawn = await redrawUndecidedPlans(sequelize, transaction);
+      const redrawn = await redrawUndecidedPlans(owner, transaction);
       expect(redrawn).toContain(waiting.lotId);
       expect(redrawn).not.toContain(decided.lotId);
 
@@ -81,19 +88,19 @@ describe('redrawing the plans of undecided lots from the corrected tables', () =
       expect(signed.sampleSize).toBe(13);
       expect((await planOf(decided.lotId, transaction)).sampleSize).toBe(20);
 
-      const [kept] = await sequelize.query<{ plan: { sampleSize: number; planLetter: string; seed: string }; sample: string[]; reason: string }>(
+      const [kept] = await owner.query<{ plan: { sampleSize: number; planLetter: string; seed: string }; sample: string[]; reason: string }>(
         'SELECT plan, sample, reason FROM superseded_lot_plans WHERE lot_id = :lotId',
         { type: QueryTypes.SELECT, transaction, replacements: { lotId: waiting.lotId } },
       );
       expect(kept).toMatchObject({ plan: { sampleSize: 32, planLetter: 'G', seed: before.seed }, sample: before.sample, reason: REDRAW_REASON });
-      const [audit] = await sequelize.query<{ actor_email: string; before: { plan: { sampleSize: number } }; after: { plan: { sampleSize: number }; sample: string[] } }>(
+      const [audit] = await owner.query<{ actor_email: string; before: { plan: { sampleSize: number } }; after: { plan: { sampleSize: number }; sample: string[] } }>(
         `SELECT actor_email, before, after FROM audit_events WHERE action = 'lot.plan-redrawn' AND entity_id = :lotId`,
         { type: QueryTypes.SELECT, transaction, replacements: { lotId: String(waiting.lotId) } },
       );
       expect(audit).toMatchObject({ actor_email: 'system', before: { plan: { sampleSize: 32 } }, after: { plan: { sampleSize: 20 }, sample: after.sample } });
 
       // Run again, nothing is left to redraw.
-      expect(await redrawUndecidedPlans(sequelize, transaction)).not.toContain(waiting.lotId);
+      expect(await redrawUndecidedPlans(owner, transaction)).not.toContain(waiting.lotId);
     });
   });
 
@@ -110,7 +117,7 @@ describe('redrawing the plans of undecided lots from the corrected tables', () =
     expect((await planOf(lot.lotId)).state).toBe('awaiting-disposition');
 
     await rolledBack(async (transaction) => {
-      await redrawUndecidedPlans(sequelize, transaction);
+      await redrawUndecidedPlans(owner, transaction);
       const after = await planOf(lot.lotId, transaction);
       expect(after).toMatchObject({ sampleSize: 13, planLetter: 'E', state: 'inspection' });
       // Every piece measured before is still in the sample; 5 more wait for the bench.

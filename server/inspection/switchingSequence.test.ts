@@ -2,21 +2,26 @@
 // each lot event's position and result in from the lot's first signed decision and its plan, and
 // leaves the stored state alone. Run here on history written through the API, taken back to what it
 // was before the migration, in a transaction that is rolled back.
-import { QueryTypes, type Transaction } from 'sequelize';
-import { describe, expect, it } from 'vitest';
+import { QueryTypes, Sequelize, type Transaction } from 'sequelize';
+import { afterAll, describe, expect, it } from 'vitest';
 import { sequelize } from '../../db';
+import { config } from '../config';
 import { sequenceSwitchingEvents, unsequenceSwitchingEvents } from '../../db/migrations/20261202-0200-switching-sequence';
 import { decide, supplierPart } from '../../tests/helpers/switching';
 
+// Migrations run as the database owner; the application's role may not alter tables.
+const owner = new Sequelize(process.env.MIGRATION_DATABASE_URL ?? config.DATABASE_URL, { dialect: 'postgres', logging: false, pool: { max: 1 } });
+afterAll(() => owner.close());
+
 type EventRow = { lot_id: number; position: number; kind: string; result: unknown; disposition_id: number; actor_id: number; explanation: string };
 
-const events = (supplierId: number, transaction?: Transaction) =>
-  sequelize.query<EventRow>(
+const events = (supplierId: number, db: Sequelize = sequelize, transaction?: Transaction) =>
+  db.query<EventRow>(
     `SELECT lot_id, position, kind, result, disposition_id, actor_id, explanation FROM switching_events WHERE supplier_id = :supplierId ORDER BY id`,
     { type: QueryTypes.SELECT, transaction, replacements: { supplierId } },
   );
-const stateOf = async (supplierId: number, transaction?: Transaction) =>
-  (await sequelize.query<{ state: unknown }>('SELECT state FROM switching_states WHERE supplier_id = :supplierId', { type: QueryTypes.SELECT, transaction, replacements: { supplierId } }))[0].state;
+const stateOf = async (supplierId: number, db: Sequelize = sequelize, transaction?: Transaction) =>
+  (await db.query<{ state: unknown }>('SELECT state FROM switching_states WHERE supplier_id = :supplierId', { type: QueryTypes.SELECT, transaction, replacements: { supplierId } }))[0].state;
 
 describe('the switching sequence of existing history', () => {
   it('gives every earlier lot decision its place and result, as it was fed, and keeps the stored state', async () => {
@@ -29,17 +34,17 @@ describe('the switching sequence of existing history', () => {
     expect(written.map((e) => [e.lot_id, e.position])).toEqual(lots.map((l, i) => [l.lotId, i + 1]));
     const state = await stateOf(pair.supplierId);
 
-    const transaction = await sequelize.transaction();
+    const transaction = await owner.transaction();
     try {
-      await unsequenceSwitchingEvents(sequelize, transaction);
-      const [{ columns }] = await sequelize.query<{ columns: string[] }>(
+      await unsequenceSwitchingEvents(owner, transaction);
+      const [{ columns }] = await owner.query<{ columns: string[] }>(
         `SELECT array_agg(column_name::text ORDER BY column_name) AS columns FROM information_schema.columns WHERE table_name = 'switching_events'`,
         { type: QueryTypes.SELECT, transaction },
       );
       expect(columns).not.toContain('position');
-      await sequenceSwitchingEvents(sequelize, transaction);
-      expect(await events(pair.supplierId, transaction)).toEqual(written);
-      expect(await stateOf(pair.supplierId, transaction)).toEqual(state);
+      await sequenceSwitchingEvents(owner, transaction);
+      expect(await events(pair.supplierId, owner, transaction)).toEqual(written);
+      expect(await stateOf(pair.supplierId, owner, transaction)).toEqual(state);
     } finally {
       await transaction.rollback();
     }
