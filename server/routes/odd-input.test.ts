@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { app, as } from '../../tests/helpers/api';
 import { apiRoutes, routeName, urlOf, type ApiRoute } from '../../tests/helpers/routes';
-import { orderedLine, postReceipt } from '../../tests/helpers/purchasing';
+import { orderedLine, postReceipt, uniqueTag } from '../../tests/helpers/purchasing';
 import { POLICIES } from '../../shared/policies';
 import { ROLES, type Role } from '../../shared/schemas/roles';
 
@@ -80,6 +80,17 @@ describe('odd bodies', () => {
     const buyer = await as('buyer');
     const response = await buyer.post('/api/suppliers').send({ name: 'Big', notes: 'x'.repeat(2.5 * 1024 * 1024) }).expect(413);
     expect(response.body.error).toMatchObject({ code: 'too_large', message: expect.stringMatching(/larger than the 2mb allowed/) });
+  });
+
+  it('refuses ids, dates and numbers the database cannot hold with 400, in JSON bodies too', async () => {
+    const buyer = await as('buyer');
+    const order = (fields: Record<string, unknown>) =>
+      buyer.post('/api/purchase-orders').send({ number: `PO-${uniqueTag()}`, supplierId: 1, orderedOn: '2026-11-02', currency: 'EUR', lines: [], ...fields });
+    for (const fields of [{ supplierId: 99999999999 }, { supplierId: 1e300 }, { orderedOn: '2026-02-30' }, { orderedOn: '99999-01-01' }, { lines: [{ partId: 99999999999, quantity: 1, unitPrice: 1 }] }]) {
+      const response = await order(fields);
+      expect(response.status, `${JSON.stringify(fields)}: ${response.text.slice(0, 200)}`).toBeGreaterThanOrEqual(400);
+      await expectClientError(response, JSON.stringify(fields));
+    }
   });
 
   it('refuses a NUL character in the site name with 400 naming the field, and keeps the old name', async () => {
