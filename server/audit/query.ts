@@ -2,23 +2,22 @@
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../db';
 import type { AuditEventView, AuditQuery } from '../../shared/schemas/audit';
-import { sortOf } from '../http/list';
+import { containing, filterWhen, sortOf, type Filters } from '../http/list';
 
 type Filter = Omit<AuditQuery, 'page' | 'pageSize' | 'sort'> & { entityIds?: string[]; uptoSeq?: string };
 
 function whereOf(filter: Filter) {
-  const clauses: string[] = [];
-  const replacements: Record<string, unknown> = {};
-  if (filter.from) (clauses.push('occurred_at >= :from::date'), (replacements.from = filter.from));
-  if (filter.to) (clauses.push("occurred_at < :to::date + interval '1 day'"), (replacements.to = filter.to));
-  if (filter.action) (clauses.push('action LIKE :action'), (replacements.action = `${filter.action}%`));
-  if (filter.entityType) (clauses.push('entity_type = :entityType'), (replacements.entityType = filter.entityType));
-  if (filter.entityId) (clauses.push('entity_id = :entityId'), (replacements.entityId = filter.entityId));
-  if (filter.entityIds) (clauses.push('entity_id IN (:entityIds)'), (replacements.entityIds = filter.entityIds.length ? filter.entityIds : ['']));
-  if (filter.actor) (clauses.push('actor_email ILIKE :actor'), (replacements.actor = `%${filter.actor}%`));
-  if (filter.q) (clauses.push('(action ILIKE :q OR entity_id ILIKE :q OR actor_email ILIKE :q)'), (replacements.q = `%${filter.q}%`));
-  if (filter.uptoSeq) (clauses.push('seq <= :uptoSeq'), (replacements.uptoSeq = filter.uptoSeq));
-  return { sql: clauses.length ? `WHERE ${clauses.join(' AND ')}` : '', replacements };
+  const filters: Filters = { clauses: [], replacements: {} };
+  filterWhen(filters, filter.from, 'occurred_at >= :from::date', 'from');
+  filterWhen(filters, filter.to, "occurred_at < :to::date + interval '1 day'", 'to');
+  filterWhen(filters, filter.action && `${filter.action}%`, 'action LIKE :action', 'action');
+  filterWhen(filters, filter.entityType, 'entity_type = :entityType', 'entityType');
+  filterWhen(filters, filter.entityId, 'entity_id = :entityId', 'entityId');
+  filterWhen(filters, filter.entityIds && (filter.entityIds.length ? filter.entityIds : ['']), 'entity_id IN (:entityIds)', 'entityIds');
+  filterWhen(filters, filter.actor && containing(filter.actor), 'actor_email ILIKE :actor', 'actor');
+  filterWhen(filters, filter.q && containing(filter.q), '(action ILIKE :q OR entity_id ILIKE :q OR actor_email ILIKE :q)', 'q');
+  filterWhen(filters, filter.uptoSeq, 'seq <= :uptoSeq', 'uptoSeq');
+  return { sql: filters.clauses.length ? `WHERE ${filters.clauses.join(' AND ')}` : '', replacements: filters.replacements };
 }
 
 type Row = {
