@@ -33,6 +33,12 @@ export function PiecePage() {
       {history.data?.data.map((piece) => (
         <div key={piece.id} className="space-y-3">
           {history.data.total > 1 && <h2 className="pt-2">{piece.part.number}</h2>}
+          {piece.releasedAsIs && (
+            <Notice tone="caution" title={`Failed inspection: in use as is under deviation ${piece.releasedAsIs.deviationNumber}`}>
+              Released by the lot's signed use-as-is decision ({piece.releasedAsIs.signedBy ?? 'signer unknown'}, {new Date(piece.releasedAsIs.signedAt).toLocaleString()})
+              {piece.releasedAsIs.justification && <>: “{piece.releasedAsIs.justification}”</>}
+            </Notice>
+          )}
           <Panel title="Piece" actions={<StateBadge state={piece.state} label={PIECE_STATE_LABELS[piece.state]} />}>
             <Details
               columns={4}
