@@ -1,77 +1,72 @@
+import type { ReactElement } from 'react';
 import { createBrowserRouter, Navigate } from 'react-router';
 import { AppLayout } from './AppLayout';
 import { RequirePermission } from './RequirePermission';
 import { SignInPage } from '@/features/auth/pages/SignInPage';
-import { ForgotPasswordPage } from '@/features/auth/pages/ForgotPasswordPage';
-import { ResetPasswordPage } from '@/features/auth/pages/ResetPasswordPage';
-import { ChangePasswordPage } from '@/features/auth/pages/ChangePasswordPage';
-import { OverviewPage } from '@/features/overview/pages/OverviewPage';
-import { UsersPage } from '@/features/admin/pages/UsersPage';
-import { CaughtMailPage } from '@/features/admin/pages/CaughtMailPage';
-import { SiteSettingsPage } from '@/features/admin/pages/SiteSettingsPage';
-import { InstrumentsPage } from '@/features/instruments/pages/InstrumentsPage';
-import { InspectionQueuePage } from '@/features/inspection/pages/InspectionQueuePage';
-import { LotInspectionPage } from '@/features/inspection/pages/LotInspectionPage';
-import { CertificatesPage } from '@/features/audit/pages/CertificatesPage';
-import { ExportsPage } from '@/features/audit/pages/ExportsPage';
-import { AuditTrailPage } from '@/features/audit/pages/AuditTrailPage';
-import { VerifyPage } from '@/features/audit/pages/VerifyPage';
-import { PurchaseOrdersPage } from '@/features/purchasing/pages/PurchaseOrdersPage';
-import { PurchaseOrderPage } from '@/features/purchasing/pages/PurchaseOrderPage';
-import { PartsPage } from '@/features/purchasing/pages/PartsPage';
-import { PartPage } from '@/features/purchasing/pages/PartPage';
-import { SuppliersPage } from '@/features/purchasing/pages/SuppliersPage';
-import { ShipmentsPage } from '@/features/receiving/pages/ShipmentsPage';
-import { ReceivePage } from '@/features/receiving/pages/ReceivePage';
-import { LotsPage } from '@/features/receiving/pages/LotsPage';
-import { LotPage } from '@/features/receiving/pages/LotPage';
-import { StockPage } from '@/features/stock/pages/StockPage';
-import { MovesPage } from '@/features/stock/pages/MovesPage';
-import { StockMovePage } from '@/features/stock/pages/StockMovePage';
-import { PiecePage } from '@/features/stock/pages/PiecePage';
-import { SwitchingListPage } from '@/features/switching/pages/SwitchingListPage';
-import { SwitchingPage } from '@/features/switching/pages/SwitchingPage';
+
+// The first page loads sign-in and the shell only. Every other page is a chunk of its own, fetched
+// when its route is first visited (the router waits for it, keeping the page before on screen), so
+// the chart library comes with the pages that draw charts and nowhere else.
+const page =
+  <M,>(load: () => Promise<M>, render: (module: M) => ReactElement) =>
+  async () => ({ element: render(await load()) });
+
+const purchaseOrderPage = () => import('@/features/purchasing/pages/PurchaseOrderPage');
+const piecePage = () => import('@/features/stock/pages/PiecePage');
+const stockMovePage = () => import('@/features/stock/pages/StockMovePage');
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
-  { path: '/forgot-password', element: <ForgotPasswordPage /> },
-  { path: '/reset-password', element: <ResetPasswordPage /> },
-  { path: '/verify', element: <VerifyPage /> },
+  { path: '/forgot-password', lazy: page(() => import('@/features/auth/pages/ForgotPasswordPage'), (m) => <m.ForgotPasswordPage />) },
+  { path: '/reset-password', lazy: page(() => import('@/features/auth/pages/ResetPasswordPage'), (m) => <m.ResetPasswordPage />) },
+  { path: '/verify', lazy: page(() => import('@/features/audit/pages/VerifyPage'), (m) => <m.VerifyPage />) },
   {
     element: <AppLayout />,
     children: [
-      { index: true, element: <OverviewPage /> },
-      { path: 'account/password', element: <ChangePasswordPage /> },
+      { index: true, lazy: page(() => import('@/features/overview/pages/OverviewPage'), (m) => <m.OverviewPage />) },
+      { path: 'account/password', lazy: page(() => import('@/features/auth/pages/ChangePasswordPage'), (m) => <m.ChangePasswordPage />) },
       { path: 'purchasing', element: <Navigate to="/purchasing/orders" replace /> },
-      { path: 'purchasing/orders', element: <PurchaseOrdersPage /> },
-      { path: 'purchasing/orders/new', element: <PurchaseOrderPage /> },
-      { path: 'purchasing/orders/:orderId', element: <PurchaseOrderPage /> },
-      { path: 'purchasing/orders/:orderId/edit', element: <PurchaseOrderPage editing /> },
-      { path: 'purchasing/parts', element: <PartsPage /> },
-      { path: 'purchasing/parts/:partId', element: <PartPage /> },
-      { path: 'purchasing/suppliers', element: <SuppliersPage /> },
-      { path: 'receiving', element: <ShipmentsPage /> },
-      { path: 'receiving/new', element: <ReceivePage /> },
-      { path: 'lots', element: <LotsPage /> },
-      { path: 'lots/:lotId', element: <LotPage /> },
-      { path: 'stock', element: <StockPage /> },
-      { path: 'stock/moves', element: <MovesPage /> },
-      { path: 'stock/issue', element: <StockMovePage key="issue" move="issue" /> },
-      { path: 'stock/transfer', element: <StockMovePage key="transfer" move="transfer" /> },
-      { path: 'stock/put-away', element: <StockMovePage key="put-away" move="put-away" /> },
-      { path: 'pieces', element: <PiecePage /> },
-      { path: 'pieces/:serial', element: <PiecePage /> },
-      { path: 'inspection', element: <InspectionQueuePage /> },
-      { path: 'inspection/lots/:lotId', element: <LotInspectionPage /> },
-      { path: 'switching', element: <RequirePermission permission="switching.read"><SwitchingListPage /></RequirePermission> },
-      { path: 'switching/:supplierId/:partId', element: <RequirePermission permission="switching.read"><SwitchingPage /></RequirePermission> },
-      { path: 'instruments', element: <InstrumentsPage /> },
-      { path: 'certificates', element: <RequirePermission permission="certificates.read"><CertificatesPage /></RequirePermission> },
-      { path: 'exports', element: <RequirePermission permission="exports.create"><ExportsPage /></RequirePermission> },
-      { path: 'audit', element: <RequirePermission permission="audit.read"><AuditTrailPage /></RequirePermission> },
-      { path: 'admin/users', element: <RequirePermission permission="users.manage"><UsersPage /></RequirePermission> },
-      { path: 'admin/settings', element: <RequirePermission permission="settings.manage"><SiteSettingsPage /></RequirePermission> },
-      { path: 'admin/mail', element: <RequirePermission permission="mail.read"><CaughtMailPage /></RequirePermission> },
+      { path: 'purchasing/orders', lazy: page(() => import('@/features/purchasing/pages/PurchaseOrdersPage'), (m) => <m.PurchaseOrdersPage />) },
+      { path: 'purchasing/orders/new', lazy: page(purchaseOrderPage, (m) => <m.PurchaseOrderPage />) },
+      { path: 'purchasing/orders/:orderId', lazy: page(purchaseOrderPage, (m) => <m.PurchaseOrderPage />) },
+      { path: 'purchasing/orders/:orderId/edit', lazy: page(purchaseOrderPage, (m) => <m.PurchaseOrderPage editing />) },
+      { path: 'purchasing/parts', lazy: page(() => import('@/features/purchasing/pages/PartsPage'), (m) => <m.PartsPage />) },
+      { path: 'purchasing/parts/:partId', lazy: page(() => import('@/features/purchasing/pages/PartPage'), (m) => <m.PartPage />) },
+      { path: 'purchasing/suppliers', lazy: page(() => import('@/features/purchasing/pages/SuppliersPage'), (m) => <m.SuppliersPage />) },
+      { path: 'receiving', lazy: page(() => import('@/features/receiving/pages/ShipmentsPage'), (m) => <m.ShipmentsPage />) },
+      { path: 'receiving/new', lazy: page(() => import('@/features/receiving/pages/ReceivePage'), (m) => <m.ReceivePage />) },
+      { path: 'lots', lazy: page(() => import('@/features/receiving/pages/LotsPage'), (m) => <m.LotsPage />) },
+      { path: 'lots/:lotId', lazy: page(() => import('@/features/receiving/pages/LotPage'), (m) => <m.LotPage />) },
+      { path: 'stock', lazy: page(() => import('@/features/stock/pages/StockPage'), (m) => <m.StockPage />) },
+      { path: 'stock/moves', lazy: page(() => import('@/features/stock/pages/MovesPage'), (m) => <m.MovesPage />) },
+      { path: 'stock/issue', lazy: page(stockMovePage, (m) => <m.StockMovePage key="issue" move="issue" />) },
+      { path: 'stock/transfer', lazy: page(stockMovePage, (m) => <m.StockMovePage key="transfer" move="transfer" />) },
+      { path: 'stock/put-away', lazy: page(stockMovePage, (m) => <m.StockMovePage key="put-away" move="put-away" />) },
+      { path: 'pieces', lazy: page(piecePage, (m) => <m.PiecePage />) },
+      { path: 'pieces/:serial', lazy: page(piecePage, (m) => <m.PiecePage />) },
+      { path: 'inspection', lazy: page(() => import('@/features/inspection/pages/InspectionQueuePage'), (m) => <m.InspectionQueuePage />) },
+      { path: 'inspection/lots/:lotId', lazy: page(() => import('@/features/inspection/pages/LotInspectionPage'), (m) => <m.LotInspectionPage />) },
+      {
+        path: 'switching',
+        lazy: page(() => import('@/features/switching/pages/SwitchingListPage'), (m) => <RequirePermission permission="switching.read"><m.SwitchingListPage /></RequirePermission>),
+      },
+      {
+        path: 'switching/:supplierId/:partId',
+        lazy: page(() => import('@/features/switching/pages/SwitchingPage'), (m) => <RequirePermission permission="switching.read"><m.SwitchingPage /></RequirePermission>),
+      },
+      { path: 'instruments', lazy: page(() => import('@/features/instruments/pages/InstrumentsPage'), (m) => <m.InstrumentsPage />) },
+      {
+        path: 'certificates',
+        lazy: page(() => import('@/features/audit/pages/CertificatesPage'), (m) => <RequirePermission permission="certificates.read"><m.CertificatesPage /></RequirePermission>),
+      },
+      { path: 'exports', lazy: page(() => import('@/features/audit/pages/ExportsPage'), (m) => <RequirePermission permission="exports.create"><m.ExportsPage /></RequirePermission>) },
+      { path: 'audit', lazy: page(() => import('@/features/audit/pages/AuditTrailPage'), (m) => <RequirePermission permission="audit.read"><m.AuditTrailPage /></RequirePermission>) },
+      { path: 'admin/users', lazy: page(() => import('@/features/admin/pages/UsersPage'), (m) => <RequirePermission permission="users.manage"><m.UsersPage /></RequirePermission>) },
+      {
+        path: 'admin/settings',
+        lazy: page(() => import('@/features/admin/pages/SiteSettingsPage'), (m) => <RequirePermission permission="settings.manage"><m.SiteSettingsPage /></RequirePermission>),
+      },
+      { path: 'admin/mail', lazy: page(() => import('@/features/admin/pages/CaughtMailPage'), (m) => <RequirePermission permission="mail.read"><m.CaughtMailPage /></RequirePermission>) },
       { path: '*', element: <p className="text-ink-muted">This page does not exist.</p> },
     ],
   },
