@@ -1,19 +1,10 @@
 // Re-computes the audit chain inside PostgreSQL and reports the first rows where it breaks: a row
 // whose content no longer matches its digest, whose link does not point at the row before it in
-// chain order, or that follows a gap; and a head that does not name the last row (rows cut off the end). Everything is read from one snapshot, so writers running meanwhile never look like a break.
+// chain order, or that follows a gap; and a head that does not name the last row (rows cut off the
+// end). Everything is read from one snapshot, so writers running meanwhile never look like a break.
 import { QueryTypes, Transaction } from 'sequelize';
 import { sequelize } from '../../db';
-import type { AuditAnchor, AuditAnchorCheck, AuditChainHead } from '../../shared/schemas/audit';
-
-export type ChainProblem = 'content changed' | 'link broken' | 'rows missing before it' | 'head does not name the last row';
-
-
-export type ChainReport = {
-  intact: boolean;
-  checked: number;
-  head: AuditChainHead;
-  problems: { id: string | null; seq: string; problem: ChainProblem }[];
-};
+import type { AuditAnchor, AuditAnchorCheck, AuditChainHead, AuditChainReport } from '../../shared/schemas/audit';
 
 const MAX_PROBLEMS = 50;
 
@@ -26,7 +17,7 @@ export async function chainHead(transaction?: Transaction): Promise<AuditChainHe
   return { seq: String(head.seq), hash: head.hash, occurredAt: head.occurred_at?.toISOString() ?? null };
 }
 
-async function verifyIn(transaction: Transaction): Promise<ChainReport> {
+async function verifyIn(transaction: Transaction): Promise<AuditChainReport> {
   const [{ checked, last_seq, last_hash }] = await sequelize.query<{ checked: string; last_seq: string | null; last_hash: string | null }>(
     `SELECT count(*) AS checked, max(seq) AS last_seq, (SELECT hash FROM audit_events ORDER BY seq DESC LIMIT 1) AS last_hash FROM audit_events`,
     { type: QueryTypes.SELECT, transaction },
@@ -44,7 +35,7 @@ async function verifyIn(transaction: Transaction): Promise<ChainReport> {
      ORDER BY seq LIMIT ${MAX_PROBLEMS}`,
     { type: QueryTypes.SELECT, transaction },
   );
-  const problems: ChainReport['problems'] = broken.map((row) => ({
+  const problems: AuditChainReport['problems'] = broken.map((row) => ({
     id: row.id,
     seq: row.seq,
     problem: !row.content_ok ? 'content changed' : !row.in_place ? 'rows missing before it' : 'link broken',
@@ -56,7 +47,7 @@ async function verifyIn(transaction: Transaction): Promise<ChainReport> {
   return { intact: problems.length === 0, checked: Number(checked), head, problems: problems.slice(0, MAX_PROBLEMS) };
 }
 
-export function verifyAuditChain(transaction?: Transaction): Promise<ChainReport> {
+export function verifyAuditChain(transaction?: Transaction): Promise<AuditChainReport> {
   if (transaction) return verifyIn(transaction);
   return sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true }, verifyIn);
 }

@@ -32,6 +32,16 @@ export type AuditEventView = {
 /** The last link of the audit chain, for an outside copy to anchor. */
 export type AuditChainHead = { seq: string; hash: string | null; occurredAt: string | null };
 
+export type AuditChainProblem = 'content changed' | 'link broken' | 'rows missing before it' | 'head does not name the last row';
+
+/** The chain re-computed: the events checked, the head it reached, and the first problems by position. */
+export type AuditChainReport = {
+  intact: boolean;
+  checked: number;
+  head: AuditChainHead;
+  problems: { id: string | null; seq: string; problem: AuditChainProblem }[];
+};
+
 /** An anchor taken earlier (a chain position and the hash printed for it), to check against the trail. */
 export const auditAnchorSchema = z.object({
   seq: z.coerce.number().int().positive().max(Number.MAX_SAFE_INTEGER),

@@ -1,5 +1,5 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { AuditAnchor, AuditAnchorCheck, AuditChainHead, AuditEventView } from '@shared/schemas/audit';
+import type { AuditAnchor, AuditAnchorCheck, AuditChainHead, AuditChainReport, AuditEventView } from '@shared/schemas/audit';
 import type { VerificationResult } from '@shared/schemas/certificates';
 import type { ExportFilter, ExportJobView } from '@shared/schemas/exports';
 import type { ListResponse } from '@shared/schemas/paging';
@@ -22,7 +22,6 @@ export type IssuedDocument = {
   signer: string;
 };
 
-export type ChainReport = { intact: boolean; checked: number; head: AuditChainHead; problems: { id: string | null; seq: string; problem: string }[] };
 
 type SupplierOption = { id: number; name: string };
 type PartOption = { id: number; number: string; description: string };
@@ -48,7 +47,7 @@ export const useAuditEvents = (query: Query) =>
 export function useVerifyChain() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: () => api<ChainReport>('/audit/verify'),
+    mutationFn: () => api<AuditChainReport>('/audit/verify'),
     // The report carries the head it checked up to: show that one, not an older reading.
     onSuccess: (report) => queryClient.setQueryData(auditKeys.head(), report.head),
   });
