@@ -75,4 +75,27 @@ describe('certificates, exports and verification in the browser', () => {
     expect(await result.textContent()).toMatch(/Revoked/);
     await context.close();
   });
+
+  it('the quality manager reads the chain head, checks it as an anchor, and sees a wrong hash refused', async () => {
+    const page = await signedInPage(rig, 'quality');
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Audit trail' }).click();
+    const head = page.getByRole('region', { name: 'Chain head' });
+    const hash = (await head.getByTestId('chain-head-hash').textContent())!;
+    const seq = (await head.getByTestId('chain-head-seq').textContent())!;
+    expect(hash).toMatch(/^[0-9a-f]{64}$/);
+    const form = page.getByRole('form', { name: 'Check an anchor' });
+    await form.getByLabel('Anchored position').fill(seq);
+    await form.getByLabel('Anchored hash').fill(hash.toUpperCase());
+    await form.getByRole('button', { name: 'Check anchor' }).click();
+    await head.getByText('Anchor matches').waitFor();
+    await form.getByLabel('Anchored hash').fill('0'.repeat(64));
+    await form.getByRole('button', { name: 'Check anchor' }).click();
+    await head.getByText('Anchor does not match').waitFor();
+    await form.getByLabel('Anchored hash').fill('not-a-hash');
+    await form.getByRole('button', { name: 'Check anchor' }).click();
+    await form.getByText('The hash is the 64-character SHA-256 printed with the chain head').waitFor();
+    await page.getByRole('button', { name: 'Verify chain' }).click();
+    await page.getByText('Chain intact').waitFor();
+    await page.context().close();
+  });
 });
