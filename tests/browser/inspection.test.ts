@@ -72,7 +72,8 @@ describe('inspection in the browser', () => {
     await deliverDueMail();
     const admin = await signedInPage(rig, 'admin');
     await admin.goto(`${rig.baseUrl}/admin/mail`);
-    const subject = admin.getByText(`Lot rejected: ${`WP-T-`}`, { exact: false }).first();
+    // The subject names the lot in its one form, L-<id>, everywhere (mails, pages, PDFs).
+    const subject = admin.getByText(`Lot L-${lot.lotId} rejected: WP-T-`, { exact: false }).first();
     await subject.waitFor();
     expect(await admin.getByText(`supplier lot SL-`, { exact: false }).count()).toBeGreaterThan(0);
     await admin.context().close();
