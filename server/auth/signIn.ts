@@ -98,7 +98,10 @@ export async function checkPassword(email: string, password: string, actor: Audi
 }
 
 /** Signs a user in: a new server-side session and its token, or 401 (429 when throttled). */
-export async function signIn(email: string, password: string, request: Pick<AuditActor, 'requestId' | 'address'>) {
+export async function signIn(email: string, password: string, caller: Pick<AuditActor, 'requestId' | 'address'>) {
+  // Only where the request came from: a caller may pass a whole (anonymous) actor, whose empty
+  // e-mail must not overwrite the user's own in the audit entry.
+  const request = { requestId: caller.requestId, address: caller.address };
   const user = await checkPassword(email, password, { id: null, email, roles: [], ...request });
   if (!user) {
     await recordAudit({ id: null, email, roles: [], ...request }, { action: 'auth.sign-in-refused', entityType: 'session' });
