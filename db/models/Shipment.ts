@@ -9,6 +9,8 @@ export class Shipment extends Model<InferAttributes<Shipment>, InferCreationAttr
   declare carrier: CreationOptional<string>;
   declare receivedAt: Date;
   declare receivedBy: number | null;
+  /** The NCR whose returned pieces this shipment replaces. */
+  declare replacementForNcrId: CreationOptional<number | null>;
   declare createdAt: CreationOptional<Date>;
   declare purchaseOrder?: NonAttribute<PurchaseOrder>;
   declare receiver?: NonAttribute<User | null>;
@@ -22,6 +24,7 @@ export class Shipment extends Model<InferAttributes<Shipment>, InferCreationAttr
         packingSlip: { type: DataTypes.STRING(60), allowNull: false },
         carrier: { type: DataTypes.STRING(80), allowNull: false, defaultValue: '' },
         receivedAt: { type: DataTypes.DATE, allowNull: false },
+        replacementForNcrId: DataTypes.INTEGER,
         createdAt: DataTypes.DATE,
       },
       { sequelize, tableName: 'shipments', underscored: true, updatedAt: false },

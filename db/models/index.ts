@@ -16,6 +16,7 @@ import { Attachment } from './Attachment';
 import { ExportJob } from './ExportJob';
 import { initInspectionModels } from './inspection';
 import { initAuthModels } from './auth';
+import { initNonconformanceModels } from './nonconformance';
 
 export function initModels(sequelize: Sequelize) {
   User.initModel(sequelize);
@@ -25,7 +26,8 @@ export function initModels(sequelize: Sequelize) {
   initReceivingModels(sequelize);
   const inspection = initInspectionModels(sequelize);
   const auth = initAuthModels(sequelize);
-  return { ...auth, User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
+  const nonconformance = initNonconformanceModels(sequelize);
+  return { ...auth, ...nonconformance, User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
 }
 
 /** Purchasing, receiving and stock (migration 0101). */
@@ -50,3 +52,4 @@ export { User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder,
 export type { OutboxAttachment } from './OutboxMail';
 export { Session, PasswordResetToken, type SessionEndReason } from './auth';
 export { LotInspection, SamplePiece, SwitchingStateRecord, SwitchingEvent, MeasurementFile, Reading, PieceResult, DispositionRecord, LotDocument } from './inspection';
+export { RecordCounter, DefectCode, Nonconformance, NonconformanceDefect, NonconformancePiece, NcrDisposition, VendorReturn, type NcrOrigin, type NcrStatus, type NcrDecision } from './nonconformance';
