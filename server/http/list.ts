@@ -1,7 +1,7 @@
 // Server-side lists: one SQL definition per list gives the JSON page (`{data, total, totals}`) and
 // the CSV of everything the same filter shows. Only whitelisted columns sort; search is ILIKE over
 // named expressions; filters arrive as SQL clauses with their replacements.
-import type { RequestHandler, Router } from 'express';
+import type { Response, Router } from 'express';
 import { QueryTypes } from 'sequelize';
 import type { z } from 'zod';
 import { sequelize } from '../../db';
@@ -10,7 +10,7 @@ import type { ListQuery } from '../../shared/schemas/paging';
 import { allow, authenticate } from '../auth/authenticate';
 import { sendCsv, type CsvColumn } from './csv';
 import { badRequest } from './errors';
-import { validate } from './validate';
+import { validated } from './validate';
 
 export type Filters = { clauses: string[]; replacements: Record<string, unknown> };
 
@@ -115,14 +115,16 @@ export function mountList<Row, Schema extends z.ZodType<ListQuery>>(
   querySchema: Schema,
   definition: ListDefinition<Row, z.infer<Schema>>,
 ) {
-  const csv: RequestHandler = async (req, res) => {
-    const rows = listAll(definition, req.valid.query as z.infer<Schema>);
-    await sendCsv(res, `${definition.csv.filename}-${new Date().toISOString().slice(0, 10)}.csv`, definition.csv.columns, rows);
-  };
-  const json: RequestHandler = async (req, res, next) => {
-    if (req.query.format === 'csv') return csv(req, res, next);
-    res.json(await listPage(definition, req.valid.query as z.infer<Schema>));
-  };
-  router.get(`${path === '/' ? '' : path}/export.csv`, authenticate, allow(permission), validate({ query: querySchema }), csv);
-  router.get(path, authenticate, allow(permission), validate({ query: querySchema }), json);
+  const csv = (query: z.infer<Schema>, res: Response) =>
+    sendCsv(res, `${definition.csv.filename}-${new Date().toISOString().slice(0, 10)}.csv`, definition.csv.columns, listAll(definition, query));
+  router.get(`${path === '/' ? '' : path}/export.csv`, authenticate, allow(permission), validated({ query: querySchema }, ({ query }, _req, res) => csv(query, res)));
+  router.get(
+    path,
+    authenticate,
+    allow(permission),
+    validated({ query: querySchema }, async ({ query }, req, res) => {
+      if (req.query.format === 'csv') return csv(query, res);
+      res.json(await listPage(definition, query));
+    }),
+  );
 }

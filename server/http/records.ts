@@ -5,29 +5,28 @@ import type { z } from 'zod';
 import type { Permission } from '../../shared/policies';
 import { actorOf, type AuditActor } from '../audit/record';
 import { allow, authenticate } from '../auth/authenticate';
-import { idParams, type IdParams } from './params';
-import { validate } from './validate';
+import { idParams } from './params';
+import { validated } from './validate';
 
 type RecordRoutes<Schema extends z.ZodType> = {
   read: Permission;
   write: Permission;
   schema: Schema;
   view: (id: number) => Promise<unknown>;
-  create: (actor: AuditActor, input: z.input<Schema>) => Promise<{ id: number }>;
-  update: (actor: AuditActor, id: number, input: z.input<Schema>) => Promise<unknown>;
+  create: (actor: AuditActor, input: z.output<Schema>) => Promise<{ id: number }>;
+  update: (actor: AuditActor, id: number, input: z.output<Schema>) => Promise<unknown>;
 };
 
 export function mountRecord<Schema extends z.ZodType>(router: Router, routes: RecordRoutes<Schema>) {
-  router.get('/:id', authenticate, allow(routes.read), validate({ params: idParams }), async (req, res) => {
-    res.json(await routes.view((req.valid.params as IdParams).id));
-  });
-  router.post('/', authenticate, allow(routes.write), validate({ body: routes.schema }), async (req, res) => {
-    const created = await routes.create(actorOf(req), req.valid.body as z.input<Schema>);
+  router.get('/:id', authenticate, allow(routes.read), validated({ params: idParams }, async ({ params }, _req, res) => {
+    res.json(await routes.view(params.id));
+  }));
+  router.post('/', authenticate, allow(routes.write), validated({ body: routes.schema }, async ({ body }, req, res) => {
+    const created = await routes.create(actorOf(req), body);
     res.status(201).json(await routes.view(created.id));
-  });
-  router.put('/:id', authenticate, allow(routes.write), validate({ params: idParams, body: routes.schema }), async (req, res) => {
-    const { id } = req.valid.params as IdParams;
-    await routes.update(actorOf(req), id, req.valid.body as z.input<Schema>);
-    res.json(await routes.view(id));
-  });
+  }));
+  router.put('/:id', authenticate, allow(routes.write), validated({ params: idParams, body: routes.schema }, async ({ params, body }, req, res) => {
+    await routes.update(actorOf(req), params.id, body);
+    res.json(await routes.view(params.id));
+  }));
 }
