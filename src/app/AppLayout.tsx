@@ -2,7 +2,7 @@ import { Link, NavLink, Navigate, Outlet, useLocation, useNavigate } from 'react
 import { KeyRound, LogOut } from 'lucide-react';
 import { can } from '@shared/policies';
 import { ROLE_LABELS } from '@shared/schemas/roles';
-import { useSession, useSignOut } from '@/features/auth/api/session';
+import { useSession, useSignOut } from '@/lib/session';
 import { BrandMark } from '@/components/BrandMark';
 import { NAVIGATION } from './navigation';
 

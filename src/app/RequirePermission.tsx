@@ -1,6 +1,6 @@
 import type { ReactNode } from 'react';
 import { can, type Permission } from '@shared/policies';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { Notice } from '@/components/Notice';
 
 /** Shows its page only to roles holding the permission; the API refuses the rest regardless. */

@@ -30,6 +30,8 @@ export function useListState(defaults: Partial<ListState> = {}) {
 }
 
 type Props<T> = {
+  // Accessor columns each have their own value type; TanStack types such a list as ColumnDef<T, any>.
+  // eslint-disable-next-line @typescript-eslint/no-explicit-any
   columns: ColumnDef<T, any>[];
   data: T[];
   total: number;

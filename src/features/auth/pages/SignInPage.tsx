@@ -5,7 +5,7 @@ import { loginSchema, type LoginInput } from '@shared/schemas/auth';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
-import { useSession, useSignIn } from '../api/session';
+import { useSession, useSignIn } from '@/lib/session';
 import { AuthFrame } from '../components/AuthFrame';
 
 export function SignInPage() {

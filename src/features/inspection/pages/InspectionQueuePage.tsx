@@ -4,7 +4,7 @@ import { LOT_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { StateBadge } from '@/components/StateBadge';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { useInspectionQueue } from '../api';
 import { VerdictBadge } from '../components/VerdictBadge';
 

@@ -6,7 +6,7 @@ import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName } from '@shared/schemas/s
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { StateBadge } from '@/components/StateBadge';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { ApiError } from '@/lib/api';
 import { useLotInspection } from '../api';
 import { DispositionPanel } from '../components/DispositionPanel';

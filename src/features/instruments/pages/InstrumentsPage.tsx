@@ -5,7 +5,7 @@ import { INSTRUMENT_KIND_LABELS, type InstrumentView } from '@shared/schemas/ins
 import { Button } from '@/components/Button';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { useInstruments } from '../api';
 import { InstrumentForm } from '../components/InstrumentForm';
 

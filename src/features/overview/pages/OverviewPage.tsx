@@ -1,7 +1,7 @@
 import { Link } from 'react-router';
 import { can } from '@shared/policies';
 import { ROLE_LABELS } from '@shared/schemas/roles';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { PageHeader } from '@/components/PageHeader';
 import { Notice } from '@/components/Notice';
 import { NAVIGATION } from '@/app/navigation';

@@ -4,7 +4,7 @@ import { Details, Panel } from '@/components/Details';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { SpecSummary } from '@/components/SpecSummary';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { usePart } from '../api';
 import { PartForm } from '../components/PartForm';
 import { PurchasingTabs } from '../components/PurchasingTabs';

@@ -12,7 +12,7 @@ import { PageHeader } from '@/components/PageHeader';
 import { constructionText } from '@/components/SpecSummary';
 import { StateBadge } from '@/components/StateBadge';
 import { counted } from '@/lib/plural';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { useParts } from '../api';
 import { PurchasingTabs } from '../components/PurchasingTabs';
 

@@ -8,7 +8,7 @@ import { PageHeader } from '@/components/PageHeader';
 import { PieceOutcomes } from '@/components/PieceOutcomes';
 import { SpecSummary } from '@/components/SpecSummary';
 import { StateBadge } from '@/components/StateBadge';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { usePurchaseOrder } from '../api';
 import { money } from '../components/money';
 import { PurchaseOrderForm } from '../components/PurchaseOrderForm';

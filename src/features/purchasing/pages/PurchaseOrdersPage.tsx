@@ -11,7 +11,7 @@ import { PageHeader } from '@/components/PageHeader';
 import { outcomeColumns, outcomeSummary } from '@/components/PieceOutcomes';
 import { StateBadge } from '@/components/StateBadge';
 import { counted } from '@/lib/plural';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { usePurchaseOrders } from '../api';
 import { money } from '../components/money';
 import { PurchasingTabs } from '../components/PurchasingTabs';

@@ -11,7 +11,7 @@ import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { StateBadge } from '@/components/StateBadge';
 import { counted } from '@/lib/plural';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { useSuppliers } from '../api';
 import { PurchasingTabs } from '../components/PurchasingTabs';
 import { SupplierForm } from '../components/SupplierForm';

@@ -11,7 +11,7 @@ import { PageHeader } from '@/components/PageHeader';
 import { PieceOutcomes } from '@/components/PieceOutcomes';
 import { SpecSummary } from '@/components/SpecSummary';
 import { StateBadge } from '@/components/StateBadge';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { useLot } from '../api';
 import { LotPieces } from '../components/LotPieces';
 

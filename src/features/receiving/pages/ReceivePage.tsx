@@ -2,7 +2,7 @@ import { useNavigate } from 'react-router';
 import { can } from '@shared/policies';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { ReceiveForm } from '../components/ReceiveForm';
 import { ReceivingTabs } from '../components/ReceivingTabs';
 

@@ -1,6 +1,6 @@
 import { can } from '@shared/policies';
 import { SectionTabs } from '@/components/SectionTabs';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 
 export function StockTabs() {
   const { data: user } = useSession();

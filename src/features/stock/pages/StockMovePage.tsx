@@ -3,7 +3,7 @@ import { useSearchParams } from 'react-router';
 import { can } from '@shared/policies';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { IssueForm, PutAwayForm, TransferForm } from '../components/MoveForms';
 import { StockTabs } from '../components/StockTabs';
 

@@ -8,7 +8,7 @@ import { Panel } from '@/components/Details';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { StateBadge } from '@/components/StateBadge';
-import { useSession } from '@/features/auth/api/session';
+import { useSession } from '@/lib/session';
 import { useSwitching } from '../api';
 import { OverrideForm } from '../components/OverrideForm';
 import { PhaseBadge } from '../components/PhaseBadge';
