@@ -1,5 +1,6 @@
 /// <reference types="vitest/config" />
 import { defineConfig } from 'vite';
+import { configDefaults } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import { fileURLToPath } from 'node:url';
@@ -30,7 +31,9 @@ export default defineConfig({
     },
   },
   test: {
-    include: ['shared/**/*.test.ts', 'server/**/*.test.ts', 'src/**/*.test.ts', 'tests/**/*.test.ts'],
+    include: ['shared/**/*.test.ts', 'server/**/*.test.ts', 'db/**/*.test.ts', 'src/**/*.test.ts', 'tests/**/*.test.ts'],
+    // The slow fault tests have their own run: npm run test:faults (vitest.faults.config.ts).
+    exclude: [...configDefaults.exclude, 'tests/faults/**'],
     // API and browser tests share one PostgreSQL database: run files one after another.
     fileParallelism: false,
     testTimeout: 30_000,

@@ -1,21 +1,18 @@
 // `npm start`: the project's own PostgreSQL, migrations, the demo seed on an empty database, the
 // mail catcher, the client build and the server, all stopped again by Ctrl-C.
 import { join, resolve } from 'node:path';
-import { ensureCluster, ensureDatabase, databaseUrl } from './lib/postgres';
+import { PROJECT_DATABASE, useProjectDatabase } from './lib/postgres';
 import { buildClientIfStale } from './lib/client-build';
 
 const started = Date.now();
 const root = resolve(import.meta.dirname, '..');
-const DB_PORT = 54870;
 const SMTP_PORT = Number(process.env.SMTP_CATCHER_PORT ?? 2525);
 
 const step = (message: string) => console.log(`phaselot: ${message} (${((Date.now() - started) / 1000).toFixed(1)} s)`);
 
-const cluster = ensureCluster('pg', DB_PORT);
-step(`PostgreSQL on 127.0.0.1:${DB_PORT} ${cluster.startedByUs ? 'started' : 'already running'}`);
-await ensureDatabase(DB_PORT, 'phaselot');
+const cluster = await useProjectDatabase(PROJECT_DATABASE.port, PROJECT_DATABASE.name);
+step(`PostgreSQL on 127.0.0.1:${PROJECT_DATABASE.port} ${cluster.startedByUs ? 'started' : 'already running'}`);
 
-process.env.DATABASE_URL ??= databaseUrl(DB_PORT, 'phaselot');
 process.env.SMTP_URL ??= `smtp://127.0.0.1:${SMTP_PORT}`;
 process.env.MAIL_CATCHER_DIR ??= join(root, '.data', 'mail');
 process.env.UPLOAD_DIR ??= join(root, '.data', 'uploads');
@@ -30,7 +27,7 @@ const { startBackgroundWork, stopBackgroundWork } = await import('../server/back
 const { config, isProduction } = await import('../server/config');
 const { ROLES } = await import('../shared/schemas/roles');
 
-const applied = await migrate(sequelize);
+const applied = await migrate();
 step(applied.length ? `applied ${applied.length} migration(s)` : 'schema up to date');
 
 if (!isProduction && (await isDatabaseEmpty())) {

@@ -24,7 +24,8 @@ const { startMailCatcher } = await import('../server/mail/catcher');
 const catcher = await startMailCatcher({ port: 0, dir: mailDir });
 Object.assign(process.env, {
   NODE_ENV: 'test',
-  DATABASE_URL: databaseUrl(DB_PORT, database),
+  DATABASE_URL: databaseUrl(DB_PORT, database, 'app'),
+  MIGRATION_DATABASE_URL: databaseUrl(DB_PORT, database, 'owner'),
   SMTP_URL: `smtp://127.0.0.1:${catcher.port}`,
   MAIL_CATCHER_DIR: mailDir,
   UPLOAD_DIR: join(runDir, 'uploads'),
@@ -36,7 +37,7 @@ const { sequelize } = await import('../db');
 const { migrate } = await import('../db/migrator');
 const { seedDemo } = await import('../db/seeders/demo');
 
-await migrate(sequelize);
+await migrate();
 await seedDemo();
 await sequelize.close();
 console.log(`phaselot: client ${await buildClientIfStale()}`);

@@ -8,7 +8,10 @@ const schema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
   PORT: z.coerce.number().int().min(1).max(65535).default(4870),
   HOST: z.string().default('127.0.0.1'),
-  DATABASE_URL: z.string().default('postgres://phaselot@127.0.0.1:54870/phaselot'),
+  // The application's connection (a role that may read and write rows only) and the owner's, which
+  // runs the migrations, backups and restores; one URL for both when MIGRATION_DATABASE_URL is unset.
+  DATABASE_URL: z.string().default('postgres://phaselot_app@127.0.0.1:54870/phaselot'),
+  MIGRATION_DATABASE_URL: z.string().optional(),
   JWT_SECRET: z.string().min(16).optional(),
   JWT_SECRET_FILE: z.string().default(join(resolve(import.meta.dirname, '..'), '.data', 'jwt-secret')),
   TOKEN_TTL_HOURS: z.coerce.number().positive().default(12),
@@ -39,7 +42,7 @@ const schema = z.object({
   JOBS_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(60),
 });
 
-export type Config = Omit<z.infer<typeof schema>, 'PUBLIC_URL'> & { JWT_SECRET: string; PUBLIC_URL: string; PUBLIC_ORIGINS: string[] };
+export type Config = Omit<z.infer<typeof schema>, 'PUBLIC_URL'> & { JWT_SECRET: string; PUBLIC_URL: string; PUBLIC_ORIGINS: string[]; MIGRATION_DATABASE_URL: string };
 
 function load(): Config {
   const parsed = schema.safeParse(process.env);
@@ -54,6 +57,7 @@ function load(): Config {
   if (Boolean(env.S3_ACCESS_KEY_ID) !== Boolean(env.S3_SECRET_ACCESS_KEY)) throw new Error('S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY are set together (or neither, for the AWS SDK\'s own credential chain)');
   return {
     ...env,
+    MIGRATION_DATABASE_URL: env.MIGRATION_DATABASE_URL ?? env.DATABASE_URL,
     JWT_SECRET: env.JWT_SECRET ?? storedSecret(env.JWT_SECRET_FILE),
     PUBLIC_URL: env.PUBLIC_URL[0].replace(/\/+$/, ''),
     PUBLIC_ORIGINS: env.PUBLIC_URL.map((url) => new URL(url).origin),

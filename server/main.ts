@@ -1,12 +1,22 @@
 // Serves the API and the built client: `npm start` calls startServer; `npm run dev:server` runs this
 // file, which also works the background jobs (as every server process does) and stops both on SIGTERM.
 import type { Server } from 'node:http';
-import { config } from './config';
+import { sequelize } from '../db';
+import { checkAppRole } from '../db/roles';
+import { config, isProduction } from './config';
 import { createApp } from './app';
 import { startBackgroundWork, stopBackgroundWork } from './background';
 import { logger } from './logger';
 
-export function startServer(port = config.PORT, host = config.HOST): Promise<Server> {
+/** A connection that could switch off the audit triggers is refused in production and warned about elsewhere. */
+async function checkDatabaseRole() {
+  const { problem } = await checkAppRole(sequelize);
+  if (problem && isProduction) throw new Error(`Refusing to start: ${problem}`);
+  if (problem) logger.warn(problem);
+}
+
+export async function startServer(port = config.PORT, host = config.HOST): Promise<Server> {
+  await checkDatabaseRole();
   const app = createApp();
   return new Promise((resolve, reject) => {
     const server = app.listen(port, host, () => resolve(server));

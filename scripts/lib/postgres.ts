@@ -1,6 +1,11 @@
 // The project's own PostgreSQL cluster: created on first use, started on 127.0.0.1, reused after.
 // PostgreSQL refuses to run as root, so as root the cluster belongs to the `postgres` system user;
 // when that user cannot enter the checkout, the data lives in a folder it can reach.
+//
+// Three roles: `phaselot`, the cluster's superuser, only creates roles and databases; `phaselot_owner`
+// owns each database and everything in it and runs the migrations; the application connects as
+// `phaselot_app`, which may read and write rows and nothing more (db/roles.ts). A cluster made before
+// the roles existed is brought to this layout on the next start, its data kept.
 import { execFileSync, spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import { existsSync, mkdirSync, readdirSync, readFileSync, chownSync, writeFileSync } from 'node:fs';
@@ -87,20 +92,112 @@ export function ensureCluster(name: string, port: number): Cluster {
   };
 }
 
-export function databaseUrl(port: number, database: string): string {
-  return `postgres://phaselot@127.0.0.1:${port}/${database}`;
+export const ROLES = { admin: 'phaselot', owner: 'phaselot_owner', app: 'phaselot_app' } as const;
+
+/** Where `npm start` keeps its data (the test cluster listens on 54871). */
+export const PROJECT_DATABASE = { port: 54870, name: 'phaselot' } as const;
+
+export function databaseUrl(port: number, database: string, role: keyof typeof ROLES): string {
+  return `postgres://${ROLES[role]}@127.0.0.1:${port}/${database}`;
 }
 
-export function ensureDatabase(port: number, database: string, options: { recreate?: boolean } = {}) {
-  return withAdmin(port, async (client) => {
+/**
+ * `npm start`'s database: the project's cluster (started if need be), the database in it, and the
+ * environment pointed at it unless DATABASE_URL / MIGRATION_DATABASE_URL say otherwise.
+ */
+export async function useProjectDatabase(port: number, database: string) {
+  const cluster = ensureCluster('pg', port);
+  await ensureDatabase(port, database);
+  process.env.DATABASE_URL ??= databaseUrl(port, database, 'app');
+  process.env.MIGRATION_DATABASE_URL ??= databaseUrl(port, database, 'owner');
+  return cluster;
+}
+
+/** The owner and application roles; neither may create roles or databases, the application inherits nothing. */
+async function ensureRoles(client: pg.Client) {
+  const roles = [
+    `${ROLES.owner} LOGIN NOSUPERUSER NOCREATEDB NOCREATEROLE NOREPLICATION NOBYPASSRLS`,
+    `${ROLES.app} LOGIN NOSUPERUSER NOCREATEDB NOCREATEROLE NOREPLICATION NOBYPASSRLS NOINHERIT`,
+  ];
+  for (const definition of roles) {
+    const name = definition.split(' ')[0];
+    const found = await client.query('SELECT 1 FROM pg_roles WHERE rolname = $1', [name]);
+    // Two starts at once may both find it missing: the loser's duplicate is harmless.
+    if (found.rowCount === 0) await client.query(`CREATE ROLE ${definition}`).catch((error) => {
+      if ((error as { code?: string }).code !== '42710') throw error;
+    });
+    else await client.query(`ALTER ROLE ${definition}`);
+  }
+}
+
+/**
+ * The database, created (or, from a cluster older than the roles, taken over) by the owner role:
+ * the database and every object in it not in the system schemas change hands, nothing is copied.
+ */
+export async function ensureDatabase(port: number, database: string, options: { recreate?: boolean } = {}) {
+  await withAdmin(port, async (client) => {
+    await ensureRoles(client);
     if (options.recreate) await client.query(`DROP DATABASE IF EXISTS "${database}" WITH (FORCE)`);
     const found = await client.query('SELECT 1 FROM pg_database WHERE datname = $1', [database]);
-    if (found.rowCount === 0) await client.query(`CREATE DATABASE "${database}"`);
+    if (found.rowCount === 0) await client.query(`CREATE DATABASE "${database}" OWNER ${ROLES.owner}`);
   });
+  await withAdmin(port, (client) => handOver(client, database), database);
 }
 
-async function withAdmin<T>(port: number, work: (client: pg.Client) => Promise<T>) {
-  const client = new pg.Client({ connectionString: databaseUrl(port, 'postgres') });
+/** Gives the database and what is in it to the owner role; a no-op once done. */
+async function handOver(client: pg.Client, database: string) {
+  await client.query(`ALTER DATABASE "${database}" OWNER TO ${ROLES.owner}`);
+  await client.query(`
+    DO $handover$
+    DECLARE
+      item record;
+      owner_oid oid := '${ROLES.owner}'::regrole;
+    BEGIN
+      FOR item IN
+        SELECT n.nspname AS schema_name FROM pg_namespace n
+         WHERE n.nspowner <> owner_oid AND n.nspname NOT IN ('public', 'information_schema') AND n.nspname NOT LIKE 'pg\\_%'
+      LOOP
+        EXECUTE format('ALTER SCHEMA %I OWNER TO ${ROLES.owner}', item.schema_name);
+      END LOOP;
+      -- Tables take their indexes and the sequences of their serial columns with them.
+      FOR item IN
+        SELECT n.nspname AS schema_name, c.relname, c.relkind FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+         WHERE c.relowner <> owner_oid AND c.relkind IN ('r', 'p', 'v', 'm', 'f')
+           AND n.nspname <> 'information_schema' AND n.nspname NOT LIKE 'pg\\_%'
+      LOOP
+        EXECUTE format('ALTER %s %I.%I OWNER TO ${ROLES.owner}',
+          CASE item.relkind WHEN 'v' THEN 'VIEW' WHEN 'm' THEN 'MATERIALIZED VIEW' WHEN 'f' THEN 'FOREIGN TABLE' ELSE 'TABLE' END,
+          item.schema_name, item.relname);
+      END LOOP;
+      FOR item IN
+        SELECT n.nspname AS schema_name, c.relname FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+         WHERE c.relowner <> owner_oid AND c.relkind = 'S' AND n.nspname <> 'information_schema' AND n.nspname NOT LIKE 'pg\\_%'
+      LOOP
+        EXECUTE format('ALTER SEQUENCE %I.%I OWNER TO ${ROLES.owner}', item.schema_name, item.relname);
+      END LOOP;
+      FOR item IN
+        SELECT p.oid::regprocedure AS routine FROM pg_proc p JOIN pg_namespace n ON n.oid = p.pronamespace
+         WHERE p.proowner <> owner_oid AND n.nspname <> 'information_schema' AND n.nspname NOT LIKE 'pg\\_%'
+           AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.classid = 'pg_proc'::regclass AND d.objid = p.oid AND d.deptype = 'e')
+      LOOP
+        EXECUTE format('ALTER ROUTINE %s OWNER TO ${ROLES.owner}', item.routine);
+      END LOOP;
+      -- Enums, domains and ranges (a table's own row type follows its table).
+      FOR item IN
+        SELECT t.oid::regtype AS type_name FROM pg_type t JOIN pg_namespace n ON n.oid = t.typnamespace
+         WHERE t.typowner <> owner_oid AND t.typtype IN ('e', 'd', 'r') AND n.nspname <> 'information_schema' AND n.nspname NOT LIKE 'pg\\_%'
+           AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.classid = 'pg_type'::regclass AND d.objid = t.oid AND d.deptype = 'e')
+      LOOP
+        EXECUTE format('ALTER TYPE %s OWNER TO ${ROLES.owner}', item.type_name);
+      END LOOP;
+    END
+    $handover$;
+    REVOKE CREATE ON SCHEMA public FROM PUBLIC;
+  `);
+}
+
+async function withAdmin<T>(port: number, work: (client: pg.Client) => Promise<T>, database = 'postgres') {
+  const client = new pg.Client({ connectionString: databaseUrl(port, database, 'admin') });
   await client.connect();
   try {
     return await work(client);
