@@ -9,7 +9,7 @@ import { Instrument, LotDocument, MeasurementFile, type DispositionRecord, type 
 import { DISPOSITION_LABELS } from '../../shared/inspection/lotVerdict';
 import { config } from '../config';
 import { renderLotReport, type LotReportData, type ReportPiece } from '../documents/lotReport';
-import { readSiteSettings } from '../routes/settings/operations';
+import { readSiteSettings } from '../settings/siteSettings';
 import { sha256, storeBlob } from '../storage/blobs';
 import type { LotEvaluation } from './evaluation';
 import type { LotForInspection } from './lotAccess';

@@ -11,7 +11,7 @@ import { OVERRIDE_MEANING, RESUME_MEANING, type ResumeInspectionInput, type Seve
 import { actorFromUser, recordAudit, type AuditActor } from '../audit/record';
 import { verifySignature } from '../auth/signature';
 import { conflict, notFound } from '../http/errors';
-import { readSiteSettings } from '../routes/settings/operations';
+import { readSiteSettings } from '../settings/siteSettings';
 import type { LotEvaluation } from './evaluation';
 import type { LotForInspection } from './lotAccess';
 import { drawWaitingPlans, switchingStateOf } from './sampling';

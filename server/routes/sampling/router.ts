@@ -2,12 +2,12 @@
 // the published tables (shared/sampling), for forms and tools. Reads nothing stored.
 import { Router } from 'express';
 import { lookUpPlan } from '../../../shared/sampling';
-import { planQuerySchema, type PlanQuery } from '../../../shared/schemas/sampling';
+import { planQuerySchema } from '../../../shared/schemas/sampling';
 import { allow, authenticate } from '../../auth/authenticate';
-import { validate } from '../../http/validate';
+import { validated } from '../../http/validate';
 
 export const samplingRouter = Router();
 
-samplingRouter.get('/plan', authenticate, allow('sampling.read'), validate({ query: planQuerySchema }), (req, res) => {
-  res.json(lookUpPlan(req.valid.query as PlanQuery));
-});
+samplingRouter.get('/plan', authenticate, allow('sampling.read'), validated({ query: planQuerySchema }, ({ query }, _req, res) => {
+  res.json(lookUpPlan(query));
+}));

@@ -1,9 +1,9 @@
 import { Router } from 'express';
-import { siteSettingsSchema, type SiteSettings } from '../../../shared/schemas/settings';
+import { siteSettingsSchema } from '../../../shared/schemas/settings';
 import { actorOf } from '../../audit/record';
 import { allow, authenticate } from '../../auth/authenticate';
-import { validate } from '../../http/validate';
-import { readSiteSettings, saveSiteSettings } from './operations';
+import { validated } from '../../http/validate';
+import { readSiteSettings, saveSiteSettings } from '../../settings/siteSettings';
 
 export const settingsRouter = Router();
 
@@ -11,6 +11,6 @@ settingsRouter.get('/', authenticate, async (_req, res) => {
   res.json(await readSiteSettings());
 });
 
-settingsRouter.put('/', authenticate, allow('settings.manage'), validate({ body: siteSettingsSchema }), async (req, res) => {
-  res.json(await saveSiteSettings(actorOf(req), req.valid.body as SiteSettings));
-});
+settingsRouter.put('/', authenticate, allow('settings.manage'), validated({ body: siteSettingsSchema }, async ({ body }, req, res) => {
+  res.json(await saveSiteSettings(actorOf(req), body));
+}));

@@ -7,7 +7,7 @@ import type { SwitchingHistoryEntry, SwitchingListQuery, SwitchingRow, Switching
 import { filterWhen, type ListDefinition } from '../../http/list';
 import { lotsWaitingForPlans, switchingStateOf } from '../../inspection/sampling';
 import { supplierAndPart } from '../../inspection/switching';
-import { readSiteSettings } from '../settings/operations';
+import { readSiteSettings } from '../../settings/siteSettings';
 
 const PHASE = `CASE WHEN coalesce((ss.state->>'stopped')::boolean, false) THEN 'stopped' ELSE coalesce(ss.state->>'severity', 'normal') END`;
 

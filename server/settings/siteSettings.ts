@@ -1,7 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize';
-import { inTransaction, sequelize } from '../../../db';
-import { DEFAULT_SITE_SETTINGS, siteSettingsSchema, type SiteSettings } from '../../../shared/schemas/settings';
-import { recordAudit, type AuditActor } from '../../audit/record';
+import { inTransaction, sequelize } from '../../db';
+import { DEFAULT_SITE_SETTINGS, siteSettingsSchema, type SiteSettings } from '../../shared/schemas/settings';
+import { recordAudit, type AuditActor } from '../audit/record';
 
 export async function readSiteSettings(transaction?: Transaction): Promise<SiteSettings> {
   const [row] = await sequelize.query<{ value: SiteSettings }>('SELECT value FROM site_settings WHERE id = 1', { type: QueryTypes.SELECT, transaction });
