@@ -3,7 +3,7 @@
 // job does it; a job whose process dies is retried by another.
 import { startJobs, stopJobs, QUEUES, type JobDefinition } from './jobs/queue';
 import { mailJobs } from './mail/outbox';
-import { exportJob } from './routes/exports/operations';
+import { exportJob } from './exports/exportJobs';
 import { sweepOrphanBlobs } from './storage/sweep';
 
 const blobSweepJob: JobDefinition = {

@@ -15,7 +15,7 @@ import { DISPOSITION_LABELS } from '../../shared/inspection/lotVerdict';
 import { AUDIT_CSV_COLUMNS, streamAuditEvents } from '../audit/query';
 import { chainHead } from '../audit/verify';
 import { escapeCsvCell, type CsvColumn } from '../http/csv';
-import type { documentsForExport } from '../routes/certificates/queries';
+import type { documentsForExport } from '../documents/certificates';
 import { JobFailure } from '../jobs/queue';
 import { openBlob } from '../storage/blobs';
 import { BlobMissingError } from '../storage/store';

@@ -1,7 +1,7 @@
-import type { ExportJob } from '../../../db/models';
 import type { ExportJobView } from '../../../shared/schemas/exports';
+import type { ExportJobRecord } from '../../exports/exportJobs';
 
-export const presentExportJob = (job: ExportJob): ExportJobView => ({
+export const presentExportJob = (job: ExportJobRecord): ExportJobView => ({
   id: job.id,
   requestedBy: job.requestedBy,
   filter: job.filter,
@@ -15,4 +15,4 @@ export const presentExportJob = (job: ExportJob): ExportJobView => ({
   finishedAt: job.finishedAt?.toISOString() ?? null,
 });
 
-export const bundleFileName = (job: ExportJob) => `phaselot-export-${job.filter.from}_${job.filter.to}-${job.id}.zip`;
+export const bundleFileName = (job: ExportJobRecord) => `phaselot-export-${job.filter.from}_${job.filter.to}-${job.id}.zip`;

@@ -2,17 +2,17 @@
 // whichever server process takes the job (server/jobs), while the page polls their progress. A try
 // cut off by a stopped process is retried by the queue; each try starts the bundle afresh, and only
 // the latest try's progress and result are kept.
-import { inTransaction } from '../../../db';
-import { ExportJob } from '../../../db/models';
-import type { ExportFilter } from '../../../shared/schemas/exports';
-import { recordAudit, type AuditActor } from '../../audit/record';
-import { config } from '../../config';
-import { writeExportBundle } from '../../exports/bundle';
-import { badRequest, conflict, notFound } from '../../http/errors';
-import { enqueue, QUEUES, type JobDefinition, type JobRun } from '../../jobs/queue';
-import { logger } from '../../logger';
-import { storeBlobFile } from '../../storage/blobs';
-import { documentsForExport, listDocuments } from '../certificates/queries';
+import { inTransaction } from '../../db';
+import { ExportJob } from '../../db/models';
+import type { ExportFilter } from '../../shared/schemas/exports';
+import { recordAudit, type AuditActor } from '../audit/record';
+import { config } from '../config';
+import { writeExportBundle } from './bundle';
+import { badRequest, conflict, notFound } from '../http/errors';
+import { enqueue, QUEUES, type JobDefinition, type JobRun } from '../jobs/queue';
+import { logger } from '../logger';
+import { storeBlobFile } from '../storage/blobs';
+import { documentsForExport, listDocuments } from '../documents/certificates';
 
 const PROGRESS_SAVE_INTERVAL_MS = 250;
 
@@ -76,6 +76,9 @@ export async function findExportJob(id: number) {
   if (!job) throw notFound('Export');
   return job;
 }
+
+/** An export job as stored, for the route's presenter. */
+export type ExportJobRecord = Awaited<ReturnType<typeof findExportJob>>;
 
 export const recentExports = (userId: number) => ExportJob.findAll({ where: { requestedBy: userId }, order: [['createdAt', 'DESC'], ['id', 'DESC']], limit: 10 });
 

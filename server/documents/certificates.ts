@@ -1,8 +1,10 @@
 import { QueryTypes } from 'sequelize';
-import { sequelize } from '../../../db';
-import { sortOf } from '../../http/list';
-import { DISPOSITION_LABELS, type Disposition } from '../../../shared/inspection/lotVerdict';
-import type { CertificateListQuery, VerificationResult } from '../../../shared/schemas/certificates';
+import { sequelize } from '../../db';
+import { LotDocument } from '../../db/models';
+import { notFound } from '../http/errors';
+import { sortOf } from '../http/list';
+import { DISPOSITION_LABELS, type Disposition } from '../../shared/inspection/lotVerdict';
+import type { CertificateListQuery, VerificationResult } from '../../shared/schemas/certificates';
 
 type DocumentRow = {
   id: number; number: string; kind: 'certificate' | 'inspection-report'; data_hash: string; pdf_sha256: string; storage_key: string; issued_at: Date; revoked_at: Date | null;
@@ -86,4 +88,11 @@ export async function verifyDocument(number: string, hash: string): Promise<Veri
       part: `${row.part_number} — ${row.part_description}`, supplier: row.supplier_name, supplierLot: row.supplier_lot, decision: DISPOSITION_LABELS[row.decision],
     },
   };
+}
+
+/** An issued document by its number, for its stored PDF. */
+export async function findDocument(number: string) {
+  const document = await LotDocument.findOne({ where: { number } });
+  if (!document) throw notFound('Document');
+  return document;
 }
