@@ -4,7 +4,8 @@
 import type { Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
 import { Instrument, MeasurementFile, PieceResult, Reading } from '../../db/models';
-import { analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type LineMessage, type ParsedRow, type PieceResult as EnginePieceResult } from '../../shared/optics';
+import { analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type ParsedRow } from '../../shared/optics';
+import type { FilePreview } from '../../shared/schemas/inspection';
 import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName, type LotState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { AppError, badRequest } from '../http/errors';
@@ -17,19 +18,6 @@ import { pieceSpecFor } from './spec';
 export const MAX_MEASUREMENT_BYTES = 50 * 1024 * 1024;
 
 export type UploadedFile = { originalname: string; buffer: Buffer };
-
-export type FilePreview = {
-  name: string;
-  sha256: string;
-  sizeBytes: number;
-  method: AnalysisResult['method'];
-  metadata: AnalysisResult['metadata'];
-  instrument: { id: number; code: string } | null;
-  pieces: EnginePieceResult[];
-  warnings: LineMessage[];
-  errors: LineMessage[];
-  fatal?: string;
-};
 
 function openLot(lot: LotForInspection) {
   const state = lot.state as LotState;

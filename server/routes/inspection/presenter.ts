@@ -1,6 +1,9 @@
 // What the inspection screens read: the queue of lots waiting, and one lot's whole inspection.
 import { DispositionRecord, Instrument, LotDocument, MeasurementFile, User } from '../../../db/models';
 import { ocCurve } from '../../../shared/sampling';
+import type { PieceResult } from '../../../shared/optics';
+import type { LotInspectionView, QueueRow } from '../../../shared/schemas/inspection';
+import type { LotState } from '../../../shared/schemas/stock';
 import { evaluateLot } from '../../inspection/evaluation';
 import { lotForInspection, lotsAwaitingInspection } from '../../inspection/lotAccess';
 import { piecesLeftToSort } from '../../inspection/sort';
@@ -8,13 +11,13 @@ import { inspectionPlanOf, switchingStateOf } from '../../inspection/sampling';
 
 const DAY_MS = 86_400_000;
 
-export async function inspectionQueue() {
+export async function inspectionQueue(): Promise<{ data: QueueRow[]; total: number }> {
   const lots = await lotsAwaitingInspection();
-  const rows = [];
+  const rows: QueueRow[] = [];
   for (const lot of lots) {
     const row = {
       lotId: lot.id,
-      state: lot.state,
+      state: lot.state as LotState,
       part: lot.part,
       supplier: lot.supplier.name,
       supplierId: lot.supplier.id,
@@ -42,7 +45,7 @@ export async function inspectionQueue() {
   return { data: rows, total: rows.length };
 }
 
-export async function lotInspectionView(lotId: number) {
+export async function lotInspectionView(lotId: number): Promise<LotInspectionView> {
   const lot = await lotForInspection(lotId);
   const evaluation = await evaluateLot(lot);
   const { plan } = evaluation;
@@ -59,7 +62,7 @@ export async function lotInspectionView(lotId: number) {
   // A sort puts every piece still on site up for measurement, not only the sample.
   const sorting = lot.state === 'sorting';
   return {
-    lot: { id: lot.id, state: lot.state, supplierLot: lot.supplierLot, quantity: lot.quantity, receivedAt: lot.receivedAt, poNumber: lot.poNumber, lineNumber: lot.lineNumber, part: lot.part, supplier: lot.supplier },
+    lot: { id: lot.id, state: lot.state as LotState, supplierLot: lot.supplierLot, quantity: lot.quantity, receivedAt: lot.receivedAt, poNumber: lot.poNumber, lineNumber: lot.lineNumber, part: lot.part, supplier: lot.supplier },
     spec: lot.spec,
     plan: {
       codeLetter: plan.codeLetter, planLetter: plan.planLetter, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, severity: plan.severity,
@@ -77,7 +80,8 @@ export async function lotInspectionView(lotId: number) {
       inSample: inSample.has(p.id),
       toMeasure: sorting ? p.state !== 'issued' : inSample.has(p.id),
       verdict: evaluation.pieceVerdicts.get(p.id) ?? 'unmeasured',
-      results: (evaluation.allResults.get(p.id) ?? []).map((r) => ({ id: r.id, fileId: r.fileId, wavelengthNm: r.wavelengthNm, verdict: r.verdict, ...r.result, createdAt: r.createdAt.toISOString() })),
+      // The stored JSON is the engine's whole result of the piece (its wavelength and verdict too) as its file was committed.
+      results: (evaluation.allResults.get(p.id) ?? []).map((r) => ({ id: r.id, fileId: r.fileId, ...(r.result as unknown as PieceResult), createdAt: r.createdAt.toISOString() })),
     })),
     files: files.map((f) => ({
       id: f.id, name: f.originalName, sha256: f.sha256, sizeBytes: f.sizeBytes, method: f.method, rows: f.rowCount, instrument: instruments.get(f.instrumentId) ?? null,

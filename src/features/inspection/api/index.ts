@@ -2,7 +2,8 @@ import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { DispositionInput } from '@shared/inspection/lotVerdict';
 import type { ListResponse } from '@shared/schemas/paging';
 import { api } from '@/lib/api';
-import type { FilePreview, InstrumentOption, LotInspectionView, QueueRow } from './types';
+import type { FilePreview, LotInspectionView, QueueRow } from '@shared/schemas/inspection';
+import type { InstrumentOption } from './types';
 
 export const inspectionKeys = {
   all: ['inspection'] as const,

@@ -10,7 +10,7 @@ import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { useSignDisposition } from '../api';
-import type { LotInspectionView } from '../api/types';
+import type { LotInspectionView } from '@shared/schemas/inspection';
 import { SignedDecision } from './SignedDecision';
 
 type Signed = LotInspectionView['dispositions'][number];

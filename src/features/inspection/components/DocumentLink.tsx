@@ -1,4 +1,4 @@
-import type { LotInspectionView } from '../api/types';
+import type { LotInspectionView } from '@shared/schemas/inspection';
 
 const KIND_LABELS = { certificate: 'certificate of conformance', 'inspection-report': 'inspection report' } as const;
 

@@ -5,7 +5,7 @@ import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { ApiError } from '@/lib/api';
 import { useBenchInstruments, useCommitMeasurements, usePreviewMeasurements } from '../api';
-import type { FilePreview } from '../api/types';
+import type { FilePreview } from '@shared/schemas/inspection';
 import { VerdictBadge } from './VerdictBadge';
 
 const num = (v: number | null | undefined, digits: number) => (v === null || v === undefined ? '—' : v.toFixed(digits));

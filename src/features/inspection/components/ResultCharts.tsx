@@ -1,7 +1,7 @@
 // The lot drawn: retardance errors and axis errors of the measured pieces against their tolerance
 // bands, and every piece as a point in the tolerance box.
 import { CartesianGrid, ReferenceArea, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
-import type { LotInspectionView } from '../api/types';
+import type { LotInspectionView } from '@shared/schemas/inspection';
 
 const PASS = '#2e7d4f';
 const FAIL = '#b3372f';

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import type { LotInspectionView } from '../api/types';
+import type { LotInspectionView } from '@shared/schemas/inspection';
 import { VerdictBadge } from './VerdictBadge';
 
 const num = (v: number | null | undefined, digits: number, signed = false) => (v === null || v === undefined ? '—' : `${signed && v >= 0 ? '+' : ''}${v.toFixed(digits)}`);

@@ -2,7 +2,7 @@ import type { ReactNode } from 'react';
 import { DISPOSITION_LABELS, type Disposition } from '@shared/inspection/lotVerdict';
 import { Details, Panel } from '@/components/Details';
 import { StateBadge, type Tone } from '@/components/StateBadge';
-import type { LotInspectionView } from '../api/types';
+import type { LotInspectionView } from '@shared/schemas/inspection';
 import { DocumentLink } from './DocumentLink';
 
 const DECISION_TONES: Record<Disposition, Tone> = { accept: 'pass', reject: 'fail', sort: 'hold', 'use-as-is': 'hold' };
