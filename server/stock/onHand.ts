@@ -1,4 +1,5 @@
-/** SQL for the number of pieces of a part now in stock bins; `partId` is an SQL expression. */
+/** SQL for the number of pieces of a part now in stock bins; `partId` is an SQL expression. The
+ * ledger keeps the counts per part and location (the view on_hand). */
 export const onHandSql = (partId: string) =>
-  `(SELECT count(*) FROM pieces pc JOIN piece_locations pl ON pl.piece_id = pc.id JOIN locations loc ON loc.id = pl.location_id
-     WHERE pc.part_id = ${partId} AND loc.kind = 'stock')`;
+  `(SELECT coalesce(sum(oh.pieces), 0) FROM on_hand oh JOIN locations loc ON loc.id = oh.location_id
+     WHERE oh.part_id = ${partId} AND loc.kind = 'stock')`;

@@ -4,13 +4,12 @@ import { filterWhen, type ListDefinition } from '../../http/list';
 
 export const presentLocation = (l: Location): LocationView => ({ id: l.id, code: l.code, name: l.name, kind: l.kind, active: l.active });
 
-/** On-hand: pieces counted where their latest move put them, per part and location. */
+/** On-hand: pieces where their latest move put them, per part and location, as the ledger counts them. */
 export const stockList: ListDefinition<StockRow, StockQuery> = {
   select: `pt.id AS "partId", pt.number AS "partNumber", pt.description AS "partDescription",
-    loc.id AS "locationId", loc.code AS "locationCode", loc.kind AS "locationKind", count(*) AS "onHand"`,
-  from: `piece_locations pl JOIN pieces p ON p.id = pl.piece_id JOIN parts pt ON pt.id = p.part_id JOIN locations loc ON loc.id = pl.location_id`,
-  groupBy: 'pt.id, loc.id',
-  sortable: { partNumber: 'pt.number', locationCode: 'loc.code', locationKind: 'loc.kind', onHand: 'count(*)' },
+    loc.id AS "locationId", loc.code AS "locationCode", loc.kind AS "locationKind", oh.pieces AS "onHand"`,
+  from: `on_hand oh JOIN parts pt ON pt.id = oh.part_id JOIN locations loc ON loc.id = oh.location_id`,
+  sortable: { partNumber: 'pt.number', locationCode: 'loc.code', locationKind: 'loc.kind', onHand: 'oh.pieces' },
   defaultSort: 'partNumber',
   tieBreaker: 'loc.code',
   search: ['pt.number', 'pt.description', 'loc.code', 'loc.name'],
