@@ -7,22 +7,23 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
 import { Location, Piece, StockMove } from '../../db/models';
-import { LOCATION_KIND_LABELS, LOT_STATE_LABELS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, lotName, pieceStateAt, type LocationKind, type LotState, type MoveReason, type PieceState } from '../../shared/schemas/stock';
+import { LOCATION_KIND_LABELS, LOT_STATE_LABELS, OUT_OF_STORES_REASONS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, lotName, pieceStateAt, type LocationKind, type LotState, type MoveReason, type PieceState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { badRequest, conflict, notFound } from '../http/errors';
-import { failingNowSql, usedAsIsSql } from './standing';
+import { failingNowSql, releasedByNcrSql, usedAsIsSql } from './standing';
 
 export type MoveRequest = {
   pieceIds: number[];
-  /** Where the pieces go; `null` issues them out of stores (reason 'issue', with a work order). */
+  /** Where the pieces go; `null` takes them out of stores: an issue (with a work order), a scrap or a
+   * shipment back to the vendor. */
   toLocationId: number | null;
   reason: Exclude<MoveReason, 'receipt'>;
   workOrder?: string | null;
   note?: string | null;
   /** The states the pieces must be in; if any piece is in another, nothing moves (409). */
   fromStates?: readonly PieceState[];
-  /** The signed lot decision that orders this move: it may take pieces out of material review or
-   * return-to-vendor, since the decision re-routes its whole lot. */
+  /** The signed decision that orders this move (a lot's, or an NCR's for its pieces): it may take
+   * pieces out of material review or return-to-vendor. */
   signedDispositionId?: number;
 };
 
@@ -40,7 +41,7 @@ async function lockPieces(pieceIds: number[], transaction: Transaction): Promise
   if (locked.length !== pieceIds.length) throw notFound('Piece');
   return sequelize.query<LockedPiece>(
     `SELECT p.id, p.serial, p.state, p.lot_id AS "lotId", l.state AS "lotState", pl.location_id AS "locationId", loc.code AS "locationCode",
-            loc.kind AS "locationKind", ${failingNowSql('p.id')} AS failing, ${usedAsIsSql('l.id')} AS "usedAsIs"
+            loc.kind AS "locationKind", ${failingNowSql('p.id')} AS failing, (${usedAsIsSql('l.id')} OR ${releasedByNcrSql('p.id')}) AS "usedAsIs"
        FROM pieces p
        JOIN lots l ON l.id = p.lot_id
        JOIN piece_locations pl ON pl.piece_id = p.id
@@ -52,12 +53,13 @@ async function lockPieces(pieceIds: number[], transaction: Transaction): Promise
 }
 
 async function destinationOf(request: MoveRequest, transaction: Transaction) {
+  const outOfStores = OUT_OF_STORES_REASONS.includes(request.reason);
   if (request.toLocationId === null) {
-    if (request.reason !== 'issue') throw badRequest('Only an issue to a work order takes pieces out of every location');
-    if (!request.workOrder) throw badRequest('An issue needs its work order');
+    if (!outOfStores) throw badRequest('Only an issue to a work order, a scrap or a shipment back to the vendor takes pieces out of every location');
+    if (request.reason === 'issue' && !request.workOrder) throw badRequest('An issue needs its work order');
     return null;
   }
-  if (request.reason === 'issue') throw badRequest('An issue takes pieces out of stores; it has no destination location');
+  if (outOfStores) throw badRequest('An issue, a scrap or a shipment back to the vendor takes pieces out of stores; it has no destination location');
   const location = await Location.findByPk(request.toLocationId, { transaction });
   if (!location) throw notFound('Location');
   if (!location.active) throw conflict(`Location ${location.code} is no longer in use`);
@@ -70,7 +72,8 @@ function refuseUnless(pieces: LockedPiece[], bad: (piece: LockedPiece) => boolea
 }
 
 /** Why a piece may not go to stock or a work order, or null. Pieces of a lot used as is under a signed
- * deviation are the one exception: that decision released them, failed ones included. */
+ * deviation are the one exception, and so are pieces an NCR released (used as is, or reworked): that
+ * decision released them, failed ones included. */
 function unfitForUse(piece: LockedPiece, request: MoveRequest): string | null {
   if (piece.usedAsIs) return null;
   if (piece.failing) return 'failed inspection';
@@ -90,7 +93,7 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
   if (destination?.kind === 'stock') {
     refuseUnless(
       pieces,
-      (p) => !RELEASABLE_LOT_STATES.includes(p.lotState),
+      (p) => !RELEASABLE_LOT_STATES.includes(p.lotState) && !p.usedAsIs,
       (bad) => `Only pieces of accepted lots go to stock; lot ${lotName(bad[0].lotId)} is ${LOT_STATE_LABELS[bad[0].lotState].toLowerCase()}: ${listSerials(bad)}`,
     );
   }
@@ -111,8 +114,8 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
       (bad) => `Not available: ${bad.map((p) => `${p.serial} (${PIECE_STATE_LABELS[p.state].toLowerCase()})`).slice(0, 12).join(', ')}${bad.length > 12 ? ` and ${bad.length - 12} more` : ''}`,
     );
   }
-  if (request.reason === 'return') refuseUnless(pieces, (p) => p.locationId !== null, (bad) => `Not issued, so nothing to return: ${listSerials(bad)}`);
-  else refuseUnless(pieces, (p) => p.locationId === null, (bad) => `Already issued: ${listSerials(bad)}`);
+  if (request.reason === 'return') refuseUnless(pieces, (p) => p.state !== 'issued', (bad) => `Not issued, so nothing to return: ${listSerials(bad)}`);
+  else refuseUnless(pieces, (p) => p.locationId === null, (bad) => `Already out of stores: ${listSerials(bad.map((p) => ({ serial: `${p.serial} (${PIECE_STATE_LABELS[p.state].toLowerCase()})` })))}`);
   if (destination) refuseUnless(pieces, (p) => p.locationId === destination.id, (bad) => `Already in ${destination.code}: ${listSerials(bad)}`);
 
   // One time for the whole move, so the pieces moved together read as one event.
@@ -130,7 +133,7 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
     })),
     { transaction },
   );
-  const state = pieceStateAt(destination?.kind ?? null);
+  const state = pieceStateAt(destination?.kind ?? null, request.reason);
   await Piece.update({ state }, { where: { id: pieceIds }, transaction });
   await recordAudit(
     actor,

@@ -10,11 +10,17 @@ export const failingNowSql = (piece: string) =>
 export const usedAsIsSql = (lot: string) =>
   `EXISTS (SELECT 1 FROM dispositions d WHERE d.lot_id = ${lot} AND d.superseded_at IS NULL AND d.decision = 'use-as-is')`;
 
+/** The piece's latest NCR released it to use: a signed use as is, or a signed release after rework. */
+export const releasedByNcrSql = (piece: string) =>
+  `EXISTS (SELECT 1 FROM nonconformance_pieces np JOIN ncr_dispositions nd ON nd.id = np.disposition_id
+            WHERE np.piece_id = ${piece} AND (nd.decision = 'use-as-is' OR np.rework_release_id IS NOT NULL)
+              AND np.nonconformance_id = (SELECT max(latest.nonconformance_id) FROM nonconformance_pieces latest WHERE latest.piece_id = ${piece}))`;
+
 /** The PieceQuantities of the pieces `where` selects (pieces alias `pc`, their lots `ql`). */
 export const pieceQuantitiesSql = (where: string) => `(
   SELECT count(*) FILTER (WHERE pc.state IN ('in-stock', 'issued')) AS accepted,
          count(*) FILTER (WHERE ${failingNowSql('pc.id')}) AS nonconforming,
-         count(*) FILTER (WHERE pc.state = 'returned') AS returned
+         count(*) FILTER (WHERE pc.state IN ('returned', 'shipped-back')) AS returned
     FROM pieces pc JOIN lots ql ON ql.id = pc.lot_id WHERE ${where})`;
 
 export const pieceQuantities = (row: Record<string, unknown>): PieceQuantities => ({
@@ -22,3 +28,9 @@ export const pieceQuantities = (row: Record<string, unknown>): PieceQuantities =
   nonconforming: Number(row.nonconforming ?? 0),
   returned: Number(row.returned ?? 0),
 });
+
+/** Pieces received in shipments that replace an NCR's returned pieces, of the lots `where` selects
+ * (lots alias `rl`). */
+export const replacedPiecesSql = (where: string) =>
+  `(SELECT count(*) FROM pieces rp JOIN lots rl ON rl.id = rp.lot_id JOIN shipments rs ON rs.id = rl.shipment_id
+     WHERE rs.replacement_for_ncr_id IS NOT NULL AND ${where})`;

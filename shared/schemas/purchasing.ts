@@ -90,7 +90,10 @@ export type PartView = {
   onHand: number;
 };
 
-export type PoLineView = PieceQuantities & {
+/** A PO line's piece outcomes, and the pieces received on it to replace pieces an NCR returned. */
+export type PoLineQuantities = PieceQuantities & { replaced: number };
+
+export type PoLineView = PoLineQuantities & {
   id: number;
   lineNumber: number;
   part: { id: number; number: string; description: string };

@@ -27,10 +27,11 @@ export const lotName = (lotId: number) => `L-${lotId}`;
 
 /** Pieces of a lot (or of every lot of a PO or PO line) by outcome: accepted = released to stock (in
  * a bin, or issued since); nonconforming = current verdict fail (wherever the piece is); returned =
- * in return-to-vendor. */
+ * in return-to-vendor, or shipped back to the vendor. */
 export type PieceQuantities = { accepted: number; nonconforming: number; returned: number };
 
-export const PIECE_STATES = ['quarantine', 'held', 'in-stock', 'issued', 'returned'] as const;
+// 'scrapped' and 'shipped-back' pieces have left the site for good (NCR dispositions, returns).
+export const PIECE_STATES = ['quarantine', 'held', 'in-stock', 'issued', 'returned', 'scrapped', 'shipped-back'] as const;
 export const pieceStateSchema = z.enum(PIECE_STATES);
 export type PieceState = z.infer<typeof pieceStateSchema>;
 export const PIECE_STATE_LABELS: Record<PieceState, string> = {
@@ -39,6 +40,8 @@ export const PIECE_STATE_LABELS: Record<PieceState, string> = {
   'in-stock': 'In stock',
   issued: 'Issued',
   returned: 'Returned to vendor',
+  scrapped: 'Scrapped',
+  'shipped-back': 'Shipped back to vendor',
 };
 
 export const LOCATION_KINDS = ['quarantine', 'inspection-hold', 'stock', 'material-review', 'return-to-vendor'] as const;
@@ -51,11 +54,11 @@ export const LOCATION_KIND_LABELS: Record<LocationKind, string> = {
   'material-review': 'Material review',
   'return-to-vendor': 'Return to vendor',
 };
-/** The state a piece takes where it lands; `null` is "issued out of stores". */
-export function pieceStateAt(kind: LocationKind | null): PieceState {
+/** The state a piece takes where it lands; `null` is out of stores, by the move's reason. */
+export function pieceStateAt(kind: LocationKind | null, reason: MoveReason = 'issue'): PieceState {
   switch (kind) {
     case null:
-      return 'issued';
+      return reason === 'scrap' ? 'scrapped' : reason === 'ship-to-vendor' ? 'shipped-back' : 'issued';
     case 'stock':
       return 'in-stock';
     case 'quarantine':
@@ -67,7 +70,9 @@ export function pieceStateAt(kind: LocationKind | null): PieceState {
   }
 }
 
-export const MOVE_REASONS = ['receipt', 'inspection', 'release', 'transfer', 'issue', 'return', 'hold', 'return-to-vendor'] as const;
+export const MOVE_REASONS = ['receipt', 'inspection', 'release', 'transfer', 'issue', 'return', 'hold', 'return-to-vendor', 'scrap', 'ship-to-vendor'] as const;
+/** Reasons that take pieces out of stores (no destination location). */
+export const OUT_OF_STORES_REASONS: readonly MoveReason[] = ['issue', 'scrap', 'ship-to-vendor'];
 export const moveReasonSchema = z.enum(MOVE_REASONS);
 export type MoveReason = z.infer<typeof moveReasonSchema>;
 export const MOVE_REASON_LABELS: Record<MoveReason, string> = {
@@ -78,7 +83,9 @@ export const MOVE_REASON_LABELS: Record<MoveReason, string> = {
   issue: 'Issued to work order',
   return: 'Returned from work order',
   hold: 'Held for review',
-  'return-to-vendor': 'Sent back to vendor',
+  'return-to-vendor': 'Set aside for the vendor',
+  scrap: 'Scrapped',
+  'ship-to-vendor': 'Shipped back to vendor',
 };
 
 const id = z.coerce.number().int().positive();

@@ -8,7 +8,7 @@ import { purchaseOrderInputSchema, type PurchaseOrderInput } from '../../../shar
 import { recordAudit, type AuditActor } from '../../audit/record';
 import { badRequest, conflict, notFound } from '../../http/errors';
 import { containing } from '../../http/list';
-import { pieceQuantities, pieceQuantitiesSql } from '../../stock/standing';
+import { pieceQuantities, pieceQuantitiesSql, replacedPiecesSql } from '../../stock/standing';
 
 type ParsedInput = ReturnType<typeof purchaseOrderInputSchema.parse>;
 
@@ -43,14 +43,15 @@ export async function receivedByLine(purchaseOrderId: number, transaction?: Tran
   return new Map(rows.map((r) => [Number(r.lineId), Number(r.received)]));
 }
 
-/** Accepted, nonconforming and returned pieces per line of a PO. */
+/** Accepted, nonconforming, returned and replacement pieces per line of a PO. */
 async function outcomesByLine(purchaseOrderId: number) {
   const rows = await sequelize.query<Record<string, unknown>>(
-    `SELECT pol.id AS "lineId", q.* FROM purchase_order_lines pol CROSS JOIN LATERAL ${pieceQuantitiesSql('ql.po_line_id = pol.id')} AS q
+    `SELECT pol.id AS "lineId", q.*, ${replacedPiecesSql('rl.po_line_id = pol.id')} AS replaced
+       FROM purchase_order_lines pol CROSS JOIN LATERAL ${pieceQuantitiesSql('ql.po_line_id = pol.id')} AS q
       WHERE pol.purchase_order_id = :purchaseOrderId`,
     { type: QueryTypes.SELECT, replacements: { purchaseOrderId } },
   );
-  return new Map(rows.map((r) => [Number(r.lineId), pieceQuantities(r)]));
+  return new Map(rows.map((r) => [Number(r.lineId), { ...pieceQuantities(r), replaced: Number(r.replaced) }]));
 }
 
 const lineFields = (line: ParsedInput['lines'][number]) => ({

@@ -1,13 +1,12 @@
 import type { z } from 'zod';
 import type { PurchaseOrder } from '../../../db/models';
-import type { OpenLineView, PoStatus, PurchaseOrderRow, PurchaseOrderView, poListQuerySchema } from '../../../shared/schemas/purchasing';
-import type { PieceQuantities } from '../../../shared/schemas/stock';
+import type { OpenLineView, PoLineQuantities, PoStatus, PurchaseOrderRow, PurchaseOrderView, poListQuerySchema } from '../../../shared/schemas/purchasing';
 import { filterWhen, type ListDefinition } from '../../http/list';
 import { pieceQuantities, pieceQuantitiesSql } from '../../stock/standing';
 
-const NONE: PieceQuantities = { accepted: 0, nonconforming: 0, returned: 0 };
+const NONE: PoLineQuantities = { accepted: 0, nonconforming: 0, returned: 0, replaced: 0 };
 
-export function presentPurchaseOrder(order: PurchaseOrder, received: Map<number, number>, outcomes: Map<number, PieceQuantities>): PurchaseOrderView {
+export function presentPurchaseOrder(order: PurchaseOrder, received: Map<number, number>, outcomes: Map<number, PoLineQuantities>): PurchaseOrderView {
   return {
     id: order.id,
     number: order.number,
