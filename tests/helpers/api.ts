@@ -3,7 +3,7 @@ import request from 'supertest';
 import { faker } from '@faker-js/faker';
 import { createApp } from '../../server/app';
 import { demoLogin } from '../../db/seeders/demo';
-import { createUser } from '../../server/routes/users/operations';
+import { createUser } from '../../server/users/users';
 import { SYSTEM_ACTOR } from '../../server/audit/record';
 import type { Role } from '../../shared/schemas/roles';
 

@@ -6,7 +6,7 @@ import { Session } from '../../../db/models';
 import { app, freshUser, tokenFor } from '../../../tests/helpers/api';
 import { demoLogin } from '../../../db/seeders/demo';
 import { ROLES } from '../../../shared/schemas/roles';
-import { updateUser } from '../users/operations';
+import { updateUser } from '../../users/users';
 
 // The refused sign-ins of this file must not count against the site-wide limit in later files.
 afterAll(() => sequelize.query('DELETE FROM refused_sign_ins'));

@@ -1,9 +1,11 @@
-import { inTransaction } from '../../../db';
-import { Instrument } from '../../../db/models';
-import { instrumentInputSchema, type InstrumentInput } from '../../../shared/schemas/instruments';
-import { recordAudit, type AuditActor } from '../../audit/record';
-import { notFound } from '../../http/errors';
-import { presentInstrument } from './presenter';
+import { inTransaction } from '../../db';
+import { Instrument } from '../../db/models';
+import { instrumentInputSchema, type InstrumentInput } from '../../shared/schemas/instruments';
+import { recordAudit, type AuditActor } from '../audit/record';
+import { notFound } from '../http/errors';
+import { presentInstrument } from './views';
+
+export const listInstruments = () => Instrument.findAll({ order: [['code', 'ASC']] });
 
 export function registerInstrument(actor: AuditActor, input: InstrumentInput) {
   return inTransaction(async (transaction) => {

@@ -1,5 +1,6 @@
-import type { Instrument } from '../../../db/models';
-import type { InstrumentView } from '../../../shared/schemas/instruments';
+// An instrument as the API shows it, which is also what the audit trail records of one.
+import type { Instrument } from '../../db/models';
+import type { InstrumentView } from '../../shared/schemas/instruments';
 
 export const today = () => new Date().toISOString().slice(0, 10);
 

@@ -1,6 +1,7 @@
-import type { User } from '../../../db/models';
-import type { SessionUser } from '../../../shared/schemas/auth';
-import type { UserView } from '../../../shared/schemas/users';
+// A user as the API shows it, which is also what the audit trail records of a user.
+import type { User } from '../../db/models';
+import type { SessionUser } from '../../shared/schemas/auth';
+import type { UserView } from '../../shared/schemas/users';
 
 export function presentSessionUser(user: User): SessionUser {
   return { id: user.id, email: user.email, name: user.name, roles: user.roles };

@@ -1,11 +1,13 @@
-import { inTransaction } from '../../../db';
-import { User } from '../../../db/models';
-import type { UserCreateInput, UserUpdateInput } from '../../../shared/schemas/users';
-import { recordAudit, type AuditActor } from '../../audit/record';
-import { hashPassword } from '../../auth/passwords';
-import { endSessionsOf } from '../../auth/sessions';
-import { badRequest, notFound } from '../../http/errors';
-import { presentUser } from './presenter';
+import { inTransaction } from '../../db';
+import { User } from '../../db/models';
+import type { UserCreateInput, UserUpdateInput } from '../../shared/schemas/users';
+import { recordAudit, type AuditActor } from '../audit/record';
+import { hashPassword } from '../auth/passwords';
+import { endSessionsOf } from '../auth/sessions';
+import { badRequest, notFound } from '../http/errors';
+import { presentUser } from './views';
+
+export const listUsers = () => User.findAll({ order: [['name', 'ASC']] });
 
 export function createUser(actor: AuditActor, input: UserCreateInput) {
   return inTransaction(async (transaction) => {
