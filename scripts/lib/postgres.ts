@@ -122,11 +122,11 @@ async function ensureRoles(client: pg.Client) {
   for (const definition of roles) {
     const name = definition.split(' ')[0];
     const found = await client.query('SELECT 1 FROM pg_roles WHERE rolname = $1', [name]);
+    if (found.rowCount && found.rowCount > 0) continue;
     // Two starts at once may both find it missing: the loser's duplicate is harmless.
-    if (found.rowCount === 0) await client.query(`CREATE ROLE ${definition}`).catch((error) => {
+    await client.query(`CREATE ROLE ${definition}`).catch((error) => {
       if ((error as { code?: string }).code !== '42710') throw error;
     });
-    else await client.query(`ALTER ROLE ${definition}`);
   }
 }
 
