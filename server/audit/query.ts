@@ -2,9 +2,9 @@
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../db';
 import type { AuditEventView, AuditQuery } from '../../shared/schemas/audit';
-import { containing, filterWhen, sortOf, type Filters } from '../http/list';
+import { containing, filterWhen, sortOf, uncountedPage, type Filters, type ListPage } from '../http/list';
 
-type Filter = Omit<AuditQuery, 'page' | 'pageSize' | 'sort'> & { entityIds?: string[]; uptoSeq?: string };
+type Filter = Omit<AuditQuery, 'page' | 'pageSize' | 'sort' | 'count'> & { entityIds?: string[]; uptoSeq?: string };
 
 function whereOf(filter: Filter) {
   const filters: Filters = { clauses: [], replacements: {} };
@@ -30,16 +30,19 @@ const present = (r: Row): AuditEventView => ({
   entityType: r.entity_type, entityId: r.entity_id, before: r.before, after: r.after, requestId: r.request_id, address: r.address, prevHash: r.prev_hash, hash: r.hash,
 });
 
-export async function listAuditEvents(query: AuditQuery) {
+export async function listAuditEvents(query: AuditQuery): Promise<ListPage<AuditEventView>> {
   const { sql, replacements } = whereOf(query);
   // Chain order is the order events were recorded in.
   const { direction } = sortOf({ occurredAt: 'seq' }, query.sort || '-occurredAt');
-  const [{ total }] = await sequelize.query<{ total: string }>(`SELECT count(*) AS total FROM audit_events ${sql}`, { type: QueryTypes.SELECT, replacements });
   const rows = await sequelize.query<Row>(`SELECT * FROM audit_events ${sql} ORDER BY seq ${direction} LIMIT :limit OFFSET :offset`, {
     type: QueryTypes.SELECT,
-    replacements: { ...replacements, limit: query.pageSize, offset: (query.page - 1) * query.pageSize },
+    replacements: { ...replacements, limit: query.pageSize + 1, offset: (query.page - 1) * query.pageSize },
   });
-  return { data: rows.map(present), total: Number(total) };
+  const events = rows.map(present);
+  const page = uncountedPage(events, query);
+  if (page) return page;
+  const [{ total }] = await sequelize.query<{ total: string }>(`SELECT count(*) AS total FROM audit_events ${sql}`, { type: QueryTypes.SELECT, replacements });
+  return { data: events.slice(0, query.pageSize), total: Number(total), totalExact: true, totals: {} };
 }
 
 /** Every matching event in chain order, read in batches so an export never holds the trail in memory. */

@@ -1,6 +1,9 @@
-// Server-side lists: one SQL definition per list gives the JSON page (`{data, total, totals}`) and
-// the CSV of everything the same filter shows. Only whitelisted columns sort; search is ILIKE over
-// named expressions; filters arrive as SQL clauses with their replacements.
+// Server-side lists: one SQL definition per list gives the JSON page (`{data, total, totalExact,
+// totals}`) and the CSV of everything the same filter shows. Only whitelisted columns sort; search is
+// ILIKE over named expressions; filters arrive as SQL clauses with their replacements. Counting every
+// matching row (and summing the totals) costs as much as reading them all, so it is done for the
+// first page or when the client asks (`count=true`); other pages read one row past their end and
+// answer a lower bound (`totalExact: false`), which is all a pager needs to offer the next page.
 import type { Response, Router } from 'express';
 import { QueryTypes } from 'sequelize';
 import type { z } from 'zod';
@@ -19,7 +22,6 @@ export type ListDefinition<Row, Query extends ListQuery = ListQuery> = {
   select: string;
   /** FROM with its JOINs. */
   from: string;
-  groupBy?: string;
   /** Sort keys the client may send, each with the SQL it orders by. */
   sortable: Record<string, string>;
   defaultSort: string;
@@ -70,24 +72,42 @@ function baseQuery<Row, Query extends ListQuery>(definition: ListDefinition<Row,
     replacements.q = containing(query.q);
   }
   const where = clauses.length ? `WHERE ${clauses.join(' AND ')}` : '';
-  const groupBy = definition.groupBy ? `GROUP BY ${definition.groupBy}` : '';
-  return { sql: `SELECT ${definition.select} FROM ${definition.from} ${where} ${groupBy}`, replacements };
+  return { sql: `SELECT ${definition.select} FROM ${definition.from} ${where}`, replacements };
 }
 
-export async function listPage<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query) {
+/** A page of a list: `total` is the number of matching rows when `totalExact`, otherwise at least
+ * that many (the rows up to this page's end, plus one when more follow). `totals` come with a count. */
+export type ListPage<Row> = { data: Row[]; total: number; totalExact: boolean; totals?: Record<string, number> };
+
+/** Whether a page is answered with a count of every matching row. */
+const counts = (query: ListQuery) => query.count ?? query.page === 1;
+
+/** The page from `rows` read one past its end, when no count is needed: past the last row (a
+ * bookmark to a page that is no longer there), or asked for, the caller counts instead (null). */
+export function uncountedPage<Row>(rows: Row[], query: ListQuery): ListPage<Row> | null {
+  const offset = (query.page - 1) * query.pageSize;
+  if (counts(query) || (rows.length === 0 && offset > 0)) return null;
+  const more = rows.length > query.pageSize;
+  return { data: rows.slice(0, query.pageSize), total: offset + Math.min(rows.length, query.pageSize) + (more ? 1 : 0), totalExact: !more };
+}
+
+export async function listPage<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query): Promise<ListPage<Row>> {
   const order = orderOf(definition, query.sort);
   const { sql, replacements } = baseQuery(definition, query);
+  const rows = await sequelize.query<Record<string, unknown>>(`${sql} ORDER BY ${order} LIMIT :limit OFFSET :offset`, {
+    type: QueryTypes.SELECT,
+    replacements: { ...replacements, limit: query.pageSize + 1, offset: (query.page - 1) * query.pageSize },
+  });
+  const presented = rows.map(definition.present);
+  const page = uncountedPage(presented, query);
+  if (page) return page;
   const totalColumns = Object.entries(definition.totals ?? {}).map(([name, expression]) => `, ${expression} AS "${name}"`).join('');
   const [summary] = await sequelize.query<Record<string, string | null>>(`SELECT count(*) AS total${totalColumns} FROM (${sql}) AS listed`, {
     type: QueryTypes.SELECT,
     replacements,
   });
-  const rows = await sequelize.query<Record<string, unknown>>(`${sql} ORDER BY ${order} LIMIT :limit OFFSET :offset`, {
-    type: QueryTypes.SELECT,
-    replacements: { ...replacements, limit: query.pageSize, offset: (query.page - 1) * query.pageSize },
-  });
   const totals = Object.fromEntries(Object.keys(definition.totals ?? {}).map((name) => [name, Number(summary[name] ?? 0)]));
-  return { data: rows.map(definition.present), total: Number(summary.total), totals };
+  return { data: presented.slice(0, query.pageSize), total: Number(summary.total), totalExact: true, totals };
 }
 
 /** Every row the filter matches, in the list's order, read in batches. The query is checked at

@@ -31,6 +31,15 @@ describe('audit trail', () => {
     expect(signIn).toMatchObject({ requestId: 'req-audit-1', actorRoles: ['buyer'], entityType: 'session' });
     expect(signIn.address).toMatch(/127\.0\.0\.1/);
     expect(signIn.hash).toMatch(/^[0-9a-f]{64}$/);
+
+    // The first page counts; a later one reads one row past its end instead.
+    expect(trail.body).toMatchObject({ total: trail.body.data.length, totalExact: true, totals: {} });
+    const events = trail.body.total as number;
+    const first = await admin.get('/api/audit').query({ actor: email, pageSize: 1, count: false }).expect(200);
+    expect(first.body).toMatchObject({ total: 2, totalExact: false, data: [trail.body.data[0]] });
+    expect(first.body).not.toHaveProperty('totals');
+    const last = await admin.get('/api/audit').query({ actor: email, pageSize: 1, page: events }).expect(200);
+    expect(last.body).toMatchObject({ total: events, totalExact: true, data: [trail.body.data[events - 1]] });
   });
 
   it('refuses UPDATE, DELETE and TRUNCATE at the database level', async () => {

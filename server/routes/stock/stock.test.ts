@@ -144,6 +144,27 @@ describe('/api/stock', () => {
     await (await as('auditor')).get('/api/pieces/NO-SUCH-SERIAL').expect(404);
   });
 
+  it('counts every matching move on the first page or when asked; later pages answer a lower bound', async () => {
+    const auditor = await as('auditor');
+    const lot = await receiveThroughApi(7);
+    const page = (n: number, extra = '') => auditor.get(`/api/stock/moves?lotId=${lot.lotId}&pageSize=2&page=${n}${extra}`).expect(200);
+    expect((await page(1)).body).toMatchObject({ total: 7, totalExact: true, totals: {} });
+    const second = (await page(2)).body;
+    // Two pages read and one more row seen: at least 5.
+    expect(second).toMatchObject({ total: 5, totalExact: false });
+    expect(second.data).toHaveLength(2);
+    expect(second).not.toHaveProperty('totals');
+    const last = (await page(4)).body;
+    expect(last).toMatchObject({ total: 7, totalExact: true });
+    expect(last.data).toHaveLength(1);
+    expect((await page(2, '&count=true')).body).toMatchObject({ total: 7, totalExact: true, totals: {} });
+    expect((await page(1, '&count=false')).body).toMatchObject({ total: 3, totalExact: false });
+    // A page past the end (a stale bookmark) is counted, so the pager can find its way back.
+    expect((await page(9)).body).toMatchObject({ data: [], total: 7, totalExact: true });
+    await auditor.get(`/api/stock/moves?lotId=${lot.lotId}&count=maybe`).expect(400);
+    expect((await auditor.get(`/api/stock?partId=${lot.partId}&page=2&count=true`).expect(200)).body).toMatchObject({ data: [], total: 1, totals: { onHand: 7 } });
+  });
+
   it('reads for everyone and moves only for the clerk', async () => {
     const lot = await receiveThroughApi(1);
     for (const role of ['buyer', 'inspector', 'quality', 'auditor', 'admin'] as const) {

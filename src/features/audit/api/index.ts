@@ -4,6 +4,7 @@ import type { VerificationResult } from '@shared/schemas/certificates';
 import type { ExportFilter, ExportJobView } from '@shared/schemas/exports';
 import type { ListResponse } from '@shared/schemas/paging';
 import { api } from '@/lib/api';
+import { listPage } from '@/lib/lists';
 
 export type Query = Record<string, string | number | undefined>;
 
@@ -42,7 +43,7 @@ export const useDocuments = (query: Query) =>
   useQuery({ queryKey: auditKeys.documents(query), queryFn: () => api<ListResponse<IssuedDocument>>('/certificates', { query }), placeholderData: keepPreviousData });
 
 export const useAuditEvents = (query: Query) =>
-  useQuery({ queryKey: auditKeys.events(query), queryFn: () => api<ListResponse<AuditEventView>>('/audit', { query }), placeholderData: keepPreviousData });
+  useQuery({ queryKey: auditKeys.events(query), queryFn: listPage<AuditEventView>('/audit', query), placeholderData: keepPreviousData });
 
 export function useVerifyChain() {
   const queryClient = useQueryClient();

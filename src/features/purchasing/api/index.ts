@@ -1,12 +1,11 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ListResponse } from '@shared/schemas/paging';
 import type { PlanLookup } from '@shared/sampling/plan';
 import type { PlanQuery } from '@shared/schemas/sampling';
 import type { PartInput, PartView, PurchaseOrderInput, PurchaseOrderRow, PurchaseOrderView, SupplierInput, SupplierView } from '@shared/schemas/purchasing';
 import type { ListState } from '@/components/DataTable';
 import { api } from '@/lib/api';
+import { listPage } from '@/lib/lists';
 
-type Listed<T> = ListResponse<T> & { totals: Record<string, number> };
 type Filters = Record<string, string | number | undefined>;
 
 export const purchasingKeys = {
@@ -20,7 +19,7 @@ export const purchasingKeys = {
 };
 
 const listQuery = <T,>(key: readonly unknown[], path: string, query: Filters) =>
-  ({ queryKey: key, queryFn: () => api<Listed<T>>(path, { query }), placeholderData: keepPreviousData }) as const;
+  ({ queryKey: key, queryFn: listPage<T>(path, query), placeholderData: keepPreviousData }) as const;
 
 export const useSuppliers = (query: ListState & Filters) => useQuery(listQuery<SupplierView>(purchasingKeys.suppliers(query), '/suppliers', query));
 export const useParts = (query: ListState & Filters) => useQuery(listQuery<PartView>(purchasingKeys.parts(query), '/parts', query));

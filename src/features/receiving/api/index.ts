@@ -4,8 +4,8 @@ import type { OpenLineView } from '@shared/schemas/purchasing';
 import type { LotRow, LotView, ShipmentRow } from '@shared/schemas/receiving';
 import type { ListState } from '@/components/DataTable';
 import { api } from '@/lib/api';
+import { listPage } from '@/lib/lists';
 
-type Listed<T> = ListResponse<T> & { totals: Record<string, number> };
 type Filters = Record<string, string | number | undefined>;
 export type Receipt = { shipmentId: number; lotId: number; quantity: number; state: string };
 
@@ -18,10 +18,10 @@ export const receivingKeys = {
 };
 
 export const useShipments = (query: ListState & Filters) =>
-  useQuery({ queryKey: receivingKeys.shipments(query), queryFn: () => api<Listed<ShipmentRow & { lotIds: number[] }>>('/shipments', { query }), placeholderData: keepPreviousData });
+  useQuery({ queryKey: receivingKeys.shipments(query), queryFn: listPage<ShipmentRow & { lotIds: number[] }>('/shipments', query), placeholderData: keepPreviousData });
 
 export const useLots = (query: ListState & Filters) =>
-  useQuery({ queryKey: receivingKeys.lots(query), queryFn: () => api<Listed<LotRow>>('/lots', { query }), placeholderData: keepPreviousData });
+  useQuery({ queryKey: receivingKeys.lots(query), queryFn: listPage<LotRow>('/lots', query), placeholderData: keepPreviousData });
 
 export const useLot = (id: number) => useQuery({ queryKey: receivingKeys.lot(id), queryFn: () => api<LotView>(`/lots/${id}`) });
 

@@ -5,8 +5,8 @@ import type { PieceHistoryView } from '@shared/schemas/receiving';
 import type { IssueInput, LocationView, MoveView, ReleaseInput, StockRow, TransferInput } from '@shared/schemas/stock';
 import type { ListState } from '@/components/DataTable';
 import { api } from '@/lib/api';
+import { listPage } from '@/lib/lists';
 
-type Listed<T> = ListResponse<T> & { totals: Record<string, number> };
 type Filters = Record<string, string | number | undefined>;
 type Moved = { moved: number; moveIds: number[] };
 
@@ -20,10 +20,10 @@ export const stockKeys = {
 };
 
 export const useOnHand = (query: ListState & Filters) =>
-  useQuery({ queryKey: stockKeys.onHand(query), queryFn: () => api<Listed<StockRow>>('/stock', { query }), placeholderData: keepPreviousData });
+  useQuery({ queryKey: stockKeys.onHand(query), queryFn: listPage<StockRow>('/stock', query), placeholderData: keepPreviousData });
 
 export const useMoves = (query: ListState & Filters) =>
-  useQuery({ queryKey: stockKeys.moves(query), queryFn: () => api<Listed<MoveView>>('/stock/moves', { query }), placeholderData: keepPreviousData });
+  useQuery({ queryKey: stockKeys.moves(query), queryFn: listPage<MoveView>('/stock/moves', query), placeholderData: keepPreviousData });
 
 export const useLocations = () => useQuery({ queryKey: stockKeys.locations(), queryFn: () => api<ListResponse<LocationView>>('/stock/locations'), staleTime: 60_000 });
 

@@ -1,9 +1,9 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { ListResponse } from '@shared/schemas/paging';
 import type { ResumeInspectionInput, SeverityOverrideInput, SwitchingRow, SwitchingView } from '@shared/schemas/switching';
 import type { SwitchingState } from '@shared/sampling';
 import type { ListState } from '@/components/DataTable';
 import { api } from '@/lib/api';
+import { listPage } from '@/lib/lists';
 
 type Filters = Record<string, string | number | undefined>;
 
@@ -14,7 +14,7 @@ export const switchingKeys = {
 };
 
 export const useSwitchingList = (query: ListState & Filters) =>
-  useQuery({ queryKey: switchingKeys.list(query), queryFn: () => api<ListResponse<SwitchingRow>>('/switching', { query }), placeholderData: keepPreviousData });
+  useQuery({ queryKey: switchingKeys.list(query), queryFn: listPage<SwitchingRow>('/switching', query), placeholderData: keepPreviousData });
 
 export const useSwitching = (supplierId: number, partId: number) =>
   useQuery({ queryKey: switchingKeys.pair(supplierId, partId), queryFn: () => api<SwitchingView>(`/switching/${supplierId}/${partId}`) });
