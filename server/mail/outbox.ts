@@ -120,3 +120,7 @@ const sweepJob: JobDefinition = {
 };
 
 export const mailJobs = [deliverJob, sweepJob];
+
+/** The latest 200 queued messages, newest first, without their bodies and attachments. */
+export const recentOutboxMail = () => OutboxMail.findAll({ order: [['id', 'DESC']], limit: 200, attributes: { exclude: ['attachments', 'bodyText'] } });
+export type OutboxMailRecord = Awaited<ReturnType<typeof recentOutboxMail>>[number];

@@ -1,17 +1,15 @@
 import { Router } from 'express';
-import { Attachment } from '../../../db/models';
 import { allow, authenticate } from '../../auth/authenticate';
-import { notFound } from '../../http/errors';
-import { idParams, type IdParams } from '../../http/params';
-import { validate } from '../../http/validate';
+import { idParams } from '../../http/params';
+import { validated } from '../../http/validate';
+import { findAttachment } from '../../receiving/attachments';
 import { openBlob } from '../../storage/blobs';
 
 export const attachmentsRouter = Router();
 
 /** The stored file, shown in the browser (PDF and images are safe to show inline). */
-attachmentsRouter.get('/:id', authenticate, allow('lots.read'), validate({ params: idParams }), async (req, res) => {
-  const attachment = await Attachment.findByPk((req.valid.params as IdParams).id);
-  if (!attachment) throw notFound('Attachment');
+attachmentsRouter.get('/:id', authenticate, allow('lots.read'), validated({ params: idParams }, async ({ params }, _req, res) => {
+  const attachment = await findAttachment(params.id);
   const stored = await openBlob(attachment.sha256);
   res.setHeader('Content-Type', attachment.mediaType);
   res.setHeader('Content-Length', String(attachment.sizeBytes));
@@ -19,4 +17,4 @@ attachmentsRouter.get('/:id', authenticate, allow('lots.read'), validate({ param
   res.setHeader('X-Content-Type-Options', 'nosniff');
   res.setHeader('Digest', `sha-256=${Buffer.from(attachment.sha256, 'hex').toString('base64')}`);
   stored.on('error', () => res.destroy()).pipe(res);
-});
+}));

@@ -1,9 +1,9 @@
 import { Router } from 'express';
-import { databaseIsUp } from '../../../db';
+import { healthReport } from '../../http/health';
 
 export const healthRouter = Router();
 
 healthRouter.get('/', async (_req, res) => {
-  const up = await databaseIsUp();
-  res.status(up ? 200 : 503).json({ status: up ? 'ok' : 'degraded', db: up ? 'ok' : 'down' });
+  const { status, body } = await healthReport();
+  res.status(status).json(body);
 });

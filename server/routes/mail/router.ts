@@ -1,8 +1,9 @@
 import { Router } from 'express';
-import { OutboxMail } from '../../../db/models';
 import { config } from '../../config';
 import { allow, authenticate } from '../../auth/authenticate';
 import { readCaughtMail } from '../../mail/caughtMail';
+import { recentOutboxMail } from '../../mail/outbox';
+import { presentOutboxMail } from './presenter';
 
 export const mailRouter = Router();
 
@@ -14,20 +15,6 @@ mailRouter.get('/caught', authenticate, allow('mail.read'), async (_req, res) =>
 
 /** Phaselot's own record of the mail it queued: delivered, or waiting for its next try. */
 mailRouter.get('/outbox', authenticate, allow('mail.read'), async (_req, res) => {
-  const rows = await OutboxMail.findAll({ order: [['id', 'DESC']], limit: 200, attributes: { exclude: ['attachments', 'bodyText'] } });
-  res.json({
-    data: rows.map((m) => ({
-      id: m.id,
-      recipients: m.recipients,
-      subject: m.subject,
-      status: m.status,
-      attempts: m.attempts,
-      nextAttemptAt: m.status === 'queued' ? m.nextAttemptAt.toISOString() : null,
-      lastError: m.lastError,
-      sentAt: m.sentAt?.toISOString() ?? null,
-      createdAt: m.createdAt.toISOString(),
-      related: m.relatedType ? { type: m.relatedType, id: m.relatedId } : null,
-    })),
-    total: rows.length,
-  });
+  const rows = await recentOutboxMail();
+  res.json({ data: rows.map(presentOutboxMail), total: rows.length });
 });
