@@ -29,6 +29,16 @@ export const POLICIES = {
   'audit.read': ['auditor', 'quality', 'admin'],
   'exports.create': ['auditor', 'quality'],
   'suppliers.performance': ['buyer', 'quality', 'auditor'],
+  // Supplier quality: the deviation register and corrective-action requests to suppliers.
+  'deviations.read': ['buyer', 'quality', 'auditor', 'admin'],
+  'deviations.manage': ['buyer', 'quality'],
+  // The first approval is a quality manager's, the second another user's (quality or admin).
+  'deviations.approve': ['quality', 'admin'],
+  'corrective.read': ['buyer', 'quality', 'auditor'],
+  // Raising a request, revoking its link, sending a new one.
+  'corrective.manage': ['buyer', 'quality'],
+  // Accepting or returning the supplier's answer, verifying effectiveness and closing.
+  'corrective.review': ['quality'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof POLICIES;

@@ -17,6 +17,8 @@ import { ExportJob } from './ExportJob';
 import { initInspectionModels } from './inspection';
 import { initAuthModels } from './auth';
 import { initNonconformanceModels } from './nonconformance';
+import { initDeviationModels } from './deviation';
+import { initCorrectiveActionModels } from './correctiveAction';
 
 export function initModels(sequelize: Sequelize) {
   User.initModel(sequelize);
@@ -27,7 +29,9 @@ export function initModels(sequelize: Sequelize) {
   const inspection = initInspectionModels(sequelize);
   const auth = initAuthModels(sequelize);
   const nonconformance = initNonconformanceModels(sequelize);
-  return { ...auth, ...nonconformance, User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
+  const deviations = initDeviationModels(sequelize);
+  const correctiveActions = initCorrectiveActionModels(sequelize);
+  return { ...auth, ...nonconformance, ...deviations, ...correctiveActions, User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
 }
 
 /** Purchasing, receiving and stock (migration 0101). */
@@ -53,3 +57,5 @@ export type { OutboxAttachment } from './OutboxMail';
 export { Session, PasswordResetToken, type SessionEndReason } from './auth';
 export { LotInspection, SamplePiece, SwitchingStateRecord, SwitchingEvent, MeasurementFile, Reading, PieceResult, DispositionRecord, LotDocument } from './inspection';
 export { RecordCounter, DefectCode, Nonconformance, NonconformanceDefect, NonconformancePiece, NcrDisposition, VendorReturn, type NcrOrigin, type NcrStatus, type NcrDecision } from './nonconformance';
+export { Deviation, DeviationApproval, DeviationUse, type ApprovalSlot } from './deviation';
+export { CorrectiveAction, CorrectiveActionLink, CorrectiveActionResponse, CorrectiveActionAttachment, type CorrectiveActionStatus } from './correctiveAction';

@@ -105,6 +105,7 @@ export class DispositionRecord extends Model<InferAttributes<DispositionRecord>,
   declare decision: Disposition;
   declare meaning: string;
   declare deviationNumber: string | null;
+  declare deviationId: number | null;
   declare justification: string | null;
   declare lotVerdict: unknown;
   declare signerId: number;
@@ -231,6 +232,7 @@ export function initInspectionModels(sequelize: Sequelize) {
       decision: { type: DataTypes.STRING(12), allowNull: false },
       meaning: { type: DataTypes.TEXT, allowNull: false },
       deviationNumber: DataTypes.STRING(60),
+      deviationId: DataTypes.INTEGER,
       justification: DataTypes.TEXT,
       lotVerdict: { type: DataTypes.JSONB, allowNull: false },
       signerId: { type: DataTypes.INTEGER, allowNull: false },

@@ -8,6 +8,7 @@ import { lotForInspection, lotsAwaitingInspection, type LotForInspection } from 
 import { commitMeasurements } from '../../server/inspection/measurements';
 import { actorFromUser } from '../../server/audit/record';
 import { stokesBenchFile } from './benchFiles';
+import { seedApprovedDeviation, seedPendingDeviation } from './supplierQualityDemo';
 
 type Plan = 'accept' | 'reject' | 'awaiting' | 'partial' | 'deviation' | 'sort';
 
@@ -52,10 +53,11 @@ export async function seedInspectionDemo(password: string) {
         ...(decision === 'reject' && { justification: 'Retardance out of tolerance on several sample pieces.' }),
         ...(decision === 'sort' && { justification: 'The build needs these plates now: sort at our bench, return the nonconforming ones. Agreed with the supplier.' }),
         ...(decision === 'use-as-is' && {
-          deviationNumber: 'DEV-2026-014',
+          deviationId: (await seedApprovedDeviation(lot.supplier.id, lot.part.id, lot.pieces.length + 20, password)).id,
           justification: 'One plate 0.005 λ long; the alignment fixture it goes into tolerates ±0.01 λ. Agreed with engineering.',
         }),
       });
+      if (decision === 'use-as-is') await seedPendingDeviation(lot.supplier.id, lot.part.id, password);
       // The 100 % sort: the rest of the lot measured on the bench, a few plates out of tolerance.
       if (decision === 'sort') {
         const rest = lot.pieces.map((p) => p.serial).filter((serial) => !sample.includes(serial));

@@ -12,6 +12,7 @@ import { actorFromUser, recordAudit, type AuditActor } from '../audit/record';
 import { verifySignature } from '../auth/signature';
 import { AppError, conflict } from '../http/errors';
 import { queueMail } from '../mail/outbox';
+import { recordDeviationUse, releaseDeviationUse, takeDeviation } from '../supplierquality/deviationUse';
 import { issueLotDocuments } from './documents';
 import { lotForInspection, routeLotPieces, routingOutcome } from './lotAccess';
 import { evaluateLot } from './evaluation';
@@ -42,13 +43,18 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
       current.supersededAt = new Date();
       await current.save({ transaction });
       await LotDocument.update({ revokedAt: new Date() }, { where: { dispositionId: current.id, revokedAt: { [Op.is]: null } }, transaction });
+      await releaseDeviationUse({ dispositionId: current.id }, transaction);
     }
+    // Every piece of the lot is released under the deviation, so it must cover them all.
+    const deviation =
+      input.decision === 'use-as-is' ? await takeDeviation({ deviationId: input.deviationId!, supplierId: lot.supplier.id, partId: lot.part.id, quantity: lot.pieces.length }, transaction) : null;
     const disposition = await DispositionRecord.create(
       {
         lotId,
         decision: input.decision,
         meaning: SIGNATURE_MEANINGS[input.decision],
-        deviationNumber: input.decision === 'use-as-is' ? input.deviationNumber! : null,
+        deviationId: deviation?.id ?? null,
+        deviationNumber: deviation?.number ?? null,
         justification: input.justification || null,
         lotVerdict: verdict,
         signerId: signer.id,
@@ -56,6 +62,7 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
       },
       { transaction },
     );
+    if (deviation) await recordDeviationUse(deviation, { dispositionId: disposition.id }, lot.pieces.length, lot.id, transaction);
     await recordLotInSwitching(lot, evaluation, disposition, actor, transaction);
     const context = { dispositionId: disposition.id, deviationNumber: disposition.deviationNumber };
     const routed = await routeLotPieces(lot, input.decision, evaluation.pieceVerdicts, context, actor, transaction);

@@ -19,6 +19,7 @@ export const QUEUES = {
   mailDeliver: 'mail-deliver',
   mailSweep: 'mail-sweep',
   blobSweep: 'blob-sweep',
+  correctiveReminders: 'corrective-action-reminders',
 } as const;
 
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];

@@ -20,6 +20,7 @@ import { stockRouter } from './stock/router';
 import { attachmentsRouter } from './attachments/router';
 import { switchingRouter } from './switching/router';
 import { samplingRouter } from './sampling/router';
+import { deviationsRouter } from './deviations/router';
 
 export const apiRouter = Router();
 
@@ -41,6 +42,7 @@ apiRouter.use('/attachments', attachmentsRouter);
 apiRouter.use('/inspection', inspectionRouter);
 apiRouter.use('/switching', switchingRouter);
 apiRouter.use('/sampling', samplingRouter);
+apiRouter.use('/deviations', deviationsRouter);
 apiRouter.use('/certificates', certificatesRouter);
 apiRouter.use('/documents', documentsRouter);
 apiRouter.use('/exports', exportsRouter);

@@ -12,6 +12,7 @@ export const BLOB_REFERENCES = [
   { table: 'lot_documents', column: 'storage_key' },
   { table: 'export_jobs', column: 'storage_key' },
   { table: 'attachments', column: 'sha256' },
+  { table: 'corrective_action_attachments', column: 'storage_key' },
   { table: 'mail_outbox', column: 'attachments', jsonKey: 'storageKey' },
 ] as const;
 

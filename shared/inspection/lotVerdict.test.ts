@@ -48,11 +48,11 @@ describe('proposeLotVerdict', () => {
 
 describe('dispositionInputSchema', () => {
   const base = { password: 'x', meaningAcknowledged: true as const, expectedDispositionId: null };
-  it('requires a deviation number and a justification to use a lot as is', () => {
+  it('requires a deviation of the register and a justification to use a lot as is', () => {
     const result = dispositionInputSchema.safeParse({ ...base, decision: 'use-as-is' });
     expect(result.success).toBe(false);
-    expect(result.error?.issues.map((i) => i.path.join('.')).sort()).toEqual(['deviationNumber', 'justification']);
-    expect(dispositionInputSchema.safeParse({ ...base, decision: 'use-as-is', deviationNumber: 'DEV-0042', justification: 'Axis error only affects a test fixture' }).success).toBe(true);
+    expect(result.error?.issues.map((i) => i.path.join('.')).sort()).toEqual(['deviationId', 'justification']);
+    expect(dispositionInputSchema.safeParse({ ...base, decision: 'use-as-is', deviationId: 42, justification: 'Axis error only affects a test fixture' }).success).toBe(true);
   });
 
   it('requires the meaning of the signature to be acknowledged', () => {

@@ -75,14 +75,15 @@ export const dispositionInputSchema = z
     decision: z.enum(DISPOSITIONS),
     password: z.string().min(1, 'Re-enter your password to sign'),
     meaningAcknowledged: z.literal(true, { error: 'Confirm the meaning of your signature' }),
-    deviationNumber: z.string().trim().max(60).optional(),
+    // The register entry (a current deviation of the lot's supplier and part) a use as is goes under.
+    deviationId: z.number().int().positive().max(2_147_483_647).optional(),
     justification: z.string().trim().max(2000).optional(),
     // The lot's version the signer looked at: a decision taken meanwhile by someone else wins.
     expectedDispositionId: z.number().int().nullable(),
   })
   .superRefine((value, ctx) => {
     if (value.decision !== 'use-as-is') return;
-    if (!value.deviationNumber) ctx.addIssue({ code: 'custom', path: ['deviationNumber'], message: 'A deviation number is required to use a lot as is' });
+    if (!value.deviationId) ctx.addIssue({ code: 'custom', path: ['deviationId'], message: 'Choose the deviation the lot is used under' });
     if (!value.justification || value.justification.length < 10) ctx.addIssue({ code: 'custom', path: ['justification'], message: 'State the justification (10 characters or more)' });
   });
 export type DispositionInput = z.infer<typeof dispositionInputSchema>;

@@ -4,6 +4,7 @@ import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { benchFile, sampleOf, signDecision, uploadBench } from '../helpers/bench';
+import { approvedDeviation } from '../helpers/deviations';
 import { receivedLot } from '../helpers/receivedLot';
 import { signedInPage, startBrowserRig, type BrowserRig } from './browser';
 
@@ -21,14 +22,15 @@ describe('serial history in the browser', () => {
     const { sample } = await sampleOf(lot.lotId);
     const failed = sample[0];
     await uploadBench(lot.lotId, 'bench.csv', benchFile(sample, [failed]));
-    await signDecision(lot.lotId, 'use-as-is', null, { deviationNumber: 'DEV-T-31', justification: 'Error harmless in the test fixture build' });
+    const deviation = await approvedDeviation(lot.supplierId, lot.partId);
+    await signDecision(lot.lotId, 'use-as-is', null, { deviationId: deviation.id, justification: 'Error harmless in the test fixture build' });
 
     const page = await signedInPage(rig, 'auditor');
     await page.goto(`${rig.baseUrl}/pieces/${failed}`);
-    const notice = page.getByRole('note').filter({ hasText: 'Failed inspection: in use as is under deviation DEV-T-31' });
+    const notice = page.getByRole('note').filter({ hasText: `Failed inspection: in use as is under deviation ${deviation.number}` });
     await notice.waitFor();
     await notice.filter({ hasText: 'Error harmless in the test fixture build' }).waitFor();
-    await page.getByText(`Released as is under deviation DEV-T-31 (lot L-${lot.lotId}): this piece failed inspection`).waitFor();
+    await page.getByText(`Released as is under deviation ${deviation.number} (lot L-${lot.lotId}): this piece failed inspection`).waitFor();
     await page.screenshot({ path: join(shots, 'piece-as-is-desktop.png'), fullPage: true });
     await page.setViewportSize({ width: 390, height: 844 });
     await notice.waitFor();

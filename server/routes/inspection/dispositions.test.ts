@@ -9,6 +9,7 @@ import { sequelize } from '../../../db';
 import { OutboxMail } from '../../../db/models';
 import { as } from '../../../tests/helpers/api';
 import { benchFile, documentText, sampleOf, signDecision, uploadBench } from '../../../tests/helpers/bench';
+import { approvedDeviation } from '../../../tests/helpers/deviations';
 import { receivedLot } from '../../../tests/helpers/receivedLot';
 
 /** Where each serial of the lot is now: its location's kind and the piece's state. */
@@ -173,18 +174,19 @@ describe('pieces follow their verdict', () => {
     const failed = sample[0];
     await uploadBench(lot.lotId, 'bench.csv', benchFile(sample, [failed]));
     const justification = 'Retardance error harmless in the alignment jig build';
-    const signed = await signDecision(lot.lotId, 'use-as-is', null, { deviationNumber: 'DEV-T-9', justification });
+    const deviation = await approvedDeviation(lot.supplierId, lot.partId);
+    const signed = await signDecision(lot.lotId, 'use-as-is', null, { deviationId: deviation.id, justification });
     expect(serialsAt(await whereabouts(lot.lotId), 'stock')).toHaveLength(20);
 
     await (await as('clerk')).post('/api/stock/issue').send({ partId: lot.partId, serials: failed, workOrder: 'WO-DEV-9' }).expect(201);
     const history = (await (await as('auditor')).get(`/api/pieces/${failed}`).expect(200)).body.data[0];
-    expect(history.releasedAsIs).toMatchObject({ deviationNumber: 'DEV-T-9', justification });
-    expect(history.moves.map((m: { note: string | null }) => m.note)).toContain(`Released as is under deviation DEV-T-9 (lot L-${lot.lotId}): this piece failed inspection`);
+    expect(history.releasedAsIs).toMatchObject({ deviationNumber: deviation.number, justification });
+    expect(history.moves.map((m: { note: string | null }) => m.note)).toContain(`Released as is under deviation ${deviation.number} (lot L-${lot.lotId}): this piece failed inspection`);
     const conforming = (await (await as('auditor')).get(`/api/pieces/${sample[1]}`).expect(200)).body.data[0];
     expect(conforming.releasedAsIs).toBeNull();
 
     const report = await documentText(signed.body.documents[0].number);
-    expect(report).toContain('DEV-T-9');
+    expect(report).toContain(deviation.number);
     expect(report).toContain(justification);
 
     // Superseded by a rejection, the lot's pieces still on site go back to the vendor, and the

@@ -9,6 +9,7 @@ import { sequelize } from '../../../db';
 import { Instrument, MeasurementFile, OutboxMail, PieceResult, Reading } from '../../../db/models';
 import { app, as } from '../../../tests/helpers/api';
 import { benchFile, documentText, sampleOf } from '../../../tests/helpers/bench';
+import { approvedDeviation } from '../../../tests/helpers/deviations';
 import { receivedLot } from '../../../tests/helpers/receivedLot';
 import { startMailCatcher } from '../../mail/catcher';
 import { readCaughtMail } from '../../mail/caughtMail';
@@ -223,7 +224,8 @@ describe('inspection of a lot through the API', () => {
     const { view } = await sampleOf(lot.lotId);
     expect(view.verdict.proposal).toBe('reject');
     await sign(lot.lotId, 'accept', null).expect(409);
-    const [first, second] = await Promise.all([sign(lot.lotId, 'reject', null), sign(lot.lotId, 'use-as-is', null, { deviationNumber: 'DEV-7', justification: 'Test fixture only, not for product' })]);
+    const deviation = await approvedDeviation(lot.supplierId, lot.partId);
+    const [first, second] = await Promise.all([sign(lot.lotId, 'reject', null), sign(lot.lotId, 'use-as-is', null, { deviationId: deviation.id, justification: 'Test fixture only, not for product' })]);
     expect([first.status, second.status].sort()).toEqual([201, 409]);
   });
 

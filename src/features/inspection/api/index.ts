@@ -3,6 +3,7 @@ import type { DispositionInput } from '@shared/inspection/lotVerdict';
 import type { ListResponse } from '@shared/schemas/paging';
 import { api } from '@/lib/api';
 import type { FilePreview, LotInspectionView, QueueRow } from '@shared/schemas/inspection';
+import type { DeviationRow } from '@shared/schemas/deviations';
 import type { InstrumentOption } from './types';
 
 export const inspectionKeys = {
@@ -16,6 +17,14 @@ export const useInspectionQueue = () => useQuery({ queryKey: inspectionKeys.queu
 
 export const useLotInspection = (lotId: number) =>
   useQuery({ queryKey: inspectionKeys.lot(lotId), queryFn: () => api<LotInspectionView>(`/inspection/lots/${lotId}`) });
+
+/** The current deviations of a supplier's part: what a use-as-is decision may go under. */
+export const useCurrentDeviations = (supplierId: number, partId: number, enabled: boolean) =>
+  useQuery({
+    queryKey: [...inspectionKeys.all, 'deviations', supplierId, partId] as const,
+    queryFn: () => api<ListResponse<DeviationRow>>('/deviations', { query: { supplierId, partId, status: 'current', sort: 'expiresOn', pageSize: 100 } }),
+    enabled,
+  });
 
 export const useBenchInstruments = () =>
   useQuery({ queryKey: inspectionKeys.instruments(), queryFn: () => api<ListResponse<InstrumentOption>>('/instruments') });

@@ -2,14 +2,15 @@
 // decision is a deliberate step (its own button, an empty form and a warning), never the form that
 // stays armed after a signature.
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, type UseFormRegister } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
+import { Link } from 'react-router';
 import { PenLine } from 'lucide-react';
 import { DISPOSITIONS, DISPOSITION_LABELS, SIGNATURE_MEANINGS, dispositionInputSchema, type DispositionInput } from '@shared/inspection/lotVerdict';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
-import { useSignDisposition } from '../api';
+import { useCurrentDeviations, useSignDisposition } from '../api';
 import type { LotInspectionView } from '@shared/schemas/inspection';
 import { SignedDecision } from './SignedDecision';
 
@@ -139,13 +140,7 @@ function SignatureForm({ view, sign, replaces, inForce, onSigned, onCancel }: Fo
         ))}
         {errors.decision && <p role="alert" className="w-full text-xs text-state-fail">Choose a decision.</p>}
       </fieldset>
-      {decision === 'use-as-is' && (
-        <div className="grid gap-3 sm:grid-cols-3">
-          <Field label="Deviation number" htmlFor="deviation" error={errors.deviationNumber?.message}>
-            <input id="deviation" className={inputClass} {...form.register('deviationNumber')} />
-          </Field>
-        </div>
-      )}
+      {decision === 'use-as-is' && <DeviationPicker view={view} register={form.register} error={errors.deviationId?.message} chosen={form.watch('deviationId')} />}
       <Field label={decision === 'use-as-is' ? 'Justification' : 'Note (optional)'} htmlFor="justification" error={errors.justification?.message}>
         <textarea id="justification" rows={2} className={inputClass} {...form.register('justification')} />
       </Field>
@@ -172,5 +167,46 @@ function SignatureForm({ view, sign, replaces, inForce, onSigned, onCancel }: Fo
       </div>
       <p className="text-xs text-ink-muted">The decision remains the responsibility of the site's quality system and its procedures. A signed decision is never edited; a new signature supersedes it and revokes its documents.</p>
     </form>
+  );
+}
+
+type PickerProps = { view: LotInspectionView; register: UseFormRegister<DispositionInput>; error?: string; chosen: number | undefined };
+
+/** The current deviations of the lot's supplier and part; one that cannot cover every piece of the lot is shown but cannot be chosen. */
+function DeviationPicker({ view, register, error, chosen }: PickerProps) {
+  const { supplier, part, quantity } = view.lot;
+  const deviations = useCurrentDeviations(supplier.id, part.id, true);
+  const rows = deviations.data?.data ?? [];
+  const picked = rows.find((d) => d.id === chosen);
+  const newEntry = `/deviations/new?supplierId=${supplier.id}&partId=${part.id}`;
+  if (deviations.isPending) return <p className="text-sm text-ink-muted">Reading the deviation register…</p>;
+  if (deviations.isError) return <Notice tone="error">{deviations.error.message}</Notice>;
+  if (rows.length === 0) {
+    return (
+      <Notice tone="caution" title="No current deviation">
+        No approved, unexpired deviation of {part.number} from {supplier.name} is in the register. <Link to={newEntry} className="underline">Write one</Link>; it needs the approval of a quality manager and of a second person before this lot can be used under it.
+      </Notice>
+    );
+  }
+  return (
+    <div className="space-y-2">
+      <Field label="Deviation" htmlFor="deviation" hint={`Every piece of the lot (${quantity}) is released under it.`} error={error}>
+        <select id="deviation" className={inputClass} {...register('deviationId', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}>
+          <option value="">Choose a current deviation…</option>
+          {rows.map((d) => (
+            <option key={d.id} value={d.id} disabled={(d.quantityLeft ?? 0) < quantity}>
+              {d.number}: {d.quantityLeft} of {d.quantityLimit} pieces left, until {d.expiresOn}
+              {(d.quantityLeft ?? 0) < quantity ? ' (too few left for this lot)' : ''}
+            </option>
+          ))}
+        </select>
+      </Field>
+      {picked && (
+        <p className="rounded border border-paper-line bg-paper px-3 py-2 text-sm" data-testid="deviation-allowed">
+          <span className="text-xs font-medium text-ink-muted">What {picked.number} allows: </span>
+          {picked.allowed}
+        </p>
+      )}
+    </div>
   );
 }
