@@ -8,11 +8,11 @@ import type { Role } from '../../shared/schemas/roles';
 import type { PartInput, PoLineInput } from '../../shared/schemas/purchasing';
 import type { PartSpecInput } from '../../shared/schemas/spec';
 import { actorFromUser } from '../../server/audit/record';
-import { createPart } from '../../server/routes/parts/operations';
-import { createPurchaseOrder, updatePurchaseOrder } from '../../server/routes/purchase-orders/operations';
+import { createPart } from '../../server/purchasing/parts';
+import { createPurchaseOrder, updatePurchaseOrder } from '../../server/purchasing/purchaseOrders';
 import { receiveShipment } from '../../server/routes/shipments/operations';
 import { issueToWorkOrder, transferBetweenBins } from '../../server/routes/stock/operations';
-import { createSupplier } from '../../server/routes/suppliers/operations';
+import { createSupplier } from '../../server/purchasing/suppliers';
 
 const LOCATIONS = [
   { code: 'QUARANTINE', name: 'Quarantine shelf at the receiving dock', kind: 'quarantine' },

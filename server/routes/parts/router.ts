@@ -2,8 +2,9 @@ import { Router } from 'express';
 import { partInputSchema, partListQuerySchema } from '../../../shared/schemas/purchasing';
 import { mountList } from '../../http/list';
 import { mountRecord } from '../../http/records';
-import { createPart, findPart, onHandOfPart, updatePart } from './operations';
-import { partList, presentPart } from './presenter';
+import { partList } from '../../purchasing/lists';
+import { createPart, findPart, updatePart } from '../../purchasing/parts';
+import { presentPart } from './presenter';
 
 export const partsRouter = Router();
 
@@ -13,7 +14,7 @@ mountRecord(partsRouter, {
   read: 'catalog.read',
   write: 'catalog.write',
   schema: partInputSchema,
-  view: async (id) => presentPart(await findPart(id), await onHandOfPart(id)),
+  view: async (id) => presentPart(await findPart(id)),
   create: createPart,
   update: updatePart,
 });

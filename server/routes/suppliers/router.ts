@@ -2,8 +2,9 @@ import { Router } from 'express';
 import { supplierInputSchema, supplierListQuerySchema } from '../../../shared/schemas/purchasing';
 import { mountList } from '../../http/list';
 import { mountRecord } from '../../http/records';
-import { createSupplier, findSupplier, updateSupplier } from './operations';
-import { presentSupplier, supplierList } from './presenter';
+import { supplierList } from '../../purchasing/lists';
+import { createSupplier, findSupplier, updateSupplier } from '../../purchasing/suppliers';
+import { presentSupplier } from './presenter';
 
 export const suppliersRouter = Router();
 
@@ -13,10 +14,7 @@ mountRecord(suppliersRouter, {
   read: 'catalog.read',
   write: 'catalog.write',
   schema: supplierInputSchema,
-  view: async (id) => {
-    const { supplier, openOrders } = await findSupplier(id);
-    return presentSupplier(supplier, openOrders);
-  },
+  view: async (id) => presentSupplier(await findSupplier(id)),
   create: createSupplier,
   update: updateSupplier,
 });

@@ -1,9 +1,9 @@
 import type { Transaction } from 'sequelize';
-import { inTransaction } from '../../../db';
-import { PurchaseOrder, Supplier, User } from '../../../db/models';
-import { supplierInputSchema, type SupplierInput } from '../../../shared/schemas/purchasing';
-import { recordAudit, type AuditActor } from '../../audit/record';
-import { badRequest, notFound } from '../../http/errors';
+import { inTransaction } from '../../db';
+import { PurchaseOrder, Supplier, User } from '../../db/models';
+import { supplierInputSchema, type SupplierInput } from '../../shared/schemas/purchasing';
+import { recordAudit, type AuditActor } from '../audit/record';
+import { badRequest, notFound } from '../http/errors';
 
 /** The owner must be an active buyer; without one, the buyer saving the supplier owns it. */
 async function ownerFor(actor: AuditActor, ownerId: number | undefined, transaction: Transaction) {
@@ -44,3 +44,4 @@ export async function findSupplier(id: number) {
   const openOrders = await PurchaseOrder.count({ where: { supplierId: id, status: 'open' } });
   return { supplier, openOrders };
 }
+export type SupplierRecord = Awaited<ReturnType<typeof findSupplier>>;

@@ -1,10 +1,10 @@
 import { QueryTypes } from 'sequelize';
-import { inTransaction, sequelize } from '../../../db';
-import { Part } from '../../../db/models';
-import { partInputSchema, type PartInput } from '../../../shared/schemas/purchasing';
-import { recordAudit, type AuditActor } from '../../audit/record';
-import { notFound } from '../../http/errors';
-import { onHandSql } from '../../stock/onHand';
+import { inTransaction, sequelize } from '../../db';
+import { Part } from '../../db/models';
+import { partInputSchema, type PartInput } from '../../shared/schemas/purchasing';
+import { recordAudit, type AuditActor } from '../audit/record';
+import { notFound } from '../http/errors';
+import { onHandSql } from '../stock/onHand';
 
 const snapshot = (p: Part) => ({ number: p.number, description: p.description, spec: p.spec, active: p.active });
 
@@ -32,7 +32,7 @@ export function updatePart(actor: AuditActor, id: number, rawInput: PartInput) {
 }
 
 /** Pieces of the part now in stock bins. */
-export async function onHandOfPart(partId: number) {
+async function onHandOfPart(partId: number) {
   const [row] = await sequelize.query<{ onHand: string }>(`SELECT ${onHandSql(':partId')} AS "onHand"`, { type: QueryTypes.SELECT, replacements: { partId } });
   return Number(row.onHand);
 }
@@ -40,5 +40,6 @@ export async function onHandOfPart(partId: number) {
 export async function findPart(id: number) {
   const part = await Part.findByPk(id);
   if (!part) throw notFound('Part');
-  return part;
+  return { part, onHand: await onHandOfPart(id) };
 }
+export type PartRecord = Awaited<ReturnType<typeof findPart>>;

@@ -2,13 +2,13 @@
 // never rewrites that copy (only a line whose part is changed before anything arrived takes the new
 // part's). Lines that have received pieces keep their part and cannot fall below what arrived.
 import { QueryTypes, type Transaction } from 'sequelize';
-import { inTransaction, sequelize } from '../../../db';
-import { Part, PurchaseOrder, PurchaseOrderLine, Supplier, User } from '../../../db/models';
-import { purchaseOrderInputSchema, type PurchaseOrderInput } from '../../../shared/schemas/purchasing';
-import { recordAudit, type AuditActor } from '../../audit/record';
-import { badRequest, conflict, notFound } from '../../http/errors';
-import { containing } from '../../http/list';
-import { pieceQuantities, pieceQuantitiesSql, replacedPiecesSql } from '../../stock/standing';
+import { inTransaction, sequelize } from '../../db';
+import { Part, PurchaseOrder, PurchaseOrderLine, Supplier, User } from '../../db/models';
+import { purchaseOrderInputSchema, type PurchaseOrderInput } from '../../shared/schemas/purchasing';
+import { recordAudit, type AuditActor } from '../audit/record';
+import { badRequest, conflict, notFound } from '../http/errors';
+import { containing } from '../http/list';
+import { pieceQuantities, pieceQuantitiesSql, replacedPiecesSql } from '../stock/standing';
 
 type ParsedInput = ReturnType<typeof purchaseOrderInputSchema.parse>;
 
@@ -145,6 +145,7 @@ export async function findPurchaseOrder(id: number) {
   if (!order) throw notFound('Purchase order');
   return { order, received: await receivedByLine(id), outcomes: await outcomesByLine(id) };
 }
+export type PurchaseOrderRecord = Awaited<ReturnType<typeof findPurchaseOrder>>;
 
 /** Lines of open POs, for the clerk to receive against; `q` matches PO, supplier or part. */
 export async function openLines(q?: string) {
