@@ -1,0 +1,3 @@
+export * from './capability';
+export * from './control';
+export * from './distributions';
