@@ -11,7 +11,7 @@ import { actorFromUser } from '../../server/audit/record';
 import { createPart } from '../../server/purchasing/parts';
 import { createPurchaseOrder, updatePurchaseOrder } from '../../server/purchasing/purchaseOrders';
 import { receiveShipment } from '../../server/routes/shipments/operations';
-import { issueToWorkOrder, transferBetweenBins } from '../../server/routes/stock/operations';
+import { issueToWorkOrder, transferBetweenBins } from '../../server/stock/moves';
 import { createSupplier } from '../../server/purchasing/suppliers';
 
 const LOCATIONS = [

@@ -1,13 +1,16 @@
 // What the clerk does with stock: issue serials to a work order, transfer them between bins, and
 // put the pieces of an accepted lot away. Each is one transaction around the ledger's operations.
 import { QueryTypes, type Transaction } from 'sequelize';
-import { inTransaction, sequelize } from '../../../db';
-import { Location, Lot, Part, Piece } from '../../../db/models';
-import { issueInputSchema, lotName, releaseInputSchema, transferInputSchema, type IssueInput, type ReleaseInput, type TransferInput } from '../../../shared/schemas/stock';
-import { parseSerialText } from '../../../shared/serials';
-import type { AuditActor } from '../../audit/record';
-import { AppError, badRequest, notFound } from '../../http/errors';
-import { movePieces, releasePiecesToLocation } from '../../stock/ledger';
+import { inTransaction, sequelize } from '../../db';
+import { Location, Lot, Part, Piece } from '../../db/models';
+import { issueInputSchema, lotName, releaseInputSchema, transferInputSchema, type IssueInput, type ReleaseInput, type TransferInput } from '../../shared/schemas/stock';
+import { parseSerialText } from '../../shared/serials';
+import type { AuditActor } from '../audit/record';
+import { AppError, badRequest, notFound } from '../http/errors';
+import { movePieces, releasePiecesToLocation } from './ledger';
+
+/** The ledger rows one of these operations wrote. */
+export type StockMoves = Awaited<ReturnType<typeof movePieces>>;
 
 function serialsFrom(text: string) {
   const list = parseSerialText(text);
