@@ -2,14 +2,16 @@ import { Router } from 'express';
 import { lotListQuerySchema } from '../../../shared/schemas/stock';
 import { allow, authenticate } from '../../auth/authenticate';
 import { mountList } from '../../http/list';
-import { idParams, type IdParams } from '../../http/params';
-import { validate } from '../../http/validate';
-import { lotList, lotView } from './presenter';
+import { idParams } from '../../http/params';
+import { validated } from '../../http/validate';
+import { lotList } from '../../receiving/lists';
+import { findLot } from '../../receiving/lots';
+import { presentLot } from './presenter';
 
 export const lotsRouter = Router();
 
 mountList(lotsRouter, '/', 'lots.read', lotListQuerySchema, lotList);
 
-lotsRouter.get('/:id', authenticate, allow('lots.read'), validate({ params: idParams }), async (req, res) => {
-  res.json(await lotView((req.valid.params as IdParams).id));
-});
+lotsRouter.get('/:id', authenticate, allow('lots.read'), validated({ params: idParams }, async ({ params }, _req, res) => {
+  res.json(presentLot(await findLot(params.id)));
+}));

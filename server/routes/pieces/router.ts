@@ -2,15 +2,15 @@ import { Router } from 'express';
 import { z } from 'zod';
 import { SERIAL_PATTERN } from '../../../shared/serials';
 import { allow, authenticate } from '../../auth/authenticate';
-import { validate } from '../../http/validate';
-import { pieceHistories } from './presenter';
+import { validated } from '../../http/validate';
+import { findPieceHistories } from '../../receiving/pieces';
+import { presentPieceHistory } from './presenter';
 
 const serialParams = z.object({ serial: z.string().regex(SERIAL_PATTERN, 'Not a serial number') });
 
 export const piecesRouter = Router();
 
-piecesRouter.get('/:serial', authenticate, allow('lots.read'), validate({ params: serialParams }), async (req, res) => {
-  const { serial } = req.valid.params as z.infer<typeof serialParams>;
-  const pieces = await pieceHistories(serial);
+piecesRouter.get('/:serial', authenticate, allow('lots.read'), validated({ params: serialParams }, async ({ params }, _req, res) => {
+  const pieces = (await findPieceHistories(params.serial)).map(presentPieceHistory);
   res.json({ data: pieces, total: pieces.length });
-});
+}));

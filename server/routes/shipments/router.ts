@@ -7,7 +7,7 @@ import { AppError } from '../../http/errors';
 import { mountList } from '../../http/list';
 import { validate } from '../../http/validate';
 import { receiveShipment, type ReceiptFiles } from './operations';
-import { shipmentList } from './presenter';
+import { shipmentList } from '../../receiving/lists';
 
 const FILE_LABELS: Record<string, string> = { packingSlip: ATTACHMENT_KIND_LABELS['packing-slip'], certificate: ATTACHMENT_KIND_LABELS.certificate, serialsFile: 'Serial file' };
 
