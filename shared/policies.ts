@@ -29,6 +29,13 @@ export const POLICIES = {
   'audit.read': ['auditor', 'quality', 'admin'],
   'exports.create': ['auditor', 'quality'],
   'suppliers.performance': ['buyer', 'quality', 'auditor'],
+  // Nonconformance reports and returns to the vendor. Inspectors and quality managers open NCRs; the
+  // clerk reads them to receive a replacement against one; the quality manager signs dispositions.
+  'nonconformance.read': ['quality', 'buyer', 'inspector', 'auditor', 'clerk'],
+  'nonconformance.open': ['inspector', 'quality'],
+  'nonconformance.disposition': ['quality'],
+  'defect-codes.manage': ['quality'],
+  'returns.ship': ['quality', 'buyer'],
   // Supplier quality: the deviation register and corrective-action requests to suppliers.
   'deviations.read': ['buyer', 'quality', 'auditor', 'admin'],
   'deviations.manage': ['buyer', 'quality'],

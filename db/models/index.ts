@@ -56,6 +56,6 @@ export { User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder,
 export type { OutboxAttachment } from './OutboxMail';
 export { Session, PasswordResetToken, type SessionEndReason } from './auth';
 export { LotInspection, SamplePiece, SwitchingStateRecord, SwitchingEvent, MeasurementFile, Reading, PieceResult, DispositionRecord, LotDocument } from './inspection';
-export { RecordCounter, DefectCode, Nonconformance, NonconformanceDefect, NonconformancePiece, NcrDisposition, VendorReturn, type NcrOrigin, type NcrStatus, type NcrDecision } from './nonconformance';
+export { RecordCounter, DefectCode, Nonconformance, NonconformanceDefect, NonconformancePiece, NcrDisposition, NcrDispositionPiece, VendorReturn, type NcrOrigin, type NcrStatus, type NcrDecision } from './nonconformance';
 export { Deviation, DeviationApproval, DeviationUse, type ApprovalSlot } from './deviation';
 export { CorrectiveAction, CorrectiveActionLink, CorrectiveActionResponse, CorrectiveActionAttachment, type CorrectiveActionStatus } from './correctiveAction';

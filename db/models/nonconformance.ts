@@ -4,7 +4,7 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 
 export type NcrOrigin = 'rejection' | 'sort' | 'accepted-lot' | 'found-later';
 export type NcrStatus = 'open' | 'dispositioned' | 'closed';
-export type NcrDecision = 'return-to-vendor' | 'scrap' | 'rework' | 'use-as-is';
+export type NcrDecision = 'return-to-vendor' | 'scrap' | 'rework' | 'use-as-is' | 'rework-release';
 
 export class RecordCounter extends Model<InferAttributes<RecordCounter>, InferCreationAttributes<RecordCounter>> {
   declare series: string;
@@ -53,6 +53,14 @@ export class NonconformancePiece extends Model<InferAttributes<NonconformancePie
   declare reasons: string[];
   declare dispositionId: CreationOptional<number | null>;
   declare returnId: CreationOptional<number | null>;
+  /** The signed release of the piece after rework (migration 1001). */
+  declare reworkReleaseId: CreationOptional<number | null>;
+}
+
+/** The pieces a signed NCR act covered (migration 1003). */
+export class NcrDispositionPiece extends Model<InferAttributes<NcrDispositionPiece>, InferCreationAttributes<NcrDispositionPiece>> {
+  declare dispositionId: number;
+  declare pieceId: number;
 }
 
 export class NcrDisposition extends Model<InferAttributes<NcrDisposition>, InferCreationAttributes<NcrDisposition>> {
@@ -135,6 +143,7 @@ export function initNonconformanceModels(sequelize: Sequelize) {
       reasons: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
       dispositionId: DataTypes.INTEGER,
       returnId: DataTypes.INTEGER,
+      reworkReleaseId: DataTypes.INTEGER,
     },
     { ...common, tableName: 'nonconformance_pieces', timestamps: false },
   );
@@ -151,6 +160,10 @@ export function initNonconformanceModels(sequelize: Sequelize) {
       signedAt: { type: DataTypes.DATE, defaultValue: DataTypes.NOW },
     },
     { ...common, tableName: 'ncr_dispositions', timestamps: false },
+  );
+  NcrDispositionPiece.init(
+    { dispositionId: { type: DataTypes.INTEGER, primaryKey: true }, pieceId: { type: DataTypes.INTEGER, primaryKey: true } },
+    { ...common, tableName: 'ncr_disposition_pieces', timestamps: false },
   );
   VendorReturn.init(
     {
@@ -174,5 +187,5 @@ export function initNonconformanceModels(sequelize: Sequelize) {
     },
     { ...common, tableName: 'vendor_returns', updatedAt: false },
   );
-  return { RecordCounter, DefectCode, Nonconformance, NonconformanceDefect, NonconformancePiece, NcrDisposition, VendorReturn };
+  return { RecordCounter, DefectCode, Nonconformance, NonconformanceDefect, NonconformancePiece, NcrDisposition, NcrDispositionPiece, VendorReturn };
 }

@@ -12,6 +12,7 @@ import { actorFromUser, recordAudit, type AuditActor } from '../audit/record';
 import { verifySignature } from '../auth/signature';
 import { AppError, conflict } from '../http/errors';
 import { queueMail } from '../mail/outbox';
+import { openLotNcr } from '../nonconformance/lotNcr';
 import { recordDeviationUse, releaseDeviationUse, takeDeviation } from '../supplierquality/deviationUse';
 import { issueLotDocuments } from './documents';
 import { lotForInspection, routeLotPieces, routingOutcome } from './lotAccess';
@@ -66,6 +67,8 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
     await recordLotInSwitching(lot, evaluation, disposition, actor, transaction);
     const context = { dispositionId: disposition.id, deviationNumber: disposition.deviationNumber };
     const routed = await routeLotPieces(lot, input.decision, evaluation.pieceVerdicts, context, actor, transaction);
+    const setAside = [...routed['material-review'], ...routed['return-to-vendor']];
+    await openLotNcr({ lot, routing: input.decision, dispositionId: disposition.id, signerId: signer.id, explanation: verdict.explanation, setAside, supersededId: current?.id ?? null }, actor, transaction);
     const outcome = routingOutcome(input.decision, routed, evaluation.pieceVerdicts);
     const documents = await issueLotDocuments({ lot, evaluation, disposition, signer, released: routed.stock, outcome }, transaction);
 

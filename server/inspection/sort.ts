@@ -6,6 +6,7 @@ import { Op, type Transaction } from 'sequelize';
 import { DispositionRecord, User } from '../../db/models';
 import { lotName } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
+import { openLotNcr } from '../nonconformance/lotNcr';
 import { issueLotDocuments } from './documents';
 import type { LotEvaluation } from './evaluation';
 import { routeLotPieces, routingOutcome, type LotForInspection } from './lotAccess';
@@ -25,6 +26,8 @@ export async function completeSortWhenMeasured(lot: LotForInspection, evaluation
   if (!disposition) throw new Error(`Lot ${lotName(lot.id)} is being sorted without a current sort decision`);
   const signer = (await User.findByPk(disposition.signerId, { transaction }))!;
   const routed = await routeLotPieces(lot, 'sorted', evaluation.pieceVerdicts, { dispositionId: disposition.id, deviationNumber: null }, actor, transaction);
+  const explanation = (disposition.lotVerdict as { explanation?: string }).explanation ?? '';
+  await openLotNcr({ lot, routing: 'sorted', dispositionId: disposition.id, signerId: disposition.signerId, explanation, setAside: routed['return-to-vendor'], supersededId: null }, actor, transaction);
   const documents = await issueLotDocuments(
     { lot, evaluation, disposition, signer, released: routed.stock, outcome: routingOutcome('sorted', routed, evaluation.pieceVerdicts), issuedAt: new Date() },
     transaction,

@@ -20,6 +20,8 @@ import { stockRouter } from './stock/router';
 import { attachmentsRouter } from './attachments/router';
 import { switchingRouter } from './switching/router';
 import { samplingRouter } from './sampling/router';
+import { nonconformancesRouter } from './nonconformances/router';
+import { returnsRouter } from './returns/router';
 import { deviationsRouter } from './deviations/router';
 
 export const apiRouter = Router();
@@ -42,6 +44,8 @@ apiRouter.use('/attachments', attachmentsRouter);
 apiRouter.use('/inspection', inspectionRouter);
 apiRouter.use('/switching', switchingRouter);
 apiRouter.use('/sampling', samplingRouter);
+apiRouter.use('/nonconformances', nonconformancesRouter);
+apiRouter.use('/returns', returnsRouter);
 apiRouter.use('/deviations', deviationsRouter);
 apiRouter.use('/certificates', certificatesRouter);
 apiRouter.use('/documents', documentsRouter);

@@ -29,6 +29,8 @@ export const shipmentReceiveSchema = z.object({
   serials: z.string().max(1_000_000).default(''),
   overReceiptReason: text(500).default(''),
   receivedAt: z.preprocess((v) => (v === '' ? undefined : v), z.iso.datetime({ offset: true }).optional()),
+  // The NCR whose pieces, shipped back for a replacement, this shipment replaces.
+  replacementForNcrId: z.preprocess((v) => (v === '' || v === null ? undefined : v), z.coerce.number().int().positive().max(2_147_483_647).optional()),
 });
 export type ShipmentReceiveInput = z.input<typeof shipmentReceiveSchema>;
 

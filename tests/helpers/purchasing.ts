@@ -30,7 +30,7 @@ export async function orderedLine(quantity: number, spec: PartSpecInput = QUARTE
   return { tag, supplierId: supplier.body.id as number, partId: part.body.id as number, order: order.body, lineId: order.body.lines[0].id as number };
 }
 
-type ReceiptFields = { quantity: number; serials?: string; supplierLot?: string; overReceiptReason?: string; packingSlipNumber?: string };
+type ReceiptFields = { quantity: number; serials?: string; supplierLot?: string; overReceiptReason?: string; packingSlipNumber?: string; replacementForNcrId?: number };
 
 /** Posts a receipt as the demo clerk; files are [field, content, name]. */
 export async function postReceipt(lineId: number, fields: ReceiptFields, files: [string, Buffer, string][] = [['packingSlip', TINY_PDF, 'slip.pdf']]) {
@@ -44,6 +44,7 @@ export async function postReceipt(lineId: number, fields: ReceiptFields, files: 
     .field('quantity', String(fields.quantity));
   if (fields.serials !== undefined) request = request.field('serials', fields.serials);
   if (fields.overReceiptReason) request = request.field('overReceiptReason', fields.overReceiptReason);
+  if (fields.replacementForNcrId) request = request.field('replacementForNcrId', String(fields.replacementForNcrId));
   for (const [field, content, name] of files) request = request.attach(field, content, name);
   return request;
 }

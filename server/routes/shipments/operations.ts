@@ -10,6 +10,7 @@ import { lotName } from '../../../shared/schemas/stock';
 import { parseSerialText, type SerialList } from '../../../shared/serials';
 import { recordAudit, type AuditActor } from '../../audit/record';
 import { drawPlanAtReceipt } from '../../inspection/sampling';
+import { replacementOwed } from '../../nonconformance/returns';
 import { AppError, badRequest, conflict, notFound } from '../../http/errors';
 import { storeBlob } from '../../storage/blobs';
 import { defaultLocation, recordReceipt } from '../../stock/ledger';
@@ -49,7 +50,9 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
     if (!order) throw notFound('Purchase order');
     if (order.status !== 'open') throw conflict(`PO ${order.number} is closed; nothing more can be received against it`);
 
-    const outstanding = line.quantity - (await receivedOnLine(line.id, transaction));
+    // A replacement may bring, beyond what the line still expects, the pieces its NCR shipped back.
+    const replacement = input.replacementForNcrId ? await replacementOwed(input.replacementForNcrId, { supplierId: order.supplierId, partId: line.partId }, transaction) : null;
+    const outstanding = line.quantity - (await receivedOnLine(line.id, transaction)) + (replacement?.owed ?? 0);
     if (input.quantity > outstanding && !input.overReceiptReason) {
       throw badRequest(
         `Line ${line.lineNumber} of PO ${order.number} still expects ${Math.max(outstanding, 0)}; receiving ${input.quantity} needs a stated reason for the extra pieces`,
@@ -68,7 +71,7 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
 
     const quarantine = await defaultLocation('quarantine', transaction);
     const shipment = await Shipment.create(
-      { purchaseOrderId: order.id, packingSlip: input.packingSlipNumber, carrier: input.carrier, receivedAt, receivedBy: actor.id },
+      { purchaseOrderId: order.id, packingSlip: input.packingSlipNumber, carrier: input.carrier, receivedAt, receivedBy: actor.id, replacementForNcrId: replacement?.ncr.id ?? null },
       { transaction },
     );
     const lot = await Lot.create(
@@ -106,6 +109,7 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
           packingSlip: shipment.packingSlip,
           quantity: lot.quantity,
           overReceiptReason: lot.overReceiptReason,
+          replacementFor: replacement?.ncr.number ?? null,
           serials: list.serials,
           attachments: attachments.map((a) => ({ kind: a.kind, name: a.originalName, sha256: a.sha256 })),
           sampling: plan
