@@ -1,8 +1,9 @@
 // The state of a lot's inspection: its plan, each sample piece's current results and the proposed
 // verdict. Pieces outside the sample may be measured too (e.g. to sort a lot); they do not count.
-import { Op, type Transaction } from 'sequelize';
-import { PieceResult, SamplePiece } from '../../db/models';
-import { pieceVerdict, proposeLotVerdict, type LotVerdict } from '../../shared/inspection/lotVerdict';
+import { Op, QueryTypes, type Transaction } from 'sequelize';
+import { sequelize } from '../../db';
+import { PieceResult, SamplePiece, type LotInspection } from '../../db/models';
+import { pieceVerdict, proposeLotVerdict, type LotVerdict, type PieceVerdict } from '../../shared/inspection/lotVerdict';
 import type { LotForInspection } from './lotAccess';
 import { describePlan, discontinuedError, inspectionPlanOf } from './sampling';
 
@@ -21,33 +22,89 @@ export async function currentResults(pieceIds: number[], transaction?: Transacti
   return byPiece;
 }
 
-const judgedOnly = (rows: PieceResult[]) => rows.filter((r) => r.result.judged !== false);
+/** What a result counts for: its piece, wavelength and verdict, and whether its wavelength is judged. */
+export type ResultVerdict = { pieceId: number; wavelengthNm: number; verdict: PieceVerdict; judged: boolean };
 
-export async function evaluateLot(lot: LotForInspection, transaction?: Transaction) {
+/** The verdicts that count for each piece: those of its results at judged wavelengths. */
+function judgedVerdicts(results: Iterable<ResultVerdict>) {
+  const byPiece = new Map<number, PieceVerdict[]>();
+  for (const r of results) {
+    if (!r.judged) continue;
+    const own = byPiece.get(r.pieceId);
+    if (own) own.push(r.verdict);
+    else byPiece.set(r.pieceId, [r.verdict]);
+  }
+  return byPiece;
+}
+
+/** The sample's proposal under the plan, and every piece's own verdict (what a decision routes it by). */
+function judgeLot(lot: LotForInspection, plan: LotInspection, sampleIds: Set<number>, verdicts: Map<number, PieceVerdict[]>) {
+  const verdict: LotVerdict = proposeLotVerdict(
+    lot.pieces.filter((p) => sampleIds.has(p.id)).map((p) => ({ serial: p.serial, verdicts: verdicts.get(p.id) ?? [] })),
+    { accept: plan.acceptNumber, reject: plan.rejectNumber },
+  );
+  const pieceVerdicts = new Map(lot.pieces.map((p) => [p.id, pieceVerdict(verdicts.get(p.id) ?? [])]));
+  return { verdict, pieceVerdicts };
+}
+
+async function planAndSample(lot: LotForInspection, transaction?: Transaction) {
   const plan = await inspectionPlanOf(lot.id, transaction);
   if (!plan) throw discontinuedError(lot);
-  const sampleIds = (await SamplePiece.findAll({ where: { inspectionId: plan.id }, transaction })).map((s) => s.pieceId);
+  const sampleIds = new Set((await SamplePiece.findAll({ where: { inspectionId: plan.id }, transaction })).map((s) => s.pieceId));
+  return { plan, sampleIds };
+}
+
+export async function evaluateLot(lot: LotForInspection, transaction?: Transaction) {
+  const { plan, sampleIds } = await planAndSample(lot, transaction);
   const results = await currentResults(lot.pieces.map((p) => p.id), transaction);
-  const inSample = new Set(sampleIds);
+  const judged = (rows: PieceResult[]) => rows.filter((r) => r.result.judged !== false);
   const samplePieces: SamplePieceState[] = lot.pieces
-    .filter((p) => inSample.has(p.id))
+    .filter((p) => sampleIds.has(p.id))
     .map((p) => {
-      const judged = judgedOnly(results.get(p.id) ?? []);
+      const counted = judged(results.get(p.id) ?? []);
       return {
         pieceId: p.id,
         serial: p.serial,
-        verdict: pieceVerdict(judged.map((r) => r.verdict)),
-        reasons: [...new Set(judged.flatMap((r) => r.result.reasons.map((reason) => (judged.length > 1 ? `${reason} at ${r.wavelengthNm} nm` : reason))))],
+        verdict: pieceVerdict(counted.map((r) => r.verdict)),
+        reasons: [...new Set(counted.flatMap((r) => r.result.reasons.map((reason) => (counted.length > 1 ? `${reason} at ${r.wavelengthNm} nm` : reason))))],
         results: results.get(p.id) ?? [],
       };
     });
-  const verdict: LotVerdict = proposeLotVerdict(
-    samplePieces.map((p) => ({ serial: p.serial, verdicts: p.results.filter((r) => r.result.judged !== false).map((r) => r.verdict) })),
-    { accept: plan.acceptNumber, reject: plan.rejectNumber },
+  const { verdict, pieceVerdicts } = judgeLot(
+    lot,
+    plan,
+    sampleIds,
+    judgedVerdicts([...results.values()].flat().map((r) => ({ pieceId: r.pieceId, wavelengthNm: r.wavelengthNm, verdict: r.verdict, judged: r.result.judged !== false }))),
   );
-  // Every piece's own verdict, in the sample or not: what a decision routes each piece by.
-  const pieceVerdicts = new Map(lot.pieces.map((p) => [p.id, pieceVerdict(judgedOnly(results.get(p.id) ?? []).map((r) => r.verdict))]));
   return { plan, planSummary: describePlan(plan), samplePieces, allResults: results, pieceVerdicts, verdict };
 }
 
 export type LotEvaluation = Awaited<ReturnType<typeof evaluateLot>>;
+
+/** The key of a result among a piece's current ones: the wavelength as the table stores it (0.001 nm). */
+const resultKey = (pieceId: number, wavelengthNm: number) => `${pieceId}@${Math.round(wavelengthNm * 1000)}`;
+
+/**
+ * The lot's proposal and each piece's verdict from the verdicts of its current results alone (not
+ * the results themselves: cheap on lots of thousands of pieces); with `incoming`, as they would be
+ * once these results replace the current ones of the same piece and wavelength (`replaced` counts those).
+ */
+export async function lotProposal(lot: LotForInspection, transaction?: Transaction, incoming: ResultVerdict[] = []) {
+  const { plan, sampleIds } = await planAndSample(lot, transaction);
+  const current = await sequelize.query<ResultVerdict>(
+    `SELECT r.piece_id AS "pieceId", r.wavelength_nm::float8 AS "wavelengthNm", r.verdict, coalesce((r.result->>'judged')::boolean, true) AS judged
+       FROM piece_results r JOIN pieces p ON p.id = r.piece_id
+      WHERE p.lot_id = :lotId AND r.superseded_by_file_id IS NULL`,
+    { type: QueryTypes.SELECT, transaction, replacements: { lotId: lot.id } },
+  );
+  const results = new Map(current.map((r) => [resultKey(r.pieceId, r.wavelengthNm), r]));
+  const currentKeys = new Set(results.keys());
+  const replacing = new Set<string>();
+  for (const r of incoming) {
+    const key = resultKey(r.pieceId, r.wavelengthNm);
+    if (currentKeys.has(key)) replacing.add(key);
+    results.set(key, r);
+  }
+  const replaced = replacing.size;
+  return { plan, sampleIds, replaced, ...judgeLot(lot, plan, sampleIds, judgedVerdicts(results.values())) };
+}

@@ -1,25 +1,25 @@
-// Bench files for a lot: preview (every row through the engine, nothing saved) and commit (the raw
-// file with its SHA-256, its readings and the per-piece results in one transaction; a new result
-// for a piece supersedes the old one, which stays in the history).
+// Bench files for a lot: the check of a file (every row through the engine; preview.ts answers it)
+// and the commit (the raw file with its SHA-256, its readings and the per-piece results in one
+// transaction; a new result for a piece supersedes the old one, which stays in the history).
 import type { Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
-import { Instrument, MeasurementFile, PieceResult, Reading } from '../../db/models';
-import { analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type ParsedRow } from '../../shared/optics';
-import type { FilePreview } from '../../shared/schemas/inspection';
+import { copyCell, copyRows } from '../../db/copy';
+import { Instrument, MeasurementFile } from '../../db/models';
+import { analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type FileMetadata, type LineMessage, type Method, type ParsedRow, type PieceResult } from '../../shared/optics';
 import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName, type LotState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { AppError, badRequest } from '../http/errors';
 import { sha256, storeBlob } from '../storage/blobs';
 import { lotForInspection, markLotInspected, type LotForInspection } from './lotAccess';
-import { evaluateLot } from './evaluation';
-import { completeSortWhenMeasured } from './sort';
+import { evaluateLot, lotProposal } from './evaluation';
+import { completeSortWhenMeasured, piecesLeftToSort } from './sort';
 import { pieceSpecFor } from './spec';
 
 export const MAX_MEASUREMENT_BYTES = 50 * 1024 * 1024;
 
 export type UploadedFile = { originalname: string; buffer: Buffer };
 
-function openLot(lot: LotForInspection) {
+export function openLot(lot: LotForInspection) {
   const state = lot.state as LotState;
   if (DECIDED_LOT_STATES.includes(state)) {
     throw new AppError(409, 'lot_decided', `Lot ${lotName(lot.id)} is already decided (${LOT_STATE_LABELS[state].toLowerCase()}); its measurements are closed`);
@@ -63,13 +63,35 @@ function measuredOn({ metadata, lines }: Metadata): { day: string } | { problem:
   return { day };
 }
 
-/** A file's preview, and the rows the engine read, which a commit stores as the file's readings. */
-type AnalysedFile = { preview: FilePreview; columns: string[]; rows: ParsedRow[] };
+/** A file checked for the lot: what a commit of it would store, or why it cannot be. */
+export type CheckedFile = {
+  name: string;
+  sha256: string;
+  sizeBytes: number;
+  method: Method | null;
+  metadata: FileMetadata;
+  /** The instrument the file was judged with (the one its `# instrument:` line names, else the one chosen). */
+  instrument: { id: number; code: string } | null;
+  /** The lot's pieces in the file; rows of serials not in the lot are among the errors. */
+  pieces: PieceResult[];
+  warnings: LineMessage[];
+  errors: LineMessage[];
+  fatal?: string;
+};
 
-async function analyseFile(file: UploadedFile, lot: LotForInspection, chosenInstrumentId: number | undefined, transaction?: Transaction): Promise<AnalysedFile> {
+/** A checked file, and the rows the engine read (kept for a commit, which stores them as the file's readings). */
+type AnalysedFile = { checked: CheckedFile; columns: string[]; rows: ParsedRow[] };
+
+export async function analyseFile(
+  file: UploadedFile,
+  lot: LotForInspection,
+  chosenInstrumentId: number | undefined,
+  transaction?: Transaction,
+  options: { keepRows?: boolean } = {},
+): Promise<AnalysedFile> {
   const base = { name: file.originalname, sha256: sha256(file.buffer), sizeBytes: file.buffer.length };
-  const refused = (fatal: string, metadata: AnalysisResult['metadata'], instrument: FilePreview['instrument'] = null): AnalysedFile => ({
-    preview: { ...base, method: null, metadata, instrument, pieces: [], warnings: [], errors: [], fatal },
+  const refused = (fatal: string, metadata: AnalysisResult['metadata'], instrument: CheckedFile['instrument'] = null): AnalysedFile => ({
+    checked: { ...base, method: null, metadata, instrument, pieces: [], warnings: [], errors: [], fatal },
     columns: [],
     rows: [],
   });
@@ -95,7 +117,7 @@ async function analyseFile(file: UploadedFile, lot: LotForInspection, chosenInst
       used,
     );
   }
-  const result = analyzeText(text, pieceSpecFor(lot.spec, instrument), { maxBytes: MAX_MEASUREMENT_BYTES, keepRows: true });
+  const result = analyzeText(text, pieceSpecFor(lot.spec, instrument), { maxBytes: MAX_MEASUREMENT_BYTES, keepRows: options.keepRows });
   const serials = new Set(lot.pieces.map((p) => p.serial));
   const strangers = result.pieces.filter((p) => !serials.has(p.serial));
   const errors = [
@@ -103,7 +125,7 @@ async function analyseFile(file: UploadedFile, lot: LotForInspection, chosenInst
     ...strangers.flatMap((p) => p.lines.map((line) => ({ line, message: `Serial ${p.serial} is not in lot ${lotName(lot.id)}` }))),
   ].sort((a, b) => a.line - b.line);
   return {
-    preview: {
+    checked: {
       ...base,
       method: result.method,
       metadata: result.metadata,
@@ -118,78 +140,90 @@ async function analyseFile(file: UploadedFile, lot: LotForInspection, chosenInst
   };
 }
 
-export async function previewMeasurements(lotId: number, files: UploadedFile[], instrumentId?: number) {
-  if (files.length === 0) throw badRequest('Attach at least one measurement file');
-  const lot = openLot(await lotForInspection(lotId));
-  return { files: await Promise.all(files.map(async (f) => (await analyseFile(f, lot, instrumentId)).preview)) };
+/**
+ * The file's rows as the readings table keeps them, as COPY lines: file, line, serial, wavelength and
+ * the row's cells by column name as JSON (trimmed; the first of a repeated name).
+ */
+function* readingLines(fileId: number, columns: string[], rows: readonly ParsedRow[]): Generator<string> {
+  const named = columns.flatMap((name, index) => (name !== '' && columns.indexOf(name) === index ? [index] : []));
+  // The object's text is assembled from its keys written once, not built and stringified per row.
+  const keys = named.map((index, k) => `${k === 0 ? '{' : ','}${JSON.stringify(columns[index])}:`);
+  for (const { line, serial, wavelengthNm, cells } of rows) {
+    let fields = named.length === 0 ? '{' : '';
+    for (let k = 0; k < named.length; k++) fields += keys[k] + JSON.stringify((cells[named[k]] ?? '').trim());
+    yield `${fileId}\t${line}\t${copyCell(serial)}\t${wavelengthNm}\t${copyCell(`${fields}}`)}`;
+  }
 }
 
-/** A row as the readings table keeps it: its cells by column name, trimmed (the first of a repeated name). */
-function readingOf({ line, serial, wavelengthNm, cells }: ParsedRow, columns: string[]) {
-  const fields: Record<string, string> = {};
-  columns.forEach((name, index) => {
-    if (name !== '' && !(name in fields)) fields[name] = (cells[index] ?? '').trim();
-  });
-  return { line, serial, wavelengthNm, fields };
+/** The file's results as COPY lines of piece_results: piece, file, wavelength, verdict and the engine's result. */
+function* resultLines(fileId: number, pieces: readonly PieceResult[], pieceIdBySerial: Map<string, number>): Generator<string> {
+  for (const piece of pieces) {
+    yield `${pieceIdBySerial.get(piece.serial)}\t${fileId}\t${piece.wavelengthNm}\t${piece.verdict}\t${copyCell(JSON.stringify(piece))}`;
+  }
 }
+
+/**
+ * Saves one checked file: the raw bytes in the file store, its row, its readings and its results
+ * (superseding the current results of the same pieces and wavelengths), in the caller's transaction.
+ * Readings and results go in by COPY and nothing is read back, so a file of 100,000 rows costs
+ * about what the database takes to write them.
+ */
+async function saveFile(actor: AuditActor & { id: number }, lot: LotForInspection, file: UploadedFile, analysed: AnalysedFile, transaction: Transaction) {
+  const { checked, columns, rows } = analysed;
+  const pieces = checked.pieces;
+  const stored = await MeasurementFile.create(
+    {
+      lotId: lot.id, instrumentId: checked.instrument!.id, originalName: checked.name, sha256: checked.sha256, sizeBytes: checked.sizeBytes,
+      method: checked.method!, metadata: checked.metadata as Record<string, string>, rowCount: rows.length, warnings: checked.warnings,
+      storageKey: await storeBlob(file.buffer, transaction), uploadedBy: actor.id,
+    },
+    { transaction },
+  );
+  await copyRows(transaction, 'readings', ['file_id', 'line', 'serial', 'wavelength_nm', 'fields'], readingLines(stored.id, columns, rows));
+  const pieceIdBySerial = new Map(lot.pieces.map((p) => [p.serial, p.id]));
+  // The new file's results replace the current ones of the same pieces at the same wavelengths
+  // (compared as the table stores wavelengths, to 0.001 nm).
+  if (pieces.length) await sequelize.query(
+    `UPDATE piece_results r SET superseded_by_file_id = $1
+     FROM unnest($2::int[], $3::numeric(9, 3)[]) AS measured(piece_id, wavelength_nm)
+     WHERE r.piece_id = measured.piece_id AND r.wavelength_nm = measured.wavelength_nm AND r.superseded_by_file_id IS NULL`,
+    { transaction, bind: [stored.id, pieces.map((piece) => pieceIdBySerial.get(piece.serial)!), pieces.map((piece) => piece.wavelengthNm)] },
+  );
+  await copyRows(transaction, 'piece_results', ['piece_id', 'file_id', 'wavelength_nm', 'verdict', 'result'], resultLines(stored.id, pieces, pieceIdBySerial));
+  await recordAudit(
+    actor,
+    { action: 'measurement.upload', entityType: 'lot', entityId: lot.id, after: { fileId: stored.id, name: checked.name, sha256: checked.sha256, pieces: pieces.length, instrument: checked.instrument!.code } },
+    transaction,
+  );
+  return { fileId: stored.id, name: checked.name, sha256: checked.sha256, pieces: pieces.length, rows: rows.length };
+}
+
+/** A file with an error is refused whole: nothing of it may be saved. */
+export const cannotBeSaved = (checked: CheckedFile) => Boolean(checked.fatal || checked.errors.length);
 
 export function commitMeasurements(actor: AuditActor & { id: number }, lotId: number, files: UploadedFile[], instrumentId?: number) {
   if (files.length === 0) throw badRequest('Attach at least one measurement file');
   return inTransaction(async (transaction) => {
     const lot = openLot(await lotForInspection(lotId, transaction, { lock: true }));
-    const analysed = await Promise.all(files.map((f) => analyseFile(f, lot, instrumentId, transaction)));
-    const previews = analysed.map((a) => a.preview);
-    const refused = previews.filter((p) => p.fatal || p.errors.length);
+    const analysed: (AnalysedFile | null)[] = await Promise.all(files.map((f) => analyseFile(f, lot, instrumentId, transaction, { keepRows: true })));
+    const refused = analysed.map((a) => a!.checked).filter(cannotBeSaved);
     if (refused.length) {
       throw new AppError(422, 'measurement_errors', 'Nothing was saved: fix the errors in the file(s) and upload again', refused.map((p) => ({ name: p.name, fatal: p.fatal, errors: p.errors })));
     }
-    const pieceIdBySerial = new Map(lot.pieces.map((p) => [p.serial, p.id]));
     const committed = [];
-    for (const [index, preview] of previews.entries()) {
-      const buffer = files[index].buffer;
-      const stored = await MeasurementFile.create(
-        {
-          lotId, instrumentId: preview.instrument!.id, originalName: preview.name, sha256: preview.sha256, sizeBytes: preview.sizeBytes,
-          method: preview.method!, metadata: preview.metadata as Record<string, string>, rowCount: 0, warnings: preview.warnings,
-          storageKey: await storeBlob(buffer, transaction), uploadedBy: actor.id,
-        },
-        { transaction },
-      );
-      const { columns, rows } = analysed[index];
-      await Reading.bulkCreate(rows.map((row) => ({ ...readingOf(row, columns), fileId: stored.id })), { transaction });
-      stored.rowCount = rows.length;
-      await stored.save({ transaction });
-      // The new file's results replace the current ones of the same pieces at the same wavelengths.
-      if (preview.pieces.length) await sequelize.query(
-        `UPDATE piece_results r SET superseded_by_file_id = :fileId
-         FROM unnest(ARRAY[:pieceIds]::int[], ARRAY[:wavelengths]::numeric[]) AS measured(piece_id, wavelength_nm)
-         WHERE r.piece_id = measured.piece_id AND r.wavelength_nm = measured.wavelength_nm AND r.superseded_by_file_id IS NULL`,
-        {
-          transaction,
-          replacements: {
-            fileId: stored.id,
-            pieceIds: preview.pieces.map((piece) => pieceIdBySerial.get(piece.serial)!),
-            wavelengths: preview.pieces.map((piece) => piece.wavelengthNm),
-          },
-        },
-      );
-      await PieceResult.bulkCreate(
-        preview.pieces.map((piece) => ({
-          pieceId: pieceIdBySerial.get(piece.serial)!, fileId: stored.id, wavelengthNm: piece.wavelengthNm, verdict: piece.verdict, result: { ...piece },
-        })),
-        { transaction },
-      );
-      await recordAudit(
-        actor,
-        { action: 'measurement.upload', entityType: 'lot', entityId: lotId, after: { fileId: stored.id, name: preview.name, sha256: preview.sha256, pieces: preview.pieces.length, instrument: preview.instrument!.code } },
-        transaction,
-      );
-      committed.push({ fileId: stored.id, name: preview.name, sha256: preview.sha256, pieces: preview.pieces.length, rows: rows.length });
+    for (const [index, file] of files.entries()) {
+      committed.push(await saveFile(actor, lot, file, analysed[index]!, transaction));
+      // A saved file's rows are let go before the next one is written.
+      analysed[index] = null;
     }
-    const evaluation = await evaluateLot(lot, transaction);
-    await markLotInspected(lot, evaluation.verdict.proposal !== 'undecided', transaction);
+    // The proposal needs only the verdicts; a sort may complete, and its documents need the results.
+    const proposal = await lotProposal(lot, transaction);
+    await markLotInspected(lot, proposal.verdict.proposal !== 'undecided', transaction);
     // The file that measures the last piece of a sort completes it, in this same transaction.
-    const sortCompleted = lot.state === 'sorting' ? await completeSortWhenMeasured(lot, evaluation, actor, transaction) : null;
+    const sortCompleted =
+      lot.state === 'sorting' && piecesLeftToSort(lot, proposal).length === 0
+        ? await completeSortWhenMeasured(lot, await evaluateLot(lot, transaction), actor, transaction)
+        : null;
     return { files: committed, sortCompleted };
   });
 }

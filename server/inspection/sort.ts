@@ -12,7 +12,7 @@ import type { LotEvaluation } from './evaluation';
 import { routeLotPieces, routingOutcome, type LotForInspection } from './lotAccess';
 
 /** Pieces of a sorting lot that still need a verdict (issued ones are gone and cannot be measured). */
-export function piecesLeftToSort(lot: LotForInspection, evaluation: LotEvaluation) {
+export function piecesLeftToSort(lot: LotForInspection, evaluation: Pick<LotEvaluation, 'pieceVerdicts'>) {
   return lot.pieces.filter((p) => {
     const verdict = evaluation.pieceVerdicts.get(p.id);
     return p.state !== 'issued' && verdict !== 'pass' && verdict !== 'fail';

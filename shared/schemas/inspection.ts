@@ -71,6 +71,30 @@ export type LotInspectionView = {
   documents: { id: number; kind: 'certificate' | 'inspection-report'; number: string; dataHash: string; issuedAt: string; revokedAt: string | null }[];
 };
 
+/** Entries of each list of a preview per page: the first page comes with the preview. */
+export const PREVIEW_PAGE_SIZE = 50;
+
+/** The lists of a file's preview that come a page at a time. */
+export const PREVIEW_LISTS = ['pieces', 'errors', 'warnings'] as const;
+export type PreviewList = (typeof PREVIEW_LISTS)[number];
+
+/** A page of a checked file's list: the lot, the file's SHA-256 and the list; the instrument chosen for the upload (when the file names none). */
+export const previewPageParams = z.object({
+  id: z.coerce.number().int().positive().max(2_147_483_647),
+  sha256: z.string().regex(/^[0-9a-f]{64}$/, 'A SHA-256 in hexadecimal'),
+  list: z.enum(PREVIEW_LISTS),
+});
+export const previewPageQuery = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(PREVIEW_PAGE_SIZE),
+  instrumentId: z.coerce.number().int().positive().max(2_147_483_647).optional(),
+  /** Pieces only: those with this verdict. */
+  verdict: z.enum(['pass', 'fail', 'incomplete']).optional(),
+});
+
+/** A piece's result as a preview lists it: what the inspector checks before saving. */
+export type PreviewPiece = Pick<PieceResult, 'serial' | 'wavelengthNm' | 'retardanceWaves' | 'retardanceErrorWaves' | 'axisErrorDeg' | 'verdict' | 'reasons' | 'judged' | 'lines'>;
+
 /** A bench file run through the engine for the lot, nothing saved: what a commit of it would store, or why it cannot. */
 export type FilePreview = {
   name: string;
@@ -80,9 +104,32 @@ export type FilePreview = {
   metadata: FileMetadata;
   /** The instrument the file was judged with (the one its `# instrument:` line names, else the one chosen). */
   instrument: { id: number; code: string } | null;
-  /** The lot's pieces in the file; rows of serials not in the lot are among the errors. */
-  pieces: PieceResult[];
+  /** The lot's piece results in the file by verdict, and how many errors and warnings it has in all. */
+  counts: { pieces: number; pass: number; fail: number; incomplete: number; errors: number; warnings: number };
+  /** The first page of each list (PREVIEW_PAGE_SIZE entries); the others from the file's preview pages.
+   * Pieces: the lot's pieces in the file, in file order; rows of serials not in the lot are among the errors. */
+  pieces: PreviewPiece[];
   warnings: LineMessage[];
   errors: LineMessage[];
   fatal?: string;
 };
+
+/** The sample's standing: how many sample pieces have a verdict, how many failed, and the proposal. */
+export type SampleStanding = Pick<LotVerdict, 'measured' | 'defectives' | 'proposal' | 'explanation'>;
+
+/** What saving the checked files would do to the lot's decision under its sampling plan. */
+export type PlanEffect = {
+  plan: { sampleSize: number; accept: number; reject: number };
+  now: SampleStanding;
+  afterSaving: SampleStanding;
+  /** Pieces the files measure, in the sample and outside it (those do not count for the proposal). */
+  samplePieces: number;
+  otherPieces: number;
+  /** Results of the files that replace a current result of the same piece and wavelength. */
+  replacing: number;
+  /** While a 100 % sort runs: pieces still without a verdict, now and once the files are saved. */
+  sortRemaining: { now: number; afterSaving: number } | null;
+};
+
+/** The answer of a preview: each file, and the plan effect when every file could be saved (and the lot has a plan). */
+export type MeasurementPreview = { files: FilePreview[]; planEffect: PlanEffect | null };

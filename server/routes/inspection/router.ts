@@ -2,13 +2,14 @@ import { Router, type Request } from 'express';
 import multer from 'multer';
 import type { z } from 'zod';
 import { dispositionInputSchema, type DispositionInput } from '../../../shared/inspection/lotVerdict';
-import { lotIdParams, measurementUploadSchema } from '../../../shared/schemas/inspection';
+import { lotIdParams, measurementUploadSchema, previewPageParams, previewPageQuery } from '../../../shared/schemas/inspection';
 import { actorOf } from '../../audit/record';
 import { allow, authenticate } from '../../auth/authenticate';
 import { badRequest } from '../../http/errors';
-import { validate } from '../../http/validate';
+import { validate, validated } from '../../http/validate';
 import { signDisposition } from '../../inspection/disposition';
-import { commitMeasurements, MAX_MEASUREMENT_BYTES, previewMeasurements, type UploadedFile } from '../../inspection/measurements';
+import { commitMeasurements, MAX_MEASUREMENT_BYTES, type UploadedFile } from '../../inspection/measurements';
+import { previewMeasurements, previewPage } from '../../inspection/preview';
 import { inspectionQueue, lotInspectionView } from './presenter';
 
 // Bench files are CSV text: anything that is not (a NUL byte in the first kilobyte) is refused
@@ -50,6 +51,16 @@ inspectionRouter.post('/lots/:id/measurements/preview', ...measurementUpload, as
   const { lotId, files, instrumentId } = uploadOf(req);
   res.json(await previewMeasurements(lotId, files, instrumentId));
 });
+
+/** A page of a checked file's pieces, errors or warnings. */
+inspectionRouter.get(
+  '/lots/:id/measurements/preview/:sha256/:list',
+  authenticate,
+  allow('inspection.perform'),
+  validated({ params: previewPageParams, query: previewPageQuery }, async ({ params, query }, _req, res) => {
+    res.json(await previewPage(params.id, params.sha256, params.list, query));
+  }),
+);
 
 inspectionRouter.post('/lots/:id/measurements', ...measurementUpload, async (req, res) => {
   const { lotId, files, instrumentId } = uploadOf(req);

@@ -1,8 +1,9 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { DispositionInput } from '@shared/inspection/lotVerdict';
 import type { ListResponse } from '@shared/schemas/paging';
 import { api } from '@/lib/api';
-import type { FilePreview, LotInspectionView, QueueRow } from '@shared/schemas/inspection';
+import type { LineMessage } from '@shared/optics/types';
+import { PREVIEW_PAGE_SIZE, type LotInspectionView, type MeasurementPreview, type PreviewList, type PreviewPiece, type QueueRow } from '@shared/schemas/inspection';
 import type { DeviationRow } from '@shared/schemas/deviations';
 import type { InstrumentOption } from './types';
 
@@ -39,7 +40,19 @@ function uploadForm(files: File[], instrumentId?: number) {
 export const usePreviewMeasurements = (lotId: number) =>
   useMutation({
     mutationFn: ({ files, instrumentId }: { files: File[]; instrumentId?: number }) =>
-      api<{ files: FilePreview[] }>(`/inspection/lots/${lotId}/measurements/preview`, { body: uploadForm(files, instrumentId) }),
+      api<MeasurementPreview>(`/inspection/lots/${lotId}/measurements/preview`, { body: uploadForm(files, instrumentId) }),
+  });
+
+export type PreviewEntry<L extends PreviewList> = L extends 'pieces' ? PreviewPiece : LineMessage;
+export type PreviewPageQuery = { page: number; instrumentId?: number; verdict?: PreviewPiece['verdict'] };
+
+/** A later page of a checked file's pieces, errors or warnings (the first came with the check). */
+export const usePreviewPage = <L extends PreviewList>(lotId: number, sha256: string, list: L, query: PreviewPageQuery, enabled: boolean) =>
+  useQuery({
+    queryKey: [...inspectionKeys.all, 'preview', lotId, sha256, list, query] as const,
+    queryFn: () => api<ListResponse<PreviewEntry<L>>>(`/inspection/lots/${lotId}/measurements/preview/${sha256}/${list}`, { query: { ...query, pageSize: PREVIEW_PAGE_SIZE } }),
+    enabled,
+    placeholderData: keepPreviousData,
   });
 
 export function useCommitMeasurements(lotId: number) {
