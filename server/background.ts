@@ -5,6 +5,7 @@ import { startJobs, stopJobs, QUEUES, type JobDefinition } from './jobs/queue';
 import { mailJobs } from './mail/outbox';
 import { exportJob } from './exports/exportJobs';
 import { sweepOrphanBlobs } from './storage/sweep';
+import { correctiveReminderJob } from './supplierquality/reminders';
 
 const blobSweepJob: JobDefinition = {
   queue: QUEUES.blobSweep,
@@ -14,6 +15,6 @@ const blobSweepJob: JobDefinition = {
   },
 };
 
-export const startBackgroundWork = () => startJobs([exportJob, ...mailJobs, blobSweepJob]);
+export const startBackgroundWork = () => startJobs([exportJob, ...mailJobs, blobSweepJob, correctiveReminderJob]);
 
 export const stopBackgroundWork = stopJobs;

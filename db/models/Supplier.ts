@@ -5,6 +5,8 @@ export class Supplier extends Model<InferAttributes<Supplier>, InferCreationAttr
   declare id: CreationOptional<number>;
   declare name: string;
   declare contactEmail: string;
+  /** Where corrective-action requests go; none until the buyer enters it. */
+  declare qualityContactEmail: CreationOptional<string | null>;
   declare ownerId: number | null;
   declare notes: CreationOptional<string>;
   declare active: CreationOptional<boolean>;
@@ -19,6 +21,7 @@ export class Supplier extends Model<InferAttributes<Supplier>, InferCreationAttr
         ownerId: { type: DataTypes.INTEGER, allowNull: true },
         name: { type: DataTypes.STRING(120), allowNull: false, unique: true },
         contactEmail: { type: DataTypes.STRING(254), allowNull: false },
+        qualityContactEmail: { type: DataTypes.STRING(254), allowNull: true },
         notes: { type: DataTypes.TEXT, allowNull: false, defaultValue: '' },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
         createdAt: DataTypes.DATE,

@@ -55,6 +55,8 @@ export class SwitchingEvent extends Model<InferAttributes<SwitchingEvent>, Infer
   declare severity: 'normal' | 'tightened' | 'reduced' | null;
   declare reason: string | null;
   declare reference: string | null;
+  /** A resumption's accepted corrective-action request, when it rests on one. */
+  declare correctiveActionId: CreationOptional<number | null>;
   declare actorId: number | null;
   declare before: unknown;
   declare after: unknown;
@@ -174,6 +176,7 @@ export function initInspectionModels(sequelize: Sequelize) {
       severity: DataTypes.STRING(10),
       reason: DataTypes.TEXT,
       reference: DataTypes.STRING(80),
+      correctiveActionId: DataTypes.INTEGER,
       actorId: DataTypes.INTEGER,
       before: { type: DataTypes.JSONB, allowNull: false },
       after: { type: DataTypes.JSONB, allowNull: false },

@@ -14,6 +14,7 @@ import { conflict, notFound } from '../http/errors';
 import { readSiteSettings } from '../settings/siteSettings';
 import type { LotEvaluation } from './evaluation';
 import type { LotForInspection } from './lotAccess';
+import { acceptedRequestFor } from '../supplierquality/correctiveActions';
 import { drawWaitingPlans, switchingStateOf } from './sampling';
 
 const entityId = (supplierId: number, partId: number) => `${supplierId}/${partId}`;
@@ -24,7 +25,7 @@ function entryOf(event: Pick<SwitchingEvent, 'kind' | 'result' | 'reducedEnabled
   return { kind: 'override', severity: event.severity! };
 }
 
-type NewEvent = Pick<SwitchingEvent, 'kind'> & Partial<Pick<SwitchingEvent, 'lotId' | 'result' | 'reducedEnabled' | 'dispositionId' | 'severity' | 'reason' | 'reference' | 'actorId'>>;
+type NewEvent = Pick<SwitchingEvent, 'kind'> & Partial<Pick<SwitchingEvent, 'lotId' | 'result' | 'reducedEnabled' | 'dispositionId' | 'severity' | 'reason' | 'reference' | 'correctiveActionId' | 'actorId'>>;
 
 /**
  * Adds an event to the supplier-part's sequence (in place of `replacing`, when a lot's result is
@@ -140,11 +141,21 @@ export async function resumeInspection(signer: User, supplierId: number, partId:
     const names = await supplierAndPart(supplierId, partId, transaction);
     const before = await switchingStateOf(supplierId, partId, transaction, 'update');
     if (!before.stopped) throw conflict(`Acceptance inspection of ${names.part} from ${names.supplier} is not discontinued; it is on ${before.severity} inspection`);
-    const fed = await feedSequence(supplierId, partId, before, { kind: 'resume', reason: input.correctiveAction, reference: input.reference, actorId: signer.id }, actor, transaction);
+    // An accepted corrective-action request of the supplier's part names itself; a free-text reference is for actions recorded elsewhere.
+    const request = input.correctiveActionId ? await acceptedRequestFor(input.correctiveActionId, supplierId, partId, transaction) : null;
+    const reference = request?.number ?? input.reference!;
+    const fed = await feedSequence(
+      supplierId,
+      partId,
+      before,
+      { kind: 'resume', reason: input.correctiveAction, reference, correctiveActionId: request?.id ?? null, actorId: signer.id },
+      actor,
+      transaction,
+    );
     const lots = fed.plansDrawn.map((p) => p.lotId);
     await recordAudit(
       actor,
-      { action: 'switching.resume', entityType: 'switching', entityId: entityId(supplierId, partId), before, after: { state: fed.state, meaning: RESUME_MEANING, correctiveAction: input.correctiveAction, reference: input.reference, plansDrawnFor: lots } },
+      { action: 'switching.resume', entityType: 'switching', entityId: entityId(supplierId, partId), before, after: { state: fed.state, meaning: RESUME_MEANING, correctiveAction: input.correctiveAction, reference, correctiveActionId: request?.id ?? null, plansDrawnFor: lots } },
       transaction,
     );
     return { state: fed.state, eventId: fed.event.id, plansDrawnFor: lots };

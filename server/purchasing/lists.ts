@@ -7,7 +7,7 @@ import { onHandSql } from '../stock/onHand';
 import { pieceQuantities, pieceQuantitiesSql } from '../stock/standing';
 
 export const supplierList: ListDefinition<SupplierView, z.infer<typeof supplierListQuerySchema>> = {
-  select: `s.id, s.name, s.contact_email AS "contactEmail", s.notes, s.active, u.id AS "ownerId", u.name AS "ownerName",
+  select: `s.id, s.name, s.contact_email AS "contactEmail", s.quality_contact_email AS "qualityContactEmail", s.notes, s.active, u.id AS "ownerId", u.name AS "ownerName",
     (SELECT count(*) FROM purchase_orders po WHERE po.supplier_id = s.id AND po.status = 'open') AS "openOrders"`,
   from: 'suppliers s LEFT JOIN users u ON u.id = s.owner_id',
   sortable: { name: 's.name', contactEmail: 's.contact_email', owner: 'u.name', openOrders: '"openOrders"', active: 's.active' },
@@ -19,6 +19,7 @@ export const supplierList: ListDefinition<SupplierView, z.infer<typeof supplierL
     id: Number(r.id),
     name: String(r.name),
     contactEmail: String(r.contactEmail),
+    qualityContactEmail: (r.qualityContactEmail as string | null) ?? null,
     owner: r.ownerId ? { id: Number(r.ownerId), name: String(r.ownerName) } : null,
     notes: String(r.notes),
     active: Boolean(r.active),

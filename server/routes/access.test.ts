@@ -19,6 +19,9 @@ const PUBLIC: Record<string, number[]> = {
   'POST /api/auth/password-reset/request': [400],
   'POST /api/auth/password-reset': [400],
   'GET /api/certificates/verify': [400],
+  // The supplier's answer to a corrective-action request, through the mailed link (no token: refused).
+  'GET /api/corrective-actions/respond': [401],
+  'POST /api/corrective-actions/respond': [400],
 };
 
 /** Routes every signed-in user may call, whatever the role. */

@@ -23,6 +23,7 @@ import { samplingRouter } from './sampling/router';
 import { nonconformancesRouter } from './nonconformances/router';
 import { returnsRouter } from './returns/router';
 import { deviationsRouter } from './deviations/router';
+import { correctiveActionsRouter } from './corrective-actions/router';
 
 export const apiRouter = Router();
 
@@ -47,6 +48,7 @@ apiRouter.use('/sampling', samplingRouter);
 apiRouter.use('/nonconformances', nonconformancesRouter);
 apiRouter.use('/returns', returnsRouter);
 apiRouter.use('/deviations', deviationsRouter);
+apiRouter.use('/corrective-actions', correctiveActionsRouter);
 apiRouter.use('/certificates', certificatesRouter);
 apiRouter.use('/documents', documentsRouter);
 apiRouter.use('/exports', exportsRouter);

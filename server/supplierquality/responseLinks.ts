@@ -55,3 +55,11 @@ export async function linkOfToken(token: string, transaction?: Transaction) {
   if (link.expiresAt.getTime() <= Date.now()) throw refused(410, 'link_expired', `This link expired on ${link.expiresAt.toISOString().slice(0, 10)}. Ask your contact for a new one.`);
   return link;
 }
+
+/** The link row a token claims to be, read without checking its signature or standing: for the
+ * audit entry of a refused submission only. */
+export async function claimedLink(token: string) {
+  const claims = jwt.decode(token);
+  const id = typeof claims === 'object' && claims?.jti ? Number(claims.jti) : NaN;
+  return Number.isSafeInteger(id) && id > 0 && id <= 2_147_483_647 ? CorrectiveActionLink.findByPk(id) : null;
+}

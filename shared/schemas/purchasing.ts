@@ -21,6 +21,8 @@ const code = (label: string, max: number) =>
 export const supplierInputSchema = z.object({
   name: z.string().trim().min(1, 'Give the supplier a name').max(120),
   contactEmail: z.string().trim().toLowerCase().email('Enter a valid e-mail address'),
+  // Where corrective-action requests go; blank until the supplier names one.
+  qualityContactEmail: z.union([z.literal(''), z.string().trim().toLowerCase().email('Enter a valid e-mail address')]).default(''),
   // The buyer who owns the supplier; blank means the buyer saving the form.
   ownerId: z.preprocess((v) => (v === '' || v === null ? undefined : v), z.coerce.number().int().positive().optional()),
   notes: z.string().trim().max(1000).default(''),
@@ -75,6 +77,7 @@ export type SupplierView = {
   id: number;
   name: string;
   contactEmail: string;
+  qualityContactEmail: string | null;
   owner: { id: number; name: string } | null;
   notes: string;
   active: boolean;

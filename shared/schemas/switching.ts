@@ -36,11 +36,18 @@ const signature = {
   meaningAcknowledged: z.literal(true, { error: 'Confirm the meaning of your signature' }),
 };
 
-export const resumeInspectionSchema = z.object({
-  ...signature,
-  correctiveAction: z.string().trim().min(10, 'Describe the supplier’s corrective action (10 characters or more)').max(2000),
-  reference: z.string().trim().min(1, 'Give the corrective action’s reference').max(80),
-});
+export const resumeInspectionSchema = z
+  .object({
+    ...signature,
+    correctiveAction: z.string().trim().min(10, 'Describe the supplier’s corrective action (10 characters or more)').max(2000),
+    // An accepted corrective-action request of this supplier and part; without one, the reference of
+    // an action recorded elsewhere (records from before the requests were kept here).
+    correctiveActionId: z.number().int().positive().max(2_147_483_647).optional(),
+    reference: z.string().trim().max(80).optional(),
+  })
+  .superRefine((value, ctx) => {
+    if (!value.correctiveActionId && !value.reference) ctx.addIssue({ code: 'custom', path: ['reference'], message: 'Choose the accepted corrective-action request, or give the reference of the action' });
+  });
 export type ResumeInspectionInput = z.infer<typeof resumeInspectionSchema>;
 
 export const severityOverrideSchema = z.object({
@@ -77,6 +84,8 @@ export type SwitchingHistoryEntry = {
   severity: Severity | null;
   reason: string | null;
   reference: string | null;
+  /** The accepted corrective-action request a resumption rests on. */
+  correctiveActionId: number | null;
   by: string | null;
   from: SwitchingPhase;
   to: SwitchingPhase;

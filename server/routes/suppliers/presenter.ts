@@ -6,6 +6,7 @@ export function presentSupplier({ supplier, openOrders }: SupplierRecord): Suppl
     id: supplier.id,
     name: supplier.name,
     contactEmail: supplier.contactEmail,
+    qualityContactEmail: supplier.qualityContactEmail,
     owner: supplier.owner ? { id: supplier.owner.id, name: supplier.owner.name } : null,
     notes: supplier.notes,
     active: supplier.active,

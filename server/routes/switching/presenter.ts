@@ -66,7 +66,7 @@ export const switchingList: ListDefinition<SwitchingRow, SwitchingListQuery> = {
 
 type EventRow = {
   id: number; kind: SwitchingHistoryEntry['kind']; position: number; lot_id: number | null; decision: string | null; result: { accepted: boolean; defectives: number; plan: { severity: string } } | null;
-  severity: SwitchingHistoryEntry['severity']; reason: string | null; reference: string | null; by: string | null; before: SwitchingState; after: SwitchingState;
+  severity: SwitchingHistoryEntry['severity']; reason: string | null; reference: string | null; corrective_action_id: number | null; by: string | null; before: SwitchingState; after: SwitchingState;
   explanation: string; created_at: Date; superseded_at: Date | null;
 };
 
@@ -84,7 +84,7 @@ export async function switchingView(supplierId: number, partId: number): Promise
       { type: QueryTypes.SELECT, replacements: { supplierId, partId } },
     ),
     sequelize.query<EventRow>(
-      `SELECT e.id, e.kind, e.position, e.lot_id, d.decision, e.result, e.severity, e.reason, e.reference, u.name AS by, e.before, e.after,
+      `SELECT e.id, e.kind, e.position, e.lot_id, d.decision, e.result, e.severity, e.reason, e.reference, e.corrective_action_id, u.name AS by, e.before, e.after,
               e.explanation, e.created_at, e.superseded_at
          FROM switching_events e LEFT JOIN dispositions d ON d.id = e.disposition_id LEFT JOIN users u ON u.id = e.actor_id
         WHERE e.supplier_id = :supplierId AND e.part_id = :partId ORDER BY e.id DESC`,
@@ -111,6 +111,7 @@ export async function switchingView(supplierId: number, partId: number): Promise
       severity: e.severity,
       reason: e.reason,
       reference: e.reference,
+      correctiveActionId: e.corrective_action_id,
       by: e.by,
       from: switchingPhaseOf(e.before),
       to: switchingPhaseOf(e.after),

@@ -12,8 +12,8 @@ export function SupplierForm({ supplier, onDone }: { supplier?: SupplierView; on
   const form = useForm({
     resolver: zodResolver(supplierInputSchema),
     defaultValues: supplier
-      ? { name: supplier.name, contactEmail: supplier.contactEmail, notes: supplier.notes, active: supplier.active }
-      : { name: '', contactEmail: '', notes: '', active: true },
+      ? { name: supplier.name, contactEmail: supplier.contactEmail, qualityContactEmail: supplier.qualityContactEmail ?? '', notes: supplier.notes, active: supplier.active }
+      : { name: '', contactEmail: '', qualityContactEmail: '', notes: '', active: true },
   });
   const errors = form.formState.errors;
   const submit = form.handleSubmit((input) =>
@@ -23,12 +23,15 @@ export function SupplierForm({ supplier, onDone }: { supplier?: SupplierView; on
   return (
     <form onSubmit={submit} noValidate aria-label={supplier ? `Edit ${supplier.name}` : 'New supplier'} className="mb-4 space-y-3 rounded border border-paper-line bg-paper-card p-4">
       {save.error && <Notice tone="error">{save.error.message}</Notice>}
-      <div className="grid gap-3 sm:grid-cols-3">
+      <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         <Field label="Name" htmlFor={`${prefix}-name`} error={errors.name?.message}>
           <input id={`${prefix}-name`} className={inputClass} {...form.register('name')} />
         </Field>
         <Field label="Contact e-mail" htmlFor={`${prefix}-email`} error={errors.contactEmail?.message} hint="Where rejection notices and orders go.">
           <input id={`${prefix}-email`} type="email" className={inputClass} {...form.register('contactEmail')} />
+        </Field>
+        <Field label="Quality contact e-mail" htmlFor={`${prefix}-quality-email`} error={errors.qualityContactEmail?.message} hint="Where corrective-action requests go.">
+          <input id={`${prefix}-quality-email`} type="email" className={inputClass} {...form.register('qualityContactEmail')} />
         </Field>
         <Field label="Owner" hint="The buyer who saves a new supplier owns it.">
           <p className="py-1.5 text-sm">{supplier?.owner?.name ?? 'You'}</p>
