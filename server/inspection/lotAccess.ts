@@ -34,19 +34,26 @@ type LotRow = {
   part_description: string; buyer_email: string | null; buyer_name: string | null;
 };
 
+/** A lot `l` with its receipt `s`, PO line `pol`, order `po`, supplier `sup` and part `p`. */
+const LOT_JOINS = `lots l
+  JOIN shipments s ON s.id = l.shipment_id
+  JOIN purchase_order_lines pol ON pol.id = l.po_line_id
+  JOIN purchase_orders po ON po.id = pol.purchase_order_id
+  JOIN suppliers sup ON sup.id = po.supplier_id
+  JOIN parts p ON p.id = l.part_id`;
+
 const LOT_SELECT = `
   SELECT l.id, l.state, l.supplier_lot, l.quantity, s.received_at, po.number AS po_number, pol.line_number, pol.spec,
          pol.inspection_level, pol.aql, pol.hundred_percent, sup.id AS supplier_id, sup.name AS supplier_name,
          p.id AS part_id, p.number AS part_number, p.description AS part_description,
          coalesce(b.email, o.email) AS buyer_email, coalesce(b.name, o.name) AS buyer_name
-  FROM lots l
-  JOIN shipments s ON s.id = l.shipment_id
-  JOIN purchase_order_lines pol ON pol.id = l.po_line_id
-  JOIN purchase_orders po ON po.id = pol.purchase_order_id
-  JOIN suppliers sup ON sup.id = po.supplier_id
-  JOIN parts p ON p.id = l.part_id
+  FROM ${LOT_JOINS}
   LEFT JOIN users b ON b.id = po.buyer_id
   LEFT JOIN users o ON o.id = sup.owner_id`;
+
+/** The lots waiting for inspection (open for measurement or a decision), as SQL for the queue's list:
+ * the joins of LOT_JOINS and the condition. */
+export const LOTS_AWAITING_INSPECTION = { from: LOT_JOINS, where: `l.state IN ('quarantine', 'inspection', 'awaiting-disposition', 'sorting')` };
 
 async function withPieces(rows: LotRow[], transaction?: Transaction): Promise<LotForInspection[]> {
   if (rows.length === 0) return [];
@@ -82,7 +89,7 @@ export async function lotForInspection(lotId: number, transaction?: Transaction,
 }
 
 export async function lotsAwaitingInspection() {
-  const rows = await sequelize.query<LotRow>(`${LOT_SELECT} WHERE l.state IN ('quarantine', 'inspection', 'awaiting-disposition', 'sorting') ORDER BY s.received_at, l.id`, { type: QueryTypes.SELECT });
+  const rows = await sequelize.query<LotRow>(`${LOT_SELECT} WHERE ${LOTS_AWAITING_INSPECTION.where} ORDER BY s.received_at, l.id`, { type: QueryTypes.SELECT });
   return withPieces(rows);
 }
 

@@ -171,6 +171,8 @@ describe('signing a lot disposition in the browser', () => {
     await page.getByLabel('Bench files (CSV)').waitFor();
     await page.screenshot({ path: join(shots, 'sorting-desktop.png'), fullPage: true });
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Inspection' }).click();
+    // The queue pages oldest first; the lot is found by its name.
+    await page.getByRole('searchbox').fill(`L-${lot.lotId}`);
     const queued = page.getByRole('row').filter({ hasText: `L-${lot.lotId}` });
     expect(await queued.textContent()).toContain(`${20 - unmeasured.length}/20`);
 

@@ -115,7 +115,7 @@ describe('pieces follow their verdict', () => {
     expect(sorting.pieces.every((p) => p.toMeasure)).toBe(true);
     const rest = sorting.pieces.filter((p) => !p.inSample).map((p) => p.serial);
     expect(sorting.view.sort).toEqual({ remaining: rest.length });
-    const queued = (await (await as('inspector')).get('/api/inspection/queue').expect(200)).body.data.find((r: { lotId: number }) => r.lotId === lot.lotId);
+    const queued = (await (await as('inspector')).get('/api/inspection/queue').query({ q: `L-${lot.lotId}` }).expect(200)).body.data.find((r: { lotId: number }) => r.lotId === lot.lotId);
     expect(queued).toMatchObject({ state: 'sorting', sortRemaining: rest.length });
     const early = await (await as('clerk')).post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') }).expect(409);
     expect(early.body.error.message).toMatch(`Only pieces of accepted lots go to stock; lot L-${lot.lotId} is sorting 100 %`);

@@ -1,49 +1,13 @@
-// What the inspection screens read: the queue of lots waiting, and one lot's whole inspection.
+// What the inspection screen reads: one lot's whole inspection (the queue is a list, server/inspection/queue.ts).
 import { DispositionRecord, Instrument, LotDocument, MeasurementFile, User } from '../../../db/models';
 import { ocCurve } from '../../../shared/sampling';
 import type { PieceResult } from '../../../shared/optics';
-import type { LotInspectionView, QueueRow } from '../../../shared/schemas/inspection';
+import type { LotInspectionView } from '../../../shared/schemas/inspection';
 import type { LotState } from '../../../shared/schemas/stock';
 import { evaluateLot } from '../../inspection/evaluation';
-import { lotForInspection, lotsAwaitingInspection } from '../../inspection/lotAccess';
+import { lotForInspection } from '../../inspection/lotAccess';
 import { piecesLeftToSort } from '../../inspection/sort';
-import { inspectionPlanOf, switchingStateOf } from '../../inspection/sampling';
-
-const DAY_MS = 86_400_000;
-
-export async function inspectionQueue(): Promise<{ data: QueueRow[]; total: number }> {
-  const lots = await lotsAwaitingInspection();
-  const rows: QueueRow[] = [];
-  for (const lot of lots) {
-    const row = {
-      lotId: lot.id,
-      state: lot.state as LotState,
-      part: lot.part,
-      supplier: lot.supplier.name,
-      supplierId: lot.supplier.id,
-      supplierLot: lot.supplierLot,
-      quantity: lot.quantity,
-      receivedAt: lot.receivedAt,
-      daysInQuarantine: Math.floor((Date.now() - new Date(lot.receivedAt).getTime()) / DAY_MS),
-    };
-    // A lot received while acceptance is discontinued waits, marked, without a plan.
-    if (!(await inspectionPlanOf(lot.id))) {
-      rows.push({ ...row, acceptanceDiscontinued: true as const, plan: null, sampleSerials: [], measured: 0, sortRemaining: null, proposal: null });
-      continue;
-    }
-    const evaluation = await evaluateLot(lot);
-    rows.push({
-      ...row,
-      acceptanceDiscontinued: false as const,
-      plan: { codeLetter: evaluation.plan.codeLetter, planLetter: evaluation.plan.planLetter, sampleSize: evaluation.plan.sampleSize, accept: evaluation.plan.acceptNumber, reject: evaluation.plan.rejectNumber, severity: evaluation.plan.severity },
-      sampleSerials: evaluation.samplePieces.map((p) => p.serial),
-      measured: evaluation.verdict.measured,
-      sortRemaining: lot.state === 'sorting' ? piecesLeftToSort(lot, evaluation).length : null,
-      proposal: evaluation.verdict.proposal,
-    });
-  }
-  return { data: rows, total: rows.length };
-}
+import { switchingStateOf } from '../../inspection/sampling';
 
 export async function lotInspectionView(lotId: number): Promise<LotInspectionView> {
   const lot = await lotForInspection(lotId);

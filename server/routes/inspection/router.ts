@@ -3,14 +3,17 @@ import multer from 'multer';
 import type { z } from 'zod';
 import { dispositionInputSchema, type DispositionInput } from '../../../shared/inspection/lotVerdict';
 import { lotIdParams, measurementUploadSchema, previewPageParams, previewPageQuery } from '../../../shared/schemas/inspection';
+import { listQuerySchema } from '../../../shared/schemas/paging';
 import { actorOf } from '../../audit/record';
 import { allow, authenticate } from '../../auth/authenticate';
 import { badRequest } from '../../http/errors';
+import { mountList } from '../../http/list';
 import { validate, validated } from '../../http/validate';
 import { signDisposition } from '../../inspection/disposition';
 import { commitMeasurements, MAX_MEASUREMENT_BYTES, type UploadedFile } from '../../inspection/measurements';
 import { previewMeasurements, previewPage } from '../../inspection/preview';
-import { inspectionQueue, lotInspectionView } from './presenter';
+import { inspectionQueue } from '../../inspection/queue';
+import { lotInspectionView } from './presenter';
 
 // Bench files are CSV text: anything that is not (a NUL byte in the first kilobyte) is refused
 // before the engine sees it.
@@ -31,9 +34,7 @@ type LotParams = z.infer<typeof lotIdParams>;
 
 export const inspectionRouter = Router();
 
-inspectionRouter.get('/queue', authenticate, allow('lots.read'), async (_req, res) => {
-  res.json(await inspectionQueue());
-});
+mountList(inspectionRouter, '/queue', 'lots.read', listQuerySchema, inspectionQueue);
 
 inspectionRouter.get('/lots/:id', authenticate, allow('lots.read'), validate({ params: lotIdParams }), async (req, res) => {
   res.json(await lotInspectionView((req.valid.params as LotParams).id));

@@ -73,7 +73,7 @@ describe('discontinuation and resumption', () => {
     const listed = await quality.get('/api/lots').query({ q: `L-${waiting.lotId}` }).expect(200);
     expect(listed.body.data.find((l: { id: number }) => l.id === waiting.lotId)).toMatchObject({ acceptanceDiscontinued: true });
     expect((await quality.get(`/api/lots/${waiting.lotId}`).expect(200)).body.acceptanceDiscontinued).toBe(true);
-    const queue = await inspector.get('/api/inspection/queue').expect(200);
+    const queue = await inspector.get('/api/inspection/queue').query({ q: `L-${waiting.lotId}` }).expect(200);
     expect(queue.body.data.find((r: { lotId: number }) => r.lotId === waiting.lotId)).toMatchObject({ acceptanceDiscontinued: true, plan: null });
     const refused = await inspector.get(`/api/inspection/lots/${waiting.lotId}`).expect(409);
     expect(refused.body.error).toMatchObject({ code: 'acceptance_discontinued', details: { supplierId: pair.supplierId, partId: pair.partId } });

@@ -2,6 +2,7 @@ import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tansta
 import type { DispositionInput } from '@shared/inspection/lotVerdict';
 import type { ListResponse } from '@shared/schemas/paging';
 import { api } from '@/lib/api';
+import { listPage } from '@/lib/lists';
 import type { LineMessage } from '@shared/optics/types';
 import { PREVIEW_PAGE_SIZE, type LotInspectionView, type MeasurementPreview, type PreviewList, type PreviewPiece, type QueueRow } from '@shared/schemas/inspection';
 import type { DeviationRow } from '@shared/schemas/deviations';
@@ -9,12 +10,13 @@ import type { InstrumentOption } from './types';
 
 export const inspectionKeys = {
   all: ['inspection'] as const,
-  queue: () => [...inspectionKeys.all, 'queue'] as const,
+  queue: (query: Record<string, string | number | undefined>) => [...inspectionKeys.all, 'queue', query] as const,
   lot: (id: number) => [...inspectionKeys.all, 'lot', id] as const,
   instruments: () => [...inspectionKeys.all, 'instruments'] as const,
 };
 
-export const useInspectionQueue = () => useQuery({ queryKey: inspectionKeys.queue(), queryFn: () => api<ListResponse<QueueRow>>('/inspection/queue') });
+export const useInspectionQueue = (query: Record<string, string | number | undefined>) =>
+  useQuery({ queryKey: inspectionKeys.queue(query), queryFn: listPage<QueueRow>('/inspection/queue', query), placeholderData: keepPreviousData });
 
 export const useLotInspection = (lotId: number) =>
   useQuery({ queryKey: inspectionKeys.lot(lotId), queryFn: () => api<LotInspectionView>(`/inspection/lots/${lotId}`) });
