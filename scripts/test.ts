@@ -1,7 +1,7 @@
 // `npm test`: a fresh test database in the project's test cluster, the mail catcher, the client
 // build, then the whole vitest suite (unit, API against PostgreSQL, browser). Extra arguments go
 // to vitest, e.g. `npm test -- server/routes/auth`.
-import { spawn } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
@@ -13,6 +13,11 @@ const DB_PORT = 54871;
 // Each run has its own database, catcher port and folders, so two runs never disturb each other.
 const runId = `${process.pid}`;
 const database = `phaselot_test_${runId}`;
+
+// The whole suite starts with the lint (layer rules, formatting, types); a run of a part skips it.
+const wholeSuite = process.argv.length === 2;
+const lintFailed = wholeSuite && spawnSync('npm', ['run', '-s', 'lint'], { cwd: root, stdio: 'inherit' }).status !== 0;
+if (lintFailed) console.error('phaselot: npm run lint failed (see above); running the tests all the same');
 
 const cluster = ensureCluster('pg-test', DB_PORT);
 await ensureDatabase(DB_PORT, database, { recreate: true });
@@ -51,4 +56,4 @@ await dropDatabase(DB_PORT, database);
 rmSync(runDir, { recursive: true, force: true });
 // Another run may still be using the shared test cluster; the last one out stops it.
 if (!(await otherDatabasesInUse(DB_PORT, database))) cluster.stop();
-process.exit(exitCode);
+process.exit(lintFailed ? exitCode || 1 : exitCode);
