@@ -1,14 +1,16 @@
-import { Readable } from 'node:stream';
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import directQwp from '../../tests/fixtures/readings/direct-qwp.csv?raw';
+import quartzMultiwavelength from '../../tests/fixtures/readings/quartz-multiwavelength.csv?raw';
+import scanHwp from '../../tests/fixtures/readings/scan-hwp.csv?raw';
+import stokesErrors from '../../tests/fixtures/readings/stokes-errors.csv?raw';
+import stokesQwp from '../../tests/fixtures/readings/stokes-qwp.csv?raw';
 import { analyzeBuffer, analyzeStream, analyzeText } from './analyze.js';
 import { MATERIALS } from './dispersion.js';
 import { DIRECT_HEADER, SCAN_HEADER, STOKES_HEADER, directRow, scanRows, stokesRows, type SyntheticPlate } from './synthetic.js';
-import { seededNormal, seededUniform } from './testing.js';
+import { bytesOf, chunksOf, seededNormal, seededUniform } from './testing.js';
 import type { PieceSpecInput } from './spec.js';
 
 const QWP: PieceSpecInput = { nominalWaves: 0.25, designWavelengthNm: 632.8, retardanceTolWaves: 0.003, axisTolDeg: 0.5 };
-const fixture = (name: string) => new URL(`../../tests/fixtures/readings/${name}`, import.meta.url);
 const file = (header: string, rows: string[], metadata: string[] = []) => [...metadata, header, ...rows].join('\n');
 const angles = Array.from({ length: 18 }, (_, i) => i * 10);
 
@@ -114,7 +116,7 @@ describe('verdicts through the whole file', () => {
   });
 
   it('estimates the order of a quartz plate and flags a multi-order plate shipped against a zero-order order', () => {
-    const result = analyzeBuffer(readFileSync(fixture('quartz-multiwavelength.csv')), {
+    const result = analyzeBuffer(bytesOf(quartzMultiwavelength), {
       ...QWP,
       multiOrder: 0,
       material: 'quartz',
@@ -131,7 +133,7 @@ describe('verdicts through the whole file', () => {
     ]);
     expect(result.serials.map((s) => s.verdict)).toEqual(['pass', 'fail']);
     // Ordered as a 6th-order plate, the same piece passes.
-    const asOrdered = analyzeBuffer(readFileSync(fixture('quartz-multiwavelength.csv')), { ...QWP, nominalWaves: 6.25, material: 'quartz' });
+    const asOrdered = analyzeBuffer(bytesOf(quartzMultiwavelength), { ...QWP, nominalWaves: 6.25, material: 'quartz' });
     expect(asOrdered.serials.map((s) => s.verdict)).toEqual(['pass', 'pass']);
   });
 });
@@ -185,27 +187,59 @@ describe('instrument profiles', () => {
 });
 
 describe('reading the same file three ways', () => {
+  const fixtures = { 'stokes-qwp.csv': stokesQwp, 'scan-hwp.csv': scanHwp, 'direct-qwp.csv': directQwp, 'stokes-errors.csv': stokesErrors, 'quartz-multiwavelength.csv': quartzMultiwavelength };
+
   it('gives the same result from text, bytes and a stream of small chunks', async () => {
-    for (const name of ['stokes-qwp.csv', 'scan-hwp.csv', 'direct-qwp.csv', 'stokes-errors.csv', 'quartz-multiwavelength.csv']) {
-      const bytes = readFileSync(fixture(name));
+    for (const [name, text] of Object.entries(fixtures)) {
+      const bytes = bytesOf(text);
       const spec = { ...QWP, designWavelengthNm: name.startsWith('scan') ? 532 : 632.8 };
-      const fromText = analyzeText(bytes.toString('utf8'), spec);
+      const fromText = analyzeText(text, spec);
       expect(analyzeBuffer(bytes, spec)).toEqual(fromText);
-      const chunks = Array.from({ length: Math.ceil(bytes.length / 97) }, (_, i) => bytes.subarray(97 * i, 97 * (i + 1)));
-      expect(await analyzeStream(Readable.from(chunks), spec)).toEqual(fromText);
+      expect(await analyzeStream(chunksOf(bytes, 97), spec)).toEqual(fromText);
     }
   });
 
   it('reads a byte-order mark, CRLF and CR-only line ends in a stream as LF, wherever the chunks are cut', async () => {
-    const lf = readFileSync(fixture('stokes-qwp.csv'), 'utf8');
-    const expected = analyzeText(lf, QWP);
+    const expected = analyzeText(stokesQwp, QWP);
     expect(expected.metadata.instrument).toBe('BENCH-2');
-    for (const text of [`\uFEFF${lf}`, lf.replaceAll('\n', '\r\n'), `\uFEFF${lf.replaceAll('\n', '\r')}`]) {
-      const bytes = Buffer.from(text);
-      for (const size of [1, 2, 7, 97]) {
-        const chunks = Array.from({ length: Math.ceil(bytes.length / size) }, (_, i) => bytes.subarray(size * i, size * (i + 1)));
-        expect(await analyzeStream(Readable.from(chunks), QWP)).toEqual(expected);
-      }
+    for (const text of [`\uFEFF${stokesQwp}`, stokesQwp.replaceAll('\n', '\r\n'), `\uFEFF${stokesQwp.replaceAll('\n', '\r')}`]) {
+      for (const size of [1, 2, 7, 97]) expect(await analyzeStream(chunksOf(bytesOf(text), size), QWP)).toEqual(expected);
     }
+  });
+
+  // Text is parsed in slices of about a million characters (2^20); a stream parses each as the next begins.
+  describe('a file of several slices', () => {
+    const noise = seededNormal(6);
+    const rows = plates(5, 4500).flatMap((plate) => stokesRows(plate, undefined, () => 0.001 * noise()));
+    rows[100] = rows[100].replace(/,[^,]*$/, ',abc');
+    rows[20_000] = rows[20_000].replace(/^[^,]*/, '');
+    const big = file(STOKES_HEADER, rows, ['# instrument: BENCH-2', '# operator: QC-07']);
+    const stream = (text: string) => chunksOf(bytesOf(text), 65_536);
+
+    it('gives the same result from text and from a stream in chunks of 64 KiB', async () => {
+      expect(big.length).toBeGreaterThan(1.5 * 2 ** 20);
+      const fromText = analyzeText(big, QWP, { keepRows: true });
+      expect(fromText.pieces).toHaveLength(4500);
+      expect(fromText.errors.map((e) => e.line)).toEqual([104, 20_004]);
+      expect(await analyzeStream(stream(big), QWP, { keepRows: true })).toEqual(fromText);
+    });
+
+    it('gives the same result when a quote left open in a later slice swallows the rest of the file', async () => {
+      const quoted = [...rows];
+      quoted[22_000] = quoted[22_000].replace(/,[^,]*$/, ',"0.1');
+      const text = file(STOKES_HEADER, quoted, ['# instrument: BENCH-2']);
+      const fromText = analyzeText(text, QWP);
+      // csv-parse finds the quote unclosed at the end of the file (27,002 lines) and skips that one record.
+      expect(fromText.errors.map((e) => e.line)).toEqual([103, 20_003, 27_002]);
+      expect(fromText.errors[2].message).toMatch(/^the CSV could not be read here: Quote Not Closed: .* at line 27002$/);
+      expect(fromText.pieces).toHaveLength(3667);
+      expect(await analyzeStream(stream(text), QWP)).toEqual(fromText);
+    });
+
+    it('refuses a file over the row limit', async () => {
+      const refusal = 'the file has more than 20000 data rows; split it into smaller files';
+      expect(analyzeText(big, QWP, { maxRows: 20_000 })).toMatchObject({ fatal: refusal, pieces: [], rows: [] });
+      expect(await analyzeStream(stream(big), QWP, { maxRows: 20_000 })).toMatchObject({ fatal: refusal, pieces: [], rows: [] });
+    });
   });
 });

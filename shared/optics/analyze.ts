@@ -2,7 +2,7 @@
 import { collectStream, collectText } from './csv.js';
 import { evaluate } from './evaluate.js';
 import { ReadingCollector } from './readings.js';
-import { decodeBenchFile, normalizeText } from './text.js';
+import { decodeBenchFile, normalizeText, utf8Exceeds } from './text.js';
 import { parsePieceSpec, type PieceSpec, type PieceSpecInput } from './spec.js';
 import { DEFAULT_MAX_BYTES, DEFAULT_MAX_ROWS, type AnalysisResult, type AnalyzeOptions } from './types.js';
 
@@ -32,7 +32,7 @@ function finish(collector: ReadingCollector, spec: PieceSpec): AnalysisResult {
 
 export function analyzeText(csvText: string, spec: PieceSpecInput, options: AnalyzeOptions = {}): AnalysisResult {
   const maxBytes = options.maxBytes ?? DEFAULT_MAX_BYTES;
-  if (csvText.length > maxBytes || Buffer.byteLength(csvText) > maxBytes) {
+  if (utf8Exceeds(csvText, maxBytes)) {
     return fatalResult(`the file is larger than ${maxBytes} bytes`);
   }
   if (csvText.includes('\0')) return fatalResult('the file is not text (it contains NUL bytes): expected a CSV file');
@@ -59,6 +59,6 @@ export async function analyzeStream(
 ): Promise<AnalysisResult> {
   const begun = start(spec, options);
   if (typeof begun === 'string') return fatalResult(begun);
-  await collectStream(source, begun.collector, options.maxBytes ?? DEFAULT_MAX_BYTES);
+  await collectStream(source, begun.collector, options.maxBytes ?? DEFAULT_MAX_BYTES, options.maxRows ?? DEFAULT_MAX_ROWS);
   return finish(begun.collector, begun.spec);
 }

@@ -1,16 +1,17 @@
 /**
  * Phaselot analysis engine: measurement files of wave plates to per-piece verdicts.
- * Pure TypeScript (no database, no HTTP, no file system); conventions and file formats are those
+ * Pure TypeScript (no database, no HTTP, no file system, no Node built-ins); conventions and file formats are those
  * of shared/spec/readings.md.
  *
  * Stable API for the server:
  *
  *   analyzeText(csvText: string, spec: PieceSpecInput, options?: AnalyzeOptions): AnalysisResult
- *   analyzeBuffer(bytes: Uint8Array | Buffer, spec: PieceSpecInput, options?: AnalyzeOptions): AnalysisResult
+ *   analyzeBuffer(bytes: Uint8Array, spec: PieceSpecInput, options?: AnalyzeOptions): AnalysisResult   (a Node Buffer is one)
  *   analyzeStream(source: AsyncIterable<Uint8Array | string>, spec: PieceSpecInput,
  *                 options?: AnalyzeOptions): Promise<AnalysisResult>     (e.g. a Node Readable)
- *     The text and byte forms parse in slices and take line numbers from the text itself; the
- *     stream form asks csv-parse for them, about twice its parse time. The results are the same.
+ *     Every form parses in slices cut at line ends and takes line numbers from the text itself; the
+ *     stream form parses each slice as the next one begins, so it holds about one slice of text.
+ *     The results are the same.
  *
  *   AnalyzeOptions = { maxBytes?: number (default 32 MiB), maxRows?: number (default 200,000),
  *                      keepRows?: boolean (default false: rows stay empty) }

@@ -1,9 +1,10 @@
-import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import stokesErrors from '../../tests/fixtures/readings/stokes-errors.csv?raw';
 import { analyzeBuffer, analyzeText } from './analyze.js';
 import { readMetadata } from './readings.js';
 import { DIRECT_HEADER, SCAN_HEADER, STOKES_HEADER, stokesRows } from './synthetic.js';
 import type { PieceSpecInput } from './spec.js';
+import { bytesOf } from './testing.js';
 
 const QWP: PieceSpecInput = { nominalWaves: 0.25, designWavelengthNm: 632.8, retardanceTolWaves: 0.003, axisTolDeg: 0.5 };
 const good = (serial = 'QW-0001', wavelengthNm = 632.8) =>
@@ -163,7 +164,7 @@ describe('what the file may contain', () => {
   });
 
   it('reads the error fixture with every problem on its line', () => {
-    const result = analyzeBuffer(readFileSync(new URL('../../tests/fixtures/readings/stokes-errors.csv', import.meta.url)), QWP);
+    const result = analyzeBuffer(bytesOf(stokesErrors), QWP);
     expect(result.errors).toEqual([
       { line: 7, message: 's3 is not a number: "abc"' },
       { line: 11, message: 'unknown input state "X": expected H, V, D, A, R, L or an angle in degrees' },
@@ -198,7 +199,7 @@ describe('one reading of the text, whatever its line ends', () => {
     expect(reference.rows.map((r) => r.line)).toEqual(Array.from({ length: 12 }, (_, i) => i + 4));
     for (const [name, text] of Object.entries(variants)) {
       expect(analyzeText(text, QWP, { keepRows: true }), name).toEqual(reference);
-      expect(analyzeBuffer(Buffer.from(text), QWP, { keepRows: true }), name).toEqual(reference);
+      expect(analyzeBuffer(bytesOf(text), QWP, { keepRows: true }), name).toEqual(reference);
     }
   });
 

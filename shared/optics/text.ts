@@ -10,6 +10,26 @@ export function normalizeText(text: string): string {
   return body.includes('\r') ? body.replace(/\r\n?/g, '\n') : body;
 }
 
+/** Whether a text takes more than `limit` bytes in UTF-8, counted without encoding it and only as far as needed. */
+export function utf8Exceeds(text: string, limit: number): boolean {
+  const units = text.length;
+  // A UTF-16 unit takes one to three bytes in UTF-8 (a surrogate pair, two units, takes four).
+  if (units > limit) return true;
+  if (units * 3 <= limit) return false;
+  let bytes = 0;
+  for (let i = 0; i < units; i++) {
+    const unit = text.charCodeAt(i);
+    if (unit < 0x80) bytes += 1;
+    else if (unit < 0x800) bytes += 2;
+    else if ((unit & 0xfc00) === 0xd800 && (text.charCodeAt(i + 1) & 0xfc00) === 0xdc00) {
+      bytes += 4;
+      i++;
+    } else bytes += 3; // a lone surrogate is encoded as U+FFFD
+    if (bytes > limit) return true;
+  }
+  return false;
+}
+
 /** The normalised text of a file's bytes, or why they are not the text of a bench file. */
 export function decodeBenchFile(bytes: Uint8Array, maxBytes: number): { text: string } | { fatal: string } {
   if (bytes.byteLength > maxBytes) return { fatal: `the file is larger than ${maxBytes} bytes` };

@@ -1,15 +1,10 @@
-import { createRequire } from 'node:module';
+import jstat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { ocCurve, probabilityOfAcceptance } from './oc';
 
 // jstat, a general-purpose statistics library, as the independent reference. Its binomial cdf
 // is rounded to 10 decimals, hence the tolerance of 1e-9.
-const { jStat } = createRequire(import.meta.url)('jstat') as {
-  jStat: {
-    binomial: { cdf(k: number, n: number, p: number): number };
-    poisson: { cdf(k: number, mean: number): number };
-  };
-};
+const { jStat } = jstat;
 
 // Plans (n, Ac) of Table 2-A, normal inspection (as checked cell by cell in tables.test.ts), and p
 // across their working range.

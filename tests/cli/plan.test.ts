@@ -5,8 +5,8 @@ import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { lookUpPlan } from './plan';
-import { AQL_VALUES, INSPECTION_LEVELS, SEVERITIES } from './tables';
+import { lookUpPlan } from '../../shared/sampling/plan';
+import { AQL_VALUES, INSPECTION_LEVELS, SEVERITIES } from '../../shared/sampling/tables';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
 
