@@ -249,6 +249,28 @@ describe('/api/corrective-actions', () => {
     expect(await OutboxMail.count({ where: { relatedType: 'corrective-action', relatedId: String(car.id) } })).toBe(mails.length);
   });
 
+  it('lets inspection resume after discontinuation on an accepted request of the same supplier and part', async () => {
+    const pair = await supplierWithQualityContact();
+    // ISO 2859-1, 9.3 and 9.4: two lots not accepted on normal start tightened inspection, five not
+    // accepted on tightened discontinue acceptance, which resumes (on tightened) once the supplier has acted.
+    for (let i = 0; i < 7; i++) await decide((await pair.receive(5)).lotId, 'reject');
+    const pending = await raiseRequest([(await ncrOf(pair)).id]);
+    const accepted = await raiseRequest([(await ncrOf(pair)).id]);
+    await answer((await mailedToken(accepted.id)).token).expect(201);
+    const quality = await as('quality');
+    await quality.post(`/api/corrective-actions/${accepted.id}/review`).send({ decision: 'accept', password: DEMO_PASSWORD, meaningAcknowledged: true }).expect(200);
+    const elsewhere = await requestWithLink();
+
+    const resume = (correctiveActionId: number) =>
+      quality.post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`).send({ correctiveAction: 'Polishing pitch replaced; retardance of every plate measured before packing.', correctiveActionId, password: DEMO_PASSWORD, meaningAcknowledged: true });
+    expect((await resume(elsewhere.car.id).expect(400)).body.error.details).toEqual([{ path: 'correctiveActionId', message: 'Not a request of this supplier and part' }]);
+    expect((await resume(pending.id).expect(409)).body.error.message).toBe(`${pending.number} is not accepted: the supplier's answer must be accepted before inspection resumes on it`);
+    const resumed = await resume(accepted.id).expect(201);
+    expect(resumed.body.state).toMatchObject({ severity: 'tightened', stopped: false });
+    const history = (await quality.get(`/api/switching/${pair.supplierId}/${pair.partId}`).expect(200)).body.history;
+    expect(history[0]).toMatchObject({ kind: 'resume', reference: accepted.number, correctiveActionId: accepted.id });
+  });
+
   it('rate-limits the response form per network address', async () => {
     for (let i = 0; i < 10; i++) expect((await answer('not-a-token', [], {})).status).toBe(400);
     const limited = await answer('not-a-token', [], {});
