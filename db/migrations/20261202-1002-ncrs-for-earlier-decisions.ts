@@ -10,8 +10,18 @@ import { describeLotNcr, failingReasons, type LotNcrFacts } from '../../shared/n
 import type { Migration } from '../migrator';
 
 type Decided = {
-  dispositionId: number; decision: 'accept' | 'reject' | 'sort'; signerId: number; signedAt: Date; explanation: string;
-  lotId: number; supplierLot: string; partId: number; partNumber: string; supplierId: number; supplierName: string; poNumber: string;
+  dispositionId: number;
+  decision: 'accept' | 'reject' | 'sort';
+  signerId: number;
+  signedAt: Date;
+  explanation: string;
+  lotId: number;
+  supplierLot: string;
+  partId: number;
+  partNumber: string;
+  supplierId: number;
+  supplierName: string;
+  poNumber: string;
 };
 type SetAside = { pieceId: number; locationCode: string; results: { wavelengthNm: number; verdict: string; reasons: string[] }[] | null };
 
@@ -47,7 +57,10 @@ export async function openNcrsForEarlierDecisions(sequelize: Sequelize, transact
   );
   const opened: number[] = [];
   const codes = new Map(
-    (await sequelize.query<{ id: number; code: string }>('SELECT id, code FROM defect_codes', { type: QueryTypes.SELECT, transaction })).map((c) => [c.code, c.id]),
+    (await sequelize.query<{ id: number; code: string }>('SELECT id, code FROM defect_codes', { type: QueryTypes.SELECT, transaction })).map((c) => [
+      c.code,
+      c.id,
+    ]),
   );
   for (const lot of decided) {
     const pieces = await sequelize.query<SetAside>(
@@ -88,14 +101,20 @@ export async function openNcrsForEarlierDecisions(sequelize: Sequelize, transact
     }
     const defects = defectCodesFor(reasons.flat()).filter((code) => codes.has(code));
     for (const code of defects) {
-      await sequelize.query('INSERT INTO nonconformance_defects (nonconformance_id, defect_code_id) VALUES (:id, :codeId)', { transaction, replacements: { id, codeId: codes.get(code) } });
+      await sequelize.query('INSERT INTO nonconformance_defects (nonconformance_id, defect_code_id) VALUES (:id, :codeId)', {
+        transaction,
+        replacements: { id, codeId: codes.get(code) },
+      });
     }
     await sequelize.query(
       `INSERT INTO audit_events (actor_id, actor_email, actor_roles, action, entity_type, entity_id, before, after)
        VALUES (NULL, 'system', '{}', 'ncr.opened-for-earlier-decision', 'nonconformance', :id, NULL, :after)`,
       {
         transaction,
-        replacements: { id: String(id), after: JSON.stringify({ number, origin: facts.origin, lot: facts.lotName, dispositionId: lot.dispositionId, pieces: pieces.length, defects }) },
+        replacements: {
+          id: String(id),
+          after: JSON.stringify({ number, origin: facts.origin, lot: facts.lotName, dispositionId: lot.dispositionId, pieces: pieces.length, defects }),
+        },
       },
     );
     opened.push(id);
@@ -105,7 +124,10 @@ export async function openNcrsForEarlierDecisions(sequelize: Sequelize, transact
 
 export const up: Migration = ({ sequelize }) =>
   sequelize.transaction(async (transaction) => {
-    await sequelize.query(`INSERT INTO defect_codes (code, label) VALUES ('depolarisation', 'Depolarisation (scatter, strain)') ON CONFLICT (code) DO NOTHING`, { transaction });
+    await sequelize.query(
+      `INSERT INTO defect_codes (code, label) VALUES ('depolarisation', 'Depolarisation (scatter, strain)') ON CONFLICT (code) DO NOTHING`,
+      { transaction },
+    );
     await openNcrsForEarlierDecisions(sequelize, transaction);
   });
 

@@ -47,7 +47,17 @@ describe('migration 1002: NCRs for lots decided earlier', () => {
     const result = await rolledBack(async (transaction) => {
       await forgetNcrs(lotIds, transaction);
       const opened = await openNcrsForEarlierDecisions(owner, transaction);
-      const ncrs = await owner.query<{ id: number; number: string; origin: string; lotId: number; status: string; pieces: number; failing: number; defects: string[]; audited: number }>(
+      const ncrs = await owner.query<{
+        id: number;
+        number: string;
+        origin: string;
+        lotId: number;
+        status: string;
+        pieces: number;
+        failing: number;
+        defects: string[];
+        audited: number;
+      }>(
         `SELECT n.id, n.number, n.origin, n.lot_id AS "lotId", n.status,
                 (SELECT count(*)::int FROM nonconformance_pieces np WHERE np.nonconformance_id = n.id) AS pieces,
                 (SELECT count(*)::int FROM nonconformance_pieces np WHERE np.nonconformance_id = n.id AND jsonb_array_length(np.reasons) > 0) AS failing,
@@ -62,8 +72,28 @@ describe('migration 1002: NCRs for lots decided earlier', () => {
     });
 
     expect(result.ncrs).toEqual([
-      { id: expect.any(Number), number: expect.stringMatching(/^NCR-\d{4}-\d{4}$/), origin: 'rejection', lotId: rejected.lotId, status: 'open', pieces: 30, failing: 2, defects: ['retardance'], audited: 1 },
-      { id: expect.any(Number), number: expect.stringMatching(/^NCR-\d{4}-\d{4}$/), origin: 'accepted-lot', lotId: accepted.lotId, status: 'open', pieces: 1, failing: 1, defects: ['retardance'], audited: 1 },
+      {
+        id: expect.any(Number),
+        number: expect.stringMatching(/^NCR-\d{4}-\d{4}$/),
+        origin: 'rejection',
+        lotId: rejected.lotId,
+        status: 'open',
+        pieces: 30,
+        failing: 2,
+        defects: ['retardance'],
+        audited: 1,
+      },
+      {
+        id: expect.any(Number),
+        number: expect.stringMatching(/^NCR-\d{4}-\d{4}$/),
+        origin: 'accepted-lot',
+        lotId: accepted.lotId,
+        status: 'open',
+        pieces: 1,
+        failing: 1,
+        defects: ['retardance'],
+        audited: 1,
+      },
     ]);
     expect(result.opened).toEqual(expect.arrayContaining(result.ncrs.map((n) => n.id)));
     expect(result.again).toEqual([]);

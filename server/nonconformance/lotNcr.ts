@@ -26,7 +26,11 @@ export type LotDecisionForNcr = {
   supersededId: number | null;
 };
 
-const ORIGIN: Partial<Record<LotDecisionForNcr['routing'], Exclude<NcrOrigin, 'found-later'>>> = { reject: 'rejection', sorted: 'sort', accept: 'accepted-lot' };
+const ORIGIN: Partial<Record<LotDecisionForNcr['routing'], Exclude<NcrOrigin, 'found-later'>>> = {
+  reject: 'rejection',
+  sorted: 'sort',
+  accept: 'accepted-lot',
+};
 
 /** The failing reasons of each piece's current judged results. */
 export async function currentFailingReasons(pieceIds: number[], transaction: Transaction) {
@@ -50,12 +54,32 @@ async function settleSupersededNcr(decision: LotDecisionForNcr, actor: AuditActo
     { type: QueryTypes.SELECT, transaction, replacements: { id: earlier.id } },
   );
   if (worked) {
-    throw new AppError(409, 'ncr_in_progress', `${earlier.number} of lot ${lotName(decision.lot.id)} already has signed dispositions or returns: decide its pieces there rather than by a new lot decision`, { ncr: earlier.number });
+    throw new AppError(
+      409,
+      'ncr_in_progress',
+      `${earlier.number} of lot ${lotName(decision.lot.id)} already has signed dispositions or returns: decide its pieces there rather than by a new lot decision`,
+      { ncr: earlier.number },
+    );
   }
   const before = { status: earlier.status };
-  Object.assign(earlier, { status: 'closed', closedAt: new Date(), closedBy: decision.signerId, closingNote: 'The lot decision that opened it was superseded by a new decision' });
+  Object.assign(earlier, {
+    status: 'closed',
+    closedAt: new Date(),
+    closedBy: decision.signerId,
+    closingNote: 'The lot decision that opened it was superseded by a new decision',
+  });
   await earlier.save({ transaction });
-  await recordAudit(actor, { action: 'ncr.closed', entityType: 'nonconformance', entityId: earlier.id, before, after: { status: 'closed', number: earlier.number, reason: 'lot decision superseded', dispositionId: decision.dispositionId } }, transaction);
+  await recordAudit(
+    actor,
+    {
+      action: 'ncr.closed',
+      entityType: 'nonconformance',
+      entityId: earlier.id,
+      before,
+      after: { status: 'closed', number: earlier.number, reason: 'lot decision superseded', dispositionId: decision.dispositionId },
+    },
+    transaction,
+  );
 }
 
 /** Opens the decision's NCR when it set pieces aside; answers it, or null. */
@@ -97,13 +121,31 @@ export async function openLotNcr(decision: LotDecisionForNcr, actor: AuditActor,
     },
     { transaction },
   );
-  await NonconformancePiece.bulkCreate(pieceIds.map((pieceId) => ({ nonconformanceId: ncr.id, pieceId, reasons: reasons.get(pieceId)! })), { transaction });
+  await NonconformancePiece.bulkCreate(
+    pieceIds.map((pieceId) => ({ nonconformanceId: ncr.id, pieceId, reasons: reasons.get(pieceId)! })),
+    { transaction },
+  );
   const codes = defectCodesFor([...reasons.values()].flat());
   const catalogue = codes.length ? await DefectCode.findAll({ where: { code: codes, active: true }, transaction }) : [];
-  await NonconformanceDefect.bulkCreate(catalogue.map((c) => ({ nonconformanceId: ncr.id, defectCodeId: c.id })), { transaction });
+  await NonconformanceDefect.bulkCreate(
+    catalogue.map((c) => ({ nonconformanceId: ncr.id, defectCodeId: c.id })),
+    { transaction },
+  );
   await recordAudit(
     actor,
-    { action: 'ncr.opened', entityType: 'nonconformance', entityId: ncr.id, after: { number: ncr.number, origin, lot: lotName(lot.id), dispositionId: decision.dispositionId, pieces: pieceIds.length, defects: catalogue.map((c) => c.code) } },
+    {
+      action: 'ncr.opened',
+      entityType: 'nonconformance',
+      entityId: ncr.id,
+      after: {
+        number: ncr.number,
+        origin,
+        lot: lotName(lot.id),
+        dispositionId: decision.dispositionId,
+        pieces: pieceIds.length,
+        defects: catalogue.map((c) => c.code),
+      },
+    },
     transaction,
   );
   return ncr;

@@ -34,7 +34,14 @@ import { recordDeviationUse, takeDeviation } from '../supplierquality/deviationU
 type Request = Pick<AuditActor, 'requestId' | 'address'>;
 
 /** A piece of an NCR with where it is and what has been signed for it. */
-export type NcrPieceState = PieceProgress & { pieceId: number; lotId: number; state: PieceState; locationId: number | null; locationKind: LocationKind | null; dispositionId: number | null };
+export type NcrPieceState = PieceProgress & {
+  pieceId: number;
+  lotId: number;
+  state: PieceState;
+  locationId: number | null;
+  locationKind: LocationKind | null;
+  dispositionId: number | null;
+};
 
 export async function ncrPieceStates(ncrId: number, transaction?: Transaction): Promise<NcrPieceState[]> {
   const rows = await sequelize.query<Omit<NcrPieceState, 'shipped' | 'reworkReleased'> & { returnId: number | null; reworkReleaseId: number | null }>(
@@ -60,12 +67,14 @@ export async function lockOpenNcr(ncrId: number, transaction: Transaction) {
   return ncr;
 }
 
-const listSerials = (serials: string[], most = 12) => (serials.length <= most ? serials.join(', ') : `${serials.slice(0, most).join(', ')} and ${serials.length - most} more`);
+const listSerials = (serials: string[], most = 12) =>
+  serials.length <= most ? serials.join(', ') : `${serials.slice(0, most).join(', ')} and ${serials.length - most} more`;
 
 async function checkDefectCodes(ids: number[], transaction: Transaction) {
   const unique = [...new Set(ids)];
   const found = await DefectCode.findAll({ where: { id: unique, active: true }, transaction });
-  if (found.length !== unique.length) throw badRequest('Some defect codes are unknown or no longer in use', [{ path: 'defectCodeIds', message: 'Choose codes of the catalogue' }]);
+  if (found.length !== unique.length)
+    throw badRequest('Some defect codes are unknown or no longer in use', [{ path: 'defectCodeIds', message: 'Choose codes of the catalogue' }]);
   return found;
 }
 
@@ -75,7 +84,15 @@ async function checkOwner(ownerId: number | null | undefined, transaction: Trans
   if (!owner || !owner.active) throw badRequest('The owner is not an active user', [{ path: 'ownerId', message: 'Choose an active user' }]);
 }
 
-type FoundPiece = { id: number; serial: string; lotId: number; state: PieceState; supplierId: number; locationKind: LocationKind | null; openNcr: string | null };
+type FoundPiece = {
+  id: number;
+  serial: string;
+  lotId: number;
+  state: PieceState;
+  supplierId: number;
+  locationKind: LocationKind | null;
+  openNcr: string | null;
+};
 
 /** The pieces of a part with these serials, with their supplier, where they are and any NCR still open
  * for them; every serial must have been received. */
@@ -109,11 +126,13 @@ export function openNcrByHand(actor: AuditActor, rawInput: NcrOpenInput) {
   return inTransaction(async (transaction) => {
     const pieces = await piecesFoundLater(input.partId, input.serials, transaction);
     const onNcr = pieces.filter((p) => p.openNcr);
-    if (onNcr.length) throw conflict(`Already on an open NCR: ${listSerials(onNcr.map((p) => `${p.serial} (${p.openNcr})`))}`, { serials: onNcr.map((p) => p.serial) });
+    if (onNcr.length)
+      throw conflict(`Already on an open NCR: ${listSerials(onNcr.map((p) => `${p.serial} (${p.openNcr})`))}`, { serials: onNcr.map((p) => p.serial) });
     const gone = pieces.filter((p) => p.state === 'scrapped' || p.state === 'shipped-back' || p.locationKind === 'return-to-vendor');
     if (gone.length) throw conflict(`Not on site to hold: ${listSerials(gone.map((p) => `${p.serial} (${PIECE_STATE_LABELS[p.state].toLowerCase()})`))}`);
     const suppliers = new Set(pieces.map((p) => p.supplierId));
-    if (suppliers.size > 1) throw badRequest('These pieces come from several suppliers: open one NCR per supplier', [{ path: 'serials', message: 'Give serials of one supplier' }]);
+    if (suppliers.size > 1)
+      throw badRequest('These pieces come from several suppliers: open one NCR per supplier', [{ path: 'serials', message: 'Give serials of one supplier' }]);
     const codes = await checkDefectCodes(input.defectCodeIds, transaction);
     await checkOwner(input.ownerId, transaction);
     const lots = new Set(pieces.map((p) => p.lotId));
@@ -133,8 +152,14 @@ export function openNcrByHand(actor: AuditActor, rawInput: NcrOpenInput) {
       },
       { transaction },
     );
-    await NonconformancePiece.bulkCreate(pieces.map((p) => ({ nonconformanceId: ncr.id, pieceId: p.id, reasons: [input.description] })), { transaction });
-    await NonconformanceDefect.bulkCreate(codes.map((c) => ({ nonconformanceId: ncr.id, defectCodeId: c.id })), { transaction });
+    await NonconformancePiece.bulkCreate(
+      pieces.map((p) => ({ nonconformanceId: ncr.id, pieceId: p.id, reasons: [input.description] })),
+      { transaction },
+    );
+    await NonconformanceDefect.bulkCreate(
+      codes.map((c) => ({ nonconformanceId: ncr.id, defectCodeId: c.id })),
+      { transaction },
+    );
 
     // Issued pieces come back from their work order; the others leave their bin or hold.
     const review = await locationFor('material-review', transaction);
@@ -145,7 +170,18 @@ export function openNcrByHand(actor: AuditActor, rawInput: NcrOpenInput) {
     if (onSite.length) await movePieces({ pieceIds: onSite, toLocationId: review.id, reason: 'hold', note }, actor, transaction);
     await recordAudit(
       actor,
-      { action: 'ncr.opened', entityType: 'nonconformance', entityId: ncr.id, after: { number: ncr.number, origin: 'found-later', serials: pieces.map((p) => p.serial), defects: codes.map((c) => c.code), description: input.description } },
+      {
+        action: 'ncr.opened',
+        entityType: 'nonconformance',
+        entityId: ncr.id,
+        after: {
+          number: ncr.number,
+          origin: 'found-later',
+          serials: pieces.map((p) => p.serial),
+          defects: codes.map((c) => c.code),
+          description: input.description,
+        },
+      },
       transaction,
     );
     return ncr;
@@ -158,12 +194,24 @@ export function updateNcr(actor: AuditActor, ncrId: number, rawInput: NcrUpdateI
     const ncr = await lockOpenNcr(ncrId, transaction);
     const codes = await checkDefectCodes(input.defectCodeIds, transaction);
     await checkOwner(input.ownerId, transaction);
-    const before = { description: ncr.description, containment: ncr.containment, ownerId: ncr.ownerId, defects: (await NonconformanceDefect.findAll({ where: { nonconformanceId: ncrId }, transaction })).map((d) => d.defectCodeId) };
+    const before = {
+      description: ncr.description,
+      containment: ncr.containment,
+      ownerId: ncr.ownerId,
+      defects: (await NonconformanceDefect.findAll({ where: { nonconformanceId: ncrId }, transaction })).map((d) => d.defectCodeId),
+    };
     Object.assign(ncr, { description: input.description, containment: input.containment, ownerId: input.ownerId, updatedAt: new Date() });
     await ncr.save({ transaction });
     await NonconformanceDefect.destroy({ where: { nonconformanceId: ncrId, defectCodeId: { [Op.notIn]: codes.map((c) => c.id) } }, transaction });
-    await NonconformanceDefect.bulkCreate(codes.map((c) => ({ nonconformanceId: ncrId, defectCodeId: c.id })), { transaction, ignoreDuplicates: true });
-    await recordAudit(actor, { action: 'ncr.updated', entityType: 'nonconformance', entityId: ncrId, before, after: { ...input, defects: codes.map((c) => c.id) } }, transaction);
+    await NonconformanceDefect.bulkCreate(
+      codes.map((c) => ({ nonconformanceId: ncrId, defectCodeId: c.id })),
+      { transaction, ignoreDuplicates: true },
+    );
+    await recordAudit(
+      actor,
+      { action: 'ncr.updated', entityType: 'nonconformance', entityId: ncrId, before, after: { ...input, defects: codes.map((c) => c.id) } },
+      transaction,
+    );
     return ncr;
   });
 }
@@ -176,7 +224,8 @@ async function locationFor(kind: LocationKind, transaction: Transaction) {
 
 async function stockBin(locationId: number, transaction: Transaction) {
   const location = await Location.findByPk(locationId, { transaction });
-  if (!location || location.kind !== 'stock' || !location.active) throw badRequest('Choose an active stock bin', [{ path: 'toLocationId', message: 'Not an active stock bin' }]);
+  if (!location || location.kind !== 'stock' || !location.active)
+    throw badRequest('Choose an active stock bin', [{ path: 'toLocationId', message: 'Not an active stock bin' }]);
   return location;
 }
 
@@ -197,7 +246,15 @@ export function piecesCovered(all: NcrPieceState[], named: number[], eligible: (
 }
 
 /** Moves the pieces that are not in a location of `kind` to that kind's location. */
-async function moveUnlessIn(pieces: NcrPieceState[], kind: LocationKind, reason: Exclude<MoveReason, 'receipt'>, note: string, signedDispositionId: number, actor: AuditActor, transaction: Transaction) {
+async function moveUnlessIn(
+  pieces: NcrPieceState[],
+  kind: LocationKind,
+  reason: Exclude<MoveReason, 'receipt'>,
+  note: string,
+  signedDispositionId: number,
+  actor: AuditActor,
+  transaction: Transaction,
+) {
   const toMove = pieces.filter((p) => p.locationKind !== kind).map((p) => p.pieceId);
   if (toMove.length === 0) return;
   const location = await locationFor(kind, transaction);
@@ -225,12 +282,19 @@ export async function signNcrDisposition(signer: User, ncrId: number, rawInput: 
     const ncr = await lockOpenNcr(ncrId, transaction);
     const all = await ncrPieceStates(ncrId, transaction);
     const decision: NcrDecision = input.decision;
-    const pieces = piecesCovered(all, input.pieceIds, (p) => pieceAwaitsDisposition(p, decision), `awaits a disposition${decision === 'rework' ? '' : ' (or waits in rework)'}`);
+    const pieces = piecesCovered(
+      all,
+      input.pieceIds,
+      (p) => pieceAwaitsDisposition(p, decision),
+      `awaits a disposition${decision === 'rework' ? '' : ' (or waits in rework)'}`,
+    );
     const offSite = pieces.filter((p) => p.locationId === null);
     if (offSite.length) throw conflict(`Not on site: ${listSerials(offSite.map((p) => `${p.serial} (${PIECE_STATE_LABELS[p.state].toLowerCase()})`))}`);
     const bin = decision === 'use-as-is' ? await stockBin(input.toLocationId!, transaction) : null;
     const deviation =
-      decision === 'use-as-is' ? await takeDeviation({ deviationId: input.deviationId!, supplierId: ncr.supplierId, partId: ncr.partId, quantity: pieces.length }, transaction) : null;
+      decision === 'use-as-is'
+        ? await takeDeviation({ deviationId: input.deviationId!, supplierId: ncr.supplierId, partId: ncr.partId, quantity: pieces.length }, transaction)
+        : null;
 
     const disposition = await NcrDisposition.create(
       {
@@ -245,7 +309,10 @@ export async function signNcrDisposition(signer: User, ncrId: number, rawInput: 
       { transaction },
     );
     const pieceIds = pieces.map((p) => p.pieceId);
-    await NcrDispositionPiece.bulkCreate(pieceIds.map((pieceId) => ({ dispositionId: disposition.id, pieceId })), { transaction });
+    await NcrDispositionPiece.bulkCreate(
+      pieceIds.map((pieceId) => ({ dispositionId: disposition.id, pieceId })),
+      { transaction },
+    );
     await NonconformancePiece.update({ dispositionId: disposition.id }, { where: { nonconformanceId: ncrId, pieceId: pieceIds }, transaction });
     if (deviation) await recordDeviationUse(deviation, { ncrDispositionId: disposition.id }, pieces.length, ncr.lotId, transaction);
 
@@ -261,7 +328,11 @@ export async function signNcrDisposition(signer: User, ncrId: number, rawInput: 
         await movePieces({ pieceIds, toLocationId: null, reason: 'scrap', note, signedDispositionId: disposition.id }, actor, transaction);
         break;
       case 'use-as-is':
-        await movePieces({ pieceIds, toLocationId: bin!.id, reason: 'release', note: `${note} under deviation ${deviation!.number}`, signedDispositionId: disposition.id }, actor, transaction);
+        await movePieces(
+          { pieceIds, toLocationId: bin!.id, reason: 'release', note: `${note} under deviation ${deviation!.number}`, signedDispositionId: disposition.id },
+          actor,
+          transaction,
+        );
         break;
     }
     await settleStatus(ncr, transaction);
@@ -271,7 +342,17 @@ export async function signNcrDisposition(signer: User, ncrId: number, rawInput: 
         action: `ncr.disposition.${decision}`,
         entityType: 'nonconformance',
         entityId: ncrId,
-        after: { number: ncr.number, dispositionId: disposition.id, decision, meaning: disposition.meaning, deviation: deviation?.number ?? null, justification: disposition.justification, note: disposition.note, serials: pieces.map((p) => p.serial), to: bin?.code ?? null },
+        after: {
+          number: ncr.number,
+          dispositionId: disposition.id,
+          decision,
+          meaning: disposition.meaning,
+          deviation: deviation?.number ?? null,
+          justification: disposition.justification,
+          note: disposition.note,
+          serials: pieces.map((p) => p.serial),
+          to: bin?.code ?? null,
+        },
       },
       transaction,
     );
@@ -290,16 +371,49 @@ export async function releaseReworked(signer: User, ncrId: number, rawInput: Rew
     const pieces = piecesCovered(all, input.pieceIds, (p) => p.decision === 'rework' && !p.reworkReleased && p.locationId !== null, 'waits in rework');
     const bin = await stockBin(input.toLocationId, transaction);
     const release = await NcrDisposition.create(
-      { nonconformanceId: ncrId, decision: 'rework-release', meaning: NCR_SIGNATURE_MEANINGS['rework-release'], deviationNumber: null, justification: null, note: input.reference, signerId: signer.id },
+      {
+        nonconformanceId: ncrId,
+        decision: 'rework-release',
+        meaning: NCR_SIGNATURE_MEANINGS['rework-release'],
+        deviationNumber: null,
+        justification: null,
+        note: input.reference,
+        signerId: signer.id,
+      },
       { transaction },
     );
     const pieceIds = pieces.map((p) => p.pieceId);
-    await NcrDispositionPiece.bulkCreate(pieceIds.map((pieceId) => ({ dispositionId: release.id, pieceId })), { transaction });
+    await NcrDispositionPiece.bulkCreate(
+      pieceIds.map((pieceId) => ({ dispositionId: release.id, pieceId })),
+      { transaction },
+    );
     await NonconformancePiece.update({ reworkReleaseId: release.id }, { where: { nonconformanceId: ncrId, pieceId: pieceIds }, transaction });
-    await movePieces({ pieceIds, toLocationId: bin.id, reason: 'release', note: `${ncr.number}: reworked and re-inspected (${input.reference})`, signedDispositionId: release.id }, actor, transaction);
+    await movePieces(
+      {
+        pieceIds,
+        toLocationId: bin.id,
+        reason: 'release',
+        note: `${ncr.number}: reworked and re-inspected (${input.reference})`,
+        signedDispositionId: release.id,
+      },
+      actor,
+      transaction,
+    );
     await recordAudit(
       actor,
-      { action: 'ncr.rework-released', entityType: 'nonconformance', entityId: ncrId, after: { number: ncr.number, dispositionId: release.id, meaning: release.meaning, reference: input.reference, serials: pieces.map((p) => p.serial), to: bin.code } },
+      {
+        action: 'ncr.rework-released',
+        entityType: 'nonconformance',
+        entityId: ncrId,
+        after: {
+          number: ncr.number,
+          dispositionId: release.id,
+          meaning: release.meaning,
+          reference: input.reference,
+          serials: pieces.map((p) => p.serial),
+          to: bin.code,
+        },
+      },
       transaction,
     );
     return release;
@@ -316,7 +430,17 @@ export function closeNcr(actor: AuditActor, ncrId: number, rawInput: NcrCloseInp
     const before = { status: ncr.status };
     Object.assign(ncr, { status: 'closed', closedAt: new Date(), closedBy: actor.id, closingNote: input.note || null, updatedAt: new Date() });
     await ncr.save({ transaction });
-    await recordAudit(actor, { action: 'ncr.closed', entityType: 'nonconformance', entityId: ncrId, before, after: { status: 'closed', number: ncr.number, note: ncr.closingNote, lot: ncr.lotId ? lotName(ncr.lotId) : null } }, transaction);
+    await recordAudit(
+      actor,
+      {
+        action: 'ncr.closed',
+        entityType: 'nonconformance',
+        entityId: ncrId,
+        before,
+        after: { status: 'closed', number: ncr.number, note: ncr.closingNote, lot: ncr.lotId ? lotName(ncr.lotId) : null },
+      },
+      transaction,
+    );
     return ncr;
   });
 }

@@ -2,11 +2,25 @@
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../db';
 import { ncrOpenItems } from '../../shared/nonconformance/progress';
-import type { NcrDecision, NcrDispositionView, NcrListQuery, NcrOrigin, NcrRow, NcrStatus, NcrView, Remedy, ReplacementView, ReturnListQuery, ReturnRow, ReturnView } from '../../shared/schemas/nonconformance';
+import type {
+  NcrDecision,
+  NcrDispositionView,
+  NcrListQuery,
+  NcrOrigin,
+  NcrRow,
+  NcrStatus,
+  NcrView,
+  Remedy,
+  ReplacementView,
+  ReturnListQuery,
+  ReturnRow,
+  ReturnView,
+} from '../../shared/schemas/nonconformance';
 import { lotName, type LocationKind, type PieceState } from '../../shared/schemas/stock';
 import { notFound } from '../http/errors';
 import { filterWhen, type ListDefinition } from '../http/list';
 import { ncrPieceStates } from './ncrs';
+import { replacementOwedSql } from './returns';
 
 const iso = (value: unknown) => (value ? (value as Date).toISOString() : null);
 
@@ -15,14 +29,29 @@ const AWAITING = '(SELECT count(*) FROM nonconformance_pieces np WHERE np.noncon
 
 export const ncrList: ListDefinition<NcrRow, NcrListQuery> = {
   select: `n.id, n.number, n.status, n.origin, n.supplier_id AS "supplierId", s.name AS "supplierName", n.part_id AS "partId", p.number AS "partNumber",
-    n.lot_id AS "lotId", ${PIECES} AS pieces, ${AWAITING} AS awaiting, u.name AS owner, n.opened_at AS "openedAt", n.closed_at AS "closedAt",
+    n.lot_id AS "lotId", ${PIECES} AS pieces, ${AWAITING} AS awaiting, ${replacementOwedSql('n.id')} AS "replacementOwed", u.name AS owner, n.opened_at AS "openedAt", n.closed_at AS "closedAt",
     (SELECT coalesce(array_agg(c.code ORDER BY c.id), '{}') FROM nonconformance_defects d JOIN defect_codes c ON c.id = d.defect_code_id WHERE d.nonconformance_id = n.id) AS defects`,
   from: `nonconformances n JOIN suppliers s ON s.id = n.supplier_id JOIN parts p ON p.id = n.part_id LEFT JOIN users u ON u.id = n.owner_id`,
-  sortable: { number: 'n.number', status: 'n.status', supplierName: 's.name', partNumber: 'p.number', openedAt: 'n.opened_at', pieces: PIECES, awaiting: AWAITING },
+  sortable: {
+    number: 'n.number',
+    status: 'n.status',
+    supplierName: 's.name',
+    partNumber: 'p.number',
+    openedAt: 'n.opened_at',
+    pieces: PIECES,
+    awaiting: AWAITING,
+  },
   defaultSort: '-openedAt',
   tieBreaker: 'n.id',
   // An NCR is also found by the serial of any of its pieces, or by its lot as shown (L-12).
-  search: ['n.number', 's.name', 'p.number', "'L-' || n.lot_id", 'n.description', 'EXISTS (SELECT 1 FROM nonconformance_pieces np JOIN pieces pc ON pc.id = np.piece_id WHERE np.nonconformance_id = n.id AND pc.serial ILIKE :q)'],
+  search: [
+    'n.number',
+    's.name',
+    'p.number',
+    "'L-' || n.lot_id",
+    'n.description',
+    'EXISTS (SELECT 1 FROM nonconformance_pieces np JOIN pieces pc ON pc.id = np.piece_id WHERE np.nonconformance_id = n.id AND pc.serial ILIKE :q)',
+  ],
   totals: { pieces: 'sum(pieces)', awaiting: 'sum(awaiting)' },
   filters: (query) => {
     const filters = filterWhen({ clauses: [], replacements: {} }, query.status, 'n.status = :status', 'status');
@@ -30,7 +59,7 @@ export const ncrList: ListDefinition<NcrRow, NcrListQuery> = {
     filterWhen(filters, query.supplierId, 'n.supplier_id = :supplierId', 'supplierId');
     filterWhen(filters, query.partId, 'n.part_id = :partId', 'partId');
     filterWhen(filters, query.lotId, 'n.lot_id = :lotId', 'lotId');
-    if (query.awaitingReplacement) filters.clauses.push(`EXISTS (SELECT 1 FROM vendor_returns v WHERE v.nonconformance_id = n.id AND v.remedy = 'replacement')`);
+    if (query.awaitingReplacement) filters.clauses.push(`${replacementOwedSql('n.id')} > 0`);
     return filters;
   },
   present: (r) => ({
@@ -45,6 +74,7 @@ export const ncrList: ListDefinition<NcrRow, NcrListQuery> = {
     lotId: r.lotId === null ? null : Number(r.lotId),
     pieces: Number(r.pieces),
     awaiting: Number(r.awaiting),
+    replacementOwed: Number(r.replacementOwed),
     defects: r.defects as string[],
     owner: (r.owner as string | null) ?? null,
     openedAt: iso(r.openedAt)!,
@@ -72,7 +102,8 @@ export const ncrList: ListDefinition<NcrRow, NcrListQuery> = {
 const RETURN_SELECT = `v.id, v.nonconformance_id AS "nonconformanceId", n.number AS "ncrNumber", s.name AS "supplierName", v.rma_number AS "rmaNumber",
   v.ship_date AS "shipDate", v.carrier, v.tracking, v.remedy, v.credit_amount AS "creditAmount", v.note, v.created_at AS "createdAt", u.name AS "createdBy",
   (SELECT po.currency FROM lots l JOIN purchase_order_lines pol ON pol.id = l.po_line_id JOIN purchase_orders po ON po.id = pol.purchase_order_id WHERE l.id = n.lot_id) AS currency`;
-const RETURN_FROM = 'vendor_returns v JOIN nonconformances n ON n.id = v.nonconformance_id JOIN suppliers s ON s.id = n.supplier_id JOIN users u ON u.id = v.created_by';
+const RETURN_FROM =
+  'vendor_returns v JOIN nonconformances n ON n.id = v.nonconformance_id JOIN suppliers s ON s.id = n.supplier_id JOIN users u ON u.id = v.created_by';
 const RETURNED = '(SELECT count(*) FROM nonconformance_pieces np WHERE np.return_id = v.id)';
 // Replacements are received against the NCR, not one return: each replacement return is credited with them.
 const REPLACED = `(CASE WHEN v.remedy = 'replacement' THEN (SELECT count(*) FROM pieces rp JOIN lots rl ON rl.id = rp.lot_id JOIN shipments rs ON rs.id = rl.shipment_id WHERE rs.replacement_for_ncr_id = v.nonconformance_id) ELSE 0 END)`;
@@ -190,8 +221,10 @@ export async function ncrView(id: number): Promise<NcrView> {
     origin: row.origin as NcrOrigin,
     supplier: { id: Number(row.supplier_id), name: String(row.supplier_name) },
     part: { id: Number(row.part_id), number: String(row.part_number), description: String(row.part_description) },
-    lot: row.lot_id === null ? null : { id: Number(row.lot_id), supplierLot: String(row.supplier_lot), poId: Number(row.po_id), poNumber: String(row.po_number) },
-    lotDecision: row.lot_disposition_id === null ? null : { id: Number(row.lot_disposition_id), decision: String(row.lot_decision), signedAt: iso(row.lot_decided_at)! },
+    lot:
+      row.lot_id === null ? null : { id: Number(row.lot_id), supplierLot: String(row.supplier_lot), poId: Number(row.po_id), poNumber: String(row.po_number) },
+    lotDecision:
+      row.lot_disposition_id === null ? null : { id: Number(row.lot_disposition_id), decision: String(row.lot_decision), signedAt: iso(row.lot_decided_at)! },
     description: String(row.description),
     containment: String(row.containment),
     owner: row.owner_id === null ? null : { id: Number(row.owner_id), name: String(row.owner_name) },
@@ -216,19 +249,17 @@ export async function ncrView(id: number): Promise<NcrView> {
         rmaNumber: more.rmaNumber,
       };
     }),
-    dispositions: dispositions.map(
-      (d): NcrDispositionView => ({
-        id: Number(d.id),
-        decision: d.decision as NcrDispositionView['decision'],
-        meaning: String(d.meaning),
-        deviation: d.deviationNumber ? { id: d.deviationId === null ? null : Number(d.deviationId), number: String(d.deviationNumber) } : null,
-        justification: (d.justification as string | null) ?? null,
-        note: (d.note as string | null) ?? null,
-        signer: String(d.signer),
-        signedAt: iso(d.signedAt)!,
-        serials: d.serials as string[],
-      }),
-    ),
+    dispositions: dispositions.map((d): NcrDispositionView => ({
+      id: Number(d.id),
+      decision: d.decision as NcrDispositionView['decision'],
+      meaning: String(d.meaning),
+      deviation: d.deviationNumber ? { id: d.deviationId === null ? null : Number(d.deviationId), number: String(d.deviationNumber) } : null,
+      justification: (d.justification as string | null) ?? null,
+      note: (d.note as string | null) ?? null,
+      signer: String(d.signer),
+      signedAt: iso(d.signedAt)!,
+      serials: d.serials as string[],
+    })),
     returns,
     replacements,
     openItems: row.status === 'closed' ? [] : ncrOpenItems(pieces),
@@ -243,5 +274,11 @@ async function replacementsOf(ncrId: number): Promise<ReplacementView[]> {
       WHERE sh.replacement_for_ncr_id = :ncrId ORDER BY sh.received_at, sh.id`,
     { type: QueryTypes.SELECT, replacements: { ncrId } },
   );
-  return rows.map((r) => ({ shipmentId: Number(r.shipmentId), packingSlip: String(r.packingSlip), poNumber: String(r.poNumber), receivedAt: iso(r.receivedAt)!, lots: r.lots as { id: number; quantity: number }[] }));
+  return rows.map((r) => ({
+    shipmentId: Number(r.shipmentId),
+    packingSlip: String(r.packingSlip),
+    poNumber: String(r.poNumber),
+    receivedAt: iso(r.receivedAt)!,
+    lots: r.lots as { id: number; quantity: number }[],
+  }));
 }

@@ -4,7 +4,12 @@ import type { NcrDecision } from '../schemas/nonconformance';
 export type PieceProgress = { serial: string; decision: NcrDecision | null; reworkReleased: boolean; shipped: boolean };
 
 const serialsOf = (pieces: PieceProgress[], most = 8) =>
-  pieces.length <= most ? pieces.map((p) => p.serial).join(', ') : `${pieces.slice(0, most).map((p) => p.serial).join(', ')} and ${pieces.length - most} more`;
+  pieces.length <= most
+    ? pieces.map((p) => p.serial).join(', ')
+    : `${pieces
+        .slice(0, most)
+        .map((p) => p.serial)
+        .join(', ')} and ${pieces.length - most} more`;
 const count = (n: number) => `${n} piece${n === 1 ? '' : 's'}`;
 
 /** A piece is settled once what its disposition orders is done: scrapped or used as is at once,

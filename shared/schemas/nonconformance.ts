@@ -56,7 +56,7 @@ export const ncrListQuerySchema = listQuerySchema.extend({
   supplierId: optionalId,
   partId: optionalId,
   lotId: optionalId,
-  // NCRs some of whose pieces were shipped back for a replacement: what a replacement shipment may name.
+  // NCRs still owed replacement pieces for pieces shipped back: what a replacement shipment may name.
   awaitingReplacement: z.stringbool().optional(),
 });
 export type NcrListQuery = z.infer<typeof ncrListQuerySchema>;
@@ -95,7 +95,8 @@ export const ncrDispositionSchema = z
   .superRefine((value, ctx) => {
     if (value.decision !== 'use-as-is') return;
     if (!value.deviationId) ctx.addIssue({ code: 'custom', path: ['deviationId'], message: 'Choose the deviation the pieces are used under' });
-    if (!value.justification || value.justification.length < 10) ctx.addIssue({ code: 'custom', path: ['justification'], message: 'State the justification (10 characters or more)' });
+    if (!value.justification || value.justification.length < 10)
+      ctx.addIssue({ code: 'custom', path: ['justification'], message: 'State the justification (10 characters or more)' });
     if (!value.toLocationId) ctx.addIssue({ code: 'custom', path: ['toLocationId'], message: 'Choose the stock bin the pieces go to' });
   });
 export type NcrDispositionInput = z.input<typeof ncrDispositionSchema>;
@@ -134,7 +135,8 @@ export const returnInputSchema = z
     note: z.string().trim().max(2000).default(''),
   })
   .superRefine((value, ctx) => {
-    if (value.remedy === 'replacement' && value.creditAmount !== undefined) ctx.addIssue({ code: 'custom', path: ['creditAmount'], message: 'A replacement has no credit amount' });
+    if (value.remedy === 'replacement' && value.creditAmount !== undefined)
+      ctx.addIssue({ code: 'custom', path: ['creditAmount'], message: 'A replacement has no credit amount' });
   });
 export type ReturnInput = z.input<typeof returnInputSchema>;
 
@@ -172,6 +174,8 @@ export type NcrRow = {
   lotId: number | null;
   pieces: number;
   awaiting: number;
+  /** Pieces shipped back for a replacement that no replacement shipment has brought yet. */
+  replacementOwed: number;
   defects: string[];
   owner: string | null;
   openedAt: string;

@@ -31,6 +31,10 @@ const STATE_TONES: Record<string, Tone> = {
   'return-to-vendor': 'fail',
   open: 'info',
   closed: 'neutral',
+  // NCRs between opening and closing; pieces that have left the site.
+  dispositioned: 'hold',
+  scrapped: 'neutral',
+  'shipped-back': 'neutral',
 };
 
 export function StateBadge({ state, label, tone }: { state: string; label?: string; tone?: Tone }) {

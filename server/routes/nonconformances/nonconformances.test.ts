@@ -92,7 +92,9 @@ describe('NCRs opened by lot decisions', () => {
     const found = (await (await as('buyer')).get(`/api/nonconformances?q=${lot.failed[0]}`).expect(200)).body;
     expect(found.data.map((r: { number: string }) => r.number)).toEqual([ncr.number]);
     const csv = await (await as('auditor')).get(`/api/nonconformances/export.csv?lotId=${lot.lotId}`).expect(200);
-    expect(csv.text.replace(/^\uFEFF/, '').split('\n')[0]).toBe('ncr,status,origin,supplier,part_number,lot,pieces,awaiting_disposition,defect_codes,owner,opened_at,closed_at');
+    expect(csv.text.replace(/^\uFEFF/, '').split('\n')[0]).toBe(
+      'ncr,status,origin,supplier,part_number,lot,pieces,awaiting_disposition,defect_codes,owner,opened_at,closed_at',
+    );
     expect(csv.text).toContain(`${ncr.number},open,rejection,`);
   });
 
@@ -118,16 +120,33 @@ describe('an NCR opened by hand', () => {
     const lot = await decidedLot(20, 0, 'accept');
     const serial = lot.serials[lot.serials.length - 1];
     await (await as('clerk')).post('/api/stock/issue').send({ partId: lot.partId, serials: serial, workOrder: 'WO-ASM-77' }).expect(201);
-    const body = { partId: lot.partId, serials: serial, defectCodeIds: [await defectCodeId('axis-mark')], description: 'Image rotated at final alignment: fast-axis mark about 2° off', containment: 'Plate pulled from the build' };
+    const body = {
+      partId: lot.partId,
+      serials: serial,
+      defectCodeIds: [await defectCodeId('axis-mark')],
+      description: 'Image rotated at final alignment: fast-axis mark about 2° off',
+      containment: 'Plate pulled from the build',
+    };
 
     // Only inspectors and quality managers open NCRs.
     await (await as('clerk')).post('/api/nonconformances').send(body).expect(403);
     await (await as('buyer')).post('/api/nonconformances').send(body).expect(403);
-    const bad = await (await as('inspector')).post('/api/nonconformances').send({ ...body, serials: 'NOPE-0001' }).expect(400);
+    const bad = await (
+      await as('inspector')
+    )
+      .post('/api/nonconformances')
+      .send({ ...body, serials: 'NOPE-0001' })
+      .expect(400);
     expect(bad.body.error.message).toBe('Never received for this part: NOPE-0001');
 
     const opened = await (await as('inspector')).post('/api/nonconformances').send(body).expect(201);
-    expect(opened.body).toMatchObject({ origin: 'found-later', status: 'open', lot: { id: lot.lotId }, defects: [{ code: 'axis-mark' }], containment: 'Plate pulled from the build' });
+    expect(opened.body).toMatchObject({
+      origin: 'found-later',
+      status: 'open',
+      lot: { id: lot.lotId },
+      defects: [{ code: 'axis-mark' }],
+      containment: 'Plate pulled from the build',
+    });
     expect(opened.body.pieces).toEqual([expect.objectContaining({ serial, state: 'held', location: { code: 'MRB', kind: 'material-review' } })]);
     expect(await lastMove(serial)).toEqual({ reason: 'return', to: 'MRB', note: `${opened.body.number}: found nonconforming, held for review` });
 
@@ -151,16 +170,32 @@ describe('signed dispositions', () => {
     const url = `/api/nonconformances/${ncr.id}/dispositions`;
 
     // Only a quality manager signs, with the password re-entered.
-    await (await as('inspector')).post(url).send({ ...SIGN, decision: 'scrap', pieceIds: [idOf(scrapped)] }).expect(403);
-    const wrong = await quality.post(url).send({ ...SIGN, password: 'not-the-password', decision: 'scrap', pieceIds: [idOf(scrapped)] }).expect(401);
+    await (
+      await as('inspector')
+    )
+      .post(url)
+      .send({ ...SIGN, decision: 'scrap', pieceIds: [idOf(scrapped)] })
+      .expect(403);
+    const wrong = await quality
+      .post(url)
+      .send({ ...SIGN, password: 'not-the-password', decision: 'scrap', pieceIds: [idOf(scrapped)] })
+      .expect(401);
     expect(wrong.body.error.code).toBe('signature_refused');
     expect((await whereabouts([scrapped]))[scrapped]).toEqual({ code: 'RTV', kind: 'return-to-vendor', state: 'returned' });
 
     // Scrap: out of stores for good.
-    await quality.post(url).send({ ...SIGN, decision: 'scrap', pieceIds: [idOf(scrapped)], note: 'Chipped in handling too' }).expect(201);
+    await quality
+      .post(url)
+      .send({ ...SIGN, decision: 'scrap', pieceIds: [idOf(scrapped)], note: 'Chipped in handling too' })
+      .expect(201);
     expect((await whereabouts([scrapped]))[scrapped]).toEqual({ code: null, kind: null, state: 'scrapped' });
     expect(await lastMove(scrapped)).toMatchObject({ reason: 'scrap', to: null });
-    await (await as('clerk')).post('/api/stock/transfer').send({ partId: lot.partId, serials: scrapped, toLocationId: await locationId('BIN-A1') }).expect(409);
+    await (
+      await as('clerk')
+    )
+      .post('/api/stock/transfer')
+      .send({ partId: lot.partId, serials: scrapped, toLocationId: await locationId('BIN-A1') })
+      .expect(409);
     // The ledger's table itself refuses any further move of a piece that has left the site.
     await expect(
       sequelize.query(`INSERT INTO stock_moves (piece_id, from_location_id, to_location_id, reason) VALUES (:piece, NULL, :to, 'return')`, {
@@ -170,32 +205,63 @@ describe('signed dispositions', () => {
 
     // Use as is: two pieces to a stock bin under a current deviation, whose quantity they take.
     const deviation = await approvedDeviation(lot.supplierId, lot.partId, { quantityLimit: 3 });
-    const noDeviation = await quality.post(url).send({ ...SIGN, decision: 'use-as-is', pieceIds: [idOf(good[0])], justification: 'Fits the jig build', toLocationId: await locationId('BIN-A1') }).expect(400);
+    const noDeviation = await quality
+      .post(url)
+      .send({ ...SIGN, decision: 'use-as-is', pieceIds: [idOf(good[0])], justification: 'Fits the jig build', toLocationId: await locationId('BIN-A1') })
+      .expect(400);
     expect(noDeviation.body.error.details).toEqual([{ path: 'deviationId', message: 'Choose the deviation the pieces are used under' }]);
     const tooMany = await quality
       .post(url)
-      .send({ ...SIGN, decision: 'use-as-is', pieceIds: good.slice(0, 4).map(idOf), deviationId: deviation.id, justification: 'Fits the jig build', toLocationId: await locationId('BIN-A1') })
+      .send({
+        ...SIGN,
+        decision: 'use-as-is',
+        pieceIds: good.slice(0, 4).map(idOf),
+        deviationId: deviation.id,
+        justification: 'Fits the jig build',
+        toLocationId: await locationId('BIN-A1'),
+      })
       .expect(409);
     expect(tooMany.body.error.code).toBe('deviation_not_usable');
     await quality
       .post(url)
-      .send({ ...SIGN, decision: 'use-as-is', pieceIds: good.slice(0, 2).map(idOf), deviationId: deviation.id, justification: 'Fits the jig build', toLocationId: await locationId('BIN-A1') })
+      .send({
+        ...SIGN,
+        decision: 'use-as-is',
+        pieceIds: good.slice(0, 2).map(idOf),
+        deviationId: deviation.id,
+        justification: 'Fits the jig build',
+        toLocationId: await locationId('BIN-A1'),
+      })
       .expect(201);
-    expect(await whereabouts(good.slice(0, 2))).toEqual(Object.fromEntries(good.slice(0, 2).map((s) => [s, { code: 'BIN-A1', kind: 'stock', state: 'in-stock' }])));
+    expect(await whereabouts(good.slice(0, 2))).toEqual(
+      Object.fromEntries(good.slice(0, 2).map((s) => [s, { code: 'BIN-A1', kind: 'stock', state: 'in-stock' }])),
+    );
     // Released by a signed decision, the pieces of a rejected lot may be issued.
     await (await as('clerk')).post('/api/stock/issue').send({ partId: lot.partId, serials: good[0], workOrder: 'WO-JIG-4' }).expect(201);
     const register = (await (await as('auditor')).get(`/api/deviations/${deviation.id}`).expect(200)).body;
     expect(register.quantityLeft).toBe(1);
 
     // Rework: held beside the bench, then released to stock by a second signature with the re-inspection's record.
-    await quality.post(url).send({ ...SIGN, decision: 'rework', pieceIds: [idOf(reworked)] }).expect(201);
+    await quality
+      .post(url)
+      .send({ ...SIGN, decision: 'rework', pieceIds: [idOf(reworked)] })
+      .expect(201);
     expect((await whereabouts([reworked]))[reworked]).toEqual({ code: 'INSP-HOLD', kind: 'inspection-hold', state: 'held' });
-    const released = await quality.post(`/api/nonconformances/${ncr.id}/rework-release`).send({ ...SIGN, toLocationId: await locationId('BIN-A2'), reference: 'Re-measured on BENCH-2, file rework-17.csv' }).expect(201);
+    const released = await quality
+      .post(`/api/nonconformances/${ncr.id}/rework-release`)
+      .send({ ...SIGN, toLocationId: await locationId('BIN-A2'), reference: 'Re-measured on BENCH-2, file rework-17.csv' })
+      .expect(201);
     expect((await whereabouts([reworked]))[reworked]).toEqual({ code: 'BIN-A2', kind: 'stock', state: 'in-stock' });
-    expect(released.body.pieces.find((p: { serial: string }) => p.serial === reworked)).toMatchObject({ disposition: { decision: 'rework' }, reworkReleased: true });
+    expect(released.body.pieces.find((p: { serial: string }) => p.serial === reworked)).toMatchObject({
+      disposition: { decision: 'rework' },
+      reworkReleased: true,
+    });
 
     // Return to vendor for all the rest (no pieces named): they are already in the cage, so nothing moves.
-    const rest = await quality.post(url).send({ ...SIGN, decision: 'return-to-vendor' }).expect(201);
+    const rest = await quality
+      .post(url)
+      .send({ ...SIGN, decision: 'return-to-vendor' })
+      .expect(201);
     expect(rest.body.status).toBe('dispositioned');
     expect(rest.body.dispositions.map((d: { decision: string; serials: string[] }) => [d.decision, d.serials.length])).toEqual([
       ['scrap', 1],
@@ -220,7 +286,12 @@ describe('signed dispositions', () => {
   it('a lot decision cannot supersede one whose NCR has signed dispositions', async () => {
     const lot = await decidedLot(13, 2, 'reject');
     const ncr = await ncrOfLot(lot.lotId);
-    await (await as('quality')).post(`/api/nonconformances/${ncr.id}/dispositions`).send({ ...SIGN, decision: 'scrap', pieceIds: [ncr.pieces[0].pieceId] }).expect(201);
+    await (
+      await as('quality')
+    )
+      .post(`/api/nonconformances/${ncr.id}/dispositions`)
+      .send({ ...SIGN, decision: 'scrap', pieceIds: [ncr.pieces[0].pieceId] })
+      .expect(201);
     const refused = await signDecision(lot.lotId, 'sort', lot.dispositionId, {}, 409);
     expect(refused.body.error).toMatchObject({ code: 'ncr_in_progress', details: { ncr: ncr.number } });
   });

@@ -27,43 +27,83 @@ nonconformancesRouter.get('/defect-codes', authenticate, allow('nonconformance.r
   res.json({ data, total: data.length });
 });
 
-nonconformancesRouter.post('/defect-codes', authenticate, allow('defect-codes.manage'), validated({ body: defectCodeInputSchema }, async ({ body }, req, res) => {
-  const code = await createDefectCode(actorOf(req), body);
-  res.status(201).json({ id: code.id, code: code.code, label: code.label, active: code.active });
-}));
+nonconformancesRouter.post(
+  '/defect-codes',
+  authenticate,
+  allow('defect-codes.manage'),
+  validated({ body: defectCodeInputSchema }, async ({ body }, req, res) => {
+    const code = await createDefectCode(actorOf(req), body);
+    res.status(201).json({ id: code.id, code: code.code, label: code.label, active: code.active });
+  }),
+);
 
-nonconformancesRouter.put('/defect-codes/:id', authenticate, allow('defect-codes.manage'), validated({ params: idParams, body: defectCodeInputSchema }, async ({ params, body }, req, res) => {
-  const code = await updateDefectCode(actorOf(req), params.id, body);
-  res.json({ id: code.id, code: code.code, label: code.label, active: code.active });
-}));
+nonconformancesRouter.put(
+  '/defect-codes/:id',
+  authenticate,
+  allow('defect-codes.manage'),
+  validated({ params: idParams, body: defectCodeInputSchema }, async ({ params, body }, req, res) => {
+    const code = await updateDefectCode(actorOf(req), params.id, body);
+    res.json({ id: code.id, code: code.code, label: code.label, active: code.active });
+  }),
+);
 
-nonconformancesRouter.get('/:id', authenticate, allow('nonconformance.read'), validated({ params: idParams }, async ({ params }, _req, res) => {
-  res.json(await ncrView(params.id));
-}));
+nonconformancesRouter.get(
+  '/:id',
+  authenticate,
+  allow('nonconformance.read'),
+  validated({ params: idParams }, async ({ params }, _req, res) => {
+    res.json(await ncrView(params.id));
+  }),
+);
 
-nonconformancesRouter.post('/', authenticate, allow('nonconformance.open'), validated({ body: ncrOpenSchema }, async ({ body }, req, res) => {
-  const ncr = await openNcrByHand(actorOf(req), body);
-  res.status(201).json(await ncrView(ncr.id));
-}));
+nonconformancesRouter.post(
+  '/',
+  authenticate,
+  allow('nonconformance.open'),
+  validated({ body: ncrOpenSchema }, async ({ body }, req, res) => {
+    const ncr = await openNcrByHand(actorOf(req), body);
+    res.status(201).json(await ncrView(ncr.id));
+  }),
+);
 
-nonconformancesRouter.put('/:id', authenticate, allow('nonconformance.open'), validated({ params: idParams, body: ncrUpdateSchema }, async ({ params, body }, req, res) => {
-  await updateNcr(actorOf(req), params.id, body);
-  res.json(await ncrView(params.id));
-}));
+nonconformancesRouter.put(
+  '/:id',
+  authenticate,
+  allow('nonconformance.open'),
+  validated({ params: idParams, body: ncrUpdateSchema }, async ({ params, body }, req, res) => {
+    await updateNcr(actorOf(req), params.id, body);
+    res.json(await ncrView(params.id));
+  }),
+);
 
-nonconformancesRouter.post('/:id/dispositions', authenticate, allow('nonconformance.disposition'), validated({ params: idParams, body: ncrDispositionSchema }, async ({ params, body }, req, res) => {
-  const { requestId, address } = actorOf(req);
-  await signNcrDisposition(req.user!, params.id, body, { requestId, address });
-  res.status(201).json(await ncrView(params.id));
-}));
+nonconformancesRouter.post(
+  '/:id/dispositions',
+  authenticate,
+  allow('nonconformance.disposition'),
+  validated({ params: idParams, body: ncrDispositionSchema }, async ({ params, body }, req, res) => {
+    const { requestId, address } = actorOf(req);
+    await signNcrDisposition(req.user!, params.id, body, { requestId, address });
+    res.status(201).json(await ncrView(params.id));
+  }),
+);
 
-nonconformancesRouter.post('/:id/rework-release', authenticate, allow('nonconformance.disposition'), validated({ params: idParams, body: reworkReleaseSchema }, async ({ params, body }, req, res) => {
-  const { requestId, address } = actorOf(req);
-  await releaseReworked(req.user!, params.id, body, { requestId, address });
-  res.status(201).json(await ncrView(params.id));
-}));
+nonconformancesRouter.post(
+  '/:id/rework-release',
+  authenticate,
+  allow('nonconformance.disposition'),
+  validated({ params: idParams, body: reworkReleaseSchema }, async ({ params, body }, req, res) => {
+    const { requestId, address } = actorOf(req);
+    await releaseReworked(req.user!, params.id, body, { requestId, address });
+    res.status(201).json(await ncrView(params.id));
+  }),
+);
 
-nonconformancesRouter.post('/:id/close', authenticate, allow('nonconformance.disposition'), validated({ params: idParams, body: ncrCloseSchema }, async ({ params, body }, req, res) => {
-  await closeNcr(actorOf(req), params.id, body);
-  res.json(await ncrView(params.id));
-}));
+nonconformancesRouter.post(
+  '/:id/close',
+  authenticate,
+  allow('nonconformance.disposition'),
+  validated({ params: idParams, body: ncrCloseSchema }, async ({ params, body }, req, res) => {
+    await closeNcr(actorOf(req), params.id, body);
+    res.json(await ncrView(params.id));
+  }),
+);

@@ -21,7 +21,14 @@ async function returnableNcr() {
   await signDecision(lot.lotId, 'reject', null);
   const auditor = await as('auditor');
   const [{ id }] = (await auditor.get(`/api/nonconformances?lotId=${lot.lotId}`).expect(200)).body.data;
-  const ncr = (await (await as('quality')).post(`/api/nonconformances/${id}/dispositions`).send({ password: DEMO_PASSWORD, meaningAcknowledged: true, decision: 'return-to-vendor' }).expect(201)).body;
+  const ncr = (
+    await (
+      await as('quality')
+    )
+      .post(`/api/nonconformances/${id}/dispositions`)
+      .send({ password: DEMO_PASSWORD, meaningAcknowledged: true, decision: 'return-to-vendor' })
+      .expect(201)
+  ).body;
   const [{ lineId, poId }] = await sequelize.query<{ lineId: number; poId: number }>(
     'SELECT l.po_line_id AS "lineId", pol.purchase_order_id AS "poId" FROM lots l JOIN purchase_order_lines pol ON pol.id = l.po_line_id WHERE l.id = :lotId',
     { type: QueryTypes.SELECT, replacements: { lotId: lot.lotId } },
@@ -44,14 +51,46 @@ describe('returns to the vendor', () => {
     const shipment = { nonconformanceId: ncr.id, shipDate: TODAY, carrier: 'Brightline Freight', tracking: 'BF-2231-77' };
 
     // Shipping back is the buyer's and the quality manager's.
-    await (await as('clerk')).post('/api/returns').send({ ...shipment, rmaNumber: 'RMA-1', remedy: 'credit' }).expect(403);
-    await (await as('inspector')).post('/api/returns').send({ ...shipment, rmaNumber: 'RMA-1', remedy: 'credit' }).expect(403);
-    const badCredit = await (await as('buyer')).post('/api/returns').send({ ...shipment, rmaNumber: 'RMA-1', remedy: 'replacement', creditAmount: 12 }).expect(400);
+    await (
+      await as('clerk')
+    )
+      .post('/api/returns')
+      .send({ ...shipment, rmaNumber: 'RMA-1', remedy: 'credit' })
+      .expect(403);
+    await (
+      await as('inspector')
+    )
+      .post('/api/returns')
+      .send({ ...shipment, rmaNumber: 'RMA-1', remedy: 'credit' })
+      .expect(403);
+    const badCredit = await (
+      await as('buyer')
+    )
+      .post('/api/returns')
+      .send({ ...shipment, rmaNumber: 'RMA-1', remedy: 'replacement', creditAmount: 12 })
+      .expect(400);
     expect(badCredit.body.error.details).toEqual([{ path: 'creditAmount', message: 'A replacement has no credit amount' }]);
 
-    const credit = await (await as('buyer')).post('/api/returns').send({ ...shipment, pieceIds: ids.slice(0, 3), rmaNumber: 'RMA-88120', remedy: 'credit', creditAmount: 360 }).expect(201);
-    expect(credit.body).toMatchObject({ ncrNumber: ncr.number, rmaNumber: 'RMA-88120', remedy: 'credit', creditAmount: 360, currency: 'EUR', serials: ncr.pieces.slice(0, 3).map((p: { serial: string }) => p.serial) });
-    const replacement = await (await as('quality')).post('/api/returns').send({ ...shipment, rmaNumber: 'RMA-88121', remedy: 'replacement' }).expect(201);
+    const credit = await (
+      await as('buyer')
+    )
+      .post('/api/returns')
+      .send({ ...shipment, pieceIds: ids.slice(0, 3), rmaNumber: 'RMA-88120', remedy: 'credit', creditAmount: 360 })
+      .expect(201);
+    expect(credit.body).toMatchObject({
+      ncrNumber: ncr.number,
+      rmaNumber: 'RMA-88120',
+      remedy: 'credit',
+      creditAmount: 360,
+      currency: 'EUR',
+      serials: ncr.pieces.slice(0, 3).map((p: { serial: string }) => p.serial),
+    });
+    const replacement = await (
+      await as('quality')
+    )
+      .post('/api/returns')
+      .send({ ...shipment, rmaNumber: 'RMA-88121', remedy: 'replacement' })
+      .expect(201);
     expect(replacement.body.serials).toHaveLength(10);
     expect(await states(lot.serials)).toEqual({ 'shipped-back': 13 });
     const [move] = await sequelize.query<{ reason: string; to: number | null; note: string }>(
@@ -60,7 +99,12 @@ describe('returns to the vendor', () => {
     );
     expect(move).toEqual({ reason: 'ship-to-vendor', to: null, note: `${ncr.number}: RMA RMA-88121, Brightline Freight BF-2231-77, for replacement` });
     // Nothing is left to ship.
-    const nothing = await (await as('buyer')).post('/api/returns').send({ ...shipment, rmaNumber: 'RMA-88122', remedy: 'credit' }).expect(409);
+    const nothing = await (
+      await as('buyer')
+    )
+      .post('/api/returns')
+      .send({ ...shipment, rmaNumber: 'RMA-88122', remedy: 'credit' })
+      .expect(409);
     expect(nothing.body.error.message).toBe('No piece of this NCR is dispositioned for return and not yet shipped');
 
     // The replacement is received against the NCR: up to the 10 pieces owed it needs no over-receipt reason
@@ -72,7 +116,10 @@ describe('returns to the vendor', () => {
     expect(received.status, JSON.stringify(received.body)).toBe(201);
     // A shipment of another supplier's part cannot replace this NCR's pieces.
     const other = await receivedLot({ quantity: 5 });
-    const [{ otherLine }] = await sequelize.query<{ otherLine: number }>('SELECT po_line_id AS "otherLine" FROM lots WHERE id = :id', { type: QueryTypes.SELECT, replacements: { id: other.lotId } });
+    const [{ otherLine }] = await sequelize.query<{ otherLine: number }>('SELECT po_line_id AS "otherLine" FROM lots WHERE id = :id', {
+      type: QueryTypes.SELECT,
+      replacements: { id: other.lotId },
+    });
     const elsewhere = await postReceipt(otherLine, { quantity: 1, serials: `X${tag}-0001`, replacementForNcrId: ncr.id });
     expect(elsewhere.status).toBe(400);
     expect(elsewhere.body.error.message).toBe(`${ncr.number} is for another supplier or part than this PO line`);
@@ -90,7 +137,12 @@ describe('returns to the vendor', () => {
     const csv = await (await as('auditor')).get(`/api/returns/export.csv?nonconformanceId=${ncr.id}`).expect(200);
     expect(csv.text).toContain(`RMA-88120,${ncr.number},`);
 
-    const closed = await (await as('quality')).post(`/api/nonconformances/${ncr.id}/close`).send({ note: 'Credit note received; replacements in quarantine' }).expect(200);
+    const closed = await (
+      await as('quality')
+    )
+      .post(`/api/nonconformances/${ncr.id}/close`)
+      .send({ note: 'Credit note received; replacements in quarantine' })
+      .expect(200);
     expect(closed.body).toMatchObject({ status: 'closed', closingNote: 'Credit note received; replacements in quarantine', openItems: [] });
   });
 });

@@ -12,11 +12,21 @@ export const returnsRouter = Router();
 
 mountList(returnsRouter, '/', 'nonconformance.read', returnListQuerySchema, returnList);
 
-returnsRouter.get('/:id', authenticate, allow('nonconformance.read'), validated({ params: idParams }, async ({ params }, _req, res) => {
-  res.json(await returnView(params.id));
-}));
+returnsRouter.get(
+  '/:id',
+  authenticate,
+  allow('nonconformance.read'),
+  validated({ params: idParams }, async ({ params }, _req, res) => {
+    res.json(await returnView(params.id));
+  }),
+);
 
-returnsRouter.post('/', authenticate, allow('returns.ship'), validated({ body: returnInputSchema }, async ({ body }, req, res) => {
-  const shipped = await shipReturn(actorOf(req), body);
-  res.status(201).json(await returnView(shipped.id));
-}));
+returnsRouter.post(
+  '/',
+  authenticate,
+  allow('returns.ship'),
+  validated({ body: returnInputSchema }, async ({ body }, req, res) => {
+    const shipped = await shipReturn(actorOf(req), body);
+    res.status(201).json(await returnView(shipped.id));
+  }),
+);

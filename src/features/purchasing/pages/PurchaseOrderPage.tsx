@@ -58,6 +58,7 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
             ['Value', money(value, po.currency)],
             ['Pieces', `${received} of ${ordered} received`],
             ['Outcome', <PieceOutcomes key="o" quantities={outcomes} />],
+            ['Replacements received', po.lines.reduce((sum, l) => sum + l.replaced, 0)],
             ['Receipts', <Link key="l" to={`/lots?purchaseOrderId=${po.id}`}>Lots of this PO</Link>],
             ['Notes', po.notes || '—'],
           ]}
@@ -78,6 +79,7 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
                 ['Sampling', `Level ${line.inspectionLevel}, AQL ${line.aql}`],
                 ['100 % inspection', line.hundredPercent ? 'Yes' : 'No'],
                 ['Outcome', <PieceOutcomes key="o" quantities={line} />],
+                ['Replacements received', line.replaced > 0 ? `${line.replaced} for pieces returned` : 'None'],
               ]}
             />
             <div className="rounded bg-paper px-3 py-2">

@@ -1,4 +1,5 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { NcrRow } from '@shared/schemas/nonconformance';
 import type { ListResponse } from '@shared/schemas/paging';
 import type { OpenLineView } from '@shared/schemas/purchasing';
 import type { LotRow, LotView, ShipmentRow } from '@shared/schemas/receiving';
@@ -15,6 +16,7 @@ export const receivingKeys = {
   openLines: () => [...receivingKeys.all, 'open-lines'] as const,
   lots: (query: Filters) => [...receivingKeys.all, 'lots', query] as const,
   lot: (id: number) => [...receivingKeys.all, 'lot', id] as const,
+  replacementFor: () => [...receivingKeys.all, 'replacement-for'] as const,
 };
 
 export const useShipments = (query: ListState & Filters) =>
@@ -24,6 +26,10 @@ export const useLots = (query: ListState & Filters) =>
   useQuery({ queryKey: receivingKeys.lots(query), queryFn: listPage<LotRow>('/lots', query), placeholderData: keepPreviousData });
 
 export const useLot = (id: number) => useQuery({ queryKey: receivingKeys.lot(id), queryFn: () => api<LotView>(`/lots/${id}`) });
+
+/** NCRs still owed replacement pieces, which a shipment may be received against. */
+export const useReplacementCandidates = () =>
+  useQuery({ queryKey: receivingKeys.replacementFor(), queryFn: () => api<ListResponse<NcrRow>>('/nonconformances', { query: { awaitingReplacement: true, pageSize: 500, sort: '-openedAt' } }) });
 
 export const useOpenLines = () => useQuery({ queryKey: receivingKeys.openLines(), queryFn: () => api<ListResponse<OpenLineView>>('/purchase-orders/open-lines') });
 

@@ -10,7 +10,7 @@ import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { ApiError } from '@/lib/api';
 import { showServerFieldErrors } from '@/lib/formErrors';
-import { useOpenLines, useReceiveShipment, type Receipt } from '../api';
+import { useOpenLines, useReceiveShipment, useReplacementCandidates, type Receipt } from '../api';
 import { SerialPreview } from './SerialPreview';
 
 const DOCUMENT_TYPES = '.pdf,.png,.jpg,.jpeg,application/pdf,image/png,image/jpeg';
@@ -18,10 +18,11 @@ const tooLarge = (files: File[]) => files.filter((f) => f.size > MAX_ATTACHMENT_
 
 export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => void }) {
   const openLines = useOpenLines();
+  const replaceable = useReplacementCandidates();
   const receive = useReceiveShipment();
   const form = useForm({
     resolver: zodResolver(shipmentReceiveSchema),
-    defaultValues: { poLineId: '', packingSlipNumber: '', carrier: '', supplierLot: '', quantity: '', serials: '', overReceiptReason: '' },
+    defaultValues: { poLineId: '', packingSlipNumber: '', carrier: '', supplierLot: '', quantity: '', serials: '', overReceiptReason: '', replacementForNcrId: '' },
   });
   const [source, setSource] = useState<'typed' | 'file'>('typed');
   const [serialFile, setSerialFile] = useState<File | null>(null);
@@ -33,7 +34,10 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
   const errors = form.formState.errors;
   const line = openLines.data?.data.find((l) => l.id === Number(form.watch('poLineId')));
   const quantity = Number(form.watch('quantity')) || 0;
-  const overReceipt = line !== undefined && quantity > line.outstanding;
+  // NCRs of the line's supplier and part still owed replacement pieces; those may come beyond what the line expects.
+  const candidates = line ? (replaceable.data?.data ?? []).filter((n) => n.supplierName === line.supplierName && n.partNumber === line.partNumber) : [];
+  const replacing = candidates.find((n) => n.id === Number(form.watch('replacementForNcrId')));
+  const overReceipt = line !== undefined && quantity > line.outstanding + (replacing?.replacementOwed ?? 0);
   const oversized = tooLarge([...packingSlips, ...certificates]);
 
   const submit = form.handleSubmit((input) => {
@@ -73,6 +77,18 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
         </select>
       </Field>
       {line && <p className="-mt-2 text-xs text-ink-muted">{line.partDescription}. Received so far: {line.received}.</p>}
+      {candidates.length > 0 && (
+        <Field label="Replacement for an NCR (optional)" htmlFor="receive-replacement" hint="When this shipment replaces pieces shipped back to the supplier." error={errors.replacementForNcrId?.message}>
+          <select id="receive-replacement" className={`${inputClass} max-w-md`} {...form.register('replacementForNcrId')}>
+            <option value="">Not a replacement</option>
+            {candidates.map((n) => (
+              <option key={n.id} value={n.id}>
+                {n.number} · {n.replacementOwed} piece{n.replacementOwed === 1 ? '' : 's'} owed
+              </option>
+            ))}
+          </select>
+        </Field>
+      )}
 
       <div className="grid gap-3 sm:grid-cols-4">
         <Field label="Packing-slip number" htmlFor="receive-slip" error={errors.packingSlipNumber?.message}>
@@ -122,7 +138,7 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
       {overReceipt && (
         <div className="space-y-2">
           <Notice tone="caution" title="More than the line expects">
-            Line {line.lineNumber} of {line.poNumber} still expects {line.outstanding}; {quantity} are being received. State why, or receive only what is expected.
+            Line {line.lineNumber} of {line.poNumber} still expects {line.outstanding}{replacing ? ` and ${replacing.number} is owed ${replacing.replacementOwed}` : ''}; {quantity} are being received. State why, or receive only what is expected.
           </Notice>
           <Field label="Reason for the extra pieces" htmlFor="receive-reason" error={errors.overReceiptReason?.message}>
             <textarea id="receive-reason" rows={2} className={inputClass} {...form.register('overReceiptReason')} />

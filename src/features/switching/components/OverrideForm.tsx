@@ -8,7 +8,7 @@ import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { useOverrideSeverity } from '../api';
-import { SignatureFields } from './SignatureFields';
+import { SignatureFields } from '@/components/SignatureFields';
 
 type Props = { supplierId: number; partId: number; current: Severity; onSigned(severity: Severity): void; onCancel(): void };
 

@@ -1,11 +1,21 @@
-// The part every signed switching change shares: the meaning of the signature, its acknowledgement
+// The part every signed act shares: the meaning of the signature, its acknowledgement
 // and the password re-entered.
 import type { FieldErrors, UseFormRegister } from 'react-hook-form';
 import { Field, inputClass } from '@/components/Field';
 
 type Signed = { password: string; meaningAcknowledged: true };
 
-export function SignatureFields<T extends Signed>({ meaning, register, errors, idPrefix }: { meaning: string; register: UseFormRegister<T>; errors: FieldErrors<Signed>; idPrefix: string }) {
+export function SignatureFields<T extends Signed>({
+  meaning,
+  register,
+  errors,
+  idPrefix,
+}: {
+  meaning: string;
+  register: UseFormRegister<T>;
+  errors: FieldErrors<Signed>;
+  idPrefix: string;
+}) {
   const reg = register as unknown as UseFormRegister<Signed>;
   return (
     <>
