@@ -10,7 +10,7 @@ import type { PartSpecInput } from '../../shared/schemas/spec';
 import { actorFromUser } from '../../server/audit/record';
 import { createPart } from '../../server/purchasing/parts';
 import { createPurchaseOrder, updatePurchaseOrder } from '../../server/purchasing/purchaseOrders';
-import { receiveShipment } from '../../server/routes/shipments/operations';
+import { receiveShipment } from '../../server/receiving/receipts';
 import { issueToWorkOrder, transferBetweenBins } from '../../server/stock/moves';
 import { createSupplier } from '../../server/purchasing/suppliers';
 

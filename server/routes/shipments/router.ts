@@ -1,13 +1,14 @@
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
-import { ATTACHMENT_KIND_LABELS, MAX_ATTACHMENT_BYTES, shipmentListQuerySchema, shipmentReceiveSchema, type ShipmentReceiveInput } from '../../../shared/schemas/receiving';
+import { ATTACHMENT_KIND_LABELS, MAX_ATTACHMENT_BYTES, shipmentListQuerySchema, shipmentReceiveSchema } from '../../../shared/schemas/receiving';
 import { actorOf } from '../../audit/record';
 import { allow, authenticate } from '../../auth/authenticate';
 import { AppError } from '../../http/errors';
 import { mountList } from '../../http/list';
-import { validate } from '../../http/validate';
-import { receiveShipment, type ReceiptFiles } from './operations';
+import { validated } from '../../http/validate';
 import { shipmentList } from '../../receiving/lists';
+import { receiveShipment, type ReceiptFiles } from '../../receiving/receipts';
+import { presentReceipt } from './presenter';
 
 const FILE_LABELS: Record<string, string> = { packingSlip: ATTACHMENT_KIND_LABELS['packing-slip'], certificate: ATTACHMENT_KIND_LABELS.certificate, serialsFile: 'Serial file' };
 
@@ -29,14 +30,7 @@ export const shipmentsRouter = Router();
 
 mountList(shipmentsRouter, '/', 'lots.read', shipmentListQuerySchema, shipmentList);
 
-shipmentsRouter.post('/', authenticate, allow('shipments.receive'), receiptUpload, validate({ body: shipmentReceiveSchema }), async (req, res) => {
-  const { shipment, lot, attachments, plan } = await receiveShipment(actorOf(req), req.valid.body as ShipmentReceiveInput, (req.files ?? {}) as ReceiptFiles);
-  res.status(201).json({
-    shipmentId: shipment.id,
-    lotId: lot.id,
-    quantity: lot.quantity,
-    state: lot.state,
-    acceptanceDiscontinued: plan === null,
-    attachments: attachments.map((a) => ({ id: a.id, kind: a.kind, name: a.originalName, sha256: a.sha256 })),
-  });
-});
+shipmentsRouter.post('/', authenticate, allow('shipments.receive'), receiptUpload, validated({ body: shipmentReceiveSchema }, async ({ body }, req, res) => {
+  // multer's typing covers both of its shapes; `.fields()` above gives the per-field one.
+  res.status(201).json(presentReceipt(await receiveShipment(actorOf(req), body, (req.files ?? {}) as ReceiptFiles)));
+}));

@@ -2,9 +2,9 @@
 // their content, and an optional CSV of serial numbers read with its line numbers.
 import { CsvError, parse, type Info } from 'csv-parse/sync';
 import { fileTypeFromBuffer } from 'file-type';
-import { ATTACHMENT_KIND_LABELS, ATTACHMENT_TYPES, MAX_SERIAL_FILE_BYTES, type AttachmentKind } from '../../../shared/schemas/receiving';
-import { parseSerialCells, type SerialList } from '../../../shared/serials';
-import { AppError, badRequest } from '../../http/errors';
+import { ATTACHMENT_KIND_LABELS, ATTACHMENT_TYPES, MAX_SERIAL_FILE_BYTES, type AttachmentKind } from '../../shared/schemas/receiving';
+import { parseSerialCells, type SerialList } from '../../shared/serials';
+import { AppError, badRequest } from '../http/errors';
 
 export type UploadedFile = { originalname: string; buffer: Buffer; size: number };
 export type CheckedDocument = { kind: AttachmentKind; name: string; mediaType: (typeof ATTACHMENT_TYPES)[number]; data: Buffer };

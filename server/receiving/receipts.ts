@@ -3,17 +3,17 @@
 // Everything is checked first and written in one transaction, so a refused receipt leaves nothing
 // behind.
 import { QueryTypes, type Transaction } from 'sequelize';
-import { inTransaction, sequelize } from '../../../db';
-import { Attachment, Lot, Piece, PurchaseOrder, PurchaseOrderLine, Shipment } from '../../../db/models';
-import { shipmentReceiveSchema, type ShipmentReceiveInput } from '../../../shared/schemas/receiving';
-import { lotName } from '../../../shared/schemas/stock';
-import { parseSerialText, type SerialList } from '../../../shared/serials';
-import { recordAudit, type AuditActor } from '../../audit/record';
-import { drawPlanAtReceipt } from '../../inspection/sampling';
-import { replacementOwed } from '../../nonconformance/returns';
-import { AppError, badRequest, conflict, notFound } from '../../http/errors';
-import { storeBlob } from '../../storage/blobs';
-import { defaultLocation, recordReceipt } from '../../stock/ledger';
+import { inTransaction, sequelize } from '../../db';
+import { Attachment, Lot, Piece, PurchaseOrder, PurchaseOrderLine, Shipment } from '../../db/models';
+import { shipmentReceiveSchema, type ShipmentReceiveInput } from '../../shared/schemas/receiving';
+import { lotName } from '../../shared/schemas/stock';
+import { parseSerialText, type SerialList } from '../../shared/serials';
+import { recordAudit, type AuditActor } from '../audit/record';
+import { drawPlanAtReceipt } from '../inspection/sampling';
+import { replacementOwed } from '../nonconformance/returns';
+import { AppError, badRequest, conflict, notFound } from '../http/errors';
+import { storeBlob } from '../storage/blobs';
+import { defaultLocation, recordReceipt } from '../stock/ledger';
 import { checkDocuments, readSerialFile, type UploadedFile } from './uploads';
 
 export type ReceiptFiles = { packingSlip?: UploadedFile[]; certificate?: UploadedFile[]; serialsFile?: UploadedFile[] };
@@ -122,3 +122,4 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
     return { shipment, lot, attachments, plan };
   });
 }
+export type ReceiptRecord = Awaited<ReturnType<typeof receiveShipment>>;
