@@ -7,6 +7,8 @@ export const sequelize = new Sequelize(config.DATABASE_URL, {
   dialect: 'postgres',
   logging: false,
   pool: { max: 10, idle: 10_000 },
+  // Set on every connection at its start; a transaction may raise it for long work (SET LOCAL).
+  dialectOptions: { statement_timeout: config.STATEMENT_TIMEOUT_SECONDS * 1000 },
 });
 
 export const models = initModels(sequelize);

@@ -8,6 +8,7 @@ import type { Logger } from 'pino';
 import { logger as defaultLogger } from './logger';
 import { apiRouter } from './routes';
 import { errorHandler, JSON_LIMIT, notFoundHandler } from './http/errors';
+import { stopWhenAbandoned } from './http/abandoned';
 import { securityHeaders } from './http/headers';
 import { sameOriginChanges } from './http/origin';
 
@@ -28,6 +29,7 @@ export function createApp(options: { logger?: Logger } = {}) {
       },
     }),
   );
+  app.use(stopWhenAbandoned);
   app.use(express.json({ limit: JSON_LIMIT }));
   app.use(cookieParser());
   app.use(sameOriginChanges);

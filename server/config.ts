@@ -40,6 +40,10 @@ const schema = z.object({
   // started again; JOBS_MAINTENANCE_SECONDS is how often that is looked for.
   EXPORT_TIMEOUT_SECONDS: z.coerce.number().int().min(1).default(900),
   JOBS_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).default(60),
+  // Every database statement of the application is stopped after STATEMENT_TIMEOUT_SECONDS (0: never);
+  // work known to read everything (the audit chain check) is allowed LONG_STATEMENT_TIMEOUT_SECONDS.
+  STATEMENT_TIMEOUT_SECONDS: z.coerce.number().int().min(0).default(30),
+  LONG_STATEMENT_TIMEOUT_SECONDS: z.coerce.number().int().min(0).default(900),
 });
 
 export type Config = Omit<z.infer<typeof schema>, 'PUBLIC_URL'> & { JWT_SECRET: string; PUBLIC_URL: string; PUBLIC_ORIGINS: string[]; MIGRATION_DATABASE_URL: string };

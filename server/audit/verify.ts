@@ -4,6 +4,7 @@
 // end). Everything is read from one snapshot, so writers running meanwhile never look like a break.
 import { QueryTypes, Transaction } from 'sequelize';
 import { sequelize } from '../../db';
+import { config } from '../config';
 import type { AuditAnchor, AuditAnchorCheck, AuditChainHead, AuditChainReport } from '../../shared/schemas/audit';
 
 const MAX_PROBLEMS = 50;
@@ -18,6 +19,8 @@ export async function chainHead(transaction?: Transaction): Promise<AuditChainHe
 }
 
 async function verifyIn(transaction: Transaction): Promise<AuditChainReport> {
+  // Every event is read and hashed again: longer than a request's statements are allowed.
+  await sequelize.query(`SET LOCAL statement_timeout = ${config.LONG_STATEMENT_TIMEOUT_SECONDS * 1000}`, { transaction });
   const [{ checked, last_seq, last_hash }] = await sequelize.query<{ checked: string; last_seq: string | null; last_hash: string | null }>(
     `SELECT count(*) AS checked, max(seq) AS last_seq, (SELECT hash FROM audit_events ORDER BY seq DESC LIMIT 1) AS last_hash FROM audit_events`,
     { type: QueryTypes.SELECT, transaction },

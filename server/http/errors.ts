@@ -79,6 +79,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     res.status(err.status).json({ error: { code: 'bad_request', message: err.message } });
     return;
   }
+  // PostgreSQL stopped the statement: it ran past STATEMENT_TIMEOUT_SECONDS (or its client left, and nobody reads this).
+  if (err instanceof DatabaseError && (err.parent as { code?: string }).code === '57014') {
+    res.status(503).json({ error: { code: 'timeout', message: 'The server stopped this request: it took longer than allowed. Narrow it down and try again.' } });
+    return;
+  }
   const refused = err instanceof DatabaseError ? REFUSED_VALUES[(err.parent as { code?: string }).code ?? ''] : undefined;
   if (refused) {
     res.status(400).json({ error: { code: 'bad_value', message: refused } });
