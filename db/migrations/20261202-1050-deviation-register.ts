@@ -29,7 +29,7 @@ export async function registerEarlierDeviations(sequelize: Sequelize, transactio
     INSERT INTO deviations (number, supplier_id, part_id, allowed, recorded_before_register, created_at, updated_at)
     SELECT e.deviation_number, e.supplier_id, e.part_id,
            '${EARLIER_ENTRY_NOTE}' || CASE WHEN count(DISTINCT e.lot_id) > 1 THEN 's' ELSE '' END || ' of '
-             || string_agg(DISTINCT 'L-' || e.lot_id, ', ') || '. Justification given: ' || (array_agg(e.justification ORDER BY e.signed_at))[1],
+             || string_agg(DISTINCT 'L-' || e.lot_id, ', ' ORDER BY 'L-' || e.lot_id) || '. Justification given: ' || (array_agg(e.justification ORDER BY e.signed_at))[1],
            true, min(e.signed_at), min(e.signed_at)
       FROM earlier e
      WHERE NOT EXISTS (SELECT 1 FROM deviations dv WHERE dv.recorded_before_register AND dv.number = e.deviation_number AND dv.supplier_id = e.supplier_id AND dv.part_id = e.part_id)

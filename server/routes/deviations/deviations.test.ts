@@ -7,28 +7,11 @@ import { describe, expect, it } from 'vitest';
 import { sequelize } from '../../../db';
 import { DEMO_PASSWORD } from '../../../db/seeders/demo';
 import { app, as, freshUser } from '../../../tests/helpers/api';
-import { approvedDeviation } from '../../../tests/helpers/deviations';
-import { benchFile, inspectionOf, sign, supplierPart } from '../../../tests/helpers/switching';
+import { approvedDeviation, rejectedSample, useAsIs } from '../../../tests/helpers/deviations';
+import { sign, supplierPart } from '../../../tests/helpers/switching';
 
 const SIGN = { password: DEMO_PASSWORD, meaningAcknowledged: true };
 const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
-
-/** A lot of 20 whose sample rejects it (Re failing pieces measured): ready for a use-as-is decision. */
-async function rejectedSample(pair: Awaited<ReturnType<typeof supplierPart>>) {
-  const { lotId } = await pair.receive(20);
-  const { view, sample } = await inspectionOf(lotId);
-  const failing = sample.slice(0, view.plan.reject);
-  await (await as('inspector'))
-    .post(`/api/inspection/lots/${lotId}/measurements`)
-    .attach('files', Buffer.from(benchFile(failing, failing)), { filename: 'bench.csv', contentType: 'text/csv' })
-    .expect(201);
-  return lotId;
-}
-
-const useAsIs = async (lotId: number, deviationId: number, expectedDispositionId: number | null = null) =>
-  (await as('quality'))
-    .post(`/api/inspection/lots/${lotId}/dispositions`)
-    .send({ decision: 'use-as-is', password: DEMO_PASSWORD, meaningAcknowledged: true, expectedDispositionId, deviationId, justification: 'Harmless in the alignment jig build' });
 
 /** The response, once its status is checked (the body is shown when it differs). */
 async function status(pending: Promise<{ status: number; body: { error?: { message: string } } }>, expected: number) {
@@ -146,6 +129,14 @@ describe('/api/deviations', () => {
     const other = await supplierPart();
     const elsewhere = await approvedDeviation(other.supplierId, other.partId);
     expect((await status(useAsIs(lotId, elsewhere.id), 409)).body.error.message).toBe(`Deviation ${elsewhere.number} is for another supplier or part`);
+
+    // An entry recorded before the register (from an earlier decision's free-text number) covers no new decision.
+    const [earlier] = await sequelize.query<{ id: number }>(
+      `INSERT INTO deviations (number, supplier_id, part_id, allowed, recorded_before_register) VALUES ('DEV-OLD-3', :supplierId, :partId, 'Recorded before the register', true) RETURNING id`,
+      { type: QueryTypes.SELECT, replacements: { supplierId: pair.supplierId, partId: pair.partId } },
+    );
+    expect((await status(useAsIs(lotId, earlier.id), 409)).body.error.message).toBe('Deviation DEV-OLD-3 was recorded before the register from an earlier decision and covers no new one');
+    expect((await entry(earlier.id)).status).toBe('earlier');
 
     // Nothing was signed or moved by the refusals.
     expect((await (await as('auditor')).get(`/api/lots/${lotId}`).expect(200)).body.state).toBe('awaiting-disposition');
