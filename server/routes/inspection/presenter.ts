@@ -1,26 +1,13 @@
-// What the inspection screen reads: one lot's whole inspection (the queue is a list, server/inspection/queue.ts).
-import { DispositionRecord, Instrument, LotDocument, MeasurementFile, User } from '../../../db/models';
+// One lot's whole inspection as its page shows it (the queue is a list, server/inspection/queue.ts).
 import { ocCurve } from '../../../shared/sampling';
 import type { PieceResult } from '../../../shared/optics';
 import type { LotInspectionView } from '../../../shared/schemas/inspection';
 import type { LotState } from '../../../shared/schemas/stock';
-import { evaluateLot } from '../../inspection/evaluation';
-import { lotForInspection } from '../../inspection/lotAccess';
+import type { LotInspectionRecord } from '../../inspection/lotInspection';
 import { piecesLeftToSort } from '../../inspection/sort';
-import { switchingStateOf } from '../../inspection/sampling';
 
-export async function lotInspectionView(lotId: number): Promise<LotInspectionView> {
-  const lot = await lotForInspection(lotId);
-  const evaluation = await evaluateLot(lot);
+export function presentLotInspection({ lot, evaluation, files, dispositions, documents, switching, people, instruments }: LotInspectionRecord): LotInspectionView {
   const { plan } = evaluation;
-  const [files, dispositions, documents, switching] = await Promise.all([
-    MeasurementFile.findAll({ where: { lotId }, order: [['id', 'DESC']] }),
-    DispositionRecord.findAll({ where: { lotId }, order: [['id', 'DESC']] }),
-    LotDocument.findAll({ where: { lotId }, order: [['id', 'DESC']] }),
-    switchingStateOf(lot.supplier.id, lot.part.id),
-  ]);
-  const people = new Map((await User.findAll({ where: { id: [...new Set([...files.map((f) => f.uploadedBy), ...dispositions.map((d) => d.signerId)])] } })).map((u) => [u.id, u]));
-  const instruments = new Map((await Instrument.findAll()).map((i) => [i.id, i.code]));
   const inSample = new Set(evaluation.samplePieces.map((p) => p.pieceId));
   const current = dispositions.find((d) => !d.supersededAt) ?? null;
   // A sort puts every piece still on site up for measurement, not only the sample.
@@ -49,12 +36,12 @@ export async function lotInspectionView(lotId: number): Promise<LotInspectionVie
     })),
     files: files.map((f) => ({
       id: f.id, name: f.originalName, sha256: f.sha256, sizeBytes: f.sizeBytes, method: f.method, rows: f.rowCount, instrument: instruments.get(f.instrumentId) ?? null,
-      metadata: f.metadata, uploadedBy: people.get(f.uploadedBy)?.name ?? null, uploadedAt: f.uploadedAt.toISOString(),
+      metadata: f.metadata, uploadedBy: people.get(f.uploadedBy) ?? null, uploadedAt: f.uploadedAt.toISOString(),
     })),
     disposition: current ? { id: current.id, decision: current.decision } : null,
     dispositions: dispositions.map((d) => ({
       id: d.id, decision: d.decision, meaning: d.meaning, deviationNumber: d.deviationNumber, justification: d.justification,
-      signer: people.get(d.signerId)?.name ?? null, signedAt: d.signedAt.toISOString(), supersededAt: d.supersededAt?.toISOString() ?? null,
+      signer: people.get(d.signerId) ?? null, signedAt: d.signedAt.toISOString(), supersededAt: d.supersededAt?.toISOString() ?? null,
     })),
     documents: documents.map((d) => ({ id: d.id, kind: d.kind, number: d.number, dataHash: d.dataHash, issuedAt: d.issuedAt.toISOString(), revokedAt: d.revokedAt?.toISOString() ?? null })),
   };

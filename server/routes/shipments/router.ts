@@ -7,7 +7,7 @@ import { AppError } from '../../http/errors';
 import { mountList } from '../../http/list';
 import { validated } from '../../http/validate';
 import { shipmentList } from '../../receiving/lists';
-import { receiveShipment, type ReceiptFiles } from '../../receiving/receipts';
+import { receiveShipment } from '../../receiving/receipts';
 import { presentReceipt } from './presenter';
 
 const FILE_LABELS: Record<string, string> = { packingSlip: ATTACHMENT_KIND_LABELS['packing-slip'], certificate: ATTACHMENT_KIND_LABELS.certificate, serialsFile: 'Serial file' };
@@ -31,6 +31,7 @@ export const shipmentsRouter = Router();
 mountList(shipmentsRouter, '/', 'lots.read', shipmentListQuerySchema, shipmentList);
 
 shipmentsRouter.post('/', authenticate, allow('shipments.receive'), receiptUpload, validated({ body: shipmentReceiveSchema }, async ({ body }, req, res) => {
-  // multer's typing covers both of its shapes; `.fields()` above gives the per-field one.
-  res.status(201).json(presentReceipt(await receiveShipment(actorOf(req), body, (req.files ?? {}) as ReceiptFiles)));
+  // `.fields()` gives the files by field (a list comes from `.array()` only).
+  const files = Array.isArray(req.files) ? {} : (req.files ?? {});
+  res.status(201).json(presentReceipt(await receiveShipment(actorOf(req), body, files)));
 }));
