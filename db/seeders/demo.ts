@@ -5,6 +5,7 @@ import { sequelize } from '..';
 import { Instrument, User } from '../models';
 import { seedInspectionDemo } from './inspectionDemo';
 import { seedReceivingDemo, seedStockDemo } from './receivingDemo';
+import { seedNonconformanceDemo } from './nonconformanceDemo';
 import { ROLES, type Role } from '../../shared/schemas/roles';
 import { instrumentInputSchema, type InstrumentInput } from '../../shared/schemas/instruments';
 import { hashPassword } from '../../server/auth/passwords';
@@ -51,5 +52,7 @@ export async function seedDemo() {
   // Inspection runs last: it takes lots received above through upload and signature.
   const inspected = await seedInspectionDemo(DEMO_PASSWORD);
   await seedStockDemo(users, lots);
+  // The NCRs inspection opened, dispositioned, shipped back and a replacement received.
+  await seedNonconformanceDemo(DEMO_PASSWORD);
   return { users, instruments, locations, suppliers, parts, purchaseOrders, lots, inspected };
 }

@@ -98,7 +98,7 @@ const ORDERS: Order[] = [
 
 /** An invented supplier's document (packing slip or certificate of conformance) as a small PDF. It
  * stands for the supplier's own paperwork, so PDF's standard fonts do (and keep the seed fast). */
-function demoDocument(title: string, lines: string[]): Promise<Buffer> {
+export function demoDocument(title: string, lines: string[]): Promise<Buffer> {
   const doc = new PDFDocument({ size: 'A5', margin: 40, info: { Title: title, Creator: 'Phaselot demo data' } });
   const chunks: Buffer[] = [];
   doc.on('data', (chunk: Buffer) => chunks.push(chunk));
@@ -111,7 +111,7 @@ function demoDocument(title: string, lines: string[]): Promise<Buffer> {
   return done;
 }
 
-const pdfFile = (name: string, buffer: Buffer) => ({ originalname: name, buffer, size: buffer.length });
+export const pdfFile = (name: string, buffer: Buffer) => ({ originalname: name, buffer, size: buffer.length });
 
 export async function seedReceivingDemo(users: Record<Role, User>) {
   const locations = await Location.bulkCreate(LOCATIONS.map((l) => ({ ...l })));

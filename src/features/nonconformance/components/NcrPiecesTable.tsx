@@ -23,7 +23,7 @@ export function NcrPiecesTable({ pieces, selected, onSelect }: Props) {
   };
   return (
     <div className="max-h-[28rem] overflow-auto">
-      <table className="w-full text-sm">
+      <table className="w-full min-w-[44rem] text-sm">
         <thead className="sticky top-0 bg-paper-sunk text-left text-xs text-ink-muted">
           <tr>
             {onSelect && (
@@ -51,10 +51,10 @@ export function NcrPiecesTable({ pieces, selected, onSelect }: Props) {
                   <input type="checkbox" aria-label={`Choose ${piece.serial}`} checked={selected.has(piece.pieceId)} onChange={() => toggle(piece.pieceId)} />
                 </td>
               )}
-              <td className="px-2 py-1 font-mono">
+              <td className="px-2 py-1 font-mono whitespace-nowrap">
                 <Link to={`/pieces/${encodeURIComponent(piece.serial)}`}>{piece.serial}</Link>
               </td>
-              <td className="px-2 py-1 font-mono text-xs">{lotName(piece.lotId)}</td>
+              <td className="px-2 py-1 font-mono text-xs whitespace-nowrap">{lotName(piece.lotId)}</td>
               <td className="px-2 py-1">
                 {piece.location ? (
                   <span className="font-mono text-xs">{piece.location.code}</span>

@@ -25,14 +25,14 @@ export function NcrListPage() {
   const list = useNcrList({ ...state, ...filters });
   const columns = useMemo(
     () => [
-      column.accessor('number', { header: 'NCR', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
+      column.accessor('number', { header: 'NCR', cell: ({ getValue }) => <span className="font-mono whitespace-nowrap">{getValue()}</span> }),
       column.accessor('status', { header: 'Status', cell: ({ getValue }) => <StateBadge state={getValue()} label={getValue()} /> }),
       column.accessor('supplierName', { header: 'Supplier' }),
-      column.accessor('partNumber', { header: 'Part', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
+      column.accessor('partNumber', { header: 'Part', cell: ({ getValue }) => <span className="font-mono whitespace-nowrap">{getValue()}</span> }),
       column.accessor('lotId', {
         header: 'Lot',
         enableSorting: false,
-        cell: ({ getValue }) => (getValue() ? <span className="font-mono">{lotName(getValue()!)}</span> : '—'),
+        cell: ({ getValue }) => (getValue() ? <span className="font-mono whitespace-nowrap">{lotName(getValue()!)}</span> : '—'),
       }),
       column.accessor('origin', { header: 'Origin', enableSorting: false, cell: ({ getValue }) => NCR_ORIGIN_LABELS[getValue()] }),
       column.accessor('defects', {

@@ -20,8 +20,8 @@ export function ReturnsPage() {
   const list = useReturnList({ ...state, ...filters });
   const columns = useMemo(
     () => [
-      column.accessor('rmaNumber', { header: 'RMA', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
-      column.accessor('ncrNumber', { header: 'NCR', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
+      column.accessor('rmaNumber', { header: 'RMA', cell: ({ getValue }) => <span className="font-mono whitespace-nowrap">{getValue()}</span> }),
+      column.accessor('ncrNumber', { header: 'NCR', cell: ({ getValue }) => <span className="font-mono whitespace-nowrap">{getValue()}</span> }),
       column.accessor('supplierName', { header: 'Supplier' }),
       column.accessor('shipDate', { header: 'Shipped' }),
       column.accessor('carrier', {
