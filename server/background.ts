@@ -1,11 +1,13 @@
 // The background work every server process takes part in (server/jobs): export bundles, mail
-// delivery, and the scheduled sweeps of due mail and of orphan files. Whichever process takes a
-// job does it; a job whose process dies is retried by another.
+// delivery, the scheduled sweeps of due mail and of orphan files, reminders of overdue corrective
+// actions and the suppliers' drift check. Whichever process takes a job does it; a job whose
+// process dies is retried by another.
 import { startJobs, stopJobs, QUEUES, type JobDefinition } from './jobs/queue';
 import { mailJobs } from './mail/outbox';
 import { exportJob } from './exports/exportJobs';
 import { sweepOrphanBlobs } from './storage/sweep';
 import { correctiveReminderJob } from './supplierquality/reminders';
+import { driftCheckJob } from './supplierperformance/drift';
 
 const blobSweepJob: JobDefinition = {
   queue: QUEUES.blobSweep,
@@ -15,6 +17,6 @@ const blobSweepJob: JobDefinition = {
   },
 };
 
-export const startBackgroundWork = () => startJobs([exportJob, ...mailJobs, blobSweepJob, correctiveReminderJob]);
+export const startBackgroundWork = () => startJobs([exportJob, ...mailJobs, blobSweepJob, correctiveReminderJob, driftCheckJob]);
 
 export const stopBackgroundWork = stopJobs;

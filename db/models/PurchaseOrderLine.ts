@@ -16,6 +16,8 @@ export class PurchaseOrderLine extends Model<InferAttributes<PurchaseOrderLine>,
   declare aql: number;
   declare hundredPercent: CreationOptional<boolean>;
   declare spec: PartSpec;
+  /** When the supplier promised the line's pieces (YYYY-MM-DD); null when no date was agreed. */
+  declare dueOn: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare part?: NonAttribute<Part>;
@@ -42,6 +44,7 @@ export class PurchaseOrderLine extends Model<InferAttributes<PurchaseOrderLine>,
         aql: numeric('aql', [6, 3]),
         hundredPercent: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         spec: { type: DataTypes.JSONB, allowNull: false },
+        dueOn: { type: DataTypes.DATEONLY, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

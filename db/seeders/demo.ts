@@ -4,6 +4,7 @@ import { faker } from '@faker-js/faker';
 import { sequelize } from '..';
 import { Instrument, User } from '../models';
 import { seedInspectionDemo } from './inspectionDemo';
+import { seedPerformanceHistory } from './performanceDemo';
 import { seedReceivingDemo, seedStockDemo } from './receivingDemo';
 import { seedNonconformanceDemo } from './nonconformanceDemo';
 import { ROLES, type Role } from '../../shared/schemas/roles';
@@ -54,5 +55,7 @@ export async function seedDemo() {
   await seedStockDemo(users, lots);
   // The NCRs inspection opened, dispositioned, shipped back and a replacement received.
   await seedNonconformanceDemo(DEMO_PASSWORD);
+  // Months of earlier deliveries for the supplier-performance charts, after the current lots.
+  await seedPerformanceHistory(DEMO_PASSWORD);
   return { users, instruments, locations, suppliers, parts, purchaseOrders, lots, inspected };
 }

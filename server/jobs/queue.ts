@@ -20,6 +20,7 @@ export const QUEUES = {
   mailSweep: 'mail-sweep',
   blobSweep: 'blob-sweep',
   correctiveReminders: 'corrective-action-reminders',
+  supplierDriftCheck: 'supplier-drift-check',
 } as const;
 
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];

@@ -61,6 +61,7 @@ const lineFields = (line: ParsedInput['lines'][number]) => ({
   inspectionLevel: line.inspectionLevel,
   aql: line.aql,
   hundredPercent: line.hundredPercent,
+  dueOn: line.dueOn ?? null,
 });
 
 export function createPurchaseOrder(actor: AuditActor, rawInput: PurchaseOrderInput) {

@@ -49,6 +49,8 @@ export const poLineInputSchema = z.object({
     .number()
     .refine((v) => (AQL_VALUES as readonly number[]).includes(v), { message: `One of ${AQL_VALUES.join(', ')}` }),
   hundredPercent: z.boolean().default(false),
+  // The date the supplier promised; on-time delivery counts lots received on or before it.
+  dueOn: z.preprocess((v) => (v === '' || v === null ? undefined : v), z.iso.date('Give the due date as a date').optional()),
 });
 export type PoLineInput = z.input<typeof poLineInputSchema>;
 
@@ -64,6 +66,10 @@ export const purchaseOrderInputSchema = z.object({
   status: z.enum(PO_STATUSES).default('open'),
   notes: z.string().trim().max(2000).default(''),
   lines: z.array(poLineInputSchema).min(1, 'A PO needs at least one line').max(200),
+}).superRefine((order, context) => {
+  order.lines.forEach((line, index) => {
+    if (line.dueOn && order.orderedOn && line.dueOn < order.orderedOn) context.addIssue({ code: 'custom', path: ['lines', index, 'dueOn'], message: 'Due on or after the order date' });
+  });
 });
 export type PurchaseOrderInput = z.input<typeof purchaseOrderInputSchema>;
 
@@ -105,6 +111,7 @@ export type PoLineView = PoLineQuantities & {
   inspectionLevel: (typeof INSPECTION_LEVELS)[number];
   aql: number;
   hundredPercent: boolean;
+  dueOn: string | null;
   spec: PartSpec;
   received: number;
   outstanding: number;

@@ -24,6 +24,7 @@ export function presentPurchaseOrder({ order, received, outcomes }: PurchaseOrde
         inspectionLevel: line.inspectionLevel,
         aql: line.aql,
         hundredPercent: line.hundredPercent,
+        dueOn: line.dueOn,
         spec: line.spec,
         received: got,
         outstanding: Math.max(0, line.quantity - got),

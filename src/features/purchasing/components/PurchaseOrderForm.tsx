@@ -13,7 +13,7 @@ import { useParts, useSavePurchaseOrder, useSuppliers } from '../api';
 import { LinePlan } from './LinePlan';
 
 const ALL = { page: 1, pageSize: 500 };
-const newLine = { partId: '', quantity: '', unitPrice: '', inspectionLevel: 'II', aql: 1, hundredPercent: false } as const;
+const newLine = { partId: '', quantity: '', unitPrice: '', inspectionLevel: 'II', aql: 1, hundredPercent: false, dueOn: '' } as const;
 
 function valuesOf(order?: PurchaseOrderView): PurchaseOrderInput {
   if (!order) return { number: '', supplierId: '', orderedOn: new Date().toISOString().slice(0, 10), currency: 'EUR', status: 'open', notes: '', lines: [{ ...newLine }] };
@@ -24,7 +24,7 @@ function valuesOf(order?: PurchaseOrderView): PurchaseOrderInput {
     currency: order.currency,
     status: order.status,
     notes: order.notes,
-    lines: order.lines.map((l) => ({ id: l.id, partId: l.part.id, quantity: l.quantity, unitPrice: l.unitPrice, inspectionLevel: l.inspectionLevel, aql: l.aql, hundredPercent: l.hundredPercent })),
+    lines: order.lines.map((l) => ({ id: l.id, partId: l.part.id, quantity: l.quantity, unitPrice: l.unitPrice, inspectionLevel: l.inspectionLevel, aql: l.aql, hundredPercent: l.hundredPercent, dueOn: l.dueOn ?? '' })),
   };
 }
 
@@ -49,7 +49,7 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
   const submit = form.handleSubmit((input) =>
     save.mutate({ id: order?.id, input }, { onSuccess: onSaved, onError: (error) => showServerFieldErrors(error, form.setError) }),
   );
-  const lineError = (index: number, field: 'partId' | 'quantity' | 'unitPrice' | 'aql') => errors.lines?.[index]?.[field]?.message;
+  const lineError = (index: number, field: 'partId' | 'quantity' | 'unitPrice' | 'aql' | 'dueOn') => errors.lines?.[index]?.[field]?.message;
 
   return (
     <form onSubmit={submit} noValidate aria-label={order ? `Edit ${order.number}` : 'New purchase order'} className="space-y-4">
@@ -85,6 +85,7 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
               <th className="px-2 py-1 font-medium">Part</th>
               <th className="px-2 py-1 font-medium">Quantity</th>
               <th className="px-2 py-1 font-medium">Unit price</th>
+              <th className="px-2 py-1 font-medium">Due</th>
               <th className="px-2 py-1 font-medium">Inspection level</th>
               <th className="px-2 py-1 font-medium">AQL</th>
               <th className="px-2 py-1 font-medium">100 %</th>
@@ -126,6 +127,10 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
                       {lineError(index, 'unitPrice') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'unitPrice')}</p>}
                     </td>
                     <td className="px-2 py-1">
+                      <input type="date" aria-label={`Due date of line ${index + 1}`} className={`${inputClass} w-36`} {...form.register(`lines.${index}.dueOn`)} />
+                      {lineError(index, 'dueOn') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'dueOn')}</p>}
+                    </td>
+                    <td className="px-2 py-1">
                       <select aria-label={`Inspection level of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.inspectionLevel`)}>
                         {INSPECTION_LEVELS.map((level) => <option key={level} value={level}>{level}</option>)}
                       </select>
@@ -146,7 +151,7 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
                   </tr>
                   <tr aria-label={`Sampling plan of line ${index + 1}`}>
                     <td />
-                    <td colSpan={7} className="px-2 pb-1.5 text-xs text-ink-muted">
+                    <td colSpan={8} className="px-2 pb-1.5 text-xs text-ink-muted">
                       <LinePlan quantity={watched.quantity} level={watched.inspectionLevel} aql={watched.aql} hundredPercent={watched.hundredPercent} />
                     </td>
                   </tr>

@@ -76,6 +76,7 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
               items={[
                 ['Part', <Link key="p" to={`/purchasing/parts/${line.part.id}`}>{line.part.description}</Link>],
                 ['Unit price', money(line.unitPrice, po.currency)],
+                ['Due', line.dueOn ?? 'No date agreed'],
                 ['Sampling', `Level ${line.inspectionLevel}, AQL ${line.aql}`],
                 ['100 % inspection', line.hundredPercent ? 'Yes' : 'No'],
                 ['Outcome', <PieceOutcomes key="o" quantities={line} />],
