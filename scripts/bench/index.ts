@@ -1,0 +1,61 @@
+// `npm run bench -- <fill|lists|commit|sign|export|client|engine|all> [--force] [--tries N]`
+// The figures of the site-scale issue, each beside its limit measured in the same run (see
+// README "Performance"). `fill` builds the bench database once (--force rebuilds it); the server
+// benchmarks start a Phaselot server on it; `client` and `engine` need neither. `all` fills when
+// the database is not filled yet, then runs every benchmark. A figure taken while the machine was
+// loaded is measured again, up to --tries times (default 2).
+import { parseArgs } from 'node:util';
+import { CORES } from './lib/figures';
+import { benchEnvironment, fillRecord, startBenchCluster } from './lib/database';
+import { startBenchServer, type BenchServer } from './lib/server';
+
+const BENCHMARKS = ['fill', 'lists', 'commit', 'sign', 'export', 'client', 'engine'] as const;
+type Benchmark = (typeof BENCHMARKS)[number];
+const NEEDS_SERVER: Benchmark[] = ['lists', 'commit', 'sign', 'export'];
+
+const usage = `usage: npm run bench -- <${[...BENCHMARKS, 'all'].join('|')}> [--force] [--tries N]`;
+const { values, positionals } = parseArgs({ options: { force: { type: 'boolean', default: false }, tries: { type: 'string', default: '2' } }, allowPositionals: true });
+const [name, ...extra] = positionals;
+const tries = Number(values.tries);
+if (!name || extra.length || ![...BENCHMARKS, 'all'].includes(name) || !Number.isInteger(tries) || tries < 1) {
+  console.error(usage);
+  process.exit(2);
+}
+const chosen: Benchmark[] = name === 'all' ? [...BENCHMARKS] : [name as Benchmark];
+console.log(`bench: ${chosen.join(', ')} on ${CORES} cores, ${new Date().toISOString()}`);
+
+const usesDatabase = chosen.some((b) => b === 'fill' || NEEDS_SERVER.includes(b));
+// Set before anything that reads the server's configuration is imported: the fill and the benchmarks'
+// own setup (lots received for a run) work on the bench database.
+if (usesDatabase) Object.assign(process.env, benchEnvironment());
+const cluster = usesDatabase ? startBenchCluster() : null;
+let server: BenchServer | null = null;
+let failed = false;
+try {
+  for (const benchmark of chosen) {
+    if (benchmark === 'fill') {
+      const { fill, FillRefused } = await import('./fill');
+      // `all` fills only a database that is not filled yet.
+      if (name === 'all' && !values.force && (await fillRecord())) console.log(`fill: ${await fillRecord()}`);
+      else await fill({ force: values.force }).catch((error) => {
+        if (!(error instanceof FillRefused)) throw error;
+        console.error(`fill: ${error.message}`);
+        failed = true;
+      });
+      continue;
+    }
+    if (NEEDS_SERVER.includes(benchmark)) {
+      if (!(await fillRecord())) throw new Error('The bench database is not filled: run `npm run bench -- fill` first');
+      server ??= await startBenchServer();
+    }
+    const module = await import(`./${benchmark}.ts`);
+    await module.run({ server, tries });
+  }
+} catch (error) {
+  console.error(error instanceof Error ? error.stack : error);
+  failed = true;
+} finally {
+  await server?.stop();
+  cluster?.stop();
+}
+process.exit(failed ? 1 : 0);
