@@ -8,15 +8,6 @@ export type RequestSchemas = { params?: z.ZodType; query?: z.ZodType; body?: z.Z
 /** The parsed parts, each typed by the schema that parsed it. */
 export type ValidInput<Schemas extends RequestSchemas> = { [Part in keyof Schemas]: Schemas[Part] extends z.ZodType ? z.output<Schemas[Part]> : never };
 
-declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
-  namespace Express {
-    interface Request {
-      valid: { body?: unknown; query?: unknown; params?: unknown };
-    }
-  }
-}
-
 /** Where in a request part a text holds NUL (U+0000), which PostgreSQL's text cannot store. */
 function nulPath(value: unknown, path: string[] = []): string | null {
   if (typeof value === 'string') return value.includes('\u0000') ? path.join('.') : null;
@@ -56,17 +47,5 @@ export function validated<Schemas extends RequestSchemas>(
 ): RequestHandler {
   return async (req, res) => {
     await handler(await parseRequest(schemas, req), req, res);
-  };
-}
-
-/** Middleware form of the same parse, leaving the parts in `req.valid`. */
-export function validate(schemas: RequestSchemas): RequestHandler {
-  return async (req, _res, next) => {
-    try {
-      req.valid = await parseRequest(schemas, req);
-      next();
-    } catch (error) {
-      next(error);
-    }
   };
 }
