@@ -6,7 +6,7 @@ import { ArrowRight } from 'lucide-react';
 import { DISPOSITION_LABELS, type Disposition } from '@shared/inspection/lotVerdict';
 import type { SwitchingHistoryEntry } from '@shared/schemas/switching';
 import { lotName } from '@shared/schemas/stock';
-import { PhaseBadge } from './PhaseBadge';
+import { PhaseBadge } from '@/components/PhaseBadge';
 
 function Title({ entry }: { entry: SwitchingHistoryEntry }) {
   if (entry.kind === 'resume') return <>Inspection resumed</>;

@@ -9,7 +9,7 @@ import { PageHeader } from '@/components/PageHeader';
 import { PartLabel } from '@/components/PartLabel';
 import { counted } from '@/lib/plural';
 import { useSwitchingList } from '../api';
-import { PhaseBadge } from '../components/PhaseBadge';
+import { PhaseBadge } from '@/components/PhaseBadge';
 
 const column = createColumnHelper<SwitchingRow>();
 const number = (value: number) => <span className="tabular-nums">{value}</span>;

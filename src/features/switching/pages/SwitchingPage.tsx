@@ -11,7 +11,7 @@ import { StateBadge } from '@/components/StateBadge';
 import { useSession } from '@/lib/session';
 import { useSwitching } from '../api';
 import { OverrideForm } from '../components/OverrideForm';
-import { PhaseBadge } from '../components/PhaseBadge';
+import { PhaseBadge } from '@/components/PhaseBadge';
 import { ResumeForm } from '../components/ResumeForm';
 import { SwitchingCounts } from '../components/SwitchingCounts';
 import { SwitchingHistory } from '../components/SwitchingHistory';
