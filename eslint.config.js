@@ -8,7 +8,7 @@ import prettier from 'eslint-config-prettier';
 import globals from 'globals';
 import tseslint from 'typescript-eslint';
 
-const AREAS = ['purchasing', 'receiving', 'stock', 'inspection', 'documents', 'exports', 'users', 'instruments', 'settings', 'sampling'];
+const AREAS = ['purchasing', 'receiving', 'stock', 'inspection', 'documents', 'exports', 'users', 'instruments', 'settings', 'nonconformance', 'supplierquality', 'supplierperformance'];
 const INFRASTRUCTURE = ['http', 'auth', 'audit', 'storage', 'mail', 'jobs'];
 
 const type = (name) => ({ element: { type: name } });

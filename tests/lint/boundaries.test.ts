@@ -28,6 +28,15 @@ describe('layer rules', () => {
     expect(errors).toHaveLength(1);
   });
 
+  it('refuses a route reading the database itself, and a seeder calling a route module', async () => {
+    const route = await boundaryErrors('server/routes/probe.ts', "import { Lot } from '../../db/models';\nexport const probe = Lot;\n");
+    expect(route).toHaveLength(1);
+    expect(route[0].message).toMatch(/"routes".*"db"/);
+    const seed = await boundaryErrors('db/seeders/probe.ts', "import { apiRouter } from '../../server/routes/index';\nexport const probe = apiRouter;\n");
+    expect(seed).toHaveLength(1);
+    expect(seed[0].message).toMatch(/"seed".*"routes"/);
+  });
+
   it('refuses shared/ importing the server or a Node built-in', async () => {
     const errors = await boundaryErrors('shared/probe.ts', "import { config } from '../server/config';\nimport { readFileSync } from 'node:fs';\nexport const probe = [config, readFileSync];\n");
     expect(errors.map((e) => e.ruleId).sort()).toEqual(['boundaries/dependencies', 'no-restricted-imports']);
@@ -41,6 +50,7 @@ describe('layer rules', () => {
 
   it('allows the directions the layers are meant to have', async () => {
     expect(await boundaryErrors('server/routes/probe.ts', "import * as ledger from '../stock/ledger';\nexport const probe = ledger;\n")).toEqual([]);
+    expect(await boundaryErrors('db/seeders/probe.ts', "import * as receipts from '../../server/receiving/receipts';\nexport const probe = receipts;\n")).toEqual([]);
     expect(await boundaryErrors('src/features/stock/probe.ts', "import * as api from '../../lib/api';\nexport const probe = api;\n")).toEqual([]);
   });
 });
