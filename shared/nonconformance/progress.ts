@@ -27,7 +27,7 @@ export function ncrOpenItems(pieces: PieceProgress[]): string[] {
   const toShip = pieces.filter((p) => p.decision === 'return-to-vendor' && !p.shipped);
   const inRework = pieces.filter((p) => p.decision === 'rework' && !p.reworkReleased);
   return [
-    undecided.length ? `${count(undecided.length)} await a disposition: ${serialsOf(undecided)}` : '',
+    undecided.length ? `${count(undecided.length)} ${undecided.length === 1 ? 'awaits' : 'await'} a disposition: ${serialsOf(undecided)}` : '',
     toShip.length ? `${count(toShip.length)} to ship back to the vendor: ${serialsOf(toShip)}` : '',
     inRework.length ? `${count(inRework.length)} in rework, to be released or dispositioned again: ${serialsOf(inRework)}` : '',
   ].filter(Boolean);
