@@ -49,7 +49,7 @@ describe('a characteristic of a supplier-part', () => {
     expect(view.lots.map((l) => l.lot.name)).toEqual(['L-1', 'L-2', 'L-3']);
     expect(view.lots.map((l) => l.mean)).toEqual([expect.closeTo(0, 12), expect.closeTo(0.0008, 12), expect.closeTo(0.0015, 12)]);
     expect(view.lots.map((l) => l.movingRange)).toEqual([null, expect.closeTo(0.0008, 12), expect.closeTo(0.0007, 12)]);
-    expect(view.lots.map((l) => [l.pieces, l.failing])).toEqual([[5, 0], [3, 0], [2, 0]]);
+    expect(view.lots.map((l) => [l.pieces, l.outside, l.failing])).toEqual([[5, 0, 0], [3, 0, 0], [2, 0, 0]]);
     // x̄ = 0.00076667, MR̄ = 0.00075, σ̂ = MR̄/1.128 (common practice, d₂ for ranges of two).
     expect(view.individuals!.sigma).toBeCloseTo(0.00075 / 1.128, 12);
     expect(view.individuals!.center).toBeCloseTo(0.0023 / 3, 12);
@@ -69,6 +69,15 @@ describe('a characteristic of a supplier-part', () => {
     expect(mixedView.tolerancesDiffer).toBe(true);
     expect(mixedView.tolerance).toBe(0.002);
     expect(mixedView.capability!.cp).toBeCloseTo(2 / (6 * jStat.stdev([0.5, -0.5, 0.25, -0.25], true)), 10);
+  });
+});
+
+describe('pieces outside the tolerance', () => {
+  it('are counted per characteristic, against the tolerance of their own line', () => {
+    // A plate 0.6° off its mark (±0.5° ordered) with its retardance in tolerance, and one 0.0035 λ long.
+    const pieces = [piece(1, 0, 0.6), piece(1, 0.0035, 0), piece(1, 0.001, 0.1)];
+    expect(characteristicView('axis', pieces).lots[0]).toMatchObject({ pieces: 3, outside: 1 });
+    expect(characteristicView('retardance', pieces).lots[0]).toMatchObject({ pieces: 3, outside: 1, failing: 1 });
   });
 });
 

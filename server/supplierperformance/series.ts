@@ -60,6 +60,7 @@ export function characteristicView(characteristic: DriftCharacteristic, pieces: 
     lot: { id: lot[0].lotId, name: lotName(lot[0].lotId), supplierLot: lot[0].supplierLot },
     receivedAt: lot[0].receivedAt.toISOString(),
     pieces: lot.length,
+    outside: lot.filter((p) => Math.abs(valueOf(p, characteristic)) > toleranceOf(p, characteristic)).length,
     failing: lot.filter((p) => p.failing).length,
     mean: means[i],
     movingRange: individuals?.points[i].movingRange ?? null,

@@ -121,8 +121,10 @@ export const CHARACTERISTIC_LABELS: Record<DriftCharacteristic, { name: string; 
 export type LotMeanPoint = {
   lot: { id: number; name: string; supplierLot: string };
   receivedAt: string;
-  /** Pieces measured at the design wavelength, and those failing. */
+  /** Pieces measured at the design wavelength, those with this error beyond the ordered tolerance,
+   * and those failing (for any reason). */
   pieces: number;
+  outside: number;
   failing: number;
   mean: number;
   movingRange: number | null;

@@ -62,6 +62,14 @@ export const router = createBrowserRouter([
         lazy: page(() => import('@/features/nonconformance/pages/DefectCodesPage'), (m) => <RequirePermission permission="nonconformance.read"><m.DefectCodesPage /></RequirePermission>),
       },
       { path: 'nonconformances/:ncrId', lazy: page(() => import('@/features/nonconformance/pages/NcrPage'), (m) => <RequirePermission permission="nonconformance.read"><m.NcrPage /></RequirePermission>) },
+      {
+        path: 'supplier-performance',
+        lazy: page(() => import('@/features/supplierperformance/pages/SupplierRankingPage'), (m) => <RequirePermission permission="suppliers.performance"><m.SupplierRankingPage /></RequirePermission>),
+      },
+      {
+        path: 'supplier-performance/:supplierId',
+        lazy: page(() => import('@/features/supplierperformance/pages/SupplierPerformancePage'), (m) => <RequirePermission permission="suppliers.performance"><m.SupplierPerformancePage /></RequirePermission>),
+      },
       { path: 'instruments', lazy: page(() => import('@/features/instruments/pages/InstrumentsPage'), (m) => <m.InstrumentsPage />) },
       {
         path: 'certificates',
