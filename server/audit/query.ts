@@ -34,7 +34,10 @@ export async function listAuditEvents(query: AuditQuery): Promise<ListPage<Audit
   const { sql, replacements } = whereOf(query);
   // Chain order is the order events were recorded in.
   const { direction } = sortOf({ occurredAt: 'seq' }, query.sort || '-occurredAt');
-  const rows = await sequelize.query<Row>(`SELECT * FROM audit_events ${sql} ORDER BY seq ${direction} LIMIT :limit OFFSET :offset`, {
+  // The page's positions first, from the index of kind, position and time alone where the filter
+  // allows; then those rows.
+  const positions = `SELECT seq FROM audit_events ${sql} ORDER BY seq ${direction} LIMIT :limit OFFSET :offset`;
+  const rows = await sequelize.query<Row>(`SELECT a.* FROM (${positions}) page JOIN audit_events a USING (seq) ORDER BY a.seq ${direction}`, {
     type: QueryTypes.SELECT,
     replacements: { ...replacements, limit: query.pageSize + 1, offset: (query.page - 1) * query.pageSize },
   });

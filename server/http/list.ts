@@ -24,6 +24,9 @@ export type ListDefinition<Row, Query extends ListQuery = ListQuery> = {
   from: string;
   /** Sort keys the client may send, each with the SQL it orders by. */
   sortable: Record<string, string>;
+  /** Sort keys whose SQL is never NULL: ordered without NULLS LAST, so that one ordinary index
+   * serves both directions (nullable keys put their NULLs last either way). */
+  notNull?: readonly string[];
   defaultSort: string;
   /** A unique expression that makes every order total, so pages never overlap. */
   tieBreaker: string;
@@ -59,8 +62,10 @@ export function sortOf(sortable: Record<string, string>, requested: string) {
 }
 
 function orderOf<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, sort: string | undefined) {
-  const { expression, direction } = sortOf(definition.sortable, sort || definition.defaultSort);
-  return `${expression} ${direction} NULLS LAST, ${definition.tieBreaker} ${direction}`;
+  const requested = sort || definition.defaultSort;
+  const { expression, direction } = sortOf(definition.sortable, requested);
+  const nulls = definition.notNull?.includes(requested.replace(/^-/, '')) ? '' : ' NULLS LAST';
+  return `${expression} ${direction}${nulls}, ${definition.tieBreaker} ${direction}`;
 }
 
 function baseQuery<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query) {

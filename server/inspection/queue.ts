@@ -33,8 +33,10 @@ export const inspectionQueue: ListDefinition<QueueRow, ListQuery> = {
   // A lot received while acceptance is discontinued has no plan (li) until inspection resumes.
   from: `${LOTS_AWAITING_INSPECTION.from} LEFT JOIN lot_inspections li ON li.lot_id = l.id`,
   filters: () => ({ clauses: [LOTS_AWAITING_INSPECTION.where], replacements: {} }),
-  sortable: { receivedAt: 's.received_at', lotId: 'l.id', state: 'l.state', quantity: 'l.quantity', partNumber: 'p.number', supplier: 'sup.name' },
+  // The lot's copy of its shipment's receipt time: the open lots' index keeps it in order.
+  sortable: { receivedAt: 'l.received_at', lotId: 'l.id', state: 'l.state', quantity: 'l.quantity', partNumber: 'p.number', supplier: 'sup.name' },
   // Oldest first: the lot waiting longest is inspected next.
+  notNull: ['receivedAt', 'lotId'],
   defaultSort: 'receivedAt',
   tieBreaker: 'l.id',
   search: ["'L-' || l.id", 'l.supplier_lot', 'p.number', 'sup.name'],

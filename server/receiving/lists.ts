@@ -16,6 +16,7 @@ export const shipmentList: ListDefinition<ShipmentRow & { lotIds: number[] }, z.
     CROSS JOIN LATERAL (SELECT count(*) AS lots, coalesce(sum(l.quantity), 0) AS pieces, array_agg(l.id ORDER BY l.id) AS lot_ids
       FROM lots l WHERE l.shipment_id = sh.id) AS t`,
   sortable: { receivedAt: 'sh.received_at', poNumber: 'po.number', supplierName: 's.name', packingSlip: 'sh.packing_slip', carrier: 'sh.carrier', pieces: 't.pieces' },
+  notNull: ['receivedAt'],
   defaultSort: '-receivedAt',
   tieBreaker: 'sh.id',
   search: ['po.number', 's.name', 'sh.packing_slip', 'sh.carrier', 'u.name'],
@@ -67,11 +68,13 @@ export const lotList: ListDefinition<LotRow, LotListQuery> = {
     partNumber: 'p.number',
     supplierName: 's.name',
     poNumber: 'po.number',
-    receivedAt: 'sh.received_at',
+    // The lot's copy of its shipment's receipt time, which an index of the lots keeps in order.
+    receivedAt: 'l.received_at',
     accepted: 'q.accepted',
     nonconforming: 'q.nonconforming',
     returned: 'q.returned',
   },
+  notNull: ['id', 'receivedAt'],
   defaultSort: '-receivedAt',
   tieBreaker: 'l.id',
   // A lot is also found by any of its serials, or by its number as shown (L-12).

@@ -44,6 +44,7 @@ export const moveList: ListDefinition<MoveView, MoveListQuery> = {
   from: `stock_moves m JOIN pieces p ON p.id = m.piece_id JOIN parts pt ON pt.id = p.part_id
     LEFT JOIN locations f ON f.id = m.from_location_id LEFT JOIN locations t ON t.id = m.to_location_id LEFT JOIN users u ON u.id = m.actor_id`,
   sortable: { movedAt: 'm.moved_at', serial: 'p.serial', partNumber: 'pt.number', reason: 'm.reason', workOrder: 'm.work_order', from: 'f.code', to: 't.code' },
+  notNull: ['movedAt'],
   defaultSort: '-movedAt',
   tieBreaker: 'm.id',
   search: ['p.serial', 'm.work_order', 'f.code', 't.code', 'pt.number'],
