@@ -10,8 +10,6 @@ export const measurementUploadSchema = z.object({
   instrumentId: z.coerce.number().int().positive().optional(),
 });
 
-export const lotIdParams = z.object({ id: z.coerce.number().int().positive() });
-
 // What the inspection endpoints answer: the server's presenters are typed with these, the client reads them.
 
 /** A stored result of one piece at one wavelength: the engine's result as committed, and its row's keys. */

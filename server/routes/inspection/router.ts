@@ -1,12 +1,13 @@
 import { Router, type Request } from 'express';
 import multer from 'multer';
 import { dispositionInputSchema } from '../../../shared/inspection/lotVerdict';
-import { lotIdParams, measurementUploadSchema, previewPageParams, previewPageQuery } from '../../../shared/schemas/inspection';
+import { measurementUploadSchema, previewPageParams, previewPageQuery } from '../../../shared/schemas/inspection';
 import { listQuerySchema } from '../../../shared/schemas/paging';
 import { actorOf } from '../../audit/record';
 import { allow, authenticate } from '../../auth/authenticate';
 import { badRequest } from '../../http/errors';
 import { mountList } from '../../http/list';
+import { idParams } from '../../http/params';
 import { validated } from '../../http/validate';
 import { signDisposition } from '../../inspection/disposition';
 import { findLotInspection } from '../../inspection/lotInspection';
@@ -35,13 +36,13 @@ export const inspectionRouter = Router();
 
 mountList(inspectionRouter, '/queue', 'lots.read', listQuerySchema, inspectionQueue);
 
-inspectionRouter.get('/lots/:id', authenticate, allow('lots.read'), validated({ params: lotIdParams }, async ({ params }, _req, res) => {
+inspectionRouter.get('/lots/:id', authenticate, allow('lots.read'), validated({ params: idParams }, async ({ params }, _req, res) => {
   res.json(presentLotInspection(await findLotInspection(params.id)));
 }));
 
 /** What both measurement routes share: inspectors only, the files, then the lot and the instrument. */
 const measurementUpload = [authenticate, allow('inspection.perform'), upload.array('files')];
-const measurementInput = { params: lotIdParams, body: measurementUploadSchema };
+const measurementInput = { params: idParams, body: measurementUploadSchema };
 
 inspectionRouter.post('/lots/:id/measurements/preview', ...measurementUpload, validated(measurementInput, async ({ params, body }, req, res) => {
   res.json(await previewMeasurements(params.id, csvFiles(req.files), body.instrumentId));
@@ -65,7 +66,7 @@ inspectionRouter.post(
   '/lots/:id/dispositions',
   authenticate,
   allow('disposition.sign'),
-  validated({ params: lotIdParams, body: dispositionInputSchema }, async ({ params, body }, req, res) => {
+  validated({ params: idParams, body: dispositionInputSchema }, async ({ params, body }, req, res) => {
     const { requestId, address } = actorOf(req);
     const result = await signDisposition(req.user!, params.id, body, { requestId, address });
     res.status(201).json({ dispositionId: result.disposition.id, decision: result.disposition.decision, documents: result.documents });
