@@ -14,12 +14,15 @@ const page =
 const purchaseOrderPage = () => import('@/features/purchasing/pages/PurchaseOrderPage');
 const piecePage = () => import('@/features/stock/pages/PiecePage');
 const stockMovePage = () => import('@/features/stock/pages/StockMovePage');
+const deviationsPage = () => import('@/features/supplierquality/pages/DeviationsPage');
 
 export const router = createBrowserRouter([
   { path: '/sign-in', element: <SignInPage /> },
   { path: '/forgot-password', lazy: page(() => import('@/features/auth/pages/ForgotPasswordPage'), (m) => <m.ForgotPasswordPage />) },
   { path: '/reset-password', lazy: page(() => import('@/features/auth/pages/ResetPasswordPage'), (m) => <m.ResetPasswordPage />) },
   { path: '/verify', lazy: page(() => import('@/features/audit/pages/VerifyPage'), (m) => <m.VerifyPage />) },
+  // The supplier's answer to a corrective-action request: public, through the mailed link.
+  { path: '/respond', lazy: page(() => import('@/features/supplierquality/pages/SupplierResponsePage'), (m) => <m.SupplierResponsePage />) },
   {
     element: <AppLayout />,
     children: [
@@ -62,6 +65,21 @@ export const router = createBrowserRouter([
         lazy: page(() => import('@/features/nonconformance/pages/DefectCodesPage'), (m) => <RequirePermission permission="nonconformance.read"><m.DefectCodesPage /></RequirePermission>),
       },
       { path: 'nonconformances/:ncrId', lazy: page(() => import('@/features/nonconformance/pages/NcrPage'), (m) => <RequirePermission permission="nonconformance.read"><m.NcrPage /></RequirePermission>) },
+      { path: 'deviations', lazy: page(deviationsPage, (m) => <RequirePermission permission="deviations.read"><m.DeviationsPage key="list" /></RequirePermission>) },
+      { path: 'deviations/new', lazy: page(deviationsPage, (m) => <RequirePermission permission="deviations.manage"><m.DeviationsPage key="new" writing /></RequirePermission>) },
+      { path: 'deviations/:deviationId', lazy: page(() => import('@/features/supplierquality/pages/DeviationPage'), (m) => <RequirePermission permission="deviations.read"><m.DeviationPage /></RequirePermission>) },
+      {
+        path: 'corrective-actions',
+        lazy: page(() => import('@/features/supplierquality/pages/CorrectiveActionsPage'), (m) => <RequirePermission permission="corrective.read"><m.CorrectiveActionsPage /></RequirePermission>),
+      },
+      {
+        path: 'corrective-actions/new',
+        lazy: page(() => import('@/features/supplierquality/pages/NewCorrectiveActionPage'), (m) => <RequirePermission permission="corrective.manage"><m.NewCorrectiveActionPage /></RequirePermission>),
+      },
+      {
+        path: 'corrective-actions/:requestId',
+        lazy: page(() => import('@/features/supplierquality/pages/CorrectiveActionPage'), (m) => <RequirePermission permission="corrective.read"><m.CorrectiveActionPage /></RequirePermission>),
+      },
       {
         path: 'supplier-performance',
         lazy: page(() => import('@/features/supplierperformance/pages/SupplierRankingPage'), (m) => <RequirePermission permission="suppliers.performance"><m.SupplierRankingPage /></RequirePermission>),

@@ -24,7 +24,7 @@ export class ApiError extends Error {
 }
 
 type Query = Record<string, string | number | boolean | undefined | null>;
-type Options = { method?: string; body?: unknown; query?: Query; signal?: AbortSignal };
+type Options = { method?: string; body?: unknown; query?: Query; signal?: AbortSignal; headers?: Record<string, string> };
 
 let onUnauthorized: () => void = () => {};
 /** Called when a request comes back with an ended session: the app returns to the sign-in page. */
@@ -46,7 +46,7 @@ export async function api<T>(path: string, options: Options = {}): Promise<T> {
   const response = await fetch(apiUrl(path, options.query), {
     method: options.method ?? (options.body ? 'POST' : 'GET'),
     credentials: 'same-origin',
-    headers: options.body && !isForm ? { 'Content-Type': 'application/json' } : undefined,
+    headers: { ...(options.body && !isForm ? { 'Content-Type': 'application/json' } : {}), ...options.headers },
     body: isForm ? (options.body as FormData) : options.body ? JSON.stringify(options.body) : undefined,
     signal: options.signal,
   });

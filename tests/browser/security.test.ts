@@ -95,6 +95,7 @@ describe('every page under the content security policy', () => {
     '/receiving', '/receiving/new', '/lots', '/lots/:lot', '/stock', '/stock/moves', '/stock/issue', '/stock/transfer', '/stock/put-away',
     '/pieces/:serial', '/inspection', '/inspection/lots/:lot', '/instruments', '/certificates', '/exports', '/audit',
     '/admin/users', '/admin/settings', '/admin/mail', '/verify?number=:number&hash=:hash',
+    '/deviations', '/deviations/new', '/corrective-actions', '/corrective-actions/new', '/respond',
   ];
 
   it.each(pages)('%s shows without a violation or console error', async (path) => {

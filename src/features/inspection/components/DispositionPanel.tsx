@@ -191,7 +191,7 @@ function DeviationPicker({ view, register, error, chosen }: PickerProps) {
   return (
     <div className="space-y-2">
       <Field label="Deviation" htmlFor="deviation" hint={`Every piece of the lot (${quantity}) is released under it.`} error={error}>
-        <select id="deviation" className={inputClass} {...register('deviationId', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}>
+        <select id="deviation" className={`${inputClass} max-w-xl`} {...register('deviationId', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}>
           <option value="">Choose a current deviation…</option>
           {rows.map((d) => (
             <option key={d.id} value={d.id} disabled={(d.quantityLeft ?? 0) < quantity}>

@@ -1,6 +1,8 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { ResumeInspectionInput, SeverityOverrideInput, SwitchingRow, SwitchingView } from '@shared/schemas/switching';
 import type { SwitchingState } from '@shared/sampling';
+import type { CarRow } from '@shared/schemas/correctiveActions';
+import type { ListResponse } from '@shared/schemas/paging';
 import type { ListState } from '@/components/DataTable';
 import { api } from '@/lib/api';
 import { listPage } from '@/lib/lists';
@@ -28,6 +30,13 @@ function useSignedChange<Input, Answer>(supplierId: number, partId: number, acti
     onSuccess: () => queryClient.invalidateQueries(),
   });
 }
+
+/** The supplier's accepted corrective-action requests for this part: what a resumption may rest on. */
+export const useAcceptedRequests = (supplierId: number, partId: number) =>
+  useQuery({
+    queryKey: [...switchingKeys.pair(supplierId, partId), 'accepted-requests'] as const,
+    queryFn: () => api<ListResponse<CarRow>>('/corrective-actions', { query: { supplierId, partId, status: 'accepted', sort: '-requestedAt', pageSize: 50 } }),
+  });
 
 export const useResumeInspection = (supplierId: number, partId: number) =>
   useSignedChange<ResumeInspectionInput, { state: SwitchingState; eventId: number; plansDrawnFor: number[] }>(supplierId, partId, 'resume');

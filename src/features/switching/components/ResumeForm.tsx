@@ -8,18 +8,20 @@ import { RESUME_MEANING, resumeInspectionSchema, type ResumeInspectionInput } fr
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
-import { useResumeInspection } from '../api';
+import { useAcceptedRequests, useResumeInspection } from '../api';
 import { SignatureFields } from '@/components/SignatureFields';
 
 type Props = { supplierId: number; partId: number; waitingLots: number; onResumed(plansDrawnFor: number[]): void };
 
 export function ResumeForm({ supplierId, partId, waitingLots, onResumed }: Props) {
   const resume = useResumeInspection(supplierId, partId);
+  const requests = useAcceptedRequests(supplierId, partId);
   const form = useForm<ResumeInspectionInput>({
     resolver: zodResolver(resumeInspectionSchema),
     defaultValues: { correctiveAction: '', reference: '', password: '', meaningAcknowledged: false as unknown as true },
   });
   const errors = form.formState.errors;
+  const pickedRequest = form.watch('correctiveActionId');
   const submit = form.handleSubmit((values) =>
     resume.mutate(values, {
       onSuccess: (answer) => onResumed(answer.plansDrawnFor),
@@ -43,9 +45,25 @@ export function ResumeForm({ supplierId, partId, waitingLots, onResumed }: Props
       <Field label="Supplier's corrective action" htmlFor="corrective-action" error={errors.correctiveAction?.message}>
         <textarea id="corrective-action" rows={3} className={inputClass} {...form.register('correctiveAction')} />
       </Field>
-      <Field label="Reference of the corrective action" htmlFor="corrective-reference" hint="The supplier's report or your request number." error={errors.reference?.message}>
-        <input id="corrective-reference" className={`${inputClass} max-w-xs font-mono`} {...form.register('reference')} />
+      <Field
+        label="Accepted corrective-action request"
+        htmlFor="corrective-request"
+        hint={requests.data?.data.length ? 'The request whose answer quality accepted.' : 'No accepted request of this part from this supplier: give the reference of the action below.'}
+      >
+        <select id="corrective-request" className={`${inputClass} max-w-md`} {...form.register('correctiveActionId', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}>
+          <option value="">None: an action recorded elsewhere</option>
+          {requests.data?.data.map((r) => (
+            <option key={r.id} value={r.id}>
+              {r.number} · NCRs {r.ncrs.join(', ')}
+            </option>
+          ))}
+        </select>
       </Field>
+      {!pickedRequest && (
+        <Field label="Reference of the corrective action" htmlFor="corrective-reference" hint="For actions recorded before corrective-action requests were kept here: the supplier's report number." error={errors.reference?.message}>
+          <input id="corrective-reference" className={`${inputClass} max-w-xs font-mono`} {...form.register('reference')} />
+        </Field>
+      )}
       <SignatureFields meaning={RESUME_MEANING} register={form.register} errors={errors} idPrefix="resume" />
       <Button type="submit" disabled={resume.isPending}>
         {resume.isPending ? 'Signing…' : 'Sign: resume on tightened inspection'}

@@ -1,0 +1,143 @@
+// Supplier quality in the browser: the supplier answers a corrective-action request through the
+// mailed link, with no account and under the content security policy; quality reviews the answer;
+// a quality manager uses a rejected lot as is under a deviation picked from the register.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { mkdirSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { approvedDeviation, rejectedSample } from '../helpers/deviations';
+import { mailedToken, ncrOf, raiseRequest, supplierWithQualityContact } from '../helpers/correctiveActions';
+import { supplierPart } from '../helpers/switching';
+import { signedInPage, startBrowserRig, type BrowserRig } from './browser';
+
+const TINY_PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==', 'base64');
+const shots = process.env.SCREENSHOT_DIR ?? join(tmpdir(), 'phaselot-supplierquality');
+mkdirSync(shots, { recursive: true });
+
+let rig: BrowserRig;
+beforeAll(async () => {
+  rig = await startBrowserRig();
+});
+afterAll(async () => {
+  await rig?.close();
+});
+
+/** Every content security policy violation, console error and page error of a page. */
+async function watchPolicy(page: Page) {
+  const problems: string[] = [];
+  await page.addInitScript(() => {
+    document.addEventListener('securitypolicyviolation', (event) => console.error(`CSP violation: ${event.violatedDirective} ${event.blockedURI}`));
+  });
+  page.on('console', (message) => {
+    if (message.type() === 'error') problems.push(message.text());
+  });
+  page.on('pageerror', (error) => problems.push(error.message));
+  return problems;
+}
+
+async function screenshots(page: Page, name: string) {
+  await page.screenshot({ path: join(shots, `${name}-desktop.png`), fullPage: true });
+  const desktop = page.viewportSize()!;
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.screenshot({ path: join(shots, `${name}-390.png`), fullPage: true });
+  await page.setViewportSize(desktop);
+}
+
+describe('supplier quality in the browser', () => {
+  it("takes the supplier's answer through the mailed link, without an account, and shows it to quality", async () => {
+    const pair = await supplierWithQualityContact();
+    const ncr = await ncrOf(pair);
+    const car = await raiseRequest([ncr.id], 'Quarter-wave plates of two lots run 0.006 λ long: find the cause and stop it.');
+    const { token } = await mailedToken(car.id);
+
+    const context = await rig.browser.newContext({ viewport: { width: 1280, height: 900 } });
+    context.setDefaultTimeout(10_000);
+    const supplier = await context.newPage();
+    const problems = await watchPolicy(supplier);
+    // The address the server rejects: the supplier must open the link as mailed.
+    const refused = await supplier.goto(`${rig.baseUrl}/respond`);
+    expect(refused?.status()).toBe(200);
+    await supplier.getByText('This page needs the link from the request mail').waitFor();
+
+    await supplier.goto(`${rig.baseUrl}/respond#token=${token}`);
+    await supplier.getByRole('heading', { name: `Corrective action ${car.number}` }).waitFor();
+    await supplier.getByText(ncr.serials.join(', ')).waitFor();
+    const form = supplier.getByRole('form', { name: 'Your answer' });
+    // The form's own checks: nothing is sent while a required field is empty.
+    await form.getByRole('button', { name: 'Send the answer' }).click();
+    await form.getByText('Give your name').waitFor();
+    await form.getByLabel('Your name').fill('Ilse Varga');
+    await form.getByLabel('Root cause').fill('The polishing pitch of line 2 was worn past its service life.');
+    await form.getByLabel('Containment', { exact: true }).fill('Stock at our site sorted 100 %; long plates quarantined.');
+    await form.getByLabel('Corrective actions', { exact: true }).fill('Pitch replaced; service life set to 400 hours.');
+    await form.getByLabel('Preventive actions', { exact: true }).fill('Retardance of every plate measured before packing.');
+    await form.getByLabel('Corrective actions in effect by').fill('2026-12-15');
+    await form.getByLabel(/^Files/).setInputFiles({ name: 'pitch-log.png', mimeType: 'image/png', buffer: TINY_PNG });
+    await screenshots(supplier, 'supplier-answer-form');
+    await form.getByRole('button', { name: 'Send the answer' }).click();
+    await supplier.getByText('Thank you: your answer was received').waitFor();
+    await screenshots(supplier, 'supplier-answer-sent');
+
+    expect(problems).toEqual([]);
+    // The link takes one answer: opened again, it says so (the browser logs the refusal, a 410).
+    await supplier.reload();
+    await supplier.getByText(/An answer was already sent through this link on \d{4}-\d{2}-\d{2}/).waitFor();
+    expect(problems).toEqual(['Failed to load resource: the server responded with a status of 410 (Gone)']);
+    await context.close();
+
+    // Quality sees the answer on the request, with its file, and accepts it with a signature.
+    const quality = await signedInPage(rig, 'quality');
+    await quality.goto(`${rig.baseUrl}/corrective-actions/${car.id}`);
+    await quality.getByRole('heading', { name: `Corrective action ${car.number}` }).waitFor();
+    const answers = quality.getByRole('region', { name: 'Answers' });
+    await answers.getByText('The polishing pitch of line 2 was worn past its service life.').waitFor();
+    await answers.getByRole('link', { name: 'pitch-log.png' }).waitFor();
+    const review = quality.getByRole('form', { name: 'Review the answer' });
+    await review.getByLabel(/I have read the meaning/).check();
+    await review.getByLabel(/Your password/).fill('phaselot-demo');
+    await screenshots(quality, 'request-review');
+    await review.getByRole('button', { name: 'Sign: accept the answer' }).click();
+    await quality.getByRole('note').getByText(/^Accepted by .*, /).waitFor();
+    await quality.getByRole('form', { name: 'Close the request' }).waitFor();
+    await screenshots(quality, 'request-accepted');
+    await quality.context().close();
+  });
+
+  it('uses a rejected lot as is under a current deviation picked from the register, which then shows the use', async () => {
+    const pair = await supplierPart();
+    const lotId = await rejectedSample(pair);
+    const deviation = await approvedDeviation(pair.supplierId, pair.partId, { quantityLimit: 50, allowed: 'Retardance tolerance widened to ±0.01 λ for the alignment jig build' });
+    // Too small for the lot's 20 pieces: listed, not choosable.
+    const small = await approvedDeviation(pair.supplierId, pair.partId, { quantityLimit: 5 });
+
+    const quality = await signedInPage(rig, 'quality');
+    const problems = await watchPolicy(quality);
+    await quality.goto(`${rig.baseUrl}/inspection/lots/${lotId}`);
+    const form = quality.getByRole('form', { name: 'Sign disposition' });
+    await form.getByLabel('Use as is (deviation)').check();
+    const picker = form.getByLabel('Deviation', { exact: true });
+    await picker.waitFor();
+    expect(await picker.locator('option', { hasText: small.number }).isDisabled()).toBe(true);
+    await picker.selectOption({ label: `${deviation.number}: 50 of 50 pieces left, until ${new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10)}` });
+    await form.getByTestId('deviation-allowed').getByText('Retardance tolerance widened to ±0.01 λ for the alignment jig build').waitFor();
+    await form.getByLabel('Justification').fill('Plates go into the alignment jig, which tolerates ±0.01 λ');
+    await form.getByLabel(/I have read the meaning/).check();
+    await form.getByLabel(/Your password/).fill('phaselot-demo');
+    await screenshots(quality, 'use-as-is-deviation');
+    await form.getByRole('button', { name: 'Sign: Use as is (deviation)' }).click();
+    await quality.getByText(/^Signed\./).waitFor();
+    await quality.getByText(deviation.number).first().waitFor();
+
+    await quality.goto(`${rig.baseUrl}/deviations/${deviation.id}`);
+    await quality.getByRole('heading', { name: `Deviation ${deviation.number}` }).waitFor();
+    await quality.getByText('20 used, 30 of 50 left').waitFor();
+    await quality.getByRole('region', { name: 'Uses' }).getByRole('link', { name: `L-${lotId}` }).waitFor();
+    await screenshots(quality, 'deviation-page');
+    await quality.goto(`${rig.baseUrl}/deviations?status=current`);
+    await quality.getByRole('cell', { name: deviation.number }).waitFor();
+    await screenshots(quality, 'deviations-list');
+    expect(problems).toEqual([]);
+    await quality.context().close();
+  });
+});
