@@ -1,9 +1,9 @@
 // A lot's plan names Table 1's code letter and the letter whose plan is used. A lot of 20 at level II
 // is code letter C; at AQL 1.0 the arrow of Table 2-A leads to the plan of letter E, n = 13, Ac 0 /
 // Re 1 (ISO 2859-1 / ANSI/ASQ Z1.4 Tables 1 and 2-A, as in AQLSchemes R/AAZ14Single.R).
-import { QueryTypes, type Transaction } from 'sequelize';
-import { describe, expect, it } from 'vitest';
-import { sequelize } from '../../db';
+import { QueryTypes, Sequelize, type Transaction } from 'sequelize';
+import { afterAll, describe, expect, it } from 'vitest';
+import { config } from '../config';
 import { addTableCodeLetter, dropTableCodeLetter } from '../../db/migrations/20261202-0100-table-code-letter';
 import { acceptedLot } from '../../tests/helpers/acceptedLot';
 import { as } from '../../tests/helpers/api';
@@ -21,9 +21,13 @@ async function pdfText(number: string) {
   return (await pdfPages(pdf.body as Buffer)).join(' ').replace(/\s+/g, ' ');
 }
 
-/** Runs `work` in a transaction that is always rolled back. */
+// Migrations run as the database owner; the application's role may not alter tables.
+const owner = new Sequelize(process.env.MIGRATION_DATABASE_URL ?? config.DATABASE_URL, { dialect: 'postgres', logging: false, pool: { max: 1 } });
+afterAll(() => owner.close());
+
+/** Runs `work` as the owner in a transaction that is always rolled back. */
 async function rolledBack<T>(work: (transaction: Transaction) => Promise<T>): Promise<T> {
-  const transaction = await sequelize.transaction();
+  const transaction = await owner.transaction();
   try {
     return await work(transaction);
   } finally {
@@ -51,14 +55,14 @@ describe('code letter and plan letter', () => {
     // 400 pieces at level S-4 is code letter E; at AQL 0.4 the arrow leads down to the plan of G, n = 32.
     const special = await receivedLot({ quantity: 400, level: 'S-4', aql: 0.4 });
     const letters = (transaction: Transaction, column: string) =>
-      sequelize.query<{ lotId: number; letter: string }>(
+      owner.query<{ lotId: number; letter: string }>(
         `SELECT lot_id AS "lotId", ${column} AS letter FROM lot_inspections WHERE lot_id IN (:lots) ORDER BY lot_id`,
         { type: QueryTypes.SELECT, transaction, replacements: { lots: [small.lotId, special.lotId] } },
       );
     const { before, codeLetters, planLetters } = await rolledBack(async (transaction) => {
-      await dropTableCodeLetter(sequelize, transaction);
+      await dropTableCodeLetter(owner, transaction);
       const before = await letters(transaction, 'code_letter');
-      await addTableCodeLetter(sequelize, transaction);
+      await addTableCodeLetter(owner, transaction);
       return { before, codeLetters: await letters(transaction, 'code_letter'), planLetters: await letters(transaction, 'plan_letter') };
     });
     // Before: one column, holding the plan's letter.
