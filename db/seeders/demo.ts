@@ -7,6 +7,7 @@ import { seedInspectionDemo } from './inspectionDemo';
 import { seedPerformanceHistory } from './performanceDemo';
 import { seedReceivingDemo, seedStockDemo } from './receivingDemo';
 import { seedNonconformanceDemo } from './nonconformanceDemo';
+import { seedCorrectiveActionDemo } from './supplierQualityDemo';
 import { ROLES, type Role } from '../../shared/schemas/roles';
 import { instrumentInputSchema, type InstrumentInput } from '../../shared/schemas/instruments';
 import { hashPassword } from '../../server/auth/passwords';
@@ -55,6 +56,8 @@ export async function seedDemo() {
   await seedStockDemo(users, lots);
   // The NCRs inspection opened, dispositioned, shipped back and a replacement received.
   await seedNonconformanceDemo(DEMO_PASSWORD);
+  // Corrective-action requests raised from those NCRs, one answered by its supplier.
+  await seedCorrectiveActionDemo();
   // Months of earlier deliveries for the supplier-performance charts, after the current lots.
   await seedPerformanceHistory(DEMO_PASSWORD);
   return { users, instruments, locations, suppliers, parts, purchaseOrders, lots, inspected };
