@@ -29,7 +29,11 @@ function LotTooltip({ active, payload, view }: TooltipContentProps<number, strin
       </p>
       <p className="text-ink-muted">received {point.receivedAt.slice(0, 10)}</p>
       <p>lot mean {signedError(c, point.mean)}</p>
-      {point.ewma !== null && <p>EWMA {signedError(c, point.ewma)} (limits {signedError(c, point.ewmaLower)} to {signedError(c, point.ewmaUpper)})</p>}
+      {point.ewma !== null && (
+        <p>
+          EWMA {signedError(c, point.ewma, { finer: 1 })} (limits {signedError(c, point.ewmaLower, { finer: 1 })} to {signedError(c, point.ewmaUpper, { finer: 1 })})
+        </p>
+      )}
       <p className={point.outside ? 'text-state-fail' : 'text-ink-muted'}>
         {point.pieces} measured, {point.outside ? `${point.outside} outside the tolerance` : 'none outside the tolerance'}
         {point.failing > point.outside && `, ${point.failing} failing for any reason`}
@@ -72,7 +76,7 @@ function Capability({ view }: { view: CharacteristicView }) {
       <div>
         <dt className="text-2xs tracking-wide text-ink-faint uppercase">Mean ± s</dt>
         <dd className="tabular-nums">
-          {signedError(c, pieces.mean)} ± {pieces.sd === null ? '—' : signedError(c, pieces.sd, false)}
+          {signedError(c, pieces.mean)} ± {pieces.sd === null ? '—' : signedError(c, pieces.sd, { signed: false })}
         </dd>
       </div>
       <div>
@@ -98,8 +102,8 @@ export function DriftCharts({ view, alarms }: { view: CharacteristicView; alarms
   const ewmaSpan = spanOf(points.flatMap((p) => [p.ewma, p.ewmaUpper, p.ewmaLower]), 0);
   const alarmed = alarms.filter((a) => a.characteristic === c);
   const tick = (v: number) => signedError(c, v);
-  const axisLabel = { value: unit, angle: -90, position: 'insideLeft' as const, style: { ...axisStyle, textAnchor: 'middle' as const } };
-  const lotAxis = <XAxis dataKey="label" tick={axisStyle} interval="preserveStartEnd" minTickGap={8} label={{ value: 'lots in the order received', position: 'insideBottom', offset: -2, style: axisStyle }} height={34} />;
+  // Every value tick carries its unit; the lot axis says which way time runs.
+  const lotAxis = <XAxis dataKey="label" tick={axisStyle} interval="preserveStartEnd" minTickGap={8} label={{ value: 'lots, oldest first', position: 'insideBottom', offset: -2, style: axisStyle }} height={34} />;
   const tooltip = <Tooltip content={(props) => <LotTooltip {...(props as TooltipContentProps<number, string>)} view={view} />} />;
 
   return (
@@ -116,10 +120,10 @@ export function DriftCharts({ view, alarms }: { view: CharacteristicView; alarms
       ) : (
         <div className="grid gap-3 lg:grid-cols-2">
           <ChartFrame title="Lot means" note={individuals ? `Dotted: individuals limits ${tick(individuals.lower)} to ${tick(individuals.upper)}. Red: lots with pieces outside the tolerance.` : undefined}>
-            <ComposedChart data={points} margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
+            <ComposedChart data={points} margin={{ top: 8, right: 10, bottom: 4, left: 0 }}>
               <CartesianGrid stroke={GRID} />
               {lotAxis}
-              <YAxis type="number" domain={[-meanSpan, meanSpan]} ticks={[-tol, 0, tol]} tickFormatter={tick} tick={axisStyle} width={66} label={axisLabel} allowDataOverflow />
+              <YAxis type="number" domain={[-meanSpan, meanSpan]} ticks={[-tol, 0, tol]} tickFormatter={tick} tick={axisStyle} width={62} allowDataOverflow />
               <ReferenceArea y1={-tol} y2={tol} fill={BAND} fillOpacity={0.06} />
               <ReferenceLine y={tol} stroke={FAIL} strokeDasharray="5 3" />
               <ReferenceLine y={-tol} stroke={FAIL} strokeDasharray="5 3" />
@@ -134,17 +138,16 @@ export function DriftCharts({ view, alarms }: { view: CharacteristicView; alarms
             title="Drift: EWMA of the lot means"
             note={view.ewma ? `Weight ${view.ewma.lambda}, limits at ${view.ewma.width} standard deviations around 0 (the ordered value). Amber: alarms raised.` : 'Drift is judged from five lots on.'}
           >
-            <ComposedChart data={points} margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
+            <ComposedChart data={points} margin={{ top: 8, right: 10, bottom: 4, left: 0 }}>
               <CartesianGrid stroke={GRID} />
               {lotAxis}
               <YAxis
                 type="number"
                 domain={[-ewmaSpan || -tol, ewmaSpan || tol]}
                 ticks={last?.ewmaUpper != null ? [last.ewmaLower!, 0, last.ewmaUpper] : [0]}
-                tickFormatter={tick}
+                tickFormatter={(v: number) => signedError(c, v, { finer: 1 })}
                 tick={axisStyle}
-                width={66}
-                label={axisLabel}
+                width={78}
               />
               <ReferenceLine y={0} stroke={INK} />
               {tooltip}

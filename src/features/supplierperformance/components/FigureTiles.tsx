@@ -27,7 +27,7 @@ function tilesOf(f: ScorecardFigures): Tile[] {
 
 export function FigureTiles({ figures }: { figures: ScorecardFigures }) {
   return (
-    <dl className="grid grid-cols-[repeat(auto-fill,minmax(9.5rem,1fr))] gap-2" aria-label="Scorecard">
+    <dl className="grid grid-cols-[repeat(auto-fit,minmax(9.5rem,1fr))] gap-2" aria-label="Scorecard">
       {tilesOf(figures).map((tile) => (
         <div key={tile.label} className={`rounded border bg-paper-card px-3 py-2 ${tile.warn ? 'border-state-quarantine/50' : 'border-paper-line'}`}>
           <dt className="text-2xs font-medium tracking-wide text-ink-faint uppercase">{tile.label}</dt>

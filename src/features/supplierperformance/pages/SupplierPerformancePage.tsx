@@ -64,7 +64,8 @@ export function SupplierPerformancePage() {
         <PartsTable parts={card.parts} chosen={partId} onChoose={(id) => update({ partId: id })} />
       </Panel>
       {part && (
-        <Panel title={`Capability and drift: ${part.number}`} actions={<span className="text-xs text-ink-muted">{part.description}</span>}>
+        <Panel title={`Capability and drift: ${part.number}`}>
+          <p className="-mt-1 mb-2 text-xs text-ink-muted">{part.description}</p>
           {capability.error && <Notice tone="error">{capability.error.message}</Notice>}
           {!chart && !capability.error && <p className="text-ink-muted">Loading…</p>}
           {chart && (
