@@ -9,6 +9,7 @@ import { analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type F
 import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName, type LotState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { AppError, badRequest } from '../http/errors';
+import { enqueue, QUEUES } from '../jobs/queue';
 import { sha256, storeBlob } from '../storage/blobs';
 import { lotForInspection, markLotInspected, type LotForInspection } from './lotAccess';
 import { evaluateLot, lotProposal } from './evaluation';
@@ -216,6 +217,8 @@ export function commitMeasurements(actor: AuditActor & { id: number }, lotId: nu
       // A saved file's rows are let go before the next one is written.
       analysed[index] = null;
     }
+    // The supplier's drift check reads the new results as soon as they are committed.
+    await enqueue(QUEUES.supplierDriftCheck, { lotId }, transaction);
     // The proposal needs only the verdicts; a sort may complete, and its documents need the results.
     const proposal = await lotProposal(lot, transaction);
     await markLotInspected(lot, proposal.verdict.proposal !== 'undecided', transaction);

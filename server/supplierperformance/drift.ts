@@ -1,10 +1,11 @@
 // Drift alarms: after bench files are committed, each supplier-part whose results changed has the
 // EWMA of its lot means recomputed (the year up to now); when the newest lot takes it past a limit
 // and no alarm has been raised in that excursion yet, an alarm is recorded on that lot and mailed to
-// the supplier's buyer and to quality, in one transaction, usually while the lots still pass. A
-// scheduled job reads the piece results written since the last run (a mark kept in the database),
-// so a run repeated after a crash re-checks the same parts and raises nothing twice (one alarm per
-// lot, and the supplier-part locked while it is checked).
+// the supplier's buyer and to quality, in one transaction, usually while the lots still pass. The
+// job is queued by each bench-file commit and scheduled every few minutes besides; each run reads
+// the piece results written since the last (a mark kept in the database), so a run repeated after a
+// crash re-checks the same parts and raises nothing twice (one alarm per lot, and the supplier-part
+// locked while it is checked).
 import { QueryTypes, type Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
 import { CHARACTERISTIC_LABELS, DRIFT_CHARACTERISTICS, resolvePeriod, type CharacteristicView, type DriftCharacteristic } from '../../shared/schemas/supplierPerformance';

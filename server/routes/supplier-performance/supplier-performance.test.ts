@@ -188,12 +188,19 @@ describe('capability and drift of a supplier-part', () => {
       [0.001, -0.001, 0.0005, -0.0005, 0],
       [0.0012, 0.0002, 0.0008, 0.0004, 0.0004],
     ];
+    const lotIds: number[] = [];
     for (const [i, lot] of errors.entries()) {
-      await recordHistoryLot(people, {
+      lotIds.push(await recordHistoryLot(people, {
         supplierId, partId, poNumber: `PO-${tag}-${i}`, orderedOn: '2026-05-01', quantity: 5, serialPrefix: `${tag}-${i}-`, supplierLot: `SL-${tag}-${i}`,
         receivedAt: `2026-06-0${i + 1}T10:00:00Z`, errors: (index) => ({ retardanceWaves: lot[index], axisDeg: 0.05 }),
-      });
+      }));
     }
+    // Each bench-file commit queued the drift check in its own transaction.
+    const [queued] = await sequelize.query<{ n: string }>(`SELECT count(*) AS n FROM pgboss.job WHERE name = 'supplier-drift-check' AND (data->>'lotId')::int IN (:lotIds)`, {
+      type: QueryTypes.SELECT,
+      replacements: { lotIds },
+    });
+    expect(Number(queued.n)).toBe(2);
     const buyer = await as('buyer');
     const { body } = await buyer.get(`/api/suppliers/${supplierId}/capability?partId=${partId}&${PERIOD}`).expect(200);
     const retardance = body.characteristics.find((c: { characteristic: string }) => c.characteristic === 'retardance');
