@@ -23,7 +23,7 @@ export function NcrPiecesTable({ pieces, selected, onSelect }: Props) {
   };
   return (
     <div className="max-h-[28rem] overflow-auto">
-      <table className="w-full min-w-[44rem] text-sm">
+      <table className="w-full min-w-[56rem] text-sm">
         <thead className="sticky top-0 bg-paper-sunk text-left text-xs text-ink-muted">
           <tr>
             {onSelect && (
