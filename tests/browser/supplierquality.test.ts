@@ -104,6 +104,49 @@ describe('supplier quality in the browser', () => {
     await quality.context().close();
   });
 
+  it('lets the buyer raise a request from NCRs and write a deviation for a supplier\'s part', async () => {
+    const pair = await supplierWithQualityContact();
+    const first = await ncrOf(pair);
+    const second = await ncrOf(pair, 'Fast-axis mark 1.2° off on two plates');
+    const buyer = await signedInPage(rig, 'buyer');
+    const problems = await watchPolicy(buyer);
+
+    // Coming from an NCR, the form offers only NCRs of its supplier and part, that one ticked.
+    await buyer.goto(`${rig.baseUrl}/corrective-actions/new?ncr=${first.id}`);
+    const form = buyer.getByRole('form', { name: 'New corrective-action request' });
+    await form.getByText(`NCRs it answers (Test supplier ${pair.tag}, T-${pair.tag})`).waitFor();
+    const boxes = form.getByRole('checkbox');
+    expect(await boxes.count()).toBe(2);
+    expect(await form.getByRole('listitem').filter({ hasText: first.number }).getByRole('checkbox').isChecked()).toBe(true);
+    await form.getByRole('listitem').filter({ hasText: second.number }).getByRole('checkbox').check();
+    await form.getByLabel('What the supplier is asked to correct').fill('Retardance and axis marks of two lots are out: find the cause and stop it.');
+    await screenshots(buyer, 'request-new');
+    await form.getByRole('button', { name: 'Send the request' }).click();
+    await buyer.getByRole('heading', { name: /^Corrective action CAR-\d{4}-\d{4}$/ }).waitFor();
+    await buyer.getByRole('region', { name: 'Links to answer' }).getByText('Live', { exact: true }).waitFor();
+    const number = (await buyer.getByRole('heading', { level: 1 }).textContent())!.replace('Corrective action ', '');
+    await buyer.goto(`${rig.baseUrl}/corrective-actions?status=awaiting-response`);
+    await buyer.getByRole('cell', { name: number }).waitFor();
+    await screenshots(buyer, 'requests-list');
+
+    // A deviation written from the register's form, for the same supplier's part.
+    await buyer.goto(`${rig.baseUrl}/deviations/new?supplierId=${pair.supplierId}&partId=${pair.partId}`);
+    const deviation = buyer.getByRole('form', { name: 'New deviation' });
+    await deviation.getByLabel('Supplier').locator(`option[value="${pair.supplierId}"]`).waitFor({ state: 'attached' });
+    await deviation.getByLabel('Part').locator(`option[value="${pair.partId}"]`).waitFor({ state: 'attached' });
+    expect(await deviation.getByLabel('Supplier').inputValue()).toBe(String(pair.supplierId));
+    await deviation.getByLabel('What it allows').fill('Fast-axis mark tolerance widened to ±1° for the test-bench build');
+    await deviation.getByLabel('Fast-axis tolerance (± degrees)').fill('1');
+    await deviation.getByLabel('Pieces it may cover').fill('25');
+    await screenshots(buyer, 'deviation-new');
+    await deviation.getByRole('button', { name: 'Write to the register' }).click();
+    await buyer.getByRole('heading', { name: /^Deviation DEV-\d{4}-\d{4}$/ }).waitFor();
+    await buyer.getByText('Awaiting approval').waitFor();
+    await buyer.getByText('0 used, 25 of 25 left').waitFor();
+    expect(problems).toEqual([]);
+    await buyer.context().close();
+  });
+
   it('uses a rejected lot as is under a current deviation picked from the register, which then shows the use', async () => {
     const pair = await supplierPart();
     const lotId = await rejectedSample(pair);

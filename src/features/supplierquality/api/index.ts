@@ -36,7 +36,7 @@ export const useApproveDeviation = (id: number) => useChange((input: DeviationAp
 
 export const useWithdrawDeviation = (id: number) => useChange((input: { reason: string }) => api<DeviationView>(`/deviations/${id}/withdrawal`, { body: input }));
 
-type Option = { id: number; name?: string; number?: string; description?: string };
+export type Option = { id: number; name?: string; number?: string; description?: string };
 
 /** Active suppliers or parts to choose from (the first 500 by name or number). */
 export const useOptions = (what: 'suppliers' | 'parts') =>

@@ -7,16 +7,25 @@ import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { showServerFieldErrors } from '@/lib/formErrors';
-import { useOptions, useSaveDeviation } from '../api';
+import { useOptions, useSaveDeviation, type Option } from '../api';
 
 type Props = { deviation?: DeviationView; preset?: { supplierId?: number; partId?: number }; onSaved(saved: DeviationView): void; onCancel(): void };
 
 const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 
-export function DeviationForm({ deviation, preset, onSaved, onCancel }: Props) {
-  const save = useSaveDeviation(deviation?.id);
+export function DeviationForm(props: Props) {
   const suppliers = useOptions('suppliers');
   const parts = useOptions('parts');
+  const failed = suppliers.error ?? parts.error;
+  if (failed) return <Notice tone="error">{failed.message}</Notice>;
+  // The selects show the chosen supplier and part only once their options exist.
+  if (!suppliers.data || !parts.data) return <p className="text-sm text-ink-muted">Loading suppliers and parts…</p>;
+  return <LoadedForm {...props} suppliers={suppliers.data.data} parts={parts.data.data} />;
+}
+
+
+function LoadedForm({ deviation, preset, onSaved, onCancel, suppliers, parts }: Props & { suppliers: Option[]; parts: Option[] }) {
+  const save = useSaveDeviation(deviation?.id);
   const form = useForm<DeviationInput>({
     resolver: zodResolver(deviationInputSchema),
     defaultValues: deviation
@@ -41,7 +50,7 @@ export function DeviationForm({ deviation, preset, onSaved, onCancel }: Props) {
         <Field label="Supplier" htmlFor="deviation-supplier" error={errors.supplierId?.message}>
           <select id="deviation-supplier" className={inputClass} {...form.register('supplierId')}>
             <option value="">Choose…</option>
-            {suppliers.data?.data.map((s) => (
+            {suppliers.map((s) => (
               <option key={s.id} value={s.id}>
                 {s.name}
               </option>
@@ -51,7 +60,7 @@ export function DeviationForm({ deviation, preset, onSaved, onCancel }: Props) {
         <Field label="Part" htmlFor="deviation-part" error={errors.partId?.message}>
           <select id="deviation-part" className={inputClass} {...form.register('partId')}>
             <option value="">Choose…</option>
-            {parts.data?.data.map((p) => (
+            {parts.map((p) => (
               <option key={p.id} value={p.id}>
                 {p.number} · {p.description}
               </option>
