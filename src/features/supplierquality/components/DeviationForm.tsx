@@ -46,7 +46,7 @@ function LoadedForm({ deviation, preset, onSaved, onCancel, suppliers, parts }: 
     <form onSubmit={submit} noValidate aria-label={deviation ? `Edit ${deviation.number}` : 'New deviation'} className="mb-4 space-y-3 rounded border border-paper-line bg-paper-card p-4">
       <h2>{deviation ? `Correct ${deviation.number}` : 'New deviation'}</h2>
       {save.error && <Notice tone="error">{save.error.message}</Notice>}
-      <div className="grid gap-3 sm:grid-cols-2">
+      <div className="grid gap-3 *:min-w-0 sm:grid-cols-2">
         <Field label="Supplier" htmlFor="deviation-supplier" error={errors.supplierId?.message}>
           <select id="deviation-supplier" className={inputClass} {...form.register('supplierId')}>
             <option value="">Choose…</option>
@@ -71,7 +71,7 @@ function LoadedForm({ deviation, preset, onSaved, onCancel, suppliers, parts }: 
       <Field label="What it allows" htmlFor="deviation-allowed" hint="The departure from the ordered specification, and where such pieces may be used." error={errors.allowed?.message}>
         <textarea id="deviation-allowed" rows={3} className={inputClass} {...form.register('allowed')} />
       </Field>
-      <div className="grid gap-3 sm:grid-cols-4">
+      <div className="grid gap-3 *:min-w-0 sm:grid-cols-4">
         <Field label="Retardance tolerance (± waves)" htmlFor="deviation-retardance" hint="Optional: the widened tolerance." error={errors.retardanceTolWaves?.message}>
           <input id="deviation-retardance" inputMode="decimal" className={`${inputClass} font-mono`} {...form.register('retardanceTolWaves')} />
         </Field>

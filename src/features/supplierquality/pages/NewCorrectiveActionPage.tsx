@@ -59,7 +59,7 @@ export function NewCorrectiveActionPage() {
                   />
                   <span className="font-mono font-medium">{n.number}</span>
                   <span>{n.supplierName} · {n.partNumber}{n.lotId ? ` · ${lotName(n.lotId)}` : ''}</span>
-                  <span className="text-xs text-ink-muted">{n.pieces} piece{n.pieces === 1 ? '' : 's'}; {n.defects.join(', ')}</span>
+                  <span className="text-xs text-ink-muted">{[`${n.pieces} piece${n.pieces === 1 ? '' : 's'}`, ...n.defects].join('; ')}</span>
                 </label>
               </li>
             ))}
