@@ -72,5 +72,11 @@ describe('supplier performance in the browser', () => {
     await axis.getByText('Lot means', { exact: true }).waitFor();
     await page.screenshot({ path: join(shots, 'supplier-390.png'), fullPage: true });
     console.log(`supplier-performance screenshots: ${shots}`);
+
+    // The supplier list of purchasing leads there too.
+    await page.setViewportSize({ width: 1400, height: 900 });
+    await page.goto(`${rig.baseUrl}/purchasing/suppliers`);
+    await page.getByRole('row').filter({ hasText: 'Corvane Polarisation Works' }).getByRole('link', { name: 'Scorecard and drift' }).click();
+    await page.getByRole('heading', { name: 'Corvane Polarisation Works' }).waitFor();
   });
 });

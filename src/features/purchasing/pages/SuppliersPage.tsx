@@ -22,6 +22,7 @@ export function SuppliersPage() {
   const { data: user } = useSession();
   const mayEdit = can(user, 'catalog.write');
   const maySeeSwitching = can(user, 'switching.read');
+  const maySeePerformance = can(user, 'suppliers.performance');
   const { state, update, params } = useListState({ sort: 'name' });
   const active = params.get('active') ?? undefined;
   const suppliers = useSuppliers({ ...state, active });
@@ -47,8 +48,21 @@ export function SuppliersPage() {
             }),
           ]
         : []),
+      ...(maySeePerformance
+        ? [
+            column.display({
+              id: 'performance',
+              header: 'Performance',
+              cell: ({ row }) => (
+                <Link to={`/supplier-performance/${row.original.id}`} onClick={(e) => e.stopPropagation()} className="text-xs whitespace-nowrap">
+                  Scorecard and drift
+                </Link>
+              ),
+            }),
+          ]
+        : []),
     ],
-    [maySeeSwitching],
+    [maySeeSwitching, maySeePerformance],
   );
   return (
     <div>
