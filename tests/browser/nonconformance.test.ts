@@ -1,6 +1,7 @@
 // The NCR pages as the quality manager uses them: open an NCR for a plate found failing at assembly,
 // then on a rejected lot's NCR disposition the failed pieces (a wrong password first), return the rest
-// and ship them back under the supplier's RMA. Screenshots at desktop and phone widths.
+// and ship them back under the supplier's RMA; the clerk receives the replacement against the NCR and
+// the PO shows it. Screenshots at desktop and phone widths.
 import { mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -135,5 +136,34 @@ describe('the NCR pages in the browser', () => {
     await page.getByRole('cell', { name: 'RMA-40417' }).waitFor();
     await page.screenshot({ path: join(shots, 'returns-desktop.png'), fullPage: true });
     await page.context().close();
+
+    // The replacement arrives: the clerk names the NCR on the receiving form, beyond what the line expects.
+    const clerk = await signedInPage(rig, 'clerk');
+    await clerk.goto(`${rig.baseUrl}/receiving/new`);
+    const receive = clerk.getByRole('form', { name: 'Receive shipment' });
+    const lineOption = receive.getByLabel('PO line').locator('option', { hasText: `${lot.poNumber} / 1 ` });
+    await receive.getByLabel('PO line').selectOption((await lineOption.getAttribute('value'))!);
+    await receive.getByLabel('Replacement for an NCR (optional)').selectOption({ label: `${ncrNumber} · 11 pieces owed` });
+    await receive.getByLabel('Packing-slip number').fill('PS-REPL-40417');
+    await receive.getByLabel("Supplier's lot number").fill('SL-REPL-1');
+    await receive.getByLabel('Quantity').fill('11');
+    await receive.getByLabel('Serial numbers', { exact: true }).fill(`R${lot.serials[0]}..R${lot.serials[10]}`);
+    expect(await receive.getByText('More than the line expects').count()).toBe(0);
+    await clerk.screenshot({ path: join(shots, 'receive-replacement-desktop.png'), fullPage: true });
+    await receive.getByRole('button', { name: 'Receive into quarantine' }).click();
+    await clerk.waitForURL(/\/lots\/\d+\?received=1/);
+    await clerk.context().close();
+
+    const buyer = await signedInPage(rig, 'buyer');
+    const [{ poId }] = await sequelize.query<{ poId: number }>('SELECT id AS "poId" FROM purchase_orders WHERE number = :number', {
+      type: QueryTypes.SELECT,
+      replacements: { number: lot.poNumber },
+    });
+    await buyer.goto(`${rig.baseUrl}/purchasing/orders/${poId}`);
+    await buyer.getByText('11 for pieces returned').waitFor();
+    await buyer.screenshot({ path: join(shots, 'po-replaced-desktop.png'), fullPage: true });
+    await buyer.setViewportSize({ width: 390, height: 844 });
+    await buyer.screenshot({ path: join(shots, 'po-replaced-390.png'), fullPage: true });
+    await buyer.context().close();
   });
 });
