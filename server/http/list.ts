@@ -22,6 +22,11 @@ export type ListDefinition<Row, Query extends ListQuery = ListQuery> = {
   select: string;
   /** FROM with its JOINs. */
   from: string;
+  /** Work per row that no filter needs (counts over a lot's pieces, say), done for the rows of a page
+   * only, once it is cut: output columns (`select`) and the joins that give them (`from`), written
+   * against the row's own output columns as `page."column"`. A sort by one of its columns (`sortable`,
+   * naming `from`'s aliases) and the totals have it done for every matching row. */
+  late?: { select: string; from: string; sortable?: Record<string, string> };
   /** Sort keys the client may send, each with the SQL it orders by. */
   sortable: Record<string, string>;
   /** Sort keys whose SQL is never NULL: ordered without NULLS LAST, so that one ordinary index
@@ -61,14 +66,14 @@ export function sortOf(sortable: Record<string, string>, requested: string) {
   return { expression, direction: requested.startsWith('-') ? 'DESC' : 'ASC' };
 }
 
-function orderOf<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, sort: string | undefined) {
-  const requested = sort || definition.defaultSort;
-  const { expression, direction } = sortOf(definition.sortable, requested);
-  const nulls = definition.notNull?.includes(requested.replace(/^-/, '')) ? '' : ' NULLS LAST';
-  return `${expression} ${direction}${nulls}, ${definition.tieBreaker} ${direction}`;
-}
-
-function baseQuery<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query) {
+/** The SQL of a stretch of the list in its order (`LIMIT :limit OFFSET :offset`), and of all its
+ * rows (what totals are summed over), with their replacements. */
+function listSql<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query) {
+  const requested = query.sort || definition.defaultSort;
+  const key = requested.replace(/^-/, '');
+  const lateSortable = definition.late?.sortable ?? {};
+  const { expression, direction } = sortOf({ ...definition.sortable, ...lateSortable }, requested);
+  const nulls = definition.notNull?.includes(key) ? '' : ' NULLS LAST';
   const filters = definition.filters?.(query) ?? { clauses: [], replacements: {} };
   const clauses = [...filters.clauses];
   const replacements: Record<string, unknown> = { ...filters.replacements };
@@ -77,7 +82,20 @@ function baseQuery<Row, Query extends ListQuery>(definition: ListDefinition<Row,
     replacements.q = containing(query.q);
   }
   const where = clauses.length ? `WHERE ${clauses.join(' AND ')}` : '';
-  return { sql: `SELECT ${definition.select} FROM ${definition.from} ${where}`, replacements };
+  const rows = (extra = '') => `SELECT ${definition.select}${extra} FROM ${definition.from} ${where}`;
+  const { late, tieBreaker } = definition;
+  if (!late) {
+    const all = rows();
+    return { stretch: `${all} ORDER BY ${expression} ${direction}${nulls}, ${tieBreaker} ${direction} LIMIT :limit OFFSET :offset`, all, replacements };
+  }
+  const withLate = (page: string) => `SELECT page.*, ${late.select} FROM (${page}) page ${late.from}`;
+  const all = withLate(rows(`, ${tieBreaker} AS "__tie"`));
+  if (Object.hasOwn(lateSortable, key)) {
+    return { stretch: `${all} ORDER BY ${expression} ${direction}${nulls}, page."__tie" ${direction} LIMIT :limit OFFSET :offset`, all, replacements };
+  }
+  // The stretch is cut from the rows alone, in an order an index may give; the late work joins it.
+  const cut = `${rows(`, ${expression} AS "__sort", ${tieBreaker} AS "__tie"`)} ORDER BY ${expression} ${direction}${nulls}, ${tieBreaker} ${direction} LIMIT :limit OFFSET :offset`;
+  return { stretch: `${withLate(cut)} ORDER BY page."__sort" ${direction}${nulls}, page."__tie" ${direction}`, all, replacements };
 }
 
 /** A page of a list: `total` is the number of matching rows when `totalExact`, otherwise at least
@@ -97,9 +115,8 @@ export function uncountedPage<Row>(rows: Row[], query: ListQuery): ListPage<Row>
 }
 
 export async function listPage<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query): Promise<ListPage<Row>> {
-  const order = orderOf(definition, query.sort);
-  const { sql, replacements } = baseQuery(definition, query);
-  const rows = await sequelize.query<Record<string, unknown>>(`${sql} ORDER BY ${order} LIMIT :limit OFFSET :offset`, {
+  const { stretch, all, replacements } = listSql(definition, query);
+  const rows = await sequelize.query<Record<string, unknown>>(stretch, {
     type: QueryTypes.SELECT,
     replacements: { ...replacements, limit: query.pageSize + 1, offset: (query.page - 1) * query.pageSize },
   });
@@ -107,7 +124,7 @@ export async function listPage<Row, Query extends ListQuery>(definition: ListDef
   const page = uncountedPage(presented, query);
   if (page) return page;
   const totalColumns = Object.entries(definition.totals ?? {}).map(([name, expression]) => `, ${expression} AS "${name}"`).join('');
-  const [summary] = await sequelize.query<Record<string, string | null>>(`SELECT count(*) AS total${totalColumns} FROM (${sql}) AS listed`, {
+  const [summary] = await sequelize.query<Record<string, string | null>>(`SELECT count(*) AS total${totalColumns} FROM (${all}) AS listed`, {
     type: QueryTypes.SELECT,
     replacements,
   });
@@ -118,11 +135,10 @@ export async function listPage<Row, Query extends ListQuery>(definition: ListDef
 /** Every row the filter matches, in the list's order, read in batches. The query is checked at
  * once (a bad sort fails before any CSV is sent); rows are read as they are consumed. */
 export function listAll<Row, Query extends ListQuery>(definition: ListDefinition<Row, Query>, query: Query, batchSize = 1000): AsyncGenerator<Row> {
-  const order = orderOf(definition, query.sort);
-  const { sql, replacements } = baseQuery(definition, query);
+  const { stretch, replacements } = listSql(definition, query);
   return (async function* () {
     for (let offset = 0; ; offset += batchSize) {
-      const rows = await sequelize.query<Record<string, unknown>>(`${sql} ORDER BY ${order} LIMIT :limit OFFSET :offset`, {
+      const rows = await sequelize.query<Record<string, unknown>>(stretch, {
         type: QueryTypes.SELECT,
         replacements: { ...replacements, limit: batchSize, offset },
       });

@@ -8,14 +8,19 @@ import { AWAITING_RESUMPTION } from './lots';
 
 export const shipmentList: ListDefinition<ShipmentRow & { lotIds: number[] }, z.infer<typeof shipmentListQuerySchema>> = {
   select: `sh.id, sh.received_at AS "receivedAt", po.number AS "poNumber", s.name AS "supplierName", sh.packing_slip AS "packingSlip",
-    sh.carrier, u.name AS "receivedBy", t.lots, t.pieces, t.lot_ids AS "lotIds"`,
+    sh.carrier, u.name AS "receivedBy"`,
   from: `shipments sh
     JOIN purchase_orders po ON po.id = sh.purchase_order_id
     JOIN suppliers s ON s.id = po.supplier_id
-    LEFT JOIN users u ON u.id = sh.received_by
-    CROSS JOIN LATERAL (SELECT count(*) AS lots, coalesce(sum(l.quantity), 0) AS pieces, array_agg(l.id ORDER BY l.id) AS lot_ids
-      FROM lots l WHERE l.shipment_id = sh.id) AS t`,
-  sortable: { receivedAt: 'sh.received_at', poNumber: 'po.number', supplierName: 's.name', packingSlip: 'sh.packing_slip', carrier: 'sh.carrier', pieces: 't.pieces' },
+    LEFT JOIN users u ON u.id = sh.received_by`,
+  // The shipment's lots, gathered for the shipments a page shows.
+  late: {
+    select: 't.lots, t.pieces, t.lot_ids AS "lotIds"',
+    from: `CROSS JOIN LATERAL (SELECT count(*) AS lots, coalesce(sum(l.quantity), 0) AS pieces, array_agg(l.id ORDER BY l.id) AS lot_ids
+      FROM lots l WHERE l.shipment_id = page.id) AS t`,
+    sortable: { pieces: 't.pieces' },
+  },
+  sortable: { receivedAt: 'sh.received_at', poNumber: 'po.number', supplierName: 's.name', packingSlip: 'sh.packing_slip', carrier: 'sh.carrier' },
   notNull: ['receivedAt'],
   defaultSort: '-receivedAt',
   tieBreaker: 'sh.id',
@@ -52,14 +57,19 @@ export const shipmentList: ListDefinition<ShipmentRow & { lotIds: number[] }, z.
 export const lotList: ListDefinition<LotRow, LotListQuery> = {
   select: `l.id, l.supplier_lot AS "supplierLot", l.state, l.quantity, p.number AS "partNumber", p.description AS "partDescription",
     s.name AS "supplierName", po.number AS "poNumber", pol.line_number AS "lineNumber", sh.received_at AS "receivedAt",
-    ${AWAITING_RESUMPTION} AS "acceptanceDiscontinued", q.accepted, q.nonconforming, q.returned`,
+    ${AWAITING_RESUMPTION} AS "acceptanceDiscontinued"`,
   from: `lots l
     JOIN shipments sh ON sh.id = l.shipment_id
     JOIN purchase_order_lines pol ON pol.id = l.po_line_id
     JOIN purchase_orders po ON po.id = pol.purchase_order_id
     JOIN suppliers s ON s.id = po.supplier_id
-    JOIN parts p ON p.id = l.part_id
-    CROSS JOIN LATERAL ${pieceQuantitiesSql('pc.lot_id = l.id')} AS q`,
+    JOIN parts p ON p.id = l.part_id`,
+  // What became of the lot's pieces: counted for the lots a page shows.
+  late: {
+    select: 'q.accepted, q.nonconforming, q.returned',
+    from: `CROSS JOIN LATERAL ${pieceQuantitiesSql('pc.lot_id = page.id')} AS q`,
+    sortable: { accepted: 'q.accepted', nonconforming: 'q.nonconforming', returned: 'q.returned' },
+  },
   sortable: {
     id: 'l.id',
     supplierLot: 'l.supplier_lot',
@@ -70,9 +80,6 @@ export const lotList: ListDefinition<LotRow, LotListQuery> = {
     poNumber: 'po.number',
     // The lot's copy of its shipment's receipt time, which an index of the lots keeps in order.
     receivedAt: 'l.received_at',
-    accepted: 'q.accepted',
-    nonconforming: 'q.nonconforming',
-    returned: 'q.returned',
   },
   notNull: ['id', 'receivedAt'],
   defaultSort: '-receivedAt',

@@ -20,6 +20,21 @@ describe('/api/lots', () => {
     expect(csv.text.replace(/^\uFEFF/, '').split('\n')[1]).toMatch(new RegExp(`^L-${lot.lotId},`));
   });
 
+  it('pages in order by the lot’s own columns and by what became of its pieces, without overlap', async () => {
+    const auditor = await as('auditor');
+    await receiveThroughApi(3);
+    type Listed = { id: number; accepted: number; receivedAt: string };
+    for (const [sort, value] of [['-accepted', (l: Listed) => l.accepted], ['accepted', (l: Listed) => l.accepted], ['-receivedAt', (l: Listed) => l.receivedAt], ['receivedAt', (l: Listed) => l.receivedAt]] as const) {
+      const page = async (n: number) => (await auditor.get('/api/lots').query({ sort, pageSize: 3, page: n }).expect(200)).body.data as Listed[];
+      const lots = [...(await page(1)), ...(await page(2))];
+      expect(lots).toHaveLength(6);
+      expect(new Set(lots.map((l) => l.id)).size).toBe(6);
+      const values = lots.map(value);
+      const ordered = [...values].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+      expect(values).toEqual(sort.startsWith('-') ? ordered.reverse() : ordered);
+    }
+  });
+
   it('shows a lot with its PO line, frozen specification, pieces and attachments', async () => {
     const lot = await receiveThroughApi(2);
     const view = (await (await as('inspector')).get(`/api/lots/${lot.lotId}`).expect(200)).body;
