@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { stokesBenchFile } from '../../db/seeders/benchFiles';
 import { as, freshUser } from '../helpers/api';
+import { approvedDeviation } from '../helpers/deviations';
 import { receivedLot } from '../helpers/receivedLot';
 import { signedInPage, startBrowserRig, type BrowserRig } from './browser';
 
@@ -41,13 +42,15 @@ const currentDecision = async (lotId: number) => (await (await as('quality')).ge
 describe('signing a lot disposition in the browser', () => {
   it('keeps what was typed after a wrong password, shows the signed decision after the right one, and supersedes only on purpose', async () => {
     const lot = await lotProposingRejection();
+    // Use as is needs a current, approved deviation of the register for the lot's supplier and part.
+    const deviation = await approvedDeviation(lot.supplierId, lot.partId);
     const page = await signedInPage(rig, 'quality');
     const signer = (await page.getByTestId('signed-in-user').textContent())!.trim();
     await page.goto(`${rig.baseUrl}/inspection/lots/${lot.lotId}`);
 
     const form = page.getByRole('form', { name: 'Sign disposition' });
     await form.getByLabel('Use as is (deviation)').check();
-    await form.getByLabel('Deviation number').fill('DEV-0417');
+    await form.getByLabel('Deviation', { exact: true }).selectOption(String(deviation.id));
     await form.getByLabel('Justification').fill('Retardance within the limit of the assembly drawing, rev. C');
     await form.getByLabel(/I have read the meaning/).check();
     await form.getByLabel(/Your password/).fill('not-my-password');
@@ -56,7 +59,7 @@ describe('signing a lot disposition in the browser', () => {
     // The server's refusal is shown, everything typed but the password stays, and nothing was signed.
     await form.getByRole('alert').filter({ hasText: 'The password does not match' }).waitFor();
     expect(await form.getByLabel('Use as is (deviation)').isChecked()).toBe(true);
-    expect(await form.getByLabel('Deviation number').inputValue()).toBe('DEV-0417');
+    expect(await form.getByLabel('Deviation', { exact: true }).inputValue()).toBe(String(deviation.id));
     expect(await form.getByLabel('Justification').inputValue()).toBe('Retardance within the limit of the assembly drawing, rev. C');
     expect(await form.getByLabel(/I have read the meaning/).isChecked()).toBe(true);
     expect(await form.getByLabel(/Your password/).inputValue()).toBe('');
@@ -75,7 +78,7 @@ describe('signing a lot disposition in the browser', () => {
     expect(text).toContain(`signed by ${signer}`);
     expect(text).toContain('I release this nonconforming lot for use as is under the deviation stated');
     expect(text).toContain('Retardance within the limit of the assembly drawing, rev. C');
-    expect(text).toContain('DEV-0417');
+    expect(text).toContain(deviation.number);
     const signed = await currentDecision(lot.lotId);
     expect(signed.decision).toBe('use-as-is');
     const documents = (await (await as('quality')).get(`/api/inspection/lots/${lot.lotId}`).expect(200)).body.documents as { number: string; revokedAt: string | null }[];
