@@ -12,7 +12,9 @@ import { submitSupplierResponse } from '../../server/supplierquality/supplierRes
 const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 
 async function demoUsers() {
-  const [buyer, quality, admin] = await Promise.all(['buyer', 'quality', 'admin'].map((role) => User.findOne({ where: { email: `${role}@phaselot.test` }, rejectOnEmpty: true })));
+  const [buyer, quality, admin] = await Promise.all(
+    ['buyer', 'quality', 'admin'].map((role) => User.findOne({ where: { email: `${role}@phaselot.test` }, rejectOnEmpty: true })),
+  );
   return { buyer, quality, admin };
 }
 

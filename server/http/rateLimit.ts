@@ -56,7 +56,11 @@ export function addressRateLimit(name: string, limit: number, windowMinutes: num
     handler: (req, _res, next) => {
       const resetTime = (req as typeof req & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime;
       const seconds = Math.max(1, Math.ceil(((resetTime?.getTime() ?? Date.now() + 60_000) - Date.now()) / 1000));
-      next(new AppError(429, 'too_many_requests', `Too many requests from your network address. Try again in ${waitText(seconds)}.`, { retryAfterSeconds: seconds }));
+      next(
+        new AppError(429, 'too_many_requests', `Too many requests from your network address. Try again in ${waitText(seconds)}.`, {
+          retryAfterSeconds: seconds,
+        }),
+      );
     },
   });
 }

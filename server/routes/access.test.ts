@@ -20,7 +20,7 @@ const PUBLIC: Record<string, number[]> = {
   'POST /api/auth/password-reset': [400],
   'GET /api/certificates/verify': [400],
   // The supplier's answer to a corrective-action request, through the mailed link (no token: refused).
-  'GET /api/corrective-actions/respond': [401],
+  'GET /api/corrective-actions/respond': [400],
   'POST /api/corrective-actions/respond': [400],
 };
 

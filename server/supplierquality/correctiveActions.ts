@@ -44,7 +44,10 @@ export async function buyerAndQuality(request: CorrectiveAction, transaction: Tr
 }
 
 async function subjectOf(request: CorrectiveAction, transaction: Transaction) {
-  const [supplier, part] = await Promise.all([Supplier.findByPk(request.supplierId, { transaction, rejectOnEmpty: true }), Part.findByPk(request.partId, { transaction, rejectOnEmpty: true })]);
+  const [supplier, part] = await Promise.all([
+    Supplier.findByPk(request.supplierId, { transaction, rejectOnEmpty: true }),
+    Part.findByPk(request.partId, { transaction, rejectOnEmpty: true }),
+  ]);
   return { supplier, part };
 }
 
@@ -95,7 +98,10 @@ export function raiseCorrectiveAction(actor: AuditActor, rawInput: CarRaiseInput
     const missing = ids.filter((id) => !ncrs.some((n) => n.id === id));
     if (missing.length) throw badRequest(`No NCR with id ${missing.join(', ')}`, [{ path: 'nonconformanceIds', message: 'Choose existing NCRs' }]);
     const pairs = new Set(ncrs.map((n) => `${n.supplierId}/${n.partId}`));
-    if (pairs.size > 1) throw badRequest(`A corrective-action request covers one supplier's part: ${ncrs.map((n) => n.number).join(', ')} are not all of the same supplier and part`);
+    if (pairs.size > 1)
+      throw badRequest(
+        `A corrective-action request covers one supplier's part: ${ncrs.map((n) => n.number).join(', ')} are not all of the same supplier and part`,
+      );
     const [{ supplierId, partId }] = ncrs;
     const covered = await sequelize.query<{ ncr: string; car: string }>(
       `SELECT n.number AS ncr, ca.number AS car FROM corrective_action_nonconformances c
@@ -108,18 +114,41 @@ export function raiseCorrectiveAction(actor: AuditActor, rawInput: CarRaiseInput
     if (!supplier.qualityContactEmail) throw conflict(`${supplier.name} has no quality contact: add the address on the supplier's page first`);
 
     const request = await CorrectiveAction.create(
-      { number: await nextYearlyNumber('CAR', transaction), supplierId, partId, problem: input.problem, responseDueOn: input.responseDueOn, sentTo: supplier.qualityContactEmail, requestedBy: actor.id! },
+      {
+        number: await nextYearlyNumber('CAR', transaction),
+        supplierId,
+        partId,
+        problem: input.problem,
+        responseDueOn: input.responseDueOn,
+        sentTo: supplier.qualityContactEmail,
+        requestedBy: actor.id!,
+      },
       { transaction },
     );
-    await sequelize.query('INSERT INTO corrective_action_nonconformances (corrective_action_id, nonconformance_id) SELECT :id, unnest(ARRAY[:ids]::integer[])', {
-      transaction,
-      replacements: { id: request.id, ids },
-    });
+    await sequelize.query(
+      'INSERT INTO corrective_action_nonconformances (corrective_action_id, nonconformance_id) SELECT :id, unnest(ARRAY[:ids]::integer[])',
+      {
+        transaction,
+        replacements: { id: request.id, ids },
+      },
+    );
     const { link, url } = await issueLink(request, actor.id, transaction);
     await mailLink(request, url, 'request', null, transaction);
     await recordAudit(
       actor,
-      { action: 'corrective-action.raise', entityType: 'corrective-action', entityId: request.id, after: { number: request.number, ncrs: ncrs.map((n) => n.number), sentTo: request.sentTo, responseDueOn: request.responseDueOn, linkId: link.id, linkExpiresAt: link.expiresAt.toISOString() } },
+      {
+        action: 'corrective-action.raise',
+        entityType: 'corrective-action',
+        entityId: request.id,
+        after: {
+          number: request.number,
+          ncrs: ncrs.map((n) => n.number),
+          sentTo: request.sentTo,
+          responseDueOn: request.responseDueOn,
+          linkId: link.id,
+          linkExpiresAt: link.expiresAt.toISOString(),
+        },
+      },
       transaction,
     );
     return request;
@@ -127,7 +156,11 @@ export function raiseCorrectiveAction(actor: AuditActor, rawInput: CarRaiseInput
 }
 
 async function liveLink(requestId: number, transaction: Transaction) {
-  return CorrectiveActionLink.findOne({ where: { correctiveActionId: requestId, revokedAt: { [Op.is]: null }, submittedAt: { [Op.is]: null } }, transaction, lock: transaction.LOCK.UPDATE });
+  return CorrectiveActionLink.findOne({
+    where: { correctiveActionId: requestId, revokedAt: { [Op.is]: null }, submittedAt: { [Op.is]: null } },
+    transaction,
+    lock: transaction.LOCK.UPDATE,
+  });
 }
 
 /** The buyer withdraws the request's link: it answers nothing from now on. */
@@ -138,7 +171,11 @@ export function revokeLink(actor: AuditActor, id: number) {
     if (!link) throw conflict(`${request.number} has no link to revoke`);
     link.set({ revokedAt: new Date(), revokedBy: actor.id });
     await link.save({ transaction });
-    await recordAudit(actor, { action: 'corrective-action.link-revoke', entityType: 'corrective-action', entityId: id, after: { linkId: link.id } }, transaction);
+    await recordAudit(
+      actor,
+      { action: 'corrective-action.link-revoke', entityType: 'corrective-action', entityId: id, after: { linkId: link.id } },
+      transaction,
+    );
     return request;
   });
 }
@@ -155,7 +192,16 @@ export function sendNewLink(actor: AuditActor, id: number) {
     }
     const { link, url } = await issueLink(request, actor.id, transaction);
     await mailLink(request, url, 'new-link', null, transaction);
-    await recordAudit(actor, { action: 'corrective-action.link-new', entityType: 'corrective-action', entityId: id, after: { linkId: link.id, revokedLinkId: old?.id ?? null, sentTo: request.sentTo } }, transaction);
+    await recordAudit(
+      actor,
+      {
+        action: 'corrective-action.link-new',
+        entityType: 'corrective-action',
+        entityId: id,
+        after: { linkId: link.id, revokedLinkId: old?.id ?? null, sentTo: request.sentTo },
+      },
+      transaction,
+    );
     return request;
   });
 }
@@ -167,8 +213,18 @@ export async function reviewResponse(signer: User, id: number, input: CarReviewI
   return inTransaction(async (transaction) => {
     const car = await lockedRequest(id, transaction);
     if (car.status !== 'responded') throw conflict(`${car.number} has no answer waiting for review`);
-    const response = await CorrectiveActionResponse.findOne({ where: { correctiveActionId: id, review: { [Op.is]: null } }, order: [['submittedAt', 'DESC']], transaction, rejectOnEmpty: true });
-    response.set({ review: input.decision === 'accept' ? 'accepted' : 'returned', reviewedBy: signer.id, reviewedAt: new Date(), reviewNote: input.note || null });
+    const response = await CorrectiveActionResponse.findOne({
+      where: { correctiveActionId: id, review: { [Op.is]: null } },
+      order: [['submittedAt', 'DESC']],
+      transaction,
+      rejectOnEmpty: true,
+    });
+    response.set({
+      review: input.decision === 'accept' ? 'accepted' : 'returned',
+      reviewedBy: signer.id,
+      reviewedAt: new Date(),
+      reviewNote: input.note || null,
+    });
     await response.save({ transaction });
     if (input.decision === 'accept') {
       car.set({ status: 'accepted', acceptedBy: signer.id, acceptedAt: new Date(), updatedAt: new Date() });
@@ -205,14 +261,27 @@ export async function closeCorrectiveAction(signer: User, id: number, rawInput: 
     const later = new Set((await laterLots(car, transaction)).filter((l) => l.decision !== null).map((l) => l.id));
     const outside = lotIds.filter((lotId) => !later.has(lotId));
     if (outside.length) {
-      throw badRequest(`Only decided lots of this supplier's part received after the answer was accepted show whether it worked: ${outside.map(lotName).join(', ')} ${outside.length === 1 ? 'is' : 'are'} not one`, [
-        { path: 'lotIds', message: 'Choose later, decided lots' },
-      ]);
+      throw badRequest(
+        `Only decided lots of this supplier's part received after the answer was accepted show whether it worked: ${outside.map(lotName).join(', ')} ${outside.length === 1 ? 'is' : 'are'} not one`,
+        [{ path: 'lotIds', message: 'Choose later, decided lots' }],
+      );
     }
-    await sequelize.query('INSERT INTO corrective_action_checked_lots (corrective_action_id, lot_id) SELECT :id, unnest(ARRAY[:lotIds]::integer[])', { transaction, replacements: { id, lotIds } });
+    await sequelize.query('INSERT INTO corrective_action_checked_lots (corrective_action_id, lot_id) SELECT :id, unnest(ARRAY[:lotIds]::integer[])', {
+      transaction,
+      replacements: { id, lotIds },
+    });
     car.set({ status: 'closed', closedBy: signer.id, closedAt: new Date(), effectivenessNote: input.note, updatedAt: new Date() });
     await car.save({ transaction });
-    await recordAudit(actor, { action: 'corrective-action.close', entityType: 'corrective-action', entityId: id, after: { lots: lotIds, note: input.note, meaning: CAR_CLOSE_MEANING } }, transaction);
+    await recordAudit(
+      actor,
+      {
+        action: 'corrective-action.close',
+        entityType: 'corrective-action',
+        entityId: id,
+        after: { lots: lotIds, note: input.note, meaning: CAR_CLOSE_MEANING },
+      },
+      transaction,
+    );
     return car;
   });
 }
@@ -233,7 +302,11 @@ export async function laterLots(car: CorrectiveAction, transaction?: Transaction
 /** An accepted (or closed) request of the supplier's part, for a resumption of inspection to rest on. */
 export async function acceptedRequestFor(id: number, supplierId: number, partId: number, transaction: Transaction) {
   const car = await CorrectiveAction.findByPk(id, { transaction });
-  if (!car || car.supplierId !== supplierId || car.partId !== partId) throw badRequest('Choose a corrective-action request of this supplier and part', [{ path: 'correctiveActionId', message: 'Not a request of this supplier and part' }]);
-  if (car.status !== 'accepted' && car.status !== 'closed') throw conflict(`${car.number} is not accepted: the supplier's answer must be accepted before inspection resumes on it`);
+  if (!car || car.supplierId !== supplierId || car.partId !== partId)
+    throw badRequest('Choose a corrective-action request of this supplier and part', [
+      { path: 'correctiveActionId', message: 'Not a request of this supplier and part' },
+    ]);
+  if (car.status !== 'accepted' && car.status !== 'closed')
+    throw conflict(`${car.number} is not accepted: the supplier's answer must be accepted before inspection resumes on it`);
   return car;
 }

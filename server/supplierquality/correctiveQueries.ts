@@ -37,7 +37,14 @@ function presentRow(r: Record<string, unknown>): CarRow {
 export const correctiveActionList: ListDefinition<CarRow, CarListQuery> = {
   select: SELECT,
   from: FROM,
-  sortable: { number: 'ca.number', supplier: 's.name', part: 'p.number', status: 'ca.status', responseDueOn: 'ca.response_due_on', requestedAt: 'ca.requested_at' },
+  sortable: {
+    number: 'ca.number',
+    supplier: 's.name',
+    part: 'p.number',
+    status: 'ca.status',
+    responseDueOn: 'ca.response_due_on',
+    requestedAt: 'ca.requested_at',
+  },
   defaultSort: '-requestedAt',
   tieBreaker: 'ca.id',
   search: ['ca.number', 's.name', 'p.number', 'ca.problem', `array_to_string(linked.ncrs, ' ') ILIKE :q`],
@@ -77,7 +84,9 @@ export async function correctiveActionView(id: number): Promise<CarView> {
   if (!row) throw notFound('Corrective-action request');
   const car = await CorrectiveAction.findByPk(id, { rejectOnEmpty: true });
   const nameOf = async (userId: number | null) =>
-    userId === null ? null : ((await sequelize.query<Named>('SELECT name FROM users WHERE id = :userId', { type: QueryTypes.SELECT, replacements: { userId } }))[0]?.name ?? null);
+    userId === null
+      ? null
+      : ((await sequelize.query<Named>('SELECT name FROM users WHERE id = :userId', { type: QueryTypes.SELECT, replacements: { userId } }))[0]?.name ?? null);
   const nonconformances = await sequelize.query<{ id: number; number: string; lotId: number | null; description: string }>(
     `SELECT n.id, n.number, n.lot_id AS "lotId", n.description FROM corrective_action_nonconformances c JOIN nonconformances n ON n.id = c.nonconformance_id
       WHERE c.corrective_action_id = :id ORDER BY n.number`,

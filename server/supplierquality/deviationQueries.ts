@@ -50,7 +50,15 @@ function presentRow(r: Record<string, unknown>): DeviationRow {
 export const deviationList: ListDefinition<DeviationRow, DeviationListQuery> = {
   select: SELECT,
   from: FROM,
-  sortable: { number: 'dv.number', supplier: 's.name', part: 'p.number', expiresOn: 'dv.expires_on', quantityLeft: '(dv.quantity_limit - uses.used)', status: 'status', createdAt: 'dv.created_at' },
+  sortable: {
+    number: 'dv.number',
+    supplier: 's.name',
+    part: 'p.number',
+    expiresOn: 'dv.expires_on',
+    quantityLeft: '(dv.quantity_limit - uses.used)',
+    status: 'status',
+    createdAt: 'dv.created_at',
+  },
   defaultSort: '-createdAt',
   tieBreaker: 'dv.id',
   search: ['dv.number', 's.name', 'p.number', 'dv.allowed'],
@@ -104,8 +112,16 @@ export async function deviationView(id: number): Promise<DeviationView> {
     recordedBeforeRegister: Boolean(row.recordedBeforeRegister),
     createdBy: (row.createdBy as string | null) ?? null,
     createdAt: (row.createdAt as Date).toISOString(),
-    withdrawn: row.withdrawnAt ? { at: (row.withdrawnAt as Date).toISOString(), by: (row.withdrawnBy as string | null) ?? null, reason: String(row.withdrawalReason) } : null,
+    withdrawn: row.withdrawnAt
+      ? { at: (row.withdrawnAt as Date).toISOString(), by: (row.withdrawnBy as string | null) ?? null, reason: String(row.withdrawalReason) }
+      : null,
     approvalsSigned: approvals.map((a) => ({ slot: a.slot, approver: a.approver, meaning: a.meaning, signedAt: a.signedAt.toISOString() })),
-    uses: uses.map((u) => ({ lotId: u.lotId, source: u.ncr ? 'nonconformance' : 'lot', quantity: u.quantity, usedAt: u.usedAt.toISOString(), releasedAt: u.releasedAt?.toISOString() ?? null })),
+    uses: uses.map((u) => ({
+      lotId: u.lotId,
+      source: u.ncr ? 'nonconformance' : 'lot',
+      quantity: u.quantity,
+      usedAt: u.usedAt.toISOString(),
+      releasedAt: u.releasedAt?.toISOString() ?? null,
+    })),
   };
 }

@@ -42,7 +42,8 @@ async function lockedDeviation(id: number, transaction: Transaction) {
 }
 
 function refuseChangeTo(deviation: Deviation, what: string) {
-  if (deviation.recordedBeforeRegister) throw conflict(`Deviation ${deviation.number} was recorded before the register from an earlier decision: it cannot be ${what}`);
+  if (deviation.recordedBeforeRegister)
+    throw conflict(`Deviation ${deviation.number} was recorded before the register from an earlier decision: it cannot be ${what}`);
   if (deviation.withdrawnAt) throw conflict(`Deviation ${deviation.number} was withdrawn: it cannot be ${what}`);
 }
 
@@ -94,12 +95,21 @@ export async function approveDeviation(signer: User, id: number, input: Deviatio
     const approvals = await DeviationApproval.findAll({ where: { deviationId: id }, transaction });
     if (approvals.length >= 2) throw conflict(`Deviation ${deviation.number} is already approved by two people`);
     if (approvals.some((a) => a.approverId === signer.id)) {
-      throw conflict(`You approved deviation ${deviation.number} already: the second approval must come from another user (a quality manager or an administrator)`);
+      throw conflict(
+        `You approved deviation ${deviation.number} already: the second approval must come from another user (a quality manager or an administrator)`,
+      );
     }
     const slot: ApprovalSlot = approvals.length === 0 ? 'quality' : 'second';
     if (slot === 'quality' && !signer.hasRole('quality')) throw conflict(`The first approval of deviation ${deviation.number} is a quality manager's`);
-    const approval = await DeviationApproval.create({ deviationId: id, slot, approverId: signer.id, meaning: DEVIATION_APPROVAL_MEANINGS[slot] }, { transaction });
-    await recordAudit(actor, { action: 'deviation.approve', entityType: 'deviation', entityId: id, after: { slot, meaning: approval.meaning, approved: snapshot(deviation) } }, transaction);
+    const approval = await DeviationApproval.create(
+      { deviationId: id, slot, approverId: signer.id, meaning: DEVIATION_APPROVAL_MEANINGS[slot] },
+      { transaction },
+    );
+    await recordAudit(
+      actor,
+      { action: 'deviation.approve', entityType: 'deviation', entityId: id, after: { slot, meaning: approval.meaning, approved: snapshot(deviation) } },
+      transaction,
+    );
     return approval;
   });
 }

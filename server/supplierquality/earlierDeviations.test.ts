@@ -46,7 +46,8 @@ describe('migration 1050: earlier deviation numbers', () => {
 
     await rolledBack(async (transaction) => {
       const run = (sql: string, replacements: Record<string, unknown> = {}) => owner.query(sql, { transaction, replacements });
-      const select = <T extends object>(sql: string, replacements: Record<string, unknown> = {}) => owner.query<T>(sql, { transaction, replacements, type: QueryTypes.SELECT });
+      const select = <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
+        owner.query<T>(sql, { transaction, replacements, type: QueryTypes.SELECT });
       const ids = [first.dispositionId, second.dispositionId, third.dispositionId];
       // As before the register: a free-text number on each decision, no entry, no uses.
       await run('ALTER TABLE dispositions DROP CONSTRAINT dispositions_deviation_registered');
@@ -56,7 +57,15 @@ describe('migration 1050: earlier deviation numbers', () => {
       const created = await registerEarlierDeviations(owner, transaction);
       // One entry per number, supplier and part: the same number of two suppliers is two entries.
       expect(created).toHaveLength(2);
-      const entries = await select<{ id: number; number: string; supplierId: number; allowed: string; recorded: boolean; quantityLimit: number | null; expiresOn: string | null }>(
+      const entries = await select<{
+        id: number;
+        number: string;
+        supplierId: number;
+        allowed: string;
+        recorded: boolean;
+        quantityLimit: number | null;
+        expiresOn: string | null;
+      }>(
         `SELECT id, number, supplier_id AS "supplierId", allowed, recorded_before_register AS recorded, quantity_limit AS "quantityLimit", expires_on AS "expiresOn"
            FROM deviations WHERE id IN (:created) ORDER BY id`,
         { created },
@@ -64,9 +73,14 @@ describe('migration 1050: earlier deviation numbers', () => {
       const mine = entries.find((e) => e.supplierId === pair.supplierId)!;
       expect(mine).toMatchObject({ number: 'DEV-2025-07', recorded: true, quantityLimit: null, expiresOn: null });
       expect(mine.allowed).toBe(`${EARLIER_ENTRY_NOTE}s of L-${first.lotId}, L-${second.lotId}. Justification given: Harmless in the alignment jig build`);
-      expect(entries.find((e) => e.supplierId === other.supplierId)!.allowed).toBe(`${EARLIER_ENTRY_NOTE} of L-${third.lotId}. Justification given: Harmless in the alignment jig build`);
+      expect(entries.find((e) => e.supplierId === other.supplierId)!.allowed).toBe(
+        `${EARLIER_ENTRY_NOTE} of L-${third.lotId}. Justification given: Harmless in the alignment jig build`,
+      );
 
-      const tied = await select<{ id: number; deviationId: number }>('SELECT id, deviation_id AS "deviationId" FROM dispositions WHERE id IN (:ids) ORDER BY id', { ids });
+      const tied = await select<{ id: number; deviationId: number }>(
+        'SELECT id, deviation_id AS "deviationId" FROM dispositions WHERE id IN (:ids) ORDER BY id',
+        { ids },
+      );
       expect(tied.map((d) => d.deviationId)).toEqual([mine.id, mine.id, entries.find((e) => e.supplierId === other.supplierId)!.id]);
 
       // The pieces each decision released are booked; the superseded one's are given back.
@@ -88,7 +102,9 @@ describe('migration 1050: earlier deviation numbers', () => {
 
       // Run again (a retried migration): nothing new, and every use-as-is decision names an entry.
       expect(await registerEarlierDeviations(owner, transaction)).toEqual([]);
-      const [{ untied }] = await select<{ untied: number }>(`SELECT count(*)::int AS untied FROM dispositions WHERE decision = 'use-as-is' AND deviation_id IS NULL`);
+      const [{ untied }] = await select<{ untied: number }>(
+        `SELECT count(*)::int AS untied FROM dispositions WHERE decision = 'use-as-is' AND deviation_id IS NULL`,
+      );
       expect(untied).toBe(0);
     });
   });

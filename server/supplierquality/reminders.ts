@@ -77,7 +77,11 @@ export async function remindOverdueRequests(): Promise<string[]> {
       );
       request.lastRemindedAt = new Date();
       await request.save({ transaction });
-      await recordAudit(SYSTEM_ACTOR, { action: 'corrective-action.remind', entityType: 'corrective-action', entityId: id, after: { overdueDays: days, supplierReminded: Boolean(link) } }, transaction);
+      await recordAudit(
+        SYSTEM_ACTOR,
+        { action: 'corrective-action.remind', entityType: 'corrective-action', entityId: id, after: { overdueDays: days, supplierReminded: Boolean(link) } },
+        transaction,
+      );
       return request.number;
     });
     if (number) reminded.push(number);

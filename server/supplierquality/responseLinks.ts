@@ -13,11 +13,12 @@ export const LINK_DAYS = 30;
 const AUDIENCE = 'phaselot:corrective-action-response';
 
 export function tokenOf(link: Pick<CorrectiveActionLink, 'id' | 'correctiveActionId' | 'issuedAt' | 'expiresAt'>) {
-  return jwt.sign(
-    { iat: Math.floor(link.issuedAt.getTime() / 1000), exp: Math.floor(link.expiresAt.getTime() / 1000) },
-    config.JWT_SECRET,
-    { subject: String(link.correctiveActionId), jwtid: String(link.id), audience: AUDIENCE, issuer: 'phaselot' },
-  );
+  return jwt.sign({ iat: Math.floor(link.issuedAt.getTime() / 1000), exp: Math.floor(link.expiresAt.getTime() / 1000) }, config.JWT_SECRET, {
+    subject: String(link.correctiveActionId),
+    jwtid: String(link.id),
+    audience: AUDIENCE,
+    issuer: 'phaselot',
+  });
 }
 
 export const responseUrl = (token: string) => `${config.PUBLIC_URL}/respond#token=${token}`;
@@ -44,15 +45,20 @@ export async function linkOfToken(token: string, transaction?: Transaction) {
     if (typeof verified !== 'object') throw new Error('not a claim set');
     claims = verified;
   } catch (error) {
-    if (error instanceof jwt.TokenExpiredError) throw refused(410, 'link_expired', `This link expired on ${error.expiredAt.toISOString().slice(0, 10)}. Ask your contact for a new one.`);
+    if (error instanceof jwt.TokenExpiredError)
+      throw refused(410, 'link_expired', `This link expired on ${error.expiredAt.toISOString().slice(0, 10)}. Ask your contact for a new one.`);
     throw refused(401, 'link_invalid', 'This link is not valid. Open the link exactly as it was mailed to you.');
   }
   const link = await CorrectiveActionLink.findByPk(Number(claims.jti), { transaction, lock: transaction?.LOCK.UPDATE });
   // The signed request id must be the row's: a link reaches its own request and no other.
-  if (!link || String(link.correctiveActionId) !== claims.sub) throw refused(401, 'link_invalid', 'This link is not valid. Open the link exactly as it was mailed to you.');
-  if (link.revokedAt) throw refused(410, 'link_revoked', 'This link was withdrawn by the buyer. Ask your contact for a new one if an answer is still expected.');
-  if (link.submittedAt) throw refused(410, 'link_used', `An answer was already sent through this link on ${link.submittedAt.toISOString().slice(0, 10)}. A link takes one answer.`);
-  if (link.expiresAt.getTime() <= Date.now()) throw refused(410, 'link_expired', `This link expired on ${link.expiresAt.toISOString().slice(0, 10)}. Ask your contact for a new one.`);
+  if (!link || String(link.correctiveActionId) !== claims.sub)
+    throw refused(401, 'link_invalid', 'This link is not valid. Open the link exactly as it was mailed to you.');
+  if (link.revokedAt)
+    throw refused(410, 'link_revoked', 'This link was withdrawn by the buyer. Ask your contact for a new one if an answer is still expected.');
+  if (link.submittedAt)
+    throw refused(410, 'link_used', `An answer was already sent through this link on ${link.submittedAt.toISOString().slice(0, 10)}. A link takes one answer.`);
+  if (link.expiresAt.getTime() <= Date.now())
+    throw refused(410, 'link_expired', `This link expired on ${link.expiresAt.toISOString().slice(0, 10)}. Ask your contact for a new one.`);
   return link;
 }
 

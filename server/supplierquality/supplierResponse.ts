@@ -31,7 +31,14 @@ const senderActor = (sender: Sender): AuditActor => ({ id: null, email: null, ro
 
 export async function supplierRequestView(token: string): Promise<SupplierRequestView> {
   const link = await linkOfToken(token);
-  const [request] = await sequelize.query<{ number: string; supplier: string; partNumber: string; partDescription: string; problem: string; responseDueOn: string }>(
+  const [request] = await sequelize.query<{
+    number: string;
+    supplier: string;
+    partNumber: string;
+    partDescription: string;
+    problem: string;
+    responseDueOn: string;
+  }>(
     `SELECT ca.number, s.name AS supplier, p.number AS "partNumber", p.description AS "partDescription", ca.problem, to_char(ca.response_due_on, 'YYYY-MM-DD') AS "responseDueOn"
        FROM corrective_actions ca JOIN suppliers s ON s.id = ca.supplier_id JOIN parts p ON p.id = ca.part_id WHERE ca.id = :id`,
     { type: QueryTypes.SELECT, replacements: { id: link.correctiveActionId } },
@@ -43,7 +50,10 @@ export async function supplierRequestView(token: string): Promise<SupplierReques
       WHERE c.corrective_action_id = :id GROUP BY n.id ORDER BY n.number`,
     { type: QueryTypes.SELECT, replacements: { id: link.correctiveActionId } },
   );
-  const returned = await CorrectiveActionResponse.findOne({ where: { correctiveActionId: link.correctiveActionId, review: 'returned' }, order: [['reviewedAt', 'DESC']] });
+  const returned = await CorrectiveActionResponse.findOne({
+    where: { correctiveActionId: link.correctiveActionId, review: 'returned' },
+    order: [['reviewedAt', 'DESC']],
+  });
   return {
     number: request.number,
     supplier: request.supplier,
@@ -108,7 +118,12 @@ export async function submitSupplierResponse(token: string, rawInput: SupplierRe
       const stored = [];
       for (const file of attachments) {
         const storageKey = await storeBlob(file.buffer, transaction);
-        stored.push(await CorrectiveActionAttachment.create({ responseId: response.id, name: file.originalname.slice(0, 255), mediaType: file.mediaType, size: file.size, storageKey }, { transaction }));
+        stored.push(
+          await CorrectiveActionAttachment.create(
+            { responseId: response.id, name: file.originalname.slice(0, 255), mediaType: file.mediaType, size: file.size, storageKey },
+            { transaction },
+          ),
+        );
       }
       link.submittedAt = new Date();
       await link.save({ transaction });
@@ -137,7 +152,13 @@ export async function submitSupplierResponse(token: string, rawInput: SupplierRe
           action: 'corrective-action.response',
           entityType: 'corrective-action',
           entityId: request.id,
-          after: { responseId: response.id, linkId: link.id, responderName: input.responderName, files: stored.map((a) => ({ name: a.name, sha256: a.storageKey, size: a.size })), userAgent: sender.userAgent ?? null },
+          after: {
+            responseId: response.id,
+            linkId: link.id,
+            responderName: input.responderName,
+            files: stored.map((a) => ({ name: a.name, sha256: a.storageKey, size: a.size })),
+            userAgent: sender.userAgent ?? null,
+          },
         },
         transaction,
       );

@@ -18,7 +18,8 @@ export const RESPONSE_FILE_TYPES = ['application/pdf', 'image/png', 'image/jpeg'
 export const MAX_RESPONSE_FILE_BYTES = 10 * 1024 * 1024;
 export const MAX_RESPONSE_FILES = 5;
 
-export const CAR_ACCEPT_MEANING = "I accept the supplier's answer to this corrective-action request: its root cause, containment and actions address the nonconformance.";
+export const CAR_ACCEPT_MEANING =
+  "I accept the supplier's answer to this corrective-action request: its root cause, containment and actions address the nonconformance.";
 export const CAR_CLOSE_MEANING = 'I close this corrective-action request: the later lots named were checked and show the action to be effective.';
 
 const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);

@@ -17,7 +17,8 @@ export const DEVIATION_STATUS_LABELS: Record<DeviationStatus, string> = {
 
 /** What each approval signature means, shown before signing and stored with it. */
 export const DEVIATION_APPROVAL_MEANINGS = {
-  quality: 'I approve this deviation as quality manager: pieces of this part from this supplier may be used as stated, within its quantity and until its expiry.',
+  quality:
+    'I approve this deviation as quality manager: pieces of this part from this supplier may be used as stated, within its quantity and until its expiry.',
   second: 'I approve this deviation as second approver: I have reviewed what it allows, its quantity and its expiry.',
 } as const;
 

@@ -98,13 +98,16 @@ describe('supplier quality in the browser', () => {
     await review.getByLabel(/Your password/).fill('phaselot-demo');
     await screenshots(quality, 'request-review');
     await review.getByRole('button', { name: 'Sign: accept the answer' }).click();
-    await quality.getByRole('note').getByText(/^Accepted by .*, /).waitFor();
+    await quality
+      .getByRole('note')
+      .getByText(/^Accepted by .*, /)
+      .waitFor();
     await quality.getByRole('form', { name: 'Close the request' }).waitFor();
     await screenshots(quality, 'request-accepted');
     await quality.context().close();
   });
 
-  it('lets the buyer raise a request from NCRs and write a deviation for a supplier\'s part', async () => {
+  it("lets the buyer raise a request from NCRs and write a deviation for a supplier's part", async () => {
     const pair = await supplierWithQualityContact();
     const first = await ncrOf(pair);
     const second = await ncrOf(pair, 'Fast-axis mark 1.2° off on two plates');
@@ -150,7 +153,10 @@ describe('supplier quality in the browser', () => {
   it('uses a rejected lot as is under a current deviation picked from the register, which then shows the use', async () => {
     const pair = await supplierPart();
     const lotId = await rejectedSample(pair);
-    const deviation = await approvedDeviation(pair.supplierId, pair.partId, { quantityLimit: 50, allowed: 'Retardance tolerance widened to ±0.01 λ for the alignment jig build' });
+    const deviation = await approvedDeviation(pair.supplierId, pair.partId, {
+      quantityLimit: 50,
+      allowed: 'Retardance tolerance widened to ±0.01 λ for the alignment jig build',
+    });
     // Too small for the lot's 20 pieces: listed, not choosable.
     const small = await approvedDeviation(pair.supplierId, pair.partId, { quantityLimit: 5 });
 
@@ -162,7 +168,9 @@ describe('supplier quality in the browser', () => {
     const picker = form.getByLabel('Deviation', { exact: true });
     await picker.waitFor();
     expect(await picker.locator('option', { hasText: small.number }).isDisabled()).toBe(true);
-    await picker.selectOption({ label: `${deviation.number}: 50 of 50 pieces left, until ${new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10)}` });
+    await picker.selectOption({
+      label: `${deviation.number}: 50 of 50 pieces left, until ${new Date(Date.now() + 30 * 86_400_000).toISOString().slice(0, 10)}`,
+    });
     await form.getByTestId('deviation-allowed').getByText('Retardance tolerance widened to ±0.01 λ for the alignment jig build').waitFor();
     await form.getByLabel('Justification').fill('Plates go into the alignment jig, which tolerates ±0.01 λ');
     await form.getByLabel(/I have read the meaning/).check();
@@ -175,7 +183,10 @@ describe('supplier quality in the browser', () => {
     await quality.goto(`${rig.baseUrl}/deviations/${deviation.id}`);
     await quality.getByRole('heading', { name: `Deviation ${deviation.number}` }).waitFor();
     await quality.getByText('20 used, 30 of 50 left').waitFor();
-    await quality.getByRole('region', { name: 'Uses' }).getByRole('link', { name: `L-${lotId}` }).waitFor();
+    await quality
+      .getByRole('region', { name: 'Uses' })
+      .getByRole('link', { name: `L-${lotId}` })
+      .waitFor();
     await screenshots(quality, 'deviation-page');
     await quality.goto(`${rig.baseUrl}/deviations?status=current`);
     await quality.getByRole('cell', { name: deviation.number }).waitFor();

@@ -22,7 +22,10 @@ export async function supplierWithQualityContact() {
 }
 
 /** An NCR of the supplier's part naming pieces of a received lot. */
-export async function ncrOf(pair: { supplierId: number; partId: number; receive(quantity?: number): Promise<{ lotId: number }> }, description = 'Retardance 0.006 λ long on two plates') {
+export async function ncrOf(
+  pair: { supplierId: number; partId: number; receive(quantity?: number): Promise<{ lotId: number }> },
+  description = 'Retardance 0.006 λ long on two plates',
+) {
   const { lotId } = await pair.receive(10);
   const [ncr] = await sequelize.query<{ id: number; number: string }>(
     `INSERT INTO nonconformances (number, origin, supplier_id, part_id, lot_id, description) VALUES (:number, 'found-later', :supplierId, :partId, :lotId, :description) RETURNING id, number`,
@@ -32,7 +35,10 @@ export async function ncrOf(pair: { supplierId: number; partId: number; receive(
     `INSERT INTO nonconformance_pieces (nonconformance_id, piece_id) SELECT :ncr, id FROM pieces WHERE lot_id = :lotId ORDER BY serial LIMIT 2`,
     { replacements: { ncr: ncr.id, lotId } },
   );
-  const serials = await sequelize.query<{ serial: string }>(`SELECT serial FROM pieces WHERE lot_id = :lotId ORDER BY serial LIMIT 2`, { type: QueryTypes.SELECT, replacements: { lotId } });
+  const serials = await sequelize.query<{ serial: string }>(`SELECT serial FROM pieces WHERE lot_id = :lotId ORDER BY serial LIMIT 2`, {
+    type: QueryTypes.SELECT,
+    replacements: { lotId },
+  });
   return { ...ncr, lotId, serials: serials.map((s) => s.serial) };
 }
 

@@ -9,7 +9,9 @@ const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOS
 type Options = { quantityLimit?: number; expiresOn?: string; allowed?: string; retardanceTolWaves?: number };
 
 export async function approvedDeviation(supplierId: number, partId: number, options: Options = {}) {
-  const created = await (await as('buyer'))
+  const created = await (
+    await as('buyer')
+  )
     .post('/api/deviations')
     .send({
       supplierId,
@@ -31,7 +33,9 @@ export async function rejectedSample(pair: Awaited<ReturnType<typeof supplierPar
   const { lotId } = await pair.receive(20);
   const { view, sample } = await inspectionOf(lotId);
   const failing = sample.slice(0, view.plan.reject);
-  await (await as('inspector'))
+  await (
+    await as('inspector')
+  )
     .post(`/api/inspection/lots/${lotId}/measurements`)
     .attach('files', Buffer.from(benchFile(failing, failing)), { filename: 'bench.csv', contentType: 'text/csv' })
     .expect(201);
@@ -42,4 +46,11 @@ export async function rejectedSample(pair: Awaited<ReturnType<typeof supplierPar
 export const useAsIs = async (lotId: number, deviationId: number, expectedDispositionId: number | null = null) =>
   (await as('quality'))
     .post(`/api/inspection/lots/${lotId}/dispositions`)
-    .send({ decision: 'use-as-is', password: DEMO_PASSWORD, meaningAcknowledged: true, expectedDispositionId, deviationId, justification: 'Harmless in the alignment jig build' });
+    .send({
+      decision: 'use-as-is',
+      password: DEMO_PASSWORD,
+      meaningAcknowledged: true,
+      expectedDispositionId,
+      deviationId,
+      justification: 'Harmless in the alignment jig build',
+    });

@@ -79,11 +79,23 @@ describe('/api/corrective-actions', () => {
     expect(Date.parse(seen.linkExpiresAt) - Date.now()).toBeLessThanOrEqual(30 * 86_400_000);
 
     // An NCR under an open request is not raised again; NCRs of two suppliers do not share one.
-    const again = await (await as('buyer')).post('/api/corrective-actions').send({ nonconformanceIds: [first.id], problem: 'Same problem raised a second time by mistake', responseDueOn: seen.responseDueOn });
+    const again = await (
+      await as('buyer')
+    )
+      .post('/api/corrective-actions')
+      .send({ nonconformanceIds: [first.id], problem: 'Same problem raised a second time by mistake', responseDueOn: seen.responseDueOn });
     expect(again.status).toBe(409);
     expect(again.body.error.message).toBe(`Already under an open corrective-action request: ${first.number} (${car.number})`);
     const other = await supplierWithQualityContact();
-    const mixed = await (await as('buyer')).post('/api/corrective-actions').send({ nonconformanceIds: [(await ncrOf(other)).id, (await ncrOf(pair)).id], problem: 'Two suppliers in one request is refused', responseDueOn: seen.responseDueOn });
+    const mixed = await (
+      await as('buyer')
+    )
+      .post('/api/corrective-actions')
+      .send({
+        nonconformanceIds: [(await ncrOf(other)).id, (await ncrOf(pair)).id],
+        problem: 'Two suppliers in one request is refused',
+        responseDueOn: seen.responseDueOn,
+      });
     expect(mixed.status).toBe(400);
     expect(mixed.body.error.message).toMatch(/covers one supplier's part/);
   });
@@ -91,7 +103,15 @@ describe('/api/corrective-actions', () => {
   it('refuses a supplier without a quality contact', async () => {
     const pair = await supplierPart();
     const ncr = await ncrOf(pair);
-    const refused = await (await as('buyer')).post('/api/corrective-actions').send({ nonconformanceIds: [ncr.id], problem: 'Retardance runs long on every lot', responseDueOn: new Date(Date.now() + 5 * 86_400_000).toISOString().slice(0, 10) });
+    const refused = await (
+      await as('buyer')
+    )
+      .post('/api/corrective-actions')
+      .send({
+        nonconformanceIds: [ncr.id],
+        problem: 'Retardance runs long on every lot',
+        responseDueOn: new Date(Date.now() + 5 * 86_400_000).toISOString().slice(0, 10),
+      });
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toBe(`Test supplier ${pair.tag} has no quality contact: add the address on the supplier's page first`);
   });
@@ -117,7 +137,9 @@ describe('/api/corrective-actions', () => {
     expect(download.headers['content-type']).toBe('image/png');
     expect(Buffer.compare(download.body as Buffer, TINY_PNG)).toBe(0);
 
-    const told = await OutboxMail.findOne({ where: { relatedType: 'corrective-action', relatedId: String(car.id), subject: `Supplier answered ${car.number}: review the answer` } });
+    const told = await OutboxMail.findOne({
+      where: { relatedType: 'corrective-action', relatedId: String(car.id), subject: `Supplier answered ${car.number}: review the answer` },
+    });
     expect(told!.recipients).toEqual(expect.arrayContaining(['buyer@phaselot.test', 'quality@phaselot.test']));
     expect(told!.bodyText).toContain(`Root cause: ${ANSWER.rootCause}`);
 
@@ -133,7 +155,9 @@ describe('/api/corrective-actions', () => {
     const second = await answer(token);
     expect(second.status).toBe(410);
     expect(second.body.error.code).toBe('link_used');
-    expect((await open(token).expect(410)).body.error.message).toMatch(/^An answer was already sent through this link on \d{4}-\d{2}-\d{2}\. A link takes one answer\.$/);
+    expect((await open(token).expect(410)).body.error.message).toMatch(
+      /^An answer was already sent through this link on \d{4}-\d{2}-\d{2}\. A link takes one answer\.$/,
+    );
     const [refusal] = await sequelize.query<{ address: string; after: { code: string } }>(
       `SELECT address, after FROM audit_events WHERE action = 'corrective-action.response-refused' AND entity_id = :id ORDER BY id DESC LIMIT 1`,
       { type: QueryTypes.SELECT, replacements: { id: String(car.id) } },
@@ -156,14 +180,17 @@ describe('/api/corrective-actions', () => {
     // A token signed with another key, naming the second request's link.
     const forged = jwt.sign({ ...claims, sub: String(second.car.id), jti: claims.jti }, 'not-the-server-key-at-all');
     expect((await answer(forged).expect(401)).body.error.code).toBe('link_invalid');
-    await open('').expect(401);
+    expect((await open('').expect(400)).body.error.code).toBe('link_missing');
 
     // Thirty days on, the link has expired (its times moved back, its token signed from them as issued).
     const link = await CorrectiveActionLink.findOne({ where: { correctiveActionId: first.car.id }, rejectOnEmpty: true });
     link.set({ issuedAt: new Date(Date.now() - 31 * 86_400_000), expiresAt: new Date(Date.now() - 86_400_000) });
     await link.save();
     const expired = tokenOf(link);
-    expect((await open(expired).expect(410)).body.error).toMatchObject({ code: 'link_expired', message: expect.stringMatching(/^This link expired on \d{4}-\d{2}-\d{2}\. Ask your contact for a new one\.$/) });
+    expect((await open(expired).expect(410)).body.error).toMatchObject({
+      code: 'link_expired',
+      message: expect.stringMatching(/^This link expired on \d{4}-\d{2}-\d{2}\. Ask your contact for a new one\.$/),
+    });
     expect((await answer(expired)).status).toBe(410);
 
     // The buyer revokes the second link: it answers nothing any more.
@@ -189,7 +216,10 @@ describe('/api/corrective-actions', () => {
     expect(disguised.body.error.message).toBe('report.pdf is not a PDF, PNG or JPEG');
     const zip = await answer(token, [[Buffer.from('504b0304140000000800', 'hex'), 'photos.jpg']]);
     expect(zip.status).toBe(415);
-    const [{ n }] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM corrective_action_responses WHERE corrective_action_id = :id`, { type: QueryTypes.SELECT, replacements: { id: car.id } });
+    const [{ n }] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM corrective_action_responses WHERE corrective_action_id = :id`, {
+      type: QueryTypes.SELECT,
+      replacements: { id: car.id },
+    });
     expect(n).toBe(0);
     const missing = await answer(token, [], { ...ANSWER, rootCause: '' });
     expect(missing.status).toBe(400);
@@ -201,8 +231,16 @@ describe('/api/corrective-actions', () => {
     const { pair, car, token } = await requestWithLink();
     await answer(token).expect(201);
     const quality = await as('quality');
-    await (await as('buyer')).post(`/api/corrective-actions/${car.id}/review`).send({ decision: 'return', note: 'Say how the pitch wear is now tracked.' }).expect(403);
-    const returned = await quality.post(`/api/corrective-actions/${car.id}/review`).send({ decision: 'return', note: 'Say how the pitch wear is now tracked.' }).expect(200);
+    await (
+      await as('buyer')
+    )
+      .post(`/api/corrective-actions/${car.id}/review`)
+      .send({ decision: 'return', note: 'Say how the pitch wear is now tracked.' })
+      .expect(403);
+    const returned = await quality
+      .post(`/api/corrective-actions/${car.id}/review`)
+      .send({ decision: 'return', note: 'Say how the pitch wear is now tracked.' })
+      .expect(200);
     expect(returned.body.status).toBe('awaiting-response');
     const next = await mailedToken(car.id);
     expect(next.mail.subject).toBe(`Answer returned: ${car.number}, T-${pair.tag} (Test supplier ${pair.tag})`);
@@ -211,7 +249,9 @@ describe('/api/corrective-actions', () => {
     await answer(next.token, [], { ...ANSWER, preventiveActions: 'Pitch hours logged per shift; replaced at 400 hours.' }).expect(201);
 
     const sign = { decision: 'accept', note: 'Root cause and actions convincing.', password: DEMO_PASSWORD, meaningAcknowledged: true };
-    expect((await quality.post(`/api/corrective-actions/${car.id}/review`).send({ ...sign, password: 'wrong-password' })).body.error.code).toBe('signature_refused');
+    expect((await quality.post(`/api/corrective-actions/${car.id}/review`).send({ ...sign, password: 'wrong-password' })).body.error.code).toBe(
+      'signature_refused',
+    );
     const accepted = await quality.post(`/api/corrective-actions/${car.id}/review`).send(sign).expect(200);
     expect(accepted.body).toMatchObject({ status: 'accepted', acceptedBy: expect.any(String) });
     expect(accepted.body.responseHistory.map((r: { review: string }) => r.review)).toEqual(['accepted', 'returned']);
@@ -220,17 +260,31 @@ describe('/api/corrective-actions', () => {
     const { lotId: later } = await pair.receive(20);
     await decide(later, 'accept');
     const close = { note: 'Next lot measured in full: all plates within ±0.003 λ.', password: DEMO_PASSWORD, meaningAcknowledged: true };
-    const refused = await quality.post(`/api/corrective-actions/${car.id}/closure`).send({ ...close, lotIds: [accepted.body.nonconformances[0].lotId] }).expect(400);
-    expect(refused.body.error.message).toMatch(/^Only decided lots of this supplier's part received after the answer was accepted show whether it worked: L-\d+ is not one$/);
-    const closed = await quality.post(`/api/corrective-actions/${car.id}/closure`).send({ ...close, lotIds: [later] }).expect(200);
+    const refused = await quality
+      .post(`/api/corrective-actions/${car.id}/closure`)
+      .send({ ...close, lotIds: [accepted.body.nonconformances[0].lotId] })
+      .expect(400);
+    expect(refused.body.error.message).toMatch(
+      /^Only decided lots of this supplier's part received after the answer was accepted show whether it worked: L-\d+ is not one$/,
+    );
+    const closed = await quality
+      .post(`/api/corrective-actions/${car.id}/closure`)
+      .send({ ...close, lotIds: [later] })
+      .expect(200);
     expect(closed.body).toMatchObject({ status: 'closed', effectivenessNote: close.note, checkedLots: [{ id: later, decision: 'accept' }] });
   });
 
   it('reminds an overdue request once a week: the supplier with its link, the requester with a copy', async () => {
     const { car, pair } = await requestWithLink();
     // The due date passes.
-    await sequelize.query(`UPDATE corrective_actions SET response_due_on = (now() AT TIME ZONE 'UTC')::date - 3 WHERE id = :id`, { replacements: { id: car.id } });
-    expect((await (await as('buyer')).get(`/api/corrective-actions?overdue=true&supplierId=${pair.supplierId}`).expect(200)).body.data.map((c: { number: string }) => c.number)).toEqual([car.number]);
+    await sequelize.query(`UPDATE corrective_actions SET response_due_on = (now() AT TIME ZONE 'UTC')::date - 3 WHERE id = :id`, {
+      replacements: { id: car.id },
+    });
+    expect(
+      (await (await as('buyer')).get(`/api/corrective-actions?overdue=true&supplierId=${pair.supplierId}`).expect(200)).body.data.map(
+        (c: { number: string }) => c.number,
+      ),
+    ).toEqual([car.number]);
 
     const reminded = await remindOverdueRequests();
     expect(reminded).toContain(car.number);
@@ -258,13 +312,27 @@ describe('/api/corrective-actions', () => {
     const accepted = await raiseRequest([(await ncrOf(pair)).id]);
     await answer((await mailedToken(accepted.id)).token).expect(201);
     const quality = await as('quality');
-    await quality.post(`/api/corrective-actions/${accepted.id}/review`).send({ decision: 'accept', password: DEMO_PASSWORD, meaningAcknowledged: true }).expect(200);
+    await quality
+      .post(`/api/corrective-actions/${accepted.id}/review`)
+      .send({ decision: 'accept', password: DEMO_PASSWORD, meaningAcknowledged: true })
+      .expect(200);
     const elsewhere = await requestWithLink();
 
     const resume = (correctiveActionId: number) =>
-      quality.post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`).send({ correctiveAction: 'Polishing pitch replaced; retardance of every plate measured before packing.', correctiveActionId, password: DEMO_PASSWORD, meaningAcknowledged: true });
-    expect((await resume(elsewhere.car.id).expect(400)).body.error.details).toEqual([{ path: 'correctiveActionId', message: 'Not a request of this supplier and part' }]);
-    expect((await resume(pending.id).expect(409)).body.error.message).toBe(`${pending.number} is not accepted: the supplier's answer must be accepted before inspection resumes on it`);
+      quality
+        .post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`)
+        .send({
+          correctiveAction: 'Polishing pitch replaced; retardance of every plate measured before packing.',
+          correctiveActionId,
+          password: DEMO_PASSWORD,
+          meaningAcknowledged: true,
+        });
+    expect((await resume(elsewhere.car.id).expect(400)).body.error.details).toEqual([
+      { path: 'correctiveActionId', message: 'Not a request of this supplier and part' },
+    ]);
+    expect((await resume(pending.id).expect(409)).body.error.message).toBe(
+      `${pending.number} is not accepted: the supplier's answer must be accepted before inspection resumes on it`,
+    );
     const resumed = await resume(accepted.id).expect(201);
     expect(resumed.body.state).toMatchObject({ severity: 'tightened', stopped: false });
     const history = (await quality.get(`/api/switching/${pair.supplierId}/${pair.partId}`).expect(200)).body.history;
@@ -275,7 +343,10 @@ describe('/api/corrective-actions', () => {
     for (let i = 0; i < 10; i++) expect((await answer('not-a-token', [], {})).status).toBe(400);
     const limited = await answer('not-a-token', [], {});
     expect(limited.status).toBe(429);
-    expect(limited.body.error).toMatchObject({ code: 'too_many_requests', message: expect.stringMatching(/^Too many requests from your network address\. Try again in \d+ minutes\.$/) });
+    expect(limited.body.error).toMatchObject({
+      code: 'too_many_requests',
+      message: expect.stringMatching(/^Too many requests from your network address\. Try again in \d+ minutes\.$/),
+    });
     expect(limited.headers['ratelimit-policy']).toBeDefined();
   });
 });

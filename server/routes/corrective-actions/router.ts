@@ -1,7 +1,15 @@
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
-import { carCloseSchema, carListQuerySchema, carRaiseSchema, carReviewSchema, MAX_RESPONSE_FILES, MAX_RESPONSE_FILE_BYTES, supplierResponseSchema } from '../../../shared/schemas/correctiveActions';
+import {
+  carCloseSchema,
+  carListQuerySchema,
+  carRaiseSchema,
+  carReviewSchema,
+  MAX_RESPONSE_FILES,
+  MAX_RESPONSE_FILE_BYTES,
+  supplierResponseSchema,
+} from '../../../shared/schemas/correctiveActions';
 import { actorOf } from '../../audit/record';
 import { allow, authenticate } from '../../auth/authenticate';
 import { AppError } from '../../http/errors';
@@ -21,14 +29,19 @@ export const correctiveActionsRouter = Router();
 const LINK_HEADER = 'x-response-link';
 const linkToken = (req: Parameters<RequestHandler>[0]) => {
   const token = req.get(LINK_HEADER);
-  if (!token) throw new AppError(401, 'link_invalid', 'This link is not valid. Open the link exactly as it was mailed to you.');
+  if (!token) throw new AppError(400, 'link_missing', 'This page needs the link from the request mail. Open the link exactly as it was mailed to you.');
   return token.slice(0, 2000);
 };
 
 const upload: RequestHandler = (req, res, next) =>
-  multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_RESPONSE_FILE_BYTES, files: MAX_RESPONSE_FILES, fields: 20 } }).array('files', MAX_RESPONSE_FILES)(req, res, (error: unknown) => {
-    if (error instanceof multer.MulterError && error.code === 'LIMIT_FILE_SIZE') next(new AppError(413, 'upload', 'A file is larger than 10 MB', { field: error.field }));
-    else if (error instanceof multer.MulterError && error.code === 'LIMIT_FILE_COUNT') next(new AppError(400, 'too_many_files', `At most ${MAX_RESPONSE_FILES} files can be attached`));
+  multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_RESPONSE_FILE_BYTES, files: MAX_RESPONSE_FILES, fields: 20 } }).array(
+    'files',
+    MAX_RESPONSE_FILES,
+  )(req, res, (error: unknown) => {
+    if (error instanceof multer.MulterError && error.code === 'LIMIT_FILE_SIZE')
+      next(new AppError(413, 'upload', 'A file is larger than 10 MB', { field: error.field }));
+    else if (error instanceof multer.MulterError && error.code === 'LIMIT_FILE_COUNT')
+      next(new AppError(400, 'too_many_files', `At most ${MAX_RESPONSE_FILES} files can be attached`));
     else next(error);
   });
 
@@ -42,7 +55,11 @@ correctiveActionsRouter.post(
   upload,
   validated({ body: supplierResponseSchema }, async ({ body }, req, res) => {
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-    const response = await submitSupplierResponse(linkToken(req), body, files, { requestId: String(req.id ?? ''), address: req.ip, userAgent: req.get('user-agent') });
+    const response = await submitSupplierResponse(linkToken(req), body, files, {
+      requestId: String(req.id ?? ''),
+      address: req.ip,
+      userAgent: req.get('user-agent'),
+    });
     res.status(201).json({ submittedAt: response.submittedAt.toISOString() });
   }),
 );

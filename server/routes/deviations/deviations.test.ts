@@ -26,23 +26,49 @@ describe('/api/deviations', () => {
   it('numbers each entry and needs a quality manager and then another user to approve it; an approved entry is frozen', async () => {
     const pair = await supplierPart();
     const buyer = await as('buyer');
-    const body = { supplierId: pair.supplierId, partId: pair.partId, allowed: 'Retardance tolerance widened to ±0.005 λ', retardanceTolWaves: 0.005, quantityLimit: 40, expiresOn: inDays(20) };
+    const body = {
+      supplierId: pair.supplierId,
+      partId: pair.partId,
+      allowed: 'Retardance tolerance widened to ±0.005 λ',
+      retardanceTolWaves: 0.005,
+      quantityLimit: 40,
+      expiresOn: inDays(20),
+    };
     const created = await buyer.post('/api/deviations').send(body).expect(201);
-    expect(created.body).toMatchObject({ number: expect.stringMatching(/^DEV-\d{4}-\d{4}$/), status: 'awaiting-approval', approvals: 0, quantityLeft: 40, retardanceTolWaves: 0.005 });
+    expect(created.body).toMatchObject({
+      number: expect.stringMatching(/^DEV-\d{4}-\d{4}$/),
+      status: 'awaiting-approval',
+      approvals: 0,
+      quantityLeft: 40,
+      retardanceTolWaves: 0.005,
+    });
     const id = created.body.id;
 
     // Bad input is refused field by field; the past is no expiry.
-    const bad = await buyer.post('/api/deviations').send({ ...body, allowed: 'short', quantityLimit: 0, expiresOn: '2020-01-01' }).expect(400);
+    const bad = await buyer
+      .post('/api/deviations')
+      .send({ ...body, allowed: 'short', quantityLimit: 0, expiresOn: '2020-01-01' })
+      .expect(400);
     expect(bad.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(['allowed', 'expiresOn', 'quantityLimit']);
 
     // Editable until someone approves it.
-    await buyer.put(`/api/deviations/${id}`).send({ ...body, quantityLimit: 30 }).expect(200);
+    await buyer
+      .put(`/api/deviations/${id}`)
+      .send({ ...body, quantityLimit: 30 })
+      .expect(200);
 
     // The first approval is a quality manager's: an administrator cannot give it.
     const admin = await as('admin');
     expect((await admin.post(`/api/deviations/${id}/approvals`).send(SIGN).expect(409)).body.error.message).toMatch(/first approval .* is a quality manager's/);
     const quality = await as('quality');
-    expect((await quality.post(`/api/deviations/${id}/approvals`).send({ ...SIGN, password: 'not-the-password' }).expect(401)).body.error.code).toBe('signature_refused');
+    expect(
+      (
+        await quality
+          .post(`/api/deviations/${id}/approvals`)
+          .send({ ...SIGN, password: 'not-the-password' })
+          .expect(401)
+      ).body.error.code,
+    ).toBe('signature_refused');
     const first = await quality.post(`/api/deviations/${id}/approvals`).send(SIGN).expect(201);
     expect(first.body).toMatchObject({ status: 'awaiting-approval', approvals: 1 });
 
@@ -66,10 +92,13 @@ describe('/api/deviations', () => {
     ]);
     await admin.post(`/api/deviations/${id}/approvals`).send(SIGN).expect(409);
 
-    const [audit] = await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM audit_events WHERE entity_type = 'deviation' AND entity_id = :id AND action = 'deviation.approve'`, {
-      type: QueryTypes.SELECT,
-      replacements: { id: String(id) },
-    });
+    const [audit] = await sequelize.query<{ n: number }>(
+      `SELECT count(*)::int AS n FROM audit_events WHERE entity_type = 'deviation' AND entity_id = :id AND action = 'deviation.approve'`,
+      {
+        type: QueryTypes.SELECT,
+        replacements: { id: String(id) },
+      },
+    );
     expect(audit.n).toBe(2);
   });
 
@@ -79,13 +108,21 @@ describe('/api/deviations', () => {
     const first = await rejectedSample(pair);
     const signed = await useAsIs(first, deviation.id);
     expect(signed.status, JSON.stringify(signed.body)).toBe(201);
-    expect(await entry(deviation.id)).toMatchObject({ status: 'current', quantityUsed: 20, quantityLeft: 10, uses: [{ lotId: first, source: 'lot', quantity: 20, releasedAt: null }] });
+    expect(await entry(deviation.id)).toMatchObject({
+      status: 'current',
+      quantityUsed: 20,
+      quantityLeft: 10,
+      uses: [{ lotId: first, source: 'lot', quantity: 20, releasedAt: null }],
+    });
 
     // A second lot of 20 does not fit in the 10 pieces left.
     const second = await rejectedSample(pair);
     const refused = await useAsIs(second, deviation.id);
     expect(refused.status).toBe(409);
-    expect(refused.body.error).toMatchObject({ code: 'deviation_not_usable', message: `Deviation ${deviation.number} covers 10 more pieces of its 30; this decision releases 20` });
+    expect(refused.body.error).toMatchObject({
+      code: 'deviation_not_usable',
+      message: `Deviation ${deviation.number} covers 10 more pieces of its 30; this decision releases 20`,
+    });
 
     // Superseding the first lot's decision gives its 20 pieces back; the second lot then takes them.
     expect((await sign(first, 'reject', signed.body.dispositionId, { justification: 'Deviation needed elsewhere' })).status).toBe(201);
@@ -117,14 +154,25 @@ describe('/api/deviations', () => {
     const buyer = await as('buyer');
     const pending = await buyer
       .post('/api/deviations')
-      .send({ supplierId: pair.supplierId, partId: pair.partId, allowed: 'Axis mark tolerance widened to ±1°', axisTolDeg: 1, quantityLimit: 50, expiresOn: inDays(5) })
+      .send({
+        supplierId: pair.supplierId,
+        partId: pair.partId,
+        allowed: 'Axis mark tolerance widened to ±1°',
+        axisTolDeg: 1,
+        quantityLimit: 50,
+        expiresOn: inDays(5),
+      })
       .expect(201);
     await (await as('quality')).post(`/api/deviations/${pending.body.id}/approvals`).send(SIGN).expect(201);
-    expect((await status(useAsIs(lotId, pending.body.id), 409)).body.error.message).toBe(`Deviation ${pending.body.number} is not approved yet (1 of 2 approvals signed)`);
+    expect((await status(useAsIs(lotId, pending.body.id), 409)).body.error.message).toBe(
+      `Deviation ${pending.body.number} is not approved yet (1 of 2 approvals signed)`,
+    );
 
     const withdrawn = await approvedDeviation(pair.supplierId, pair.partId);
     await buyer.post(`/api/deviations/${withdrawn.id}/withdrawal`).send({ reason: 'Engineering no longer accepts the wider tolerance' }).expect(200);
-    expect((await status(useAsIs(lotId, withdrawn.id), 409)).body.error.message).toBe(`Deviation ${withdrawn.number} was withdrawn: Engineering no longer accepts the wider tolerance`);
+    expect((await status(useAsIs(lotId, withdrawn.id), 409)).body.error.message).toBe(
+      `Deviation ${withdrawn.number} was withdrawn: Engineering no longer accepts the wider tolerance`,
+    );
 
     const other = await supplierPart();
     const elsewhere = await approvedDeviation(other.supplierId, other.partId);
@@ -135,7 +183,9 @@ describe('/api/deviations', () => {
       `INSERT INTO deviations (number, supplier_id, part_id, allowed, recorded_before_register) VALUES ('DEV-OLD-3', :supplierId, :partId, 'Recorded before the register', true) RETURNING id`,
       { type: QueryTypes.SELECT, replacements: { supplierId: pair.supplierId, partId: pair.partId } },
     );
-    expect((await status(useAsIs(lotId, earlier.id), 409)).body.error.message).toBe('Deviation DEV-OLD-3 was recorded before the register from an earlier decision and covers no new one');
+    expect((await status(useAsIs(lotId, earlier.id), 409)).body.error.message).toBe(
+      'Deviation DEV-OLD-3 was recorded before the register from an earlier decision and covers no new one',
+    );
     expect((await entry(earlier.id)).status).toBe('earlier');
 
     // Nothing was signed or moved by the refusals.
@@ -146,7 +196,16 @@ describe('/api/deviations', () => {
     const pair = await supplierPart();
     const current = await approvedDeviation(pair.supplierId, pair.partId, { quantityLimit: 12 });
     const buyer = await as('buyer');
-    await buyer.post('/api/deviations').send({ supplierId: pair.supplierId, partId: pair.partId, allowed: 'Cosmetic digs up to 0.1 mm outside the clear aperture', quantityLimit: 5, expiresOn: inDays(3) }).expect(201);
+    await buyer
+      .post('/api/deviations')
+      .send({
+        supplierId: pair.supplierId,
+        partId: pair.partId,
+        allowed: 'Cosmetic digs up to 0.1 mm outside the clear aperture',
+        quantityLimit: 5,
+        expiresOn: inDays(3),
+      })
+      .expect(201);
 
     const all = (await buyer.get(`/api/deviations?supplierId=${pair.supplierId}&partId=${pair.partId}`).expect(200)).body;
     expect(all.total).toBe(2);
@@ -155,8 +214,13 @@ describe('/api/deviations', () => {
     await buyer.get('/api/deviations?sort=password').expect(400);
 
     const csv = await buyer.get(`/api/deviations/export.csv?supplierId=${pair.supplierId}&sort=number`).expect(200);
-    const lines = csv.text.replace(/^\uFEFF/, '').trim().split('\n');
-    expect(lines[0]).toBe('number,supplier,part,allowed,retardance_tolerance_waves,axis_tolerance_deg,quantity_limit,quantity_used,expires_on,approvals,status');
+    const lines = csv.text
+      .replace(/^\uFEFF/, '')
+      .trim()
+      .split('\n');
+    expect(lines[0]).toBe(
+      'number,supplier,part,allowed,retardance_tolerance_waves,axis_tolerance_deg,quantity_limit,quantity_used,expires_on,approvals,status',
+    );
     expect(lines).toHaveLength(3);
     expect(lines[1]).toContain(`${current.number},`);
     expect(lines[1]).toMatch(/,12,0,\d{4}-\d{2}-\d{2},2,current$/);

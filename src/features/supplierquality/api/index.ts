@@ -32,9 +32,11 @@ export const useDeviation = (id: number) => useQuery({ queryKey: supplierQuality
 export const useSaveDeviation = (id?: number) =>
   useChange((input: DeviationInput) => api<DeviationView>(id ? `/deviations/${id}` : '/deviations', { method: id ? 'PUT' : 'POST', body: input }));
 
-export const useApproveDeviation = (id: number) => useChange((input: DeviationApprovalInput) => api<DeviationView>(`/deviations/${id}/approvals`, { body: input }));
+export const useApproveDeviation = (id: number) =>
+  useChange((input: DeviationApprovalInput) => api<DeviationView>(`/deviations/${id}/approvals`, { body: input }));
 
-export const useWithdrawDeviation = (id: number) => useChange((input: { reason: string }) => api<DeviationView>(`/deviations/${id}/withdrawal`, { body: input }));
+export const useWithdrawDeviation = (id: number) =>
+  useChange((input: { reason: string }) => api<DeviationView>(`/deviations/${id}/withdrawal`, { body: input }));
 
 export type Option = { id: number; name?: string; number?: string; description?: string };
 
@@ -46,7 +48,19 @@ export const useOptions = (what: 'suppliers' | 'parts') =>
     staleTime: 60_000,
   });
 
-export type NcrChoice = { id: number; number: string; status: string; supplierId: number; supplierName: string; partId: number; partNumber: string; lotId: number | null; pieces: number; defects: string[]; openedAt: string };
+export type NcrChoice = {
+  id: number;
+  number: string;
+  status: string;
+  supplierId: number;
+  supplierName: string;
+  partId: number;
+  partNumber: string;
+  lotId: number | null;
+  pieces: number;
+  defects: string[];
+  openedAt: string;
+};
 
 /** NCRs a request may be raised from, newest first, of one supplier's part once one is known. */
 export const useNcrChoices = (filter: { supplierId?: number; partId?: number }) =>
@@ -58,7 +72,8 @@ export const useNcrChoices = (filter: { supplierId?: number; partId?: number }) 
 export const useCorrectiveActions = (query: ListState & Filters) =>
   useQuery({ queryKey: supplierQualityKeys.requests(query), queryFn: listPage<CarRow>('/corrective-actions', query), placeholderData: keepPreviousData });
 
-export const useCorrectiveAction = (id: number) => useQuery({ queryKey: supplierQualityKeys.request(id), queryFn: () => api<CarView>(`/corrective-actions/${id}`) });
+export const useCorrectiveAction = (id: number) =>
+  useQuery({ queryKey: supplierQualityKeys.request(id), queryFn: () => api<CarView>(`/corrective-actions/${id}`) });
 
 export const useRaiseCorrectiveAction = () => useChange((input: CarRaiseInput) => api<CarView>('/corrective-actions', { body: input }));
 
@@ -74,7 +89,14 @@ export const useCloseRequest = (id: number) => useChange((input: CarCloseInput) 
 const LINK_HEADER = 'X-Response-Link';
 
 export const useSupplierRequest = (token: string) =>
-  useQuery({ queryKey: supplierQualityKeys.response(token), queryFn: () => api<SupplierRequestView>('/corrective-actions/respond', { headers: { [LINK_HEADER]: token } }), enabled: token !== '', retry: false });
+  useQuery({
+    queryKey: supplierQualityKeys.response(token),
+    queryFn: () => api<SupplierRequestView>('/corrective-actions/respond', { headers: { [LINK_HEADER]: token } }),
+    enabled: token !== '',
+    retry: false,
+  });
 
 export const useSubmitResponse = (token: string) =>
-  useMutation({ mutationFn: (form: FormData) => api<{ submittedAt: string }>('/corrective-actions/respond', { body: form, headers: { [LINK_HEADER]: token } }) });
+  useMutation({
+    mutationFn: (form: FormData) => api<{ submittedAt: string }>('/corrective-actions/respond', { body: form, headers: { [LINK_HEADER]: token } }),
+  });

@@ -23,7 +23,6 @@ export function DeviationForm(props: Props) {
   return <LoadedForm {...props} suppliers={suppliers.data.data} parts={parts.data.data} />;
 }
 
-
 function LoadedForm({ deviation, preset, onSaved, onCancel, suppliers, parts }: Props & { suppliers: Option[]; parts: Option[] }) {
   const save = useSaveDeviation(deviation?.id);
   const form = useForm<DeviationInput>({
@@ -38,12 +37,25 @@ function LoadedForm({ deviation, preset, onSaved, onCancel, suppliers, parts }: 
           quantityLimit: deviation.quantityLimit ?? undefined,
           expiresOn: deviation.expiresOn ?? '',
         }
-      : { supplierId: preset?.supplierId ?? '', partId: preset?.partId ?? '', allowed: '', retardanceTolWaves: '', axisTolDeg: '', quantityLimit: undefined, expiresOn: inDays(30) },
+      : {
+          supplierId: preset?.supplierId ?? '',
+          partId: preset?.partId ?? '',
+          allowed: '',
+          retardanceTolWaves: '',
+          axisTolDeg: '',
+          quantityLimit: undefined,
+          expiresOn: inDays(30),
+        },
   });
   const errors = form.formState.errors;
   const submit = form.handleSubmit((input) => save.mutate(input, { onSuccess: onSaved, onError: (error) => showServerFieldErrors(error, form.setError) }));
   return (
-    <form onSubmit={submit} noValidate aria-label={deviation ? `Edit ${deviation.number}` : 'New deviation'} className="mb-4 space-y-3 rounded border border-paper-line bg-paper-card p-4">
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-label={deviation ? `Edit ${deviation.number}` : 'New deviation'}
+      className="mb-4 space-y-3 rounded border border-paper-line bg-paper-card p-4"
+    >
       <h2>{deviation ? `Correct ${deviation.number}` : 'New deviation'}</h2>
       {save.error && <Notice tone="error">{save.error.message}</Notice>}
       <div className="grid gap-3 *:min-w-0 sm:grid-cols-2">
@@ -68,11 +80,21 @@ function LoadedForm({ deviation, preset, onSaved, onCancel, suppliers, parts }: 
           </select>
         </Field>
       </div>
-      <Field label="What it allows" htmlFor="deviation-allowed" hint="The departure from the ordered specification, and where such pieces may be used." error={errors.allowed?.message}>
+      <Field
+        label="What it allows"
+        htmlFor="deviation-allowed"
+        hint="The departure from the ordered specification, and where such pieces may be used."
+        error={errors.allowed?.message}
+      >
         <textarea id="deviation-allowed" rows={3} className={inputClass} {...form.register('allowed')} />
       </Field>
       <div className="grid gap-3 *:min-w-0 sm:grid-cols-4">
-        <Field label="Retardance tolerance (± waves)" htmlFor="deviation-retardance" hint="Optional: the widened tolerance." error={errors.retardanceTolWaves?.message}>
+        <Field
+          label="Retardance tolerance (± waves)"
+          htmlFor="deviation-retardance"
+          hint="Optional: the widened tolerance."
+          error={errors.retardanceTolWaves?.message}
+        >
           <input id="deviation-retardance" inputMode="decimal" className={`${inputClass} font-mono`} {...form.register('retardanceTolWaves')} />
         </Field>
         <Field label="Fast-axis tolerance (± degrees)" htmlFor="deviation-axis" hint="Optional." error={errors.axisTolDeg?.message}>
@@ -85,10 +107,17 @@ function LoadedForm({ deviation, preset, onSaved, onCancel, suppliers, parts }: 
           <input id="deviation-expires" type="date" className={inputClass} {...form.register('expiresOn')} />
         </Field>
       </div>
-      <p className="text-xs text-ink-muted">A deviation can be used once a quality manager and then a second person (quality manager or administrator) have approved it. What they approve can no longer be changed.</p>
+      <p className="text-xs text-ink-muted">
+        A deviation can be used once a quality manager and then a second person (quality manager or administrator) have approved it. What they approve can no
+        longer be changed.
+      </p>
       <div className="flex gap-2">
-        <Button type="submit" disabled={save.isPending}>{deviation ? 'Save' : 'Write to the register'}</Button>
-        <Button look="secondary" onClick={onCancel}>Cancel</Button>
+        <Button type="submit" disabled={save.isPending}>
+          {deviation ? 'Save' : 'Write to the register'}
+        </Button>
+        <Button look="secondary" onClick={onCancel}>
+          Cancel
+        </Button>
       </div>
     </form>
   );

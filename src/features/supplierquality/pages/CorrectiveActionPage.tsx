@@ -4,7 +4,16 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Paperclip } from 'lucide-react';
 import { can } from '@shared/policies';
-import { CAR_ACCEPT_MEANING, CAR_CLOSE_MEANING, carCloseSchema, carReviewSchema, type CarCloseInput, type CarResponseView, type CarReviewInput, type CarView } from '@shared/schemas/correctiveActions';
+import {
+  CAR_ACCEPT_MEANING,
+  CAR_CLOSE_MEANING,
+  carCloseSchema,
+  carReviewSchema,
+  type CarCloseInput,
+  type CarResponseView,
+  type CarReviewInput,
+  type CarView,
+} from '@shared/schemas/correctiveActions';
 import { lotName } from '@shared/schemas/stock';
 import { Button } from '@/components/Button';
 import { Details, Panel } from '@/components/Details';
@@ -106,7 +115,9 @@ function LinkPanel({ car, mayManage }: { car: CarView; mayManage: boolean }) {
       <ul className="space-y-1 text-sm">
         {car.links.map((l) => (
           <li key={l.id} className="flex flex-wrap items-center gap-2">
-            <span>Sent {when(l.issuedAt)}, valid until {day(l.expiresAt)}</span>
+            <span>
+              Sent {when(l.issuedAt)}, valid until {day(l.expiresAt)}
+            </span>
             {l.live && <StateBadge state="live" label="Live" tone="pass" />}
             {l.submittedAt && <StateBadge state="used" label={`Answered ${day(l.submittedAt)}`} tone="neutral" />}
             {l.revokedAt && <StateBadge state="revoked" label={`Revoked ${day(l.revokedAt)}`} tone="fail" />}
@@ -132,7 +143,14 @@ function LinkPanel({ car, mayManage }: { car: CarView; mayManage: boolean }) {
 }
 
 function ResponseCard({ car, response: r, latest }: { car: CarView; response: CarResponseView; latest: boolean }) {
-  const review = r.review === 'accepted' ? <StateBadge state="accepted" label="Accepted" tone="pass" /> : r.review === 'returned' ? <StateBadge state="returned" label="Returned" tone="fail" /> : <StateBadge state="to-review" label="To review" tone="hold" />;
+  const review =
+    r.review === 'accepted' ? (
+      <StateBadge state="accepted" label="Accepted" tone="pass" />
+    ) : r.review === 'returned' ? (
+      <StateBadge state="returned" label="Returned" tone="fail" />
+    ) : (
+      <StateBadge state="to-review" label="To review" tone="hold" />
+    );
   return (
     <Panel title={`${r.responderName}, ${when(r.submittedAt)}`} actions={review}>
       <div className={latest ? '' : 'opacity-80'}>
@@ -171,7 +189,10 @@ function ResponseCard({ car, response: r, latest }: { car: CarView; response: Ca
 
 function ReviewForm({ car }: { car: CarView }) {
   const review = useReviewResponse(car.id);
-  const form = useForm<CarReviewInput>({ resolver: zodResolver(carReviewSchema), defaultValues: { decision: 'accept', note: '', password: '', meaningAcknowledged: false as unknown as true } });
+  const form = useForm<CarReviewInput>({
+    resolver: zodResolver(carReviewSchema),
+    defaultValues: { decision: 'accept', note: '', password: '', meaningAcknowledged: false as unknown as true },
+  });
   const decision = form.watch('decision');
   const errors = form.formState.errors as Partial<Record<'decision' | 'note' | 'password' | 'meaningAcknowledged', { message?: string }>>;
   const submit = form.handleSubmit((values) =>
@@ -194,7 +215,11 @@ function ReviewForm({ car }: { car: CarView }) {
           <input type="radio" value="return" {...form.register('decision')} /> Return it to the supplier
         </label>
       </fieldset>
-      <Field label={decision === 'return' ? 'What the answer lacks (the supplier reads this)' : 'Note (optional)'} htmlFor="review-note" error={errors.note?.message}>
+      <Field
+        label={decision === 'return' ? 'What the answer lacks (the supplier reads this)' : 'Note (optional)'}
+        htmlFor="review-note"
+        error={errors.note?.message}
+      >
         <textarea id="review-note" rows={2} className={inputClass} {...form.register('note')} />
       </Field>
       {decision === 'accept' ? (
@@ -202,7 +227,9 @@ function ReviewForm({ car }: { car: CarView }) {
       ) : (
         <p className="text-xs text-ink-muted">Returning sends {car.sentTo} a new link with your note.</p>
       )}
-      <Button type="submit" disabled={review.isPending}>{decision === 'accept' ? 'Sign: accept the answer' : 'Return with a new link'}</Button>
+      <Button type="submit" disabled={review.isPending}>
+        {decision === 'accept' ? 'Sign: accept the answer' : 'Return with a new link'}
+      </Button>
     </form>
   );
 }
@@ -211,7 +238,10 @@ function CloseForm({ car }: { car: CarView }) {
   const close = useCloseRequest(car.id);
   const decided = car.laterLots.filter((l) => l.decision !== null);
   const [lots, setLots] = useState<number[]>([]);
-  const form = useForm<CarCloseInput>({ resolver: zodResolver(carCloseSchema), defaultValues: { lotIds: [], note: '', password: '', meaningAcknowledged: false as unknown as true } });
+  const form = useForm<CarCloseInput>({
+    resolver: zodResolver(carCloseSchema),
+    defaultValues: { lotIds: [], note: '', password: '', meaningAcknowledged: false as unknown as true },
+  });
   const errors = form.formState.errors;
   const toggle = (lotId: number, on: boolean) => {
     const next = on ? [...lots, lotId] : lots.filter((l) => l !== lotId);
@@ -219,28 +249,44 @@ function CloseForm({ car }: { car: CarView }) {
     form.setValue('lotIds', next, { shouldValidate: form.formState.isSubmitted });
   };
   return (
-    <form onSubmit={form.handleSubmit((values) => close.mutate(values, { onError: () => form.setValue('password', '') }))} noValidate aria-label="Close the request" className="space-y-3 rounded border border-paper-line bg-paper-card p-4">
+    <form
+      onSubmit={form.handleSubmit((values) => close.mutate(values, { onError: () => form.setValue('password', '') }))}
+      noValidate
+      aria-label="Close the request"
+      className="space-y-3 rounded border border-paper-line bg-paper-card p-4"
+    >
       <h2>Verify effectiveness and close</h2>
       {close.error && <Notice tone="error">{close.error.message}</Notice>}
       <fieldset>
         <legend className="mb-1 text-xs font-medium text-ink-muted">Later lots checked (received since the answer was accepted, and decided)</legend>
-        {decided.length === 0 && <p className="text-sm text-ink-faint">No lot of {car.part.number} from {car.supplier.name} has been received and decided since the answer was accepted.</p>}
+        {decided.length === 0 && (
+          <p className="text-sm text-ink-faint">
+            No lot of {car.part.number} from {car.supplier.name} has been received and decided since the answer was accepted.
+          </p>
+        )}
         <ul className="space-y-1 text-sm">
           {decided.map((l) => (
             <li key={l.id}>
               <label className="inline-flex items-center gap-2">
-                <input type="checkbox" checked={lots.includes(l.id)} onChange={(e) => toggle(l.id, e.target.checked)} /> {lotName(l.id)} · supplier lot {l.supplierLot} · {l.decision} · received {day(l.receivedAt)}
+                <input type="checkbox" checked={lots.includes(l.id)} onChange={(e) => toggle(l.id, e.target.checked)} /> {lotName(l.id)} · supplier lot{' '}
+                {l.supplierLot} · {l.decision} · received {day(l.receivedAt)}
               </label>
             </li>
           ))}
         </ul>
-        {errors.lotIds && <p role="alert" className="text-xs text-state-fail">{errors.lotIds.message}</p>}
+        {errors.lotIds && (
+          <p role="alert" className="text-xs text-state-fail">
+            {errors.lotIds.message}
+          </p>
+        )}
       </fieldset>
       <Field label="What the later lots showed" htmlFor="close-note" error={errors.note?.message}>
         <textarea id="close-note" rows={2} className={inputClass} {...form.register('note')} />
       </Field>
       <SignatureFields meaning={CAR_CLOSE_MEANING} register={form.register} errors={errors} idPrefix="close" />
-      <Button type="submit" disabled={close.isPending || decided.length === 0}>Sign: close the request</Button>
+      <Button type="submit" disabled={close.isPending || decided.length === 0}>
+        Sign: close the request
+      </Button>
     </form>
   );
 }

@@ -27,7 +27,11 @@ export function CorrectiveActionsPage() {
       column.accessor('number', { header: 'Request', cell: ({ getValue }) => <span className="font-mono font-medium whitespace-nowrap">{getValue()}</span> }),
       column.accessor((c) => c.supplier.name, { id: 'supplier', header: 'Supplier' }),
       column.accessor((c) => c.part.number, { id: 'part', header: 'Part' }),
-      column.accessor('ncrs', { header: 'NCRs', enableSorting: false, cell: ({ getValue }) => <span className="font-mono text-xs">{getValue().join(', ')}</span> }),
+      column.accessor('ncrs', {
+        header: 'NCRs',
+        enableSorting: false,
+        cell: ({ getValue }) => <span className="font-mono text-xs">{getValue().join(', ')}</span>,
+      }),
       column.accessor('responseDueOn', { header: 'Answer due' }),
       column.accessor('status', { header: 'Standing', cell: ({ row }) => <RequestBadge status={row.original.status} overdue={row.original.overdue} /> }),
     ],
@@ -46,8 +50,19 @@ export function CorrectiveActionsPage() {
           )
         }
       />
-      <ListToolbar list={{ state, update }} filters={filters} placeholder="Number, supplier, part, NCR or text" exportPath="/corrective-actions" summary={list.data && counted(list.data.total, 'request')}>
-        <FilterSelect label="Standing" value={filters.status} onChange={(value) => update({ status: value })} options={CAR_STATUSES.map((s) => ({ value: s, label: CAR_STATUS_LABELS[s] }))} />
+      <ListToolbar
+        list={{ state, update }}
+        filters={filters}
+        placeholder="Number, supplier, part, NCR or text"
+        exportPath="/corrective-actions"
+        summary={list.data && counted(list.data.total, 'request')}
+      >
+        <FilterSelect
+          label="Standing"
+          value={filters.status}
+          onChange={(value) => update({ status: value })}
+          options={CAR_STATUSES.map((s) => ({ value: s, label: CAR_STATUS_LABELS[s] }))}
+        />
         <FilterSelect
           label="Due date"
           value={filters.overdue}

@@ -3,7 +3,13 @@ import { Link, useParams } from 'react-router';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { can } from '@shared/policies';
-import { DEVIATION_APPROVAL_MEANINGS, deviationApprovalSchema, deviationWithdrawalSchema, type DeviationApprovalInput, type DeviationView } from '@shared/schemas/deviations';
+import {
+  DEVIATION_APPROVAL_MEANINGS,
+  deviationApprovalSchema,
+  deviationWithdrawalSchema,
+  type DeviationApprovalInput,
+  type DeviationView,
+} from '@shared/schemas/deviations';
 import { lotName } from '@shared/schemas/stock';
 import { Button } from '@/components/Button';
 import { Details, Panel } from '@/components/Details';
@@ -43,7 +49,8 @@ export function DeviationPage() {
       />
       {d.recordedBeforeRegister && (
         <Notice tone="info" title="Recorded before the register">
-          This entry was made from the deviation number of an earlier use-as-is decision. No quantity, expiry or approvals were recorded then; it can cover no new decision.
+          This entry was made from the deviation number of an earlier use-as-is decision. No quantity, expiry or approvals were recorded then; it can cover no
+          new decision.
         </Notice>
       )}
       {d.withdrawn && (
@@ -54,8 +61,19 @@ export function DeviationPage() {
       {editing ? (
         <DeviationForm deviation={d} onSaved={() => setEditing(false)} onCancel={() => setEditing(false)} />
       ) : (
-        <Panel title="What it allows" actions={mayEdit && <Button look="secondary" onClick={() => setEditing(true)}>Correct…</Button>}>
-          <p className="text-sm whitespace-pre-line" data-testid="deviation-allowed">{d.allowed}</p>
+        <Panel
+          title="What it allows"
+          actions={
+            mayEdit && (
+              <Button look="secondary" onClick={() => setEditing(true)}>
+                Correct…
+              </Button>
+            )
+          }
+        >
+          <p className="text-sm whitespace-pre-line" data-testid="deviation-allowed">
+            {d.allowed}
+          </p>
           <div className="mt-3">
             <Details
               columns={4}
@@ -104,7 +122,10 @@ export function DeviationPage() {
 function ApprovalForm({ deviation }: { deviation: DeviationView }) {
   const approve = useApproveDeviation(deviation.id);
   const slot = deviation.approvals === 0 ? 'quality' : 'second';
-  const form = useForm<DeviationApprovalInput>({ resolver: zodResolver(deviationApprovalSchema), defaultValues: { password: '', meaningAcknowledged: false as unknown as true } });
+  const form = useForm<DeviationApprovalInput>({
+    resolver: zodResolver(deviationApprovalSchema),
+    defaultValues: { password: '', meaningAcknowledged: false as unknown as true },
+  });
   const submit = form.handleSubmit((values) =>
     approve.mutate(values, {
       onSuccess: () => form.reset(),
@@ -116,10 +137,14 @@ function ApprovalForm({ deviation }: { deviation: DeviationView }) {
   );
   return (
     <form onSubmit={submit} noValidate aria-label="Approve deviation" className="mt-3 space-y-3 border-t border-paper-line pt-3">
-      <p className="text-sm font-medium">{slot === 'quality' ? 'First approval (a quality manager)' : 'Second approval (another quality manager or an administrator)'}</p>
+      <p className="text-sm font-medium">
+        {slot === 'quality' ? 'First approval (a quality manager)' : 'Second approval (another quality manager or an administrator)'}
+      </p>
       {approve.error && <Notice tone="error">{approve.error.message}</Notice>}
       <SignatureFields meaning={DEVIATION_APPROVAL_MEANINGS[slot]} register={form.register} errors={form.formState.errors} idPrefix="approve" />
-      <Button type="submit" disabled={approve.isPending}>{approve.isPending ? 'Signing…' : 'Sign the approval'}</Button>
+      <Button type="submit" disabled={approve.isPending}>
+        {approve.isPending ? 'Signing…' : 'Sign the approval'}
+      </Button>
     </form>
   );
 }
@@ -136,15 +161,24 @@ function WithdrawForm({ deviation }: { deviation: DeviationView }) {
     );
   }
   return (
-    <form onSubmit={form.handleSubmit((values) => withdraw.mutate(values))} noValidate aria-label="Withdraw deviation" className="space-y-3 rounded border border-state-fail/40 bg-paper-card p-4">
+    <form
+      onSubmit={form.handleSubmit((values) => withdraw.mutate(values))}
+      noValidate
+      aria-label="Withdraw deviation"
+      className="space-y-3 rounded border border-state-fail/40 bg-paper-card p-4"
+    >
       <p className="text-sm">A withdrawn deviation covers no further decision; decisions already signed under it stand.</p>
       {withdraw.error && <Notice tone="error">{withdraw.error.message}</Notice>}
       <Field label="Why it is withdrawn" htmlFor="withdraw-reason" error={form.formState.errors.reason?.message}>
         <textarea id="withdraw-reason" rows={2} className={inputClass} {...form.register('reason')} />
       </Field>
       <div className="flex gap-2">
-        <Button type="submit" look="danger" disabled={withdraw.isPending}>Withdraw</Button>
-        <Button look="quiet" onClick={() => setOpen(false)}>Keep it</Button>
+        <Button type="submit" look="danger" disabled={withdraw.isPending}>
+          Withdraw
+        </Button>
+        <Button look="quiet" onClick={() => setOpen(false)}>
+          Keep it
+        </Button>
       </div>
     </form>
   );

@@ -32,10 +32,16 @@ export function DeviationsPage({ writing = false }: { writing?: boolean }) {
       column.accessor('number', { header: 'Deviation', cell: ({ getValue }) => <span className="font-mono font-medium whitespace-nowrap">{getValue()}</span> }),
       column.accessor((d) => d.supplier.name, { id: 'supplier', header: 'Supplier' }),
       column.accessor((d) => d.part.number, { id: 'part', header: 'Part' }),
-      column.accessor('allowed', { header: 'Allows', enableSorting: false, cell: ({ getValue }) => <span className="line-clamp-2 text-xs text-ink-muted">{getValue()}</span> }),
+      column.accessor('allowed', {
+        header: 'Allows',
+        enableSorting: false,
+        cell: ({ getValue }) => <span className="line-clamp-2 text-xs text-ink-muted">{getValue()}</span>,
+      }),
       column.accessor('quantityLeft', {
         header: 'Pieces left',
-        cell: ({ row }) => <span className="tabular-nums">{row.original.quantityLimit === null ? '—' : `${row.original.quantityLeft} of ${row.original.quantityLimit}`}</span>,
+        cell: ({ row }) => (
+          <span className="tabular-nums">{row.original.quantityLimit === null ? '—' : `${row.original.quantityLeft} of ${row.original.quantityLimit}`}</span>
+        ),
       }),
       column.accessor('expiresOn', { header: 'Last day', cell: ({ getValue }) => getValue() ?? '—' }),
       column.accessor('status', { header: 'Standing', cell: ({ getValue }) => <DeviationBadge status={getValue()} /> }),
@@ -63,8 +69,19 @@ export function DeviationsPage({ writing = false }: { writing?: boolean }) {
           onCancel={() => navigate('/deviations')}
         />
       )}
-      <ListToolbar list={{ state, update }} filters={filters} placeholder="Number, supplier, part or text" exportPath="/deviations" summary={list.data && counted(list.data.total, 'deviation')}>
-        <FilterSelect label="Standing" value={filters.status} onChange={(value) => update({ status: value })} options={DEVIATION_STATUSES.map((s) => ({ value: s, label: DEVIATION_STATUS_LABELS[s] }))} />
+      <ListToolbar
+        list={{ state, update }}
+        filters={filters}
+        placeholder="Number, supplier, part or text"
+        exportPath="/deviations"
+        summary={list.data && counted(list.data.total, 'deviation')}
+      >
+        <FilterSelect
+          label="Standing"
+          value={filters.status}
+          onChange={(value) => update({ status: value })}
+          options={DEVIATION_STATUSES.map((s) => ({ value: s, label: DEVIATION_STATUS_LABELS[s] }))}
+        />
       </ListToolbar>
       {list.error && <Notice tone="error">{list.error.message}</Notice>}
       <DataTable

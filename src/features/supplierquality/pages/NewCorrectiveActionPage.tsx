@@ -35,7 +35,10 @@ export function NewCorrectiveActionPage() {
   );
   const errors = form.formState.errors;
   const submit = form.handleSubmit((input) =>
-    raise.mutate({ ...input, nonconformanceIds: input.nonconformanceIds.map(Number) }, { onSuccess: (created) => navigate(`/corrective-actions/${created.id}`), onError: (error) => showServerFieldErrors(error, form.setError) }),
+    raise.mutate(
+      { ...input, nonconformanceIds: input.nonconformanceIds.map(Number) },
+      { onSuccess: (created) => navigate(`/corrective-actions/${created.id}`), onError: (error) => showServerFieldErrors(error, form.setError) },
+    ),
   );
   return (
     <div className="max-w-4xl space-y-3">
@@ -43,9 +46,7 @@ export function NewCorrectiveActionPage() {
       <form onSubmit={submit} noValidate aria-label="New corrective-action request" className="space-y-3 rounded border border-paper-line bg-paper-card p-4">
         {raise.error && <Notice tone="error">{raise.error.message}</Notice>}
         <fieldset>
-          <legend className="mb-1 text-xs font-medium text-ink-muted">
-            NCRs it answers{first && ` (${first.supplierName}, ${first.partNumber})`}
-          </legend>
+          <legend className="mb-1 text-xs font-medium text-ink-muted">NCRs it answers{first && ` (${first.supplierName}, ${first.partNumber})`}</legend>
           {all.isPending && <p className="text-sm text-ink-muted">Reading the NCRs…</p>}
           {all.data && choices.length === 0 && <p className="text-sm text-ink-faint">No NCR to raise a request from.</p>}
           <ul className="max-h-72 space-y-1 overflow-y-auto rounded border border-paper-line p-2">
@@ -55,29 +56,50 @@ export function NewCorrectiveActionPage() {
                   <input
                     type="checkbox"
                     checked={chosen.includes(n.id)}
-                    onChange={(e) => form.setValue('nonconformanceIds', e.target.checked ? [...chosen, n.id] : chosen.filter((id) => id !== n.id), { shouldValidate: form.formState.isSubmitted })}
+                    onChange={(e) =>
+                      form.setValue('nonconformanceIds', e.target.checked ? [...chosen, n.id] : chosen.filter((id) => id !== n.id), {
+                        shouldValidate: form.formState.isSubmitted,
+                      })
+                    }
                   />
                   <span className="font-mono font-medium">{n.number}</span>
-                  <span>{n.supplierName} · {n.partNumber}{n.lotId ? ` · ${lotName(n.lotId)}` : ''}</span>
+                  <span>
+                    {n.supplierName} · {n.partNumber}
+                    {n.lotId ? ` · ${lotName(n.lotId)}` : ''}
+                  </span>
                   <span className="text-xs text-ink-muted">{[`${n.pieces} piece${n.pieces === 1 ? '' : 's'}`, ...n.defects].join('; ')}</span>
                 </label>
               </li>
             ))}
           </ul>
-          {errors.nonconformanceIds && <p role="alert" className="text-xs text-state-fail">{errors.nonconformanceIds.message ?? 'Choose at least one NCR'}</p>}
+          {errors.nonconformanceIds && (
+            <p role="alert" className="text-xs text-state-fail">
+              {errors.nonconformanceIds.message ?? 'Choose at least one NCR'}
+            </p>
+          )}
         </fieldset>
-        <Field label="What the supplier is asked to correct" htmlFor="car-problem" hint="The supplier reads this in the mail and on the answer form." error={errors.problem?.message}>
+        <Field
+          label="What the supplier is asked to correct"
+          htmlFor="car-problem"
+          hint="The supplier reads this in the mail and on the answer form."
+          error={errors.problem?.message}
+        >
           <textarea id="car-problem" rows={4} className={inputClass} {...form.register('problem')} />
         </Field>
         <Field label="Answer due" htmlFor="car-due" error={errors.responseDueOn?.message}>
           <input id="car-due" type="date" className={`${inputClass} max-w-48`} {...form.register('responseDueOn')} />
         </Field>
         <p className="text-xs text-ink-muted">
-          The request goes by mail to the supplier's quality contact with a link to answer it without an account. The link is valid for 30 days and takes one answer; overdue requests are reminded weekly.
+          The request goes by mail to the supplier's quality contact with a link to answer it without an account. The link is valid for 30 days and takes one
+          answer; overdue requests are reminded weekly.
         </p>
         <div className="flex gap-2">
-          <Button type="submit" disabled={raise.isPending}>{raise.isPending ? 'Sending…' : 'Send the request'}</Button>
-          <Button look="secondary" onClick={() => navigate('/corrective-actions')}>Cancel</Button>
+          <Button type="submit" disabled={raise.isPending}>
+            {raise.isPending ? 'Sending…' : 'Send the request'}
+          </Button>
+          <Button look="secondary" onClick={() => navigate('/corrective-actions')}>
+            Cancel
+          </Button>
         </div>
       </form>
     </div>

@@ -29,7 +29,11 @@ export function SupplierResponsePage() {
       <main className="mx-auto max-w-3xl space-y-5 px-4 py-6 sm:px-6">
         {!token && <Notice tone="error">This page needs the link from the request mail. Open the link exactly as it was mailed to you.</Notice>}
         {request.isPending && token && <p className="text-ink-muted">Opening the request…</p>}
-        {request.error && <Notice tone="error" title="The request cannot be opened">{request.error.message}</Notice>}
+        {request.error && (
+          <Notice tone="error" title="The request cannot be opened">
+            {request.error.message}
+          </Notice>
+        )}
         {sentAt && (
           <Notice tone="info" title="Thank you: your answer was received">
             It was recorded on {new Date(sentAt).toLocaleString()} and sent to the buyer and quality, who will review it. This link takes no further answer.
@@ -84,7 +88,16 @@ function AnswerForm({ token, onSent }: { token: string; onSent(at: string): void
   const [fileError, setFileError] = useState<string | null>(null);
   const form = useForm<SupplierResponseInput>({
     resolver: zodResolver(supplierResponseSchema),
-    defaultValues: { responderName: '', rootCause: '', containment: '', correctiveActions: '', preventiveActions: '', containmentOn: '', correctiveDueOn: '', preventiveDueOn: '' },
+    defaultValues: {
+      responderName: '',
+      rootCause: '',
+      containment: '',
+      correctiveActions: '',
+      preventiveActions: '',
+      containmentOn: '',
+      correctiveDueOn: '',
+      preventiveDueOn: '',
+    },
   });
   const errors = form.formState.errors;
   const send = form.handleSubmit((values) => {
@@ -122,11 +135,18 @@ function AnswerForm({ token, onSent }: { token: string; onSent(at: string): void
         {date('correctiveDueOn', 'Corrective actions in effect by')}
         {date('preventiveDueOn', 'Preventive actions by')}
       </div>
-      <Field label="Files (optional)" htmlFor="answer-files" hint={`PDF, PNG or JPEG, up to 10 MB each, at most ${MAX_RESPONSE_FILES}.`} error={fileError ?? undefined}>
+      <Field
+        label="Files (optional)"
+        htmlFor="answer-files"
+        hint={`PDF, PNG or JPEG, up to 10 MB each, at most ${MAX_RESPONSE_FILES}.`}
+        error={fileError ?? undefined}
+      >
         <input id="answer-files" ref={files} type="file" multiple accept="application/pdf,image/png,image/jpeg" className="block text-sm" />
       </Field>
       <p className="text-xs text-ink-muted">The link takes one answer: check it before sending. Your network address is recorded with it.</p>
-      <Button type="submit" disabled={submit.isPending}>{submit.isPending ? 'Sending…' : 'Send the answer'}</Button>
+      <Button type="submit" disabled={submit.isPending}>
+        {submit.isPending ? 'Sending…' : 'Send the answer'}
+      </Button>
     </form>
   );
 }
