@@ -1,6 +1,6 @@
 // Bulk writes with PostgreSQL's COPY, on the connection of a Sequelize transaction, so that the rows
-// land with the rest of the transaction's work or not at all. Rows are streamed as they are made:
-// no statement text of the whole set is built, and nothing is read back.
+// land with the rest of the transaction's work or not at all. Rows go as COPY text in pieces: no
+// statement text of the whole set is built, and nothing is read back.
 import type { ClientBase } from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
 import { DatabaseError, UniqueConstraintError, type Transaction } from 'sequelize';
@@ -14,44 +14,80 @@ export function copyCell(value: string | number | null | undefined): string {
 
 const COPY_ESCAPES: Record<string, string> = { '\\': '\\\\', '\t': '\\t', '\n': '\\n', '\r': '\\r' };
 
-/** Rows are sent in pieces of about this many characters. */
+/** Rows are gathered into pieces of about this many characters. */
 const CHUNK_CHARS = 1 << 16;
+
+/**
+ * Rows of COPY text (cells from copyCell joined by tabs), gathered into pieces as they are added:
+ * a compact form to hold rows in until they can be sent (one string per piece, not one per cell).
+ */
+export class CopyText {
+  private readonly pieces: string[] = [];
+  private pending: string[] = [];
+  private pendingChars = 0;
+  rows = 0;
+
+  add(row: string): void {
+    this.pending.push(row);
+    this.pendingChars += row.length + 1;
+    this.rows++;
+    if (this.pendingChars >= CHUNK_CHARS) this.seal();
+  }
+
+  /** Takes the pieces made so far (all of them when `all`), leaving none behind. */
+  take(all = false): string[] {
+    if (all && this.pending.length) this.seal();
+    return this.pieces.splice(0);
+  }
+
+  private seal() {
+    this.pieces.push(`${this.pending.join('\n')}\n`);
+    this.pending = [];
+    this.pendingChars = 0;
+  }
+}
 
 const connectionOf = (transaction: Transaction) => (transaction as Transaction & { connection?: ClientBase }).connection;
 
 /**
- * COPY `rows` (each one line of COPY text: cells from copyCell joined by tabs) into `table`'s
- * `columns` within `transaction`. PostgreSQL's refusals come back as Sequelize's errors, so that
- * they are answered like those of any other query (a value out of range is the client's to fix).
+ * COPY pieces of text (whole rows, each ended by a line break) into `table`'s `columns` within
+ * `transaction`, as fast as PostgreSQL takes them. Its refusals come back as Sequelize's errors,
+ * so that they are answered like those of any other query (a value out of range is the client's to fix).
  */
-export async function copyRows(transaction: Transaction, table: string, columns: readonly string[], rows: Iterable<string>): Promise<number> {
+export async function copyText(transaction: Transaction, table: string, columns: readonly string[], pieces: Iterable<string>): Promise<void> {
   const connection = connectionOf(transaction);
-  if (!connection) throw new Error('copyRows needs a transaction that holds its connection');
+  if (!connection) throw new Error('COPY needs a transaction that holds its connection');
   const stream = connection.query(copyFrom(`COPY ${table} (${columns.join(', ')}) FROM STDIN`));
   const finished = new Promise<void>((resolve, reject) => {
     stream.on('finish', resolve);
     stream.on('error', reject);
   });
-  // A refusal may arrive while rows are still being written: it is answered once, below.
+  // A refusal may arrive while pieces are still being written: it is answered once, below.
   finished.catch(() => undefined);
-  let count = 0;
   try {
-    let chunk = '';
-    for (const row of rows) {
-      chunk += `${row}\n`;
-      count++;
-      if (chunk.length >= CHUNK_CHARS) {
-        if (stream.errored) break;
-        if (!stream.write(chunk)) await Promise.race([new Promise((resolve) => stream.once('drain', resolve)), finished]);
-        chunk = '';
-      }
+    for (const piece of pieces) {
+      if (stream.errored) break;
+      if (!stream.write(piece)) await Promise.race([new Promise((resolve) => stream.once('drain', resolve)), finished]);
     }
-    if (!stream.errored) stream.end(chunk);
+    if (!stream.errored) stream.end();
     await finished;
   } catch (error) {
     throw asSequelizeError(error);
   }
-  return count;
+}
+
+/** COPY rows (see CopyText) made one by one, sending each piece as soon as it is full; answers how many. */
+export async function copyRows(transaction: Transaction, table: string, columns: readonly string[], rows: Iterable<string>): Promise<number> {
+  const text = new CopyText();
+  function* pieces() {
+    for (const row of rows) {
+      text.add(row);
+      yield* text.take();
+    }
+    yield* text.take(true);
+  }
+  await copyText(transaction, table, columns, pieces());
+  return text.rows;
 }
 
 function asSequelizeError(error: unknown) {

@@ -1,11 +1,11 @@
 // Bench files for a lot: the check of a file (every row through the engine; preview.ts answers it)
 // and the commit (the raw file with its SHA-256, its readings and the per-piece results in one
 // transaction; a new result for a piece supersedes the old one, which stays in the history).
-import type { Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
-import { copyCell, copyRows } from '../../db/copy';
+import { CopyText, copyCell, copyRows, copyText } from '../../db/copy';
 import { Instrument, MeasurementFile } from '../../db/models';
-import { analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type FileMetadata, type LineMessage, type Method, type ParsedRow, type PieceResult } from '../../shared/optics';
+import { analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type AnalyzeOptions, type FileMetadata, type LineMessage, type Method, type ParsedRow, type PieceResult } from '../../shared/optics';
 import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName, type LotState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { AppError, badRequest } from '../http/errors';
@@ -80,21 +80,16 @@ export type CheckedFile = {
   fatal?: string;
 };
 
-/** A checked file, and the rows the engine read (kept for a commit, which stores them as the file's readings). */
-type AnalysedFile = { checked: CheckedFile; columns: string[]; rows: ParsedRow[] };
-
 export async function analyseFile(
   file: UploadedFile,
   lot: LotForInspection,
   chosenInstrumentId: number | undefined,
   transaction?: Transaction,
-  options: { keepRows?: boolean } = {},
-): Promise<AnalysedFile> {
+  options: Pick<AnalyzeOptions, 'onRow'> = {},
+): Promise<CheckedFile> {
   const base = { name: file.originalname, sha256: sha256(file.buffer), sizeBytes: file.buffer.length };
-  const refused = (fatal: string, metadata: AnalysisResult['metadata'], instrument: CheckedFile['instrument'] = null): AnalysedFile => ({
-    checked: { ...base, method: null, metadata, instrument, pieces: [], warnings: [], errors: [], fatal },
-    columns: [],
-    rows: [],
+  const refused = (fatal: string, metadata: AnalysisResult['metadata'], instrument: CheckedFile['instrument'] = null): CheckedFile => ({
+    ...base, method: null, metadata, instrument, pieces: [], warnings: [], errors: [], fatal,
   });
   // Decoded once (byte-order mark dropped, CRLF and CR line ends made LF): the `#` lines read here
   // and the rows the engine reads are lines of the same text.
@@ -118,7 +113,7 @@ export async function analyseFile(
       used,
     );
   }
-  const result = analyzeText(text, pieceSpecFor(lot.spec, instrument), { maxBytes: MAX_MEASUREMENT_BYTES, keepRows: options.keepRows });
+  const result = analyzeText(text, pieceSpecFor(lot.spec, instrument), { maxBytes: MAX_MEASUREMENT_BYTES, onRow: options.onRow });
   const serials = new Set(lot.pieces.map((p) => p.serial));
   const strangers = result.pieces.filter((p) => !serials.has(p.serial));
   const errors = [
@@ -126,41 +121,53 @@ export async function analyseFile(
     ...strangers.flatMap((p) => p.lines.map((line) => ({ line, message: `Serial ${p.serial} is not in lot ${lotName(lot.id)}` }))),
   ].sort((a, b) => a.line - b.line);
   return {
-    checked: {
-      ...base,
-      method: result.method,
-      metadata: result.metadata,
-      instrument: used,
-      pieces: result.pieces.filter((p) => serials.has(p.serial)),
-      warnings: result.warnings,
-      errors,
-      fatal: result.fatal,
-    },
-    columns: result.columns,
-    rows: result.rows,
+    ...base,
+    method: result.method,
+    metadata: result.metadata,
+    instrument: used,
+    pieces: result.pieces.filter((p) => serials.has(p.serial)),
+    warnings: result.warnings,
+    errors,
+    fatal: result.fatal,
   };
 }
 
 /**
- * The file's rows as the readings table keeps them, as COPY lines: file, line, serial, wavelength and
- * the row's cells by column name as JSON (trimmed; the first of a repeated name).
+ * A file's readings as COPY text of the readings table, made while the engine reads its rows: file,
+ * line, serial, wavelength and the row's cells by column name as JSON (trimmed; the first of a
+ * repeated name). Held this compact way, not as the parsed rows, until the file may be saved.
  */
-function* readingLines(fileId: number, columns: string[], rows: readonly ParsedRow[]): Generator<string> {
-  const named = columns.flatMap((name, index) => (name !== '' && columns.indexOf(name) === index ? [index] : []));
-  // The object's text is assembled from its keys written once, not built and stringified per row.
-  const keys = named.map((index, k) => `${k === 0 ? '{' : ','}${JSON.stringify(columns[index])}:`);
-  for (const { line, serial, wavelengthNm, cells } of rows) {
-    let fields = named.length === 0 ? '{' : '';
-    for (let k = 0; k < named.length; k++) fields += keys[k] + JSON.stringify((cells[named[k]] ?? '').trim());
-    yield `${fileId}\t${line}\t${copyCell(serial)}\t${wavelengthNm}\t${copyCell(`${fields}}`)}`;
-  }
+class ReadingsText {
+  readonly text = new CopyText();
+  /** Index of each named column (first of a repeated name) and its JSON key, from the header. */
+  private named: { index: number; key: string }[] | null = null;
+
+  constructor(readonly fileId: number) {}
+
+  add = ({ line, serial, wavelengthNm, cells }: ParsedRow, columns: readonly string[]) => {
+    this.named ??= columns.flatMap((name, index) => (name !== '' && columns.indexOf(name) === index ? [{ index, key: JSON.stringify(name) }] : []));
+    // The object's text is assembled from its keys written once, not built and stringified per row.
+    let fields = '';
+    for (const { index, key } of this.named) fields += `${fields === '' ? '{' : ','}${key}:${JSON.stringify((cells[index] ?? '').trim())}`;
+    this.text.add(`${this.fileId}\t${line}\t${copyCell(serial)}\t${wavelengthNm}\t${copyCell(`${fields || '{'}}`)}`);
+  };
 }
 
-/** The file's results as COPY lines of piece_results: piece, file, wavelength, verdict and the engine's result. */
-function* resultLines(fileId: number, pieces: readonly PieceResult[], pieceIdBySerial: Map<string, number>): Generator<string> {
+/** The file's results as COPY rows of piece_results: piece, file, wavelength, verdict and the engine's result. */
+function* resultRows(fileId: number, pieces: readonly PieceResult[], pieceIdBySerial: Map<string, number>): Generator<string> {
   for (const piece of pieces) {
     yield `${pieceIdBySerial.get(piece.serial)}\t${fileId}\t${piece.wavelengthNm}\t${piece.verdict}\t${copyCell(JSON.stringify(piece))}`;
   }
+}
+
+/** A file checked for a commit, with its readings ready to be written under the id its row will have. */
+type FileToSave = { file: UploadedFile; checked: CheckedFile; readings: ReadingsText };
+
+async function checkForSaving(file: UploadedFile, lot: LotForInspection, instrumentId: number | undefined, transaction: Transaction): Promise<FileToSave> {
+  // The row's id is taken first, so that the readings can be written out as the engine reads them.
+  const [{ id }] = await sequelize.query<{ id: number }>(`SELECT nextval(pg_get_serial_sequence('measurement_files', 'id'))::int AS id`, { type: QueryTypes.SELECT, transaction });
+  const readings = new ReadingsText(id);
+  return { file, readings, checked: await analyseFile(file, lot, instrumentId, transaction, { onRow: readings.add }) };
 }
 
 /**
@@ -169,18 +176,19 @@ function* resultLines(fileId: number, pieces: readonly PieceResult[], pieceIdByS
  * Readings and results go in by COPY and nothing is read back, so a file of 100,000 rows costs
  * about what the database takes to write them.
  */
-async function saveFile(actor: AuditActor & { id: number }, lot: LotForInspection, file: UploadedFile, analysed: AnalysedFile, transaction: Transaction) {
-  const { checked, columns, rows } = analysed;
-  const pieces = checked.pieces;
-  const stored = await MeasurementFile.create(
+async function saveFile(actor: AuditActor & { id: number }, lot: LotForInspection, { file, checked, readings }: FileToSave, transaction: Transaction) {
+  const { pieces } = checked;
+  const rows = readings.text.rows;
+  const fileId = readings.fileId;
+  await MeasurementFile.create(
     {
-      lotId: lot.id, instrumentId: checked.instrument!.id, originalName: checked.name, sha256: checked.sha256, sizeBytes: checked.sizeBytes,
-      method: checked.method!, metadata: checked.metadata as Record<string, string>, rowCount: rows.length, warnings: checked.warnings,
+      id: fileId, lotId: lot.id, instrumentId: checked.instrument!.id, originalName: checked.name, sha256: checked.sha256, sizeBytes: checked.sizeBytes,
+      method: checked.method!, metadata: checked.metadata as Record<string, string>, rowCount: rows, warnings: checked.warnings,
       storageKey: await storeBlob(file.buffer, transaction), uploadedBy: actor.id,
     },
     { transaction },
   );
-  await copyRows(transaction, 'readings', ['file_id', 'line', 'serial', 'wavelength_nm', 'fields'], readingLines(stored.id, columns, rows));
+  await copyText(transaction, 'readings', ['file_id', 'line', 'serial', 'wavelength_nm', 'fields'], readings.text.take(true));
   const pieceIdBySerial = new Map(lot.pieces.map((p) => [p.serial, p.id]));
   // The new file's results replace the current ones of the same pieces at the same wavelengths
   // (compared as the table stores wavelengths, to 0.001 nm).
@@ -188,15 +196,15 @@ async function saveFile(actor: AuditActor & { id: number }, lot: LotForInspectio
     `UPDATE piece_results r SET superseded_by_file_id = $1
      FROM unnest($2::int[], $3::numeric(9, 3)[]) AS measured(piece_id, wavelength_nm)
      WHERE r.piece_id = measured.piece_id AND r.wavelength_nm = measured.wavelength_nm AND r.superseded_by_file_id IS NULL`,
-    { transaction, bind: [stored.id, pieces.map((piece) => pieceIdBySerial.get(piece.serial)!), pieces.map((piece) => piece.wavelengthNm)] },
+    { transaction, bind: [fileId, pieces.map((piece) => pieceIdBySerial.get(piece.serial)!), pieces.map((piece) => piece.wavelengthNm)] },
   );
-  await copyRows(transaction, 'piece_results', ['piece_id', 'file_id', 'wavelength_nm', 'verdict', 'result'], resultLines(stored.id, pieces, pieceIdBySerial));
+  await copyRows(transaction, 'piece_results', ['piece_id', 'file_id', 'wavelength_nm', 'verdict', 'result'], resultRows(fileId, pieces, pieceIdBySerial));
   await recordAudit(
     actor,
-    { action: 'measurement.upload', entityType: 'lot', entityId: lot.id, after: { fileId: stored.id, name: checked.name, sha256: checked.sha256, pieces: pieces.length, instrument: checked.instrument!.code } },
+    { action: 'measurement.upload', entityType: 'lot', entityId: lot.id, after: { fileId, name: checked.name, sha256: checked.sha256, pieces: pieces.length, instrument: checked.instrument!.code } },
     transaction,
   );
-  return { fileId: stored.id, name: checked.name, sha256: checked.sha256, pieces: pieces.length, rows: rows.length };
+  return { fileId, name: checked.name, sha256: checked.sha256, pieces: pieces.length, rows };
 }
 
 /** A file with an error is refused whole: nothing of it may be saved. */
@@ -206,16 +214,17 @@ export function commitMeasurements(actor: AuditActor & { id: number }, lotId: nu
   if (files.length === 0) throw badRequest('Attach at least one measurement file');
   return inTransaction(async (transaction) => {
     const lot = openLot(await lotForInspection(lotId, transaction, { lock: true }));
-    const analysed: (AnalysedFile | null)[] = await Promise.all(files.map((f) => analyseFile(f, lot, instrumentId, transaction, { keepRows: true })));
-    const refused = analysed.map((a) => a!.checked).filter(cannotBeSaved);
+    const toSave: (FileToSave | null)[] = [];
+    for (const file of files) toSave.push(await checkForSaving(file, lot, instrumentId, transaction));
+    const refused = toSave.map((f) => f!.checked).filter(cannotBeSaved);
     if (refused.length) {
       throw new AppError(422, 'measurement_errors', 'Nothing was saved: fix the errors in the file(s) and upload again', refused.map((p) => ({ name: p.name, fatal: p.fatal, errors: p.errors })));
     }
     const committed = [];
-    for (const [index, file] of files.entries()) {
-      committed.push(await saveFile(actor, lot, file, analysed[index]!, transaction));
-      // A saved file's rows are let go before the next one is written.
-      analysed[index] = null;
+    for (const [index, file] of toSave.entries()) {
+      committed.push(await saveFile(actor, lot, file!, transaction));
+      // A saved file's readings are let go before the next one is written.
+      toSave[index] = null;
     }
     // The supplier's drift check reads the new results as soon as they are committed.
     await enqueue(QUEUES.supplierDriftCheck, { lotId }, transaction);

@@ -109,7 +109,7 @@ export async function previewMeasurements(lotId: number, files: UploadedFile[], 
   const checked: CheckedFile[] = [];
   const previews: FilePreview[] = [];
   for (const file of files) {
-    const { checked: one } = await analyseFile(file, lot, instrumentId);
+    const one = await analyseFile(file, lot, instrumentId);
     const lists = listsOf(one);
     // A file refused whole has no lists to page through.
     if (!one.fatal) {
@@ -136,7 +136,7 @@ export async function previewPage(
     if (!(await blobStore.has(sha256))) {
       throw new AppError(404, 'preview_expired', 'This file is no longer held for its preview: check the file again');
     }
-    const { checked } = await analyseFile({ originalname: '', buffer: await readBlob(sha256) }, lot, query.instrumentId);
+    const checked = await analyseFile({ originalname: '', buffer: await readBlob(sha256) }, lot, query.instrumentId);
     lists = listsOf(checked);
     keep(key, lists);
   }

@@ -16,7 +16,7 @@ function start(specInput: PieceSpecInput, options: AnalyzeOptions): { spec: Piec
   const { spec } = parsed;
   return {
     spec,
-    collector: new ReadingCollector({ s3Sign: spec.s3Sign, angleSign: spec.angleSign }, options.maxRows ?? DEFAULT_MAX_ROWS, options.keepRows ?? false),
+    collector: new ReadingCollector({ s3Sign: spec.s3Sign, angleSign: spec.angleSign }, options.maxRows ?? DEFAULT_MAX_ROWS, options),
   };
 }
 

@@ -14,7 +14,8 @@
  *     The results are the same.
  *
  *   AnalyzeOptions = { maxBytes?: number (default 32 MiB), maxRows?: number (default 200,000),
- *                      keepRows?: boolean (default false: rows stay empty) }
+ *                      keepRows?: boolean (default false: rows stay empty),
+ *                      onRow?: (row, columns) => void (each row that becomes a reading, as it is read) }
  *
  *     Every form reads the text as normalizeText leaves it: no byte-order mark, CRLF and CR line
  *     ends as LF, so line numbers and `#` lines are the same for all of them.
@@ -24,7 +25,7 @@
  *     metadata: { instrument?, operator?, method?, ...every `# key: value` line },
  *     columns: string[],          the header's names, trimmed and lower-case
  *     rows: ParsedRow[],          with keepRows, every data row that became a reading: { line, serial,
- *                                 wavelengthNm, cells }, in file order (what the server stores)
+ *                                 wavelengthNm, cells }, in file order (what onRow is handed one by one)
  *     pieces: PieceResult[],      one per serial and wavelength, in file order
  *     serials: SerialResult[],    one per serial: its verdict over all its wavelengths
  *     warnings: { line, message }[],

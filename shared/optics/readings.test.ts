@@ -217,6 +217,18 @@ describe('one reading of the text, whatever its line ends', () => {
     expect(result.rows[0]).toEqual({ line: 4, serial: 'QW-0001', wavelengthNm: 632.8, cells: `${good()[0]},21.5`.split(',') });
     expect(result.rows.map((r) => r.line)).toEqual(result.pieces[0].lines);
   });
+
+  it('hands each row to onRow as it is read: the rows keepRows returns, in the same order, with the header', () => {
+    const text = lines(`${STOKES_HEADER},temperature_c`, good('QW-0001'), 'QW-0002,632.8,H,abc,1,0,0,0', good('QW-0002'));
+    const handed: { line: number; columns: readonly string[] }[] = [];
+    const seen = analyzeText(text, QWP, { onRow: (row, columns) => handed.push({ line: row.line, columns }) });
+    const kept = analyzeText(text, QWP, { keepRows: true });
+    expect(seen.rows).toEqual([]);
+    expect(handed.map((h) => h.line)).toEqual(kept.rows.map((r) => r.line));
+    // The row with an error (line 8) became no reading, so it is not handed.
+    expect(handed.map((h) => h.line)).not.toContain(8);
+    expect(handed[0].columns).toEqual(kept.columns);
+  });
 });
 
 describe('files that must be refused whole', () => {

@@ -6,7 +6,7 @@
 import { ANALYZERS, type Analyzer, type ScanReading } from './scan.js';
 import { degreeOfPolarization, inputStateReader, toOurFrame, type InstrumentProfile, type Stokes } from './stokes.js';
 import { normalizeText } from './text.js';
-import { METHODS, type FileMetadata, type LineMessage, type Method, type ParsedRow } from './types.js';
+import { METHODS, type AnalyzeOptions, type FileMetadata, type LineMessage, type Method, type ParsedRow } from './types.js';
 import { DEG, parseRetardanceUnit, toWaves } from './units.js';
 
 export interface StokesReading {
@@ -36,8 +36,8 @@ export interface Group<M extends Method = Method> {
   /** Lines of this piece's rows that had errors (those rows are not in `readings`). */
   errorLines: number[];
   readings: ReadingsByMethod[M][];
-  /** What each reading measured (repeatKey) and on which line, to catch a row read twice. */
-  measuredOn: Map<string, number>;
+  /** What each reading measured (its repeat key), in the order of `readings` and `lines`, to catch a row read twice. */
+  measured: string[];
 }
 
 export interface Collected {
@@ -224,17 +224,24 @@ export class ReadingCollector {
   private readonly metadata: FileMetadata = {};
   private readonly metadataLines = new Map<string, number>();
   private readonly parsedRows: ParsedRow[] = [];
-  /** By serial, then by wavelength; `ordered` keeps the file's order. */
-  private readonly groups = new Map<string, Map<number, Group>>();
+  /** Each serial's groups, one per wavelength; `ordered` keeps the file's order. */
+  private readonly groups = new Map<string, Group[]>();
+  /** The group of the row before: a piece's rows usually follow each other. */
+  private lastGroup: Group | undefined;
   private readonly ordered: Group[] = [];
   private readonly warnings: LineMessage[] = [];
   private readonly errors: LineMessage[] = [];
 
+  private readonly keepRows: boolean;
+  private readonly onRow: AnalyzeOptions['onRow'];
+
   constructor(
     private readonly profile: InstrumentProfile,
     private readonly maxRows: number,
-    private readonly keepRows = false,
+    rows: Pick<AnalyzeOptions, 'keepRows' | 'onRow'> = {},
   ) {
+    this.keepRows = rows.keepRows ?? false;
+    this.onRow = rows.onRow;
     this.context = { profile, readInput: inputStateReader(profile), line: 0, wavelengthNm: NaN };
   }
 
@@ -352,7 +359,7 @@ export class ReadingCollector {
     }
     const repeats = REPEATS[method] as RepeatCheck<Method>;
     const key = group && problems.length === 0 ? repeats.key(reading) : '';
-    const measuredOn = group && problems.length === 0 ? group.measuredOn.get(key) : undefined;
+    const measuredOn = group && problems.length === 0 ? group.lines[group.measured.indexOf(key)] : undefined;
     if (measuredOn !== undefined) {
       problems.push(`repeats line ${measuredOn}: ${serial} at ${wavelengthNm} nm with ${repeats.what(reading, fields, columns)} is already measured there`);
     }
@@ -363,23 +370,30 @@ export class ReadingCollector {
     }
     if (group!.readings.length === 0) group!.mountDeg = mountDeg;
     group!.lines.push(line);
-    group!.measuredOn.set(key, line);
+    group!.measured.push(key);
     (group!.readings as ReadingsByMethod[Method][]).push(reading);
-    if (this.keepRows) this.parsedRows.push({ line, serial, wavelengthNm, cells: fields });
+    if (this.keepRows || this.onRow) {
+      const row = { line, serial, wavelengthNm, cells: fields };
+      if (this.keepRows) this.parsedRows.push(row);
+      this.onRow?.(row, this.columnNames);
+    }
   }
 
   private group(serial: string, wavelengthNm: number, mountDeg: number): Group {
+    const last = this.lastGroup;
+    if (last && last.wavelengthNm === wavelengthNm && last.serial === serial) return last;
     let bySerial = this.groups.get(serial);
     if (!bySerial) {
-      bySerial = new Map();
+      bySerial = [];
       this.groups.set(serial, bySerial);
     }
-    let group = bySerial.get(wavelengthNm);
+    let group = bySerial.find((g) => g.wavelengthNm === wavelengthNm);
     if (!group) {
-      group = { serial, wavelengthNm, mountDeg, lines: [], errorLines: [], readings: [], measuredOn: new Map() };
-      bySerial.set(wavelengthNm, group);
+      group = { serial, wavelengthNm, mountDeg, lines: [], errorLines: [], readings: [], measured: [] };
+      bySerial.push(group);
       this.ordered.push(group);
     }
+    this.lastGroup = group;
     return group;
   }
 

@@ -107,8 +107,14 @@ export interface AnalyzeOptions {
   maxBytes?: number;
   /** Most data rows accepted (default 200,000). */
   maxRows?: number;
-  /** Return the rows read (`rows`), as the server does to store them; holding them costs memory and time. */
+  /** Return the rows read (`rows`); holding them costs memory and time. */
   keepRows?: boolean;
+  /**
+   * Called with each row that becomes a reading as soon as it is read, in file order, with the
+   * header's names: how the server stores the rows without holding them all. A file refused whole
+   * may have handed some rows before it was refused.
+   */
+  onRow?: (row: ParsedRow, columns: readonly string[]) => void;
 }
 
 export const DEFAULT_MAX_BYTES = 32 * 1024 * 1024;
