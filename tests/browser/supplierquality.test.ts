@@ -1,6 +1,7 @@
 // Supplier quality in the browser: the supplier answers a corrective-action request through the
 // mailed link, with no account and under the content security policy; quality reviews the answer;
 // a quality manager uses a rejected lot as is under a deviation picked from the register.
+import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -8,7 +9,8 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { approvedDeviation, rejectedSample } from '../helpers/deviations';
 import { mailedToken, ncrOf, raiseRequest, supplierWithQualityContact } from '../helpers/correctiveActions';
-import { supplierPart } from '../helpers/switching';
+import { app, as } from '../helpers/api';
+import { decide, supplierPart } from '../helpers/switching';
 import { signedInPage, startBrowserRig, type BrowserRig } from './browser';
 
 const TINY_PNG = Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNkYPhfDwAChwGA60e6kgAAAABJRU5ErkJggg==', 'base64');
@@ -114,6 +116,13 @@ describe('supplier quality in the browser', () => {
     const buyer = await signedInPage(rig, 'buyer');
     const problems = await watchPolicy(buyer);
 
+    // The supplier's quality contact, where requests go, is on the supplier form.
+    await buyer.goto(`${rig.baseUrl}/purchasing/suppliers?q=${pair.tag}`);
+    await buyer.getByRole('cell', { name: `Test supplier ${pair.tag}` }).click();
+    const supplierForm = buyer.getByRole('form', { name: `Edit Test supplier ${pair.tag}` });
+    expect(await supplierForm.getByLabel('Quality contact e-mail').inputValue()).toBe(pair.qualityContactEmail);
+    await screenshots(buyer, 'supplier-form');
+
     // Coming from an NCR, the form offers only NCRs of its supplier and part, that one ticked.
     await buyer.goto(`${rig.baseUrl}/corrective-actions/new?ncr=${first.id}`);
     const form = buyer.getByRole('form', { name: 'New corrective-action request' });
@@ -191,6 +200,50 @@ describe('supplier quality in the browser', () => {
     await quality.goto(`${rig.baseUrl}/deviations?status=current`);
     await quality.getByRole('cell', { name: deviation.number }).waitFor();
     await screenshots(quality, 'deviations-list');
+    expect(problems).toEqual([]);
+    await quality.context().close();
+  });
+
+  it('resumes inspection after discontinuation on an accepted request picked in the form, and the history links to it', async () => {
+    const pair = await supplierWithQualityContact();
+    // ISO 2859-1, 9.3: five lots not accepted on tightened inspection discontinue acceptance.
+    for (let i = 0; i < 7; i++) await decide((await pair.receive(5)).lotId, 'reject');
+    const car = await raiseRequest([(await ncrOf(pair)).id]);
+    const { token } = await mailedToken(car.id);
+    await request(app)
+      .post('/api/corrective-actions/respond')
+      .set('X-Response-Link', token)
+      .field('responderName', 'Ilse Varga')
+      .field('rootCause', 'Worn polishing pitch on line 2.')
+      .field('containment', 'Stock sorted 100 % at our site.')
+      .field('correctiveActions', 'Pitch replaced; service life set.')
+      .field('preventiveActions', 'Every plate measured before packing.')
+      .field('correctiveDueOn', '2026-12-15')
+      .expect(201);
+    await (
+      await as('quality')
+    )
+      .post(`/api/corrective-actions/${car.id}/review`)
+      .send({ decision: 'accept', password: 'phaselot-demo', meaningAcknowledged: true })
+      .expect(200);
+
+    const quality = await signedInPage(rig, 'quality');
+    const problems = await watchPolicy(quality);
+    await quality.goto(`${rig.baseUrl}/switching/${pair.supplierId}/${pair.partId}`);
+    const form = quality.getByRole('form', { name: 'Resume inspection' });
+    const picker = form.getByLabel('Accepted corrective-action request');
+    await picker.locator(`option[value="${car.id}"]`).waitFor({ state: 'attached' });
+    await picker.selectOption(String(car.id));
+    // The request names itself: no free-text reference is asked for.
+    expect(await form.getByLabel('Reference of the corrective action').count()).toBe(0);
+    await form.getByLabel("Supplier's corrective action").fill('Polishing pitch replaced; every plate measured before packing.');
+    await form.getByLabel(/I have read the meaning/).check();
+    await form.getByLabel('Your password (re-entered to sign)').fill('phaselot-demo');
+    await screenshots(quality, 'resume-on-request');
+    await form.getByRole('button', { name: /Sign: resume/ }).click();
+    await quality.getByTestId('switching-phase').filter({ hasText: 'Tightened inspection' }).waitFor();
+    await quality.getByRole('region', { name: 'History' }).getByRole('link', { name: car.number }).click();
+    await quality.getByRole('heading', { name: `Corrective action ${car.number}` }).waitFor();
     expect(problems).toEqual([]);
     await quality.context().close();
   });

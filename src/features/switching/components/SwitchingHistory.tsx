@@ -46,7 +46,18 @@ export function SwitchingHistory({ entries }: { entries: SwitchingHistoryEntry[]
               <blockquote className="border-l-2 border-paper-line pl-2 text-xs">
                 {entry.kind === 'resume' ? 'Corrective action: ' : 'Reason: '}
                 {entry.reason}
-                {entry.reference && <span className="font-mono"> ({entry.reference})</span>}
+                {entry.reference &&
+                  (entry.correctiveActionId ? (
+                    <>
+                      {' ('}
+                      <Link to={`/corrective-actions/${entry.correctiveActionId}`} className="font-mono">
+                        {entry.reference}
+                      </Link>
+                      {')'}
+                    </>
+                  ) : (
+                    <span className="font-mono"> ({entry.reference})</span>
+                  ))}
               </blockquote>
             )}
             {entry.by && <p className="text-2xs text-ink-faint">{entry.kind === 'lot' ? 'Decision signed by' : 'Signed by'} {entry.by}</p>}
