@@ -48,7 +48,7 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
     }
     // Every piece of the lot is released under the deviation, so it must cover them all.
     const deviation =
-      input.decision === 'use-as-is' ? await takeDeviation({ deviationId: input.deviationId!, supplierId: lot.supplier.id, partId: lot.part.id, quantity: lot.pieces.length }, transaction) : null;
+      input.decision === 'use-as-is' ? await takeDeviation({ deviationId: input.deviationId!, supplierId: lot.supplier.id, partId: lot.part.id, quantity: lot.pieces.length, pieceIds: lot.pieces.map((p) => p.id) }, transaction) : null;
     const disposition = await DispositionRecord.create(
       {
         lotId,

@@ -8,6 +8,7 @@ import { sequelize } from '../../../db';
 import { DEMO_PASSWORD } from '../../../db/seeders/demo';
 import { app, as, freshUser } from '../../../tests/helpers/api';
 import { approvedDeviation, rejectedSample, useAsIs } from '../../../tests/helpers/deviations';
+import { sampleOf } from '../../../tests/helpers/bench';
 import { sign, supplierPart } from '../../../tests/helpers/switching';
 
 const SIGN = { password: DEMO_PASSWORD, meaningAcknowledged: true };
@@ -140,7 +141,7 @@ describe('/api/deviations', () => {
     expect(lot.state).toBe('awaiting-disposition');
   });
 
-  it('refuses a deviation that is expired, not fully approved, withdrawn or for another part', async () => {
+  it('refuses a deviation that is expired, not fully approved, withdrawn, for another part or narrower than what was measured', async () => {
     const pair = await supplierPart();
     const lotId = await rejectedSample(pair);
 
@@ -188,8 +189,20 @@ describe('/api/deviations', () => {
     );
     expect((await entry(earlier.id)).status).toBe('earlier');
 
+    // A deviation that widens the retardance tolerance covers only plates measured inside the wider
+    // tolerance: the failing plates of this lot are 0.006 λ long (the bench fixture's "bad" plates).
+    const tooNarrow = await approvedDeviation(pair.supplierId, pair.partId, { retardanceTolWaves: 0.005 });
+    const narrow = await status(useAsIs(lotId, tooNarrow.id), 409);
+    const { sample } = await sampleOf(lotId);
+    expect(narrow.body.error.message).toBe(
+      `Deviation ${tooNarrow.number} widens the tolerance to retardance ±0.005 λ; these pieces were measured outside it: ${sample[0]}`,
+    );
+
     // Nothing was signed or moved by the refusals.
     expect((await (await as('auditor')).get(`/api/lots/${lotId}`).expect(200)).body.state).toBe('awaiting-disposition');
+
+    const wideEnough = await approvedDeviation(pair.supplierId, pair.partId, { retardanceTolWaves: 0.01 });
+    await status(useAsIs(lotId, wideEnough.id), 201);
   });
 
   it('lists the register with each entry’s standing, filters by supplier, part and status, and exports CSV', async () => {
