@@ -59,6 +59,12 @@ export function NcrPage() {
         subtitle={
           <>
             {ncr.part.number} · {ncr.part.description} from {ncr.supplier.name}
+            {can(user, 'corrective.manage') && (
+              <>
+                {' · '}
+                <Link to={`/corrective-actions/new?ncr=${ncr.id}`}>ask the supplier for a corrective action</Link>
+              </>
+            )}
           </>
         }
         actions={<StateBadge state={ncr.status} label={NCR_STATUS_LABELS[ncr.status]} />}
