@@ -24,7 +24,8 @@ describe('/api/lots', () => {
     const auditor = await as('auditor');
     await receiveThroughApi(3);
     type Listed = { id: number; accepted: number; receivedAt: string };
-    for (const [sort, value] of [['-accepted', (l: Listed) => l.accepted], ['accepted', (l: Listed) => l.accepted], ['-receivedAt', (l: Listed) => l.receivedAt], ['receivedAt', (l: Listed) => l.receivedAt]] as const) {
+    const orders: [string, (l: Listed) => number | string][] = [['-accepted', (l) => l.accepted], ['accepted', (l) => l.accepted], ['-receivedAt', (l) => l.receivedAt], ['receivedAt', (l) => l.receivedAt]];
+    for (const [sort, value] of orders) {
       const page = async (n: number) => (await auditor.get('/api/lots').query({ sort, pageSize: 3, page: n }).expect(200)).body.data as Listed[];
       const lots = [...(await page(1)), ...(await page(2))];
       expect(lots).toHaveLength(6);
