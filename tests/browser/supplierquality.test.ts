@@ -123,8 +123,9 @@ describe('supplier quality in the browser', () => {
     expect(await supplierForm.getByLabel('Quality contact e-mail').inputValue()).toBe(pair.qualityContactEmail);
     await screenshots(buyer, 'supplier-form');
 
-    // Coming from an NCR, the form offers only NCRs of its supplier and part, that one ticked.
-    await buyer.goto(`${rig.baseUrl}/corrective-actions/new?ncr=${first.id}`);
+    // From the NCR's page, the form offers only NCRs of its supplier and part, that one ticked.
+    await buyer.goto(`${rig.baseUrl}/nonconformances/${first.id}`);
+    await buyer.getByRole('link', { name: 'ask the supplier for a corrective action' }).click();
     const form = buyer.getByRole('form', { name: 'New corrective-action request' });
     await form.getByText(`NCRs it answers (Test supplier ${pair.tag}, T-${pair.tag})`).waitFor();
     const boxes = form.getByRole('checkbox');
