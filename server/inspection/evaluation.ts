@@ -92,9 +92,12 @@ const resultKey = (pieceId: number, wavelengthNm: number) => `${pieceId}@${Math.
 export async function lotProposal(lot: LotForInspection, transaction?: Transaction, incoming: ResultVerdict[] = []) {
   const { plan, sampleIds } = await planAndSample(lot, transaction);
   const current = await sequelize.query<ResultVerdict>(
-    `SELECT r.piece_id AS "pieceId", r.wavelength_nm::float8 AS "wavelengthNm", r.verdict, coalesce((r.result->>'judged')::boolean, true) AS judged
-       FROM piece_results r JOIN pieces p ON p.id = r.piece_id
-      WHERE p.lot_id = :lotId AND r.superseded_by_file_id IS NULL`,
+    // Each piece's current results looked up in their index by the piece, whatever the size of the
+    // table (OFFSET 0 keeps the planner from turning the lookups into a scan of every result).
+    `SELECT p.id AS "pieceId", r.wavelength_nm::float8 AS "wavelengthNm", r.verdict, coalesce((r.result->>'judged')::boolean, true) AS judged
+       FROM pieces p
+       CROSS JOIN LATERAL (SELECT wavelength_nm, verdict, result FROM piece_results WHERE piece_id = p.id AND superseded_by_file_id IS NULL OFFSET 0) r
+      WHERE p.lot_id = :lotId`,
     { type: QueryTypes.SELECT, transaction, replacements: { lotId: lot.id } },
   );
   const results = new Map(current.map((r) => [resultKey(r.pieceId, r.wavelengthNm), r]));

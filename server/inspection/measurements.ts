@@ -1,11 +1,11 @@
 // Bench files for a lot: the check of a file (every row through the engine; preview.ts answers it)
 // and the commit (the raw file with its SHA-256, its readings and the per-piece results in one
 // transaction; a new result for a piece supersedes the old one, which stays in the history).
-import { QueryTypes, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
-import { CopyText, copyCell, copyRows, copyText } from '../../db/copy';
+import { CopyText, copyCell, copyRows, openCopy, type CopySink } from '../../db/copy';
 import { Instrument, MeasurementFile } from '../../db/models';
-import { analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type AnalyzeOptions, type FileMetadata, type LineMessage, type Method, type ParsedRow, type PieceResult } from '../../shared/optics';
+import { analyzeStream, analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type FileMetadata, type LineMessage, type Method, type ParsedRow, type PieceResult } from '../../shared/optics';
 import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName, type LotState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { AppError, badRequest } from '../http/errors';
@@ -80,16 +80,22 @@ export type CheckedFile = {
   fatal?: string;
 };
 
-export async function analyseFile(
-  file: UploadedFile,
-  lot: LotForInspection,
-  chosenInstrumentId: number | undefined,
-  transaction?: Transaction,
-  options: Pick<AnalyzeOptions, 'onRow'> = {},
-): Promise<CheckedFile> {
+type Prepared = {
+  base: Pick<CheckedFile, 'name' | 'sha256' | 'sizeBytes'>;
+  /** The file's text as every reader sees it (no byte-order mark, LF line ends). */
+  text: string;
+  instrument: Instrument;
+  used: { id: number; code: string };
+};
+
+/**
+ * A file before its rows are read: refused already (not text; an instrument unknown, contradicted or
+ * out of calibration; a bad date), or ready for the engine with the instrument that shapes the analysis.
+ */
+async function prepareFile(file: UploadedFile, lot: LotForInspection, chosenInstrumentId: number | undefined, transaction?: Transaction): Promise<{ refused: CheckedFile } | Prepared> {
   const base = { name: file.originalname, sha256: sha256(file.buffer), sizeBytes: file.buffer.length };
-  const refused = (fatal: string, metadata: AnalysisResult['metadata'], instrument: CheckedFile['instrument'] = null): CheckedFile => ({
-    ...base, method: null, metadata, instrument, pieces: [], warnings: [], errors: [], fatal,
+  const refused = (fatal: string, metadata: AnalysisResult['metadata'], instrument: CheckedFile['instrument'] = null) => ({
+    refused: { ...base, method: null, metadata, instrument, pieces: [], warnings: [], errors: [], fatal },
   });
   // Decoded once (byte-order mark dropped, CRLF and CR line ends made LF): the `#` lines read here
   // and the rows the engine reads are lines of the same text.
@@ -113,7 +119,11 @@ export async function analyseFile(
       used,
     );
   }
-  const result = analyzeText(text, pieceSpecFor(lot.spec, instrument), { maxBytes: MAX_MEASUREMENT_BYTES, onRow: options.onRow });
+  return { base, text, instrument, used };
+}
+
+/** The engine's result for the lot: its pieces, and rows of serials not in the lot among the errors. */
+function checkedOf({ base, used }: Prepared, lot: LotForInspection, result: AnalysisResult): CheckedFile {
   const serials = new Set(lot.pieces.map((p) => p.serial));
   const strangers = result.pieces.filter((p) => !serials.has(p.serial));
   const errors = [
@@ -132,25 +142,72 @@ export async function analyseFile(
   };
 }
 
+/** Checks a file for the lot, writing nothing. */
+export async function analyseFile(file: UploadedFile, lot: LotForInspection, chosenInstrumentId: number | undefined, transaction?: Transaction): Promise<CheckedFile> {
+  const prepared = await prepareFile(file, lot, chosenInstrumentId, transaction);
+  if ('refused' in prepared) return prepared.refused;
+  return checkedOf(prepared, lot, analyzeText(prepared.text, pieceSpecFor(lot.spec, prepared.instrument), { maxBytes: MAX_MEASUREMENT_BYTES }));
+}
+
 /**
- * A file's readings as COPY text of the readings table, made while the engine reads its rows: file,
+ * A file's readings as COPY rows of the readings table, written as the engine reads them: file,
  * line, serial, wavelength and the row's cells by column name as JSON (trimmed; the first of a
- * repeated name). Held this compact way, not as the parsed rows, until the file may be saved.
+ * repeated name).
  */
-class ReadingsText {
-  readonly text = new CopyText();
-  /** Index of each named column (first of a repeated name) and its JSON key, from the header. */
+class ReadingsCopy {
+  private readonly text = new CopyText();
+  /** Index of each named column (first of a repeated name) and the JSON text before its value, from the header. */
   private named: { index: number; key: string }[] | null = null;
 
-  constructor(readonly fileId: number) {}
+  constructor(
+    private readonly fileId: number,
+    private readonly sink: CopySink,
+  ) {}
+
+  get rows() {
+    return this.text.rows;
+  }
 
   add = ({ line, serial, wavelengthNm, cells }: ParsedRow, columns: readonly string[]) => {
-    this.named ??= columns.flatMap((name, index) => (name !== '' && columns.indexOf(name) === index ? [{ index, key: JSON.stringify(name) }] : []));
-    // The object's text is assembled from its keys written once, not built and stringified per row.
-    let fields = '';
-    for (const { index, key } of this.named) fields += `${fields === '' ? '{' : ','}${key}:${JSON.stringify((cells[index] ?? '').trim())}`;
-    this.text.add(`${this.fileId}\t${line}\t${copyCell(serial)}\t${wavelengthNm}\t${copyCell(`${fields || '{'}}`)}`);
+    this.named ??= columns
+      .flatMap((name, index) => (name !== '' && columns.indexOf(name) === index ? [{ index, name }] : []))
+      .map(({ index, name }, k) => ({ index, key: `${k === 0 ? '{' : ','}${JSON.stringify(name)}:` }));
+    // The object's text is assembled from its keys written once, not built and stringified per row;
+    // a cell with nothing to escape (the usual number or code) is quoted as it is.
+    let fields = this.named.length === 0 ? '{' : '';
+    let plain = true;
+    for (const { index, key } of this.named) {
+      const cell = (cells[index] ?? '').trim();
+      if (plain && NEEDS_ESCAPE.test(cell)) plain = false;
+      fields += key + (plain ? `"${cell}"` : JSON.stringify(cell));
+    }
+    // Only an escaped cell puts a backslash (or a control character) in the text COPY reads.
+    const piece = this.text.add(`${this.fileId}\t${line}\t${copyCell(serial)}\t${wavelengthNm}\t${plain ? `${fields}}` : copyCell(`${fields}}`)}`);
+    if (piece) this.sink.write(piece);
   };
+
+  finish() {
+    const piece = this.text.finish();
+    if (piece) this.sink.write(piece);
+  }
+}
+
+/** What JSON escapes in a string: a quote, a backslash, a control character. */
+const NEEDS_ESCAPE = /["\\\u0000-\u001f]/;
+
+/** Bytes of a file handed to the engine at a time. */
+const PIECE_BYTES = 1 << 18;
+
+/**
+ * The file's bytes a piece at a time, each once the readings written so far may wait to be sent:
+ * PostgreSQL writes the rows of one piece while the engine reads the next. Stops early when the
+ * COPY has failed (its error is answered when it ends).
+ */
+async function* inPieces(bytes: Uint8Array, sink: CopySink) {
+  for (let at = 0; at < bytes.length && !sink.failed; at += PIECE_BYTES) {
+    await sink.ready();
+    yield bytes.subarray(at, at + PIECE_BYTES);
+  }
 }
 
 /** The file's results as COPY rows of piece_results: piece, file, wavelength, verdict and the engine's result. */
@@ -160,51 +217,56 @@ function* resultRows(fileId: number, pieces: readonly PieceResult[], pieceIdBySe
   }
 }
 
-/** A file checked for a commit, with its readings ready to be written under the id its row will have. */
-type FileToSave = { file: UploadedFile; checked: CheckedFile; readings: ReadingsText };
-
-async function checkForSaving(file: UploadedFile, lot: LotForInspection, instrumentId: number | undefined, transaction: Transaction): Promise<FileToSave> {
-  // The row's id is taken first, so that the readings can be written out as the engine reads them.
-  const [{ id }] = await sequelize.query<{ id: number }>(`SELECT nextval(pg_get_serial_sequence('measurement_files', 'id'))::int AS id`, { type: QueryTypes.SELECT, transaction });
-  const readings = new ReadingsText(id);
-  return { file, readings, checked: await analyseFile(file, lot, instrumentId, transaction, { onRow: readings.add }) };
-}
-
 /**
- * Saves one checked file: the raw bytes in the file store, its row, its readings and its results
- * (superseding the current results of the same pieces and wavelengths), in the caller's transaction.
- * Readings and results go in by COPY and nothing is read back, so a file of 100,000 rows costs
- * about what the database takes to write them.
+ * Checks one file and saves it in the caller's transaction: the raw bytes in the file store, its
+ * row, its readings and its results (superseding the current results of the same pieces and
+ * wavelengths). The readings go by COPY while the engine reads the rows, the results by COPY after,
+ * and nothing is read back, so a file of 100,000 rows costs about what it takes to read it and to
+ * write them. A file the check refuses answers why, and its transaction must not commit.
  */
-async function saveFile(actor: AuditActor & { id: number }, lot: LotForInspection, { file, checked, readings }: FileToSave, transaction: Transaction) {
-  const { pieces } = checked;
-  const rows = readings.text.rows;
-  const fileId = readings.fileId;
-  await MeasurementFile.create(
+async function checkAndSave(actor: AuditActor & { id: number }, lot: LotForInspection, file: UploadedFile, instrumentId: number | undefined, transaction: Transaction) {
+  const prepared = await prepareFile(file, lot, instrumentId, transaction);
+  if ('refused' in prepared) return prepared;
+  const { base, used } = prepared;
+  // The file's row first (its method and counts are filled in once its rows are read), so that the
+  // readings that name it can be written while they are read.
+  const stored = await MeasurementFile.create(
     {
-      id: fileId, lotId: lot.id, instrumentId: checked.instrument!.id, originalName: checked.name, sha256: checked.sha256, sizeBytes: checked.sizeBytes,
-      method: checked.method!, metadata: checked.metadata as Record<string, string>, rowCount: rows, warnings: checked.warnings,
-      storageKey: await storeBlob(file.buffer, transaction), uploadedBy: actor.id,
+      lotId: lot.id, instrumentId: used.id, originalName: base.name, sha256: base.sha256, sizeBytes: base.sizeBytes, method: '', metadata: {}, rowCount: 0,
+      warnings: [], storageKey: await storeBlob(file.buffer, transaction), uploadedBy: actor.id,
     },
     { transaction },
   );
-  await copyText(transaction, 'readings', ['file_id', 'line', 'serial', 'wavelength_nm', 'fields'], readings.text.take(true));
+  const sink = openCopy(transaction, 'readings', ['file_id', 'line', 'serial', 'wavelength_nm', 'fields']);
+  const readings = new ReadingsCopy(stored.id, sink);
+  const result = await analyzeStream(inPieces(file.buffer, sink), pieceSpecFor(lot.spec, prepared.instrument), { maxBytes: MAX_MEASUREMENT_BYTES, onRow: readings.add });
+  readings.finish();
+  await sink.end();
+  const checked = checkedOf(prepared, lot, result);
+  if (cannotBeSaved(checked)) return { refused: checked };
+
+  const { pieces } = checked;
+  await stored.update({ method: checked.method!, metadata: checked.metadata as Record<string, string>, rowCount: readings.rows, warnings: checked.warnings }, { transaction });
   const pieceIdBySerial = new Map(lot.pieces.map((p) => [p.serial, p.id]));
   // The new file's results replace the current ones of the same pieces at the same wavelengths
-  // (compared as the table stores wavelengths, to 0.001 nm).
+  // (compared as the table stores wavelengths, to 0.001 nm). Each is looked up in the index of
+  // current results by its piece and wavelength (LIMIT 1: there is at most one, and the planner
+  // keeps the lookup instead of scanning the whole table), whatever the size of the table.
   if (pieces.length) await sequelize.query(
-    `UPDATE piece_results r SET superseded_by_file_id = $1
-     FROM unnest($2::int[], $3::numeric(9, 3)[]) AS measured(piece_id, wavelength_nm)
-     WHERE r.piece_id = measured.piece_id AND r.wavelength_nm = measured.wavelength_nm AND r.superseded_by_file_id IS NULL`,
-    { transaction, bind: [fileId, pieces.map((piece) => pieceIdBySerial.get(piece.serial)!), pieces.map((piece) => piece.wavelengthNm)] },
+    `UPDATE piece_results SET superseded_by_file_id = $1
+      WHERE id = ANY (ARRAY(
+        SELECT current.id FROM unnest($2::int[], $3::numeric(9, 3)[]) AS measured(piece_id, wavelength_nm)
+        CROSS JOIN LATERAL (SELECT r.id FROM piece_results r
+                             WHERE r.piece_id = measured.piece_id AND r.wavelength_nm = measured.wavelength_nm AND r.superseded_by_file_id IS NULL LIMIT 1) current))`,
+    { transaction, bind: [stored.id, pieces.map((piece) => pieceIdBySerial.get(piece.serial)!), pieces.map((piece) => piece.wavelengthNm)] },
   );
-  await copyRows(transaction, 'piece_results', ['piece_id', 'file_id', 'wavelength_nm', 'verdict', 'result'], resultRows(fileId, pieces, pieceIdBySerial));
+  await copyRows(transaction, 'piece_results', ['piece_id', 'file_id', 'wavelength_nm', 'verdict', 'result'], resultRows(stored.id, pieces, pieceIdBySerial));
   await recordAudit(
     actor,
-    { action: 'measurement.upload', entityType: 'lot', entityId: lot.id, after: { fileId, name: checked.name, sha256: checked.sha256, pieces: pieces.length, instrument: checked.instrument!.code } },
+    { action: 'measurement.upload', entityType: 'lot', entityId: lot.id, after: { fileId: stored.id, name: checked.name, sha256: checked.sha256, pieces: pieces.length, instrument: used.code } },
     transaction,
   );
-  return { fileId, name: checked.name, sha256: checked.sha256, pieces: pieces.length, rows };
+  return { saved: { fileId: stored.id, name: checked.name, sha256: checked.sha256, pieces: pieces.length, rows: readings.rows } };
 }
 
 /** A file with an error is refused whole: nothing of it may be saved. */
@@ -214,17 +276,17 @@ export function commitMeasurements(actor: AuditActor & { id: number }, lotId: nu
   if (files.length === 0) throw badRequest('Attach at least one measurement file');
   return inTransaction(async (transaction) => {
     const lot = openLot(await lotForInspection(lotId, transaction, { lock: true }));
-    const toSave: (FileToSave | null)[] = [];
-    for (const file of files) toSave.push(await checkForSaving(file, lot, instrumentId, transaction));
-    const refused = toSave.map((f) => f!.checked).filter(cannotBeSaved);
+    // Every file is checked, so that a refusal names all the files at fault; one refused file
+    // leaves the transaction to roll back, the others with it.
+    const committed = [];
+    const refused: CheckedFile[] = [];
+    for (const file of files) {
+      const outcome = await checkAndSave(actor, lot, file, instrumentId, transaction);
+      if ('refused' in outcome) refused.push(outcome.refused);
+      else committed.push(outcome.saved);
+    }
     if (refused.length) {
       throw new AppError(422, 'measurement_errors', 'Nothing was saved: fix the errors in the file(s) and upload again', refused.map((p) => ({ name: p.name, fatal: p.fatal, errors: p.errors })));
-    }
-    const committed = [];
-    for (const [index, file] of toSave.entries()) {
-      committed.push(await saveFile(actor, lot, file!, transaction));
-      // A saved file's readings are let go before the next one is written.
-      toSave[index] = null;
     }
     // The supplier's drift check reads the new results as soon as they are committed.
     await enqueue(QUEUES.supplierDriftCheck, { lotId }, transaction);
