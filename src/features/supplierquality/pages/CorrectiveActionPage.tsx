@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router';
 import { useForm } from 'react-hook-form';
+import type { z } from 'zod';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Paperclip } from 'lucide-react';
 import { can } from '@shared/policies';
@@ -189,7 +190,7 @@ function ResponseCard({ car, response: r, latest }: { car: CarView; response: Ca
 
 function ReviewForm({ car }: { car: CarView }) {
   const review = useReviewResponse(car.id);
-  const form = useForm<CarReviewInput>({
+  const form = useForm<z.input<typeof carReviewSchema>, unknown, CarReviewInput>({
     resolver: zodResolver(carReviewSchema),
     defaultValues: { decision: 'accept', note: '', password: '', meaningAcknowledged: false as unknown as true },
   });
@@ -223,7 +224,7 @@ function ReviewForm({ car }: { car: CarView }) {
         <textarea id="review-note" rows={2} className={inputClass} {...form.register('note')} />
       </Field>
       {decision === 'accept' ? (
-        <SignatureFields meaning={CAR_ACCEPT_MEANING} register={form.register} errors={errors as never} idPrefix="review" />
+        <SignatureFields meaning={CAR_ACCEPT_MEANING} register={form.register as never} errors={errors as never} idPrefix="review" />
       ) : (
         <p className="text-xs text-ink-muted">Returning sends {car.sentTo} a new link with your note.</p>
       )}
@@ -238,7 +239,7 @@ function CloseForm({ car }: { car: CarView }) {
   const close = useCloseRequest(car.id);
   const decided = car.laterLots.filter((l) => l.decision !== null);
   const [lots, setLots] = useState<number[]>([]);
-  const form = useForm<CarCloseInput>({
+  const form = useForm<z.input<typeof carCloseSchema>, unknown, CarCloseInput>({
     resolver: zodResolver(carCloseSchema),
     defaultValues: { lotIds: [], note: '', password: '', meaningAcknowledged: false as unknown as true },
   });
