@@ -119,8 +119,10 @@ function countRows(lots: FillLot[]) {
   }
   // receipts + one move per decided piece + transfers and issues (about a third of stocked pieces)
   const moves = Math.round(pieces + pieces * (decided / lots.length) * 1.33);
-  const audit = Math.round(lots.length * 5.3);
-  return { all: lots.length * 4 + pieces * 2 + measured * 8 + moves + audit * 2 };
+  // receipt, upload, decision, stock moves and issues: about 7.7 events a lot
+  const audit = Math.round(lots.length * 7.7);
+  // staging, shipment, lot, plan, file, decision and documents: about 7 rows a lot; sample, readings and result: 8 a measured piece
+  return { all: lots.length * 7 + pieces + measured * 8 + moves + audit };
 }
 
 /** The demo's tables' highest ids, so filled rows take the ids after them (set explicitly, so pieces

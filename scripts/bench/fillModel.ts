@@ -26,7 +26,7 @@ const LINES_PER_ORDER = 2;
 const LOTS_PER_ORDER = LOTS_PER_LINE * LINES_PER_ORDER;
 export const ORDERS = SCALE.lots / LOTS_PER_ORDER;
 const PAIRS = 120;
-const AQLS = [4, 4, 6.5, 2.5] as const;
+const AQLS = [4, 2.5, 4, 2.5] as const;
 const DAY = 86_400_000;
 
 export type LotState = 'quarantine' | 'inspection' | 'awaiting-disposition' | 'accepted' | 'rejected' | 'sorted';

@@ -14,35 +14,43 @@ import { api, runningQueries, signIn, waitUntilIdle, type BenchServer } from './
 const CONNECTIONS = 50;
 const HEALTH_SECONDS = 10;
 const LIST_SECONDS = 20;
+/** A request unanswered after this long counts as never answered. */
 const TIMEOUT_SECONDS = 30;
 /** How long a list's leftover requests may keep the server busy before the next measurement. */
-const SETTLE_SECONDS = 60;
+const SETTLE_SECONDS = 90;
 
-type Load = { p95: number; p50: number; completed: number; unfinished: number; perSecond: number; failed: number };
+type Load = { p95: number; p50: number; answered: number; unanswered: number; perSecond: number; failed: number };
 
-/** 50 connections on one address for `seconds`; a request unanswered when the run ends counts as never answered. */
-async function load(server: BenchServer, path: string, token: string | null, seconds: number): Promise<Load> {
+/**
+ * `amount` requests over 50 connections, all of them waited for (a request that times out counts as
+ * never answered), so no request is cut off by the end of a timed run.
+ */
+async function load(server: BenchServer, path: string, token: string | null, amount: number): Promise<Load> {
   const latencies: number[] = [];
   let failed = 0;
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
-    const options = { url: `${server.baseUrl}${path}`, connections: CONNECTIONS, duration: seconds, timeout: TIMEOUT_SECONDS, headers: token ? { authorization: `Bearer ${token}` } : {} };
+    const options = { url: `${server.baseUrl}${path}`, connections: CONNECTIONS, amount, timeout: TIMEOUT_SECONDS, headers: token ? { authorization: `Bearer ${token}` } : {} };
     const instance = autocannon(options, (error, done) => (error ? reject(error) : resolve(done)));
     instance.on('response', (_client: unknown, statusCode: number, _bytes: number, responseTime: number) => {
       if (statusCode >= 200 && statusCode < 300) latencies.push(responseTime);
       else failed++;
     });
   });
-  const unfinished = Math.max(0, result.requests.sent - latencies.length - failed) + result.timeouts;
-  const all = [...latencies, ...Array<number>(unfinished).fill(Infinity)];
-  return { p95: percentile(all, 95), p50: median(all), completed: latencies.length, unfinished, perSecond: latencies.length / seconds, failed: failed + result.errors };
+  const unanswered = result.timeouts + result.errors;
+  const all = [...latencies, ...Array<number>(unanswered).fill(Infinity)];
+  return { p95: percentile(all, 95), p50: median(all), answered: latencies.length, unanswered, perSecond: latencies.length / (result.duration || 1), failed };
 }
 
-const loadNote = (l: Load) =>
-  `${l.completed} answered (${l.perSecond.toFixed(1)}/s), ${l.unfinished} unanswered in the run${l.failed ? `, ${l.failed} failed` : ''}; p50 ${Number.isFinite(l.p50) ? `${l.p50.toFixed(0)} ms` : 'not reached'}`;
+/** Enough requests for about `seconds` of load, judging by one request alone on two cores; two per connection at least. */
+const amountFor = (aloneMs: number, seconds: number) => Math.min(5_000, Math.max(2 * CONNECTIONS, Math.round((seconds * 1000 * 2) / Math.max(aloneMs, 1))));
 
-async function settle(label: string) {
-  const { busySeconds, cancelled } = await waitUntilIdle(SETTLE_SECONDS);
-  if (busySeconds > 0.5) console.log(`lists | after ${label}: the server ran its queries ${busySeconds.toFixed(1)} s more${cancelled ? `; ${cancelled} still running were cancelled` : ''}`);
+const loadNote = (l: Load) =>
+  `${l.answered} answered (${l.perSecond.toFixed(1)}/s)${l.unanswered ? `, ${l.unanswered} unanswered within ${TIMEOUT_SECONDS} s` : ''}${l.failed ? `, ${l.failed} failed` : ''}; ` +
+  `p50 ${Number.isFinite(l.p50) ? `${l.p50.toFixed(0)} ms` : 'not reached'}`;
+
+async function settle(server: BenchServer, label: string) {
+  const { busySeconds, cancelled } = await waitUntilIdle(server, SETTLE_SECONDS);
+  if (busySeconds > 0.5) console.log(`lists | after ${label}: the server stayed busy ${busySeconds.toFixed(1)} s more${cancelled ? `; ${cancelled} queries still running were cancelled` : ''}`);
 }
 
 async function sequentialMedian(server: BenchServer, path: string, token: string | null, times = 20) {
@@ -79,14 +87,17 @@ export async function run({ server, tries }: { server: BenchServer; tries: numbe
     ['GET /api/inspection/queue page 2', '/api/inspection/queue?page=2&pageSize=50'],
   ] as const;
 
+  const healthAlone = await timed(() => api(server, '/api/health'));
   for (const [name, path] of lists) {
     const alone = await timed(() => api(server, path, { token }));
     console.log(`lists | ${name}: one request alone ${alone.ms.toFixed(0)} ms, ${(alone.result.bytes / 1024).toFixed(1)} kB of JSON`);
     await measured('lists', async (): Promise<Figure[]> => {
-      const health = await load(server, '/api/health', null, HEALTH_SECONDS);
-      const list = await load(server, path, token, LIST_SECONDS);
-      await settle(name);
-      return [{ name: `${name}, p95 at ${CONNECTIONS} connections`, value: list.p95, unit: 'ms', limit: { name: 'health p95 just before', value: health.p95 }, target: { ratio: 2 }, note: loadNote(list) }];
+      const health = await load(server, '/api/health', null, amountFor(healthAlone.ms, HEALTH_SECONDS));
+      const list = await load(server, path, token, amountFor(alone.ms, LIST_SECONDS));
+      await settle(server, name);
+      return [
+        { name: `${name}, p95 at ${CONNECTIONS} connections`, value: list.p95, unit: 'ms', limit: { name: 'health p95 just before', value: health.p95 }, target: { ratio: 2 }, note: loadNote(list) },
+      ];
     }, tries);
   }
 
@@ -96,14 +107,19 @@ export async function run({ server, tries }: { server: BenchServer; tries: numbe
     return [{ name: `GET /api/lots/${lotId} (L-${lotId}), median of 20 warm requests in a row`, value: lot, unit: 'ms', limit: { name: 'health, the same', value: health }, target: { ratio: 5 } }];
   }, tries);
 
+  // The filtered lot list, the slowest of the lists a user would give up on.
+  const [abandonedName, abandonedPath] = lists[1];
   await measured('lists', async (): Promise<Figure[]> => {
-    await abandon(server, '/api/stock', token, CONNECTIONS, 1000);
+    await abandon(server, abandonedPath, token, CONNECTIONS, 1000);
     await sleep(2000);
     const running = await runningQueries();
     const { rssMb } = server.memory();
-    const { busySeconds, cancelled } = await waitUntilIdle(180);
+    const { busySeconds, cancelled } = await waitUntilIdle(server, 180);
     return [
-      { name: `queries of ${CONNECTIONS} abandoned GET /api/stock still running 2 s after their clients left`, value: running.count, unit: 'count', target: { max: 0 }, note: running.count ? `oldest running ${running.oldestSeconds.toFixed(1)} s` : undefined },
+      {
+        name: `queries of ${CONNECTIONS} abandoned ${abandonedName} still running 2 s after their clients left (after 1 s)`, value: running.count, unit: 'count', target: { max: 0 },
+        note: running.count ? `oldest running ${running.oldestSeconds.toFixed(1)} s` : undefined,
+      },
       { name: 'server RSS 2 s after they left', value: rssMb, unit: 'MB', target: { max: 400 } },
       { name: 'server busy with them after they left', value: busySeconds, unit: 's', target: null, note: cancelled ? `stopped by the benchmark at 180 s: ${cancelled} queries cancelled` : undefined },
     ];

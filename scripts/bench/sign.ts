@@ -18,7 +18,7 @@ const PIECES = 500;
 type Row = { serial: string; verdict: string | null; result: Record<string, number | null> | null };
 
 /** The two documents' data as the signature assembles it: every piece on the certificate, the sample on the report. */
-async function documentsOf(lotId: number, signer: string): Promise<LotReportData[]> {
+async function documentsOf(lotId: number, signer: string, baseUrl: string): Promise<LotReportData[]> {
   return withBenchClient(async (client) => {
     const [lot] = (
       await client.query<{ supplier_lot: string; quantity: number; received_at: Date; po: string; line: number; spec: PartSpec; part: string; description: string; supplier: string; site: string; plan: string }>(
@@ -54,7 +54,7 @@ async function documentsOf(lotId: number, signer: string): Promise<LotReportData
       instruments: [{ code: 'BENCH-2', calibratedOn: '2026-05-12', calibrationDueOn: '2027-05-12', uncertainty: '±0.0008 λ, ±0.05° (k = 2)' }],
       decisionRule: 'simple acceptance: |error| ≤ tolerance (ILAC-G8:09/2019)',
       disposition: { decision: 'Accept', signer, signedAt: now, meaning: 'I approve this lot for use.', outcome: `${lot.quantity} pieces released to stock` },
-      dataHash: '0'.repeat(64), verifyUrl: 'http://127.0.0.1:4872/verify?number=PLC-2026-00000&hash=0',
+      dataHash: '0'.repeat(64), verifyUrl: `${baseUrl}/verify?number=PLC-2026-00000&hash=${'0'.repeat(64)}`,
     };
     return [
       { ...common, kind: 'certificate', number: 'PLC-2026-00000', pieces: rows.map((r) => piece(r, 'released under the sampling plan')) },
@@ -83,7 +83,7 @@ export async function run({ server, tries }: { server: BenchServer; tries: numbe
     );
     const peak = server.memory().peakMb;
 
-    const documents = await documentsOf(lot.lotId, `${signer.name} (${signer.email})`);
+    const documents = await documentsOf(lot.lotId, `${signer.name} (${signer.email})`, server.baseUrl);
     const rendering = await timed(async () => {
       for (const data of documents) await renderLotReport(data);
       if (!(await bcrypt.compare(DEMO_PASSWORD, signer.hash))) throw new Error('sign: the demo password does not match the quality manager');

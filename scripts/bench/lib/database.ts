@@ -8,11 +8,15 @@ import { join, resolve } from 'node:path';
 import pg from 'pg';
 import { databaseUrl, ensureCluster, ensureDatabase, type Cluster } from '../../lib/postgres';
 
-export const BENCH_PORT = 54872;
+// Two runs at once on one machine (two checkouts) need their own ports: PHASELOT_BENCH_PORT (and
+// PHASELOT_BENCH_SERVER_PORT, lib/server.ts); a cluster on another port keeps its data apart too.
+export const BENCH_PORT = Number(process.env.PHASELOT_BENCH_PORT ?? 54872);
+const suffix = BENCH_PORT === 54872 ? '' : `-${BENCH_PORT}`;
+const CLUSTER = `pg-bench${suffix}`;
 export const BENCH_DATABASE = 'phaselot_bench';
 export const repoRoot = resolve(import.meta.dirname, '../../..');
 /** Stored files, mail, logs and builds of the benchmarks. */
-export const benchDir = join(repoRoot, '.data', 'bench');
+export const benchDir = join(repoRoot, '.data', `bench${suffix}`);
 
 export const benchUrl = (role: 'admin' | 'owner' | 'app') => databaseUrl(BENCH_PORT, BENCH_DATABASE, role);
 
@@ -32,7 +36,7 @@ export function benchEnvironment(): Record<string, string> {
 
 export function startBenchCluster(): Cluster {
   mkdirSync(benchDir, { recursive: true });
-  return ensureCluster('pg-bench', BENCH_PORT);
+  return ensureCluster(CLUSTER, BENCH_PORT);
 }
 
 export const ensureBenchDatabase = (options: { recreate?: boolean } = {}) => ensureDatabase(BENCH_PORT, BENCH_DATABASE, options);
@@ -48,10 +52,15 @@ export async function withBenchClient<T>(work: (client: pg.Client) => Promise<T>
   }
 }
 
-/** What a completed fill wrote on the database (its comment), or null when it was never completed. */
+/** What a completed fill wrote on the database (its comment), or null when it was never completed
+ * (or the database is not there yet); asked of the cluster, so it works before the roles exist. */
 export async function fillRecord(): Promise<string | null> {
-  return withBenchClient(async (client) => {
-    const { rows } = await client.query<{ note: string | null }>('SELECT shobj_description(oid, \'pg_database\') AS note FROM pg_database WHERE datname = current_database()');
+  const client = new pg.Client({ connectionString: databaseUrl(BENCH_PORT, 'postgres', 'admin') });
+  await client.connect();
+  try {
+    const { rows } = await client.query<{ note: string | null }>("SELECT shobj_description(oid, 'pg_database') AS note FROM pg_database WHERE datname = $1", [BENCH_DATABASE]);
     return rows[0]?.note?.startsWith('phaselot bench fill') ? rows[0].note : null;
-  });
+  } finally {
+    await client.end();
+  }
 }

@@ -3,12 +3,12 @@
 // from the benchmark's and the load generator does not share its event loop. Its log goes to
 // .data/bench/server.log.
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { closeSync, openSync, readFileSync, writeFileSync } from 'node:fs';
+import { appendFileSync, closeSync, openSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { setTimeout as sleep } from 'node:timers/promises';
 import { benchDir, benchEnvironment, repoRoot, withBenchClient } from './database';
 
-export const BENCH_SERVER_PORT = 4872;
+export const BENCH_SERVER_PORT = Number(process.env.PHASELOT_BENCH_SERVER_PORT ?? 4872);
 const READY_WITHIN_MS = 120_000;
 
 export type BenchServer = {
@@ -16,6 +16,8 @@ export type BenchServer = {
   pid: number;
   /** Resident memory now, and the peak since the last resetPeak(), in MB. */
   memory(): { rssMb: number; peakMb: number };
+  /** Processor time the server has used so far, in seconds. */
+  cpuSeconds(): number;
   resetPeak(): void;
   stop(): Promise<void>;
 };
@@ -36,7 +38,9 @@ function migrateBenchDatabase() {
 export async function startBenchServer(): Promise<BenchServer> {
   migrateBenchDatabase();
   const baseUrl = `http://127.0.0.1:${BENCH_SERVER_PORT}`;
-  const log = openSync(logPath, 'w');
+  if (await fetch(`${baseUrl}/api/health`).then(() => true, () => false)) throw new Error(`Something already answers on ${baseUrl}: stop it first (a bench server left running?)`);
+  appendFileSync(logPath, `\n--- bench server started ${new Date().toISOString()}\n`);
+  const log = openSync(logPath, 'a');
   const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', join(repoRoot, 'server/main.ts')], {
     cwd: repoRoot,
     env: { ...process.env, ...benchEnvironment(), NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(BENCH_SERVER_PORT), PUBLIC_URL: baseUrl },
@@ -50,7 +54,8 @@ export async function startBenchServer(): Promise<BenchServer> {
   for (;;) {
     if (exited !== null) throw new Error(`The bench server stopped (status ${exited}) before answering:\n${logTail()}`);
     const up = await fetch(`${baseUrl}/api/health`).then((r) => r.ok, () => false);
-    if (up) break;
+    // Only once this child is still there: the answer could have come from a server on its way out.
+    if (up && exited === null) break;
     if (Date.now() > deadline) {
       child.kill('SIGKILL');
       throw new Error(`The bench server did not answer /api/health within ${READY_WITHIN_MS / 1000} s:\n${logTail()}`);
@@ -64,6 +69,11 @@ export async function startBenchServer(): Promise<BenchServer> {
     baseUrl,
     pid,
     memory: () => ({ rssMb: statusKb('VmRSS') / 1024, peakMb: statusKb('VmHWM') / 1024 }),
+    // utime and stime, the 14th and 15th fields of /proc/<pid>/stat, in clock ticks of 1/100 s.
+    cpuSeconds: () => {
+      const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').replace(/^.*\) /, '').split(' ');
+      return (Number(fields[11]) + Number(fields[12])) / 100;
+    },
     // Writing 5 to clear_refs resets the kernel's peak resident size (VmHWM) to the current one.
     resetPeak: () => writeFileSync(`/proc/${pid}/clear_refs`, '5'),
     async stop() {
@@ -83,13 +93,12 @@ export async function api<T = unknown>(server: Pick<BenchServer, 'baseUrl'>, pat
   const headers: Record<string, string> = {};
   if (call.token) headers.authorization = `Bearer ${call.token}`;
   if (call.json !== undefined) headers['content-type'] = 'application/json';
-  const response = await fetch(`${server.baseUrl}${path}`, {
-    method: call.method ?? (call.json !== undefined || call.form ? 'POST' : 'GET'),
-    headers,
-    body: call.form ?? (call.json !== undefined ? JSON.stringify(call.json) : undefined),
+  const method = call.method ?? (call.json !== undefined || call.form ? 'POST' : 'GET');
+  const response = await fetch(`${server.baseUrl}${path}`, { method, headers, body: call.form ?? (call.json !== undefined ? JSON.stringify(call.json) : undefined) }).catch((error: Error) => {
+    throw new Error(`${method} ${path} got no answer: ${error.message} (${String((error.cause as Error | undefined)?.message ?? error.cause)})`);
   });
   const text = await response.text();
-  if (!response.ok) throw new Error(`${call.method ?? 'GET'} ${path} answered ${response.status}: ${text.slice(0, 500)}`);
+  if (!response.ok) throw new Error(`${method} ${path} answered ${response.status}: ${text.slice(0, 500)}`);
   return { body: (text ? JSON.parse(text) : undefined) as T, bytes: Buffer.byteLength(text) };
 }
 
@@ -111,15 +120,26 @@ export function runningQueries(): Promise<{ count: number; oldestSeconds: number
 }
 
 /**
- * Waits until the application runs no query (requests whose clients have gone may still be working);
- * after `maxSeconds` cancels what is left, so that the next measurement starts on a quiet server.
+ * Waits until the server has been quiet for 2 s (no query of the application's running, under 5 % of
+ * a core used): requests whose clients have gone may still be working, between queries too. After
+ * `maxSeconds` cancels the queries left, so that the next measurement starts on a quiet server.
  * Answers how long it stayed busy and how many queries were cancelled.
  */
-export async function waitUntilIdle(maxSeconds: number): Promise<{ busySeconds: number; cancelled: number }> {
+export async function waitUntilIdle(server: BenchServer, maxSeconds: number): Promise<{ busySeconds: number; cancelled: number }> {
   const start = performance.now();
-  while ((performance.now() - start) / 1000 < maxSeconds) {
-    if ((await runningQueries()).count === 0) return { busySeconds: (performance.now() - start) / 1000, cancelled: 0 };
-    await sleep(250);
+  const elapsed = () => (performance.now() - start) / 1000;
+  let quietSince: number | null = null;
+  let cpu = server.cpuSeconds();
+  while (elapsed() < maxSeconds) {
+    await sleep(500);
+    const used = server.cpuSeconds() - cpu;
+    cpu += used;
+    const quiet = used < 0.025 && (await runningQueries()).count === 0;
+    if (!quiet) quietSince = null;
+    else {
+      quietSince ??= elapsed() - 0.5;
+      if (elapsed() - quietSince >= 2) return { busySeconds: quietSince, cancelled: 0 };
+    }
   }
   const cancelled = await withBenchClient(async (client) => {
     const { rowCount } = await client.query(
