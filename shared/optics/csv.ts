@@ -23,7 +23,7 @@ const skipMessage = (error: CsvError, offset: number) =>
   `the CSV could not be read here: ${error.message.replace(/\bline (\d+)/g, (_, line: string) => `line ${Number(line) + offset}`)}`;
 
 /** Text is parsed in slices of about this many characters, cut at line ends, so records die young. */
-const SLICE_CHARS = 1 << 20;
+const SLICE_CHARS = 1 << 16;
 
 interface Slice {
   start: number;

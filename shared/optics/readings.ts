@@ -199,14 +199,19 @@ export function metadataEntry(line: string): [key: string, value: string] | null
 export function readMetadata(text: string): { metadata: FileMetadata; lines: Record<string, number> } {
   const metadata: FileMetadata = {};
   const lines: Record<string, number> = {};
-  normalizeText(text)
-    .split('\n')
-    .forEach((line, index) => {
-      const entry = line.startsWith('#') ? metadataEntry(line) : null;
-      if (!entry) return;
+  const normalized = normalizeText(text);
+  // Line by line without cutting the text into lines: only `#` lines are read.
+  for (let start = 0, line = 1; start <= normalized.length; line++) {
+    const end = normalized.indexOf('\n', start);
+    const stop = end === -1 ? normalized.length : end;
+    const entry = normalized.charCodeAt(start) === 35 /* # */ ? metadataEntry(normalized.slice(start, stop)) : null;
+    if (entry) {
       metadata[entry[0]] = entry[1];
-      lines[entry[0]] = index + 1;
-    });
+      lines[entry[0]] = line;
+    }
+    if (end === -1) break;
+    start = end + 1;
+  }
   return { metadata, lines };
 }
 
