@@ -87,7 +87,8 @@ const resultKey = (pieceId: number, wavelengthNm: number) => `${pieceId}@${Math.
 /**
  * The lot's proposal and each piece's verdict from the verdicts of its current results alone (not
  * the results themselves: cheap on lots of thousands of pieces); with `incoming`, as they would be
- * once these results replace the current ones of the same piece and wavelength (`replaced` counts those).
+ * once these results replace the current ones of the same piece and wavelength (`replaced` counts
+ * those), and as they are now (`now`).
  */
 export async function lotProposal(lot: LotForInspection, transaction?: Transaction, incoming: ResultVerdict[] = []) {
   const { plan, sampleIds } = await planAndSample(lot, transaction);
@@ -101,6 +102,7 @@ export async function lotProposal(lot: LotForInspection, transaction?: Transacti
     { type: QueryTypes.SELECT, transaction, replacements: { lotId: lot.id } },
   );
   const results = new Map(current.map((r) => [resultKey(r.pieceId, r.wavelengthNm), r]));
+  const now = judgeLot(lot, plan, sampleIds, judgedVerdicts(current));
   const currentKeys = new Set(results.keys());
   const replacing = new Set<string>();
   for (const r of incoming) {
@@ -109,5 +111,5 @@ export async function lotProposal(lot: LotForInspection, transaction?: Transacti
     results.set(key, r);
   }
   const replaced = replacing.size;
-  return { plan, sampleIds, replaced, ...judgeLot(lot, plan, sampleIds, judgedVerdicts(results.values())) };
+  return { plan, sampleIds, replaced, now, ...(incoming.length ? judgeLot(lot, plan, sampleIds, judgedVerdicts(results.values())) : now) };
 }

@@ -87,10 +87,10 @@ async function planEffectOf(lot: LotForInspection, files: CheckedFile[]): Promis
   const incoming = files.flatMap((f) =>
     f.pieces.map((p) => ({ pieceId: pieceIdBySerial.get(p.serial)!, wavelengthNm: p.wavelengthNm, verdict: p.verdict, judged: p.judged })),
   );
-  const now = await lotProposal(lot);
   const after = await lotProposal(lot, undefined, incoming);
+  const { now } = after;
   const measured = new Set(incoming.map((r) => r.pieceId));
-  const samplePieces = [...measured].filter((id) => now.sampleIds.has(id)).length;
+  const samplePieces = [...measured].filter((id) => after.sampleIds.has(id)).length;
   return {
     plan: { sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber },
     now: standing(now.verdict),
