@@ -1,4 +1,4 @@
-import { Link, NavLink, Navigate, Outlet, useLocation, useNavigate } from 'react-router';
+import { Link, NavLink, Navigate, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { KeyRound, LogOut } from 'lucide-react';
 import { can } from '@shared/policies';
 import { ROLE_LABELS } from '@shared/schemas/roles';

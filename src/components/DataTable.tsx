@@ -2,7 +2,7 @@
 // dense layout, sortable headers and a pager. State lives in the URL through useListState.
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type SortingState } from '@tanstack/react-table';
 import { ArrowDown, ArrowUp, ChevronLeft, ChevronRight } from 'lucide-react';
-import { useSearchParams } from 'react-router';
+import { useSearchParams } from 'react-router-dom';
 
 export type ListState = { page: number; pageSize: number; sort?: string; q?: string };
 

@@ -1,4 +1,4 @@
-import { NavLink } from 'react-router';
+import { NavLink } from 'react-router-dom';
 
 /** Links between the pages of one area, under its header. */
 export function SectionTabs({ label, tabs }: { label: string; tabs: { to: string; label: string; end?: boolean }[] }) {

@@ -1,6 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useSearchParams } from 'react-router';
+import { useSearchParams } from 'react-router-dom';
 import type { z } from 'zod';
 import { verifyQuerySchema } from '@shared/schemas/certificates';
 import { BrandMark } from '@/components/BrandMark';

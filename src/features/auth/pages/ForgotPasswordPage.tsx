@@ -1,6 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { passwordResetRequestSchema, type PasswordResetRequestInput } from '@shared/schemas/auth';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';

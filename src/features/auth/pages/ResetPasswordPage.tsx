@@ -1,6 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Link, useLocation } from 'react-router';
+import { Link, useLocation } from 'react-router-dom';
 import { PASSWORD_HINT } from '@shared/schemas/password';
 import { passwordResetSchema, type PasswordResetInput } from '@shared/schemas/auth';
 import { Button } from '@/components/Button';

@@ -1,6 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Link, Navigate, useNavigate, useSearchParams } from 'react-router';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { loginSchema, type LoginInput } from '@shared/schemas/auth';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';

@@ -4,7 +4,7 @@
 import { useState } from 'react';
 import { useForm, type UseFormRegister } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { PenLine } from 'lucide-react';
 import { DISPOSITIONS, DISPOSITION_LABELS, SIGNATURE_MEANINGS, dispositionInputSchema, type DispositionInput } from '@shared/inspection/lotVerdict';
 import { Button } from '@/components/Button';

@@ -1,4 +1,4 @@
-import { Link, useParams } from 'react-router';
+import { Link, useParams } from 'react-router-dom';
 import { can } from '@shared/policies';
 import { DISPOSITION_LABELS } from '@shared/inspection/lotVerdict';
 import { codeLetterText } from '@shared/sampling/plan';

@@ -1,4 +1,4 @@
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { NCR_DECISION_LABELS, type NcrPieceView } from '@shared/schemas/nonconformance';
 import { PIECE_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { StateBadge } from '@/components/StateBadge';

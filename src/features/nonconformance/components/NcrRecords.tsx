@@ -1,4 +1,4 @@
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { NCR_DECISION_LABELS, REMEDY_LABELS, type NcrView } from '@shared/schemas/nonconformance';
 import { lotName } from '@shared/schemas/stock';
 import { Panel } from '@/components/Details';

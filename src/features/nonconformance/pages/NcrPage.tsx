@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link, useParams } from 'react-router';
+import { Link, useParams } from 'react-router-dom';
 import { can } from '@shared/policies';
 import { NCR_ORIGIN_LABELS, NCR_STATUS_LABELS, type NcrView } from '@shared/schemas/nonconformance';
 import { DISPOSITION_LABELS, type Disposition } from '@shared/inspection/lotVerdict';

@@ -1,7 +1,7 @@
 // Opening an NCR by hand for pieces found nonconforming after receipt (at assembly, in stores): the
 // pieces go to material review as it is saved.
 import { useState } from 'react';
-import { useNavigate } from 'react-router';
+import { useNavigate } from 'react-router-dom';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { ncrOpenSchema, type NcrOpenInput } from '@shared/schemas/nonconformance';

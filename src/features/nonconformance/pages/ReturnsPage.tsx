@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { useNavigate } from 'react-router';
+import { useNavigate } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import { REMEDIES, REMEDY_LABELS, type ReturnRow } from '@shared/schemas/nonconformance';
 import { DataTable, useListState } from '@/components/DataTable';

@@ -1,4 +1,4 @@
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { can } from '@shared/policies';
 import { ROLE_LABELS } from '@shared/schemas/roles';
 import { useSession } from '@/lib/session';

@@ -1,4 +1,4 @@
-import { useNavigate, useParams } from 'react-router';
+import { useNavigate, useParams } from 'react-router-dom';
 import { can } from '@shared/policies';
 import { Details, Panel } from '@/components/Details';
 import { Notice } from '@/components/Notice';

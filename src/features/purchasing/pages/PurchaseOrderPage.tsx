@@ -1,4 +1,4 @@
-import { Link, useNavigate, useParams } from 'react-router';
+import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Pencil } from 'lucide-react';
 import { can } from '@shared/policies';
 import type { PieceQuantities } from '@shared/schemas/stock';

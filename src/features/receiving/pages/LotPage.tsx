@@ -1,4 +1,4 @@
-import { Link, useParams, useSearchParams } from 'react-router';
+import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { FileText } from 'lucide-react';
 import { can } from '@shared/policies';
 import { codeLetterText } from '@shared/sampling/plan';

@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { useNavigate } from 'react-router';
+import { useNavigate } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import type { LotRow } from '@shared/schemas/receiving';
 import { LOT_STATES, LOT_STATE_LABELS, lotName } from '@shared/schemas/stock';

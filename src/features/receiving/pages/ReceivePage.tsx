@@ -1,4 +1,4 @@
-import { useNavigate } from 'react-router';
+import { useNavigate } from 'react-router-dom';
 import { can } from '@shared/policies';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';

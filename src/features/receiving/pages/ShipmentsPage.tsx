@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { Link, useNavigate } from 'react-router';
+import { Link, useNavigate } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import type { ShipmentRow } from '@shared/schemas/receiving';
 import { lotName } from '@shared/schemas/stock';

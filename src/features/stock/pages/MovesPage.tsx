@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import { MOVE_REASONS, MOVE_REASON_LABELS, lotName, type MoveView } from '@shared/schemas/stock';
 import { DataTable, useListState } from '@/components/DataTable';

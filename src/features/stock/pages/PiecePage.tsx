@@ -1,5 +1,5 @@
 import { useState, type FormEvent } from 'react';
-import { Link, useNavigate, useParams } from 'react-router';
+import { Link, useNavigate, useParams } from 'react-router-dom';
 import { LOCATION_KIND_LABELS, LOT_STATE_LABELS, MOVE_REASON_LABELS, PIECE_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { Button } from '@/components/Button';
 import { Details, Panel } from '@/components/Details';

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useSearchParams } from 'react-router';
+import { useSearchParams } from 'react-router-dom';
 import { can } from '@shared/policies';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';

@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import { LOCATION_KINDS, LOCATION_KIND_LABELS, type StockRow } from '@shared/schemas/stock';
 import { DataTable, useListState } from '@/components/DataTable';

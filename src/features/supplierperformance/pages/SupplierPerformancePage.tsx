@@ -1,6 +1,6 @@
 // The buyer's page of one supplier: its scorecard over a period, per part, and for the part chosen
 // the capability and drift of retardance and fast-axis error, with the drift alarms raised.
-import { Link, useParams, useSearchParams } from 'react-router';
+import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { Download } from 'lucide-react';
 import { DRIFT_CHARACTERISTICS } from '@shared/schemas/supplierPerformance';
 import { Panel } from '@/components/Details';

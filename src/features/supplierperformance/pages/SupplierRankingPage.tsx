@@ -1,7 +1,7 @@
 // Every supplier's scorecard over a period, ranked by lot acceptance, then nonconforming pieces per
 // million, then on-time delivery; a row opens the supplier's page for the same period.
 import { useMemo } from 'react';
-import { useNavigate } from 'react-router';
+import { useNavigate } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import { resolvePeriod, type SupplierRankingRow } from '@shared/schemas/supplierPerformance';
 import { DataTable, useListState } from '@/components/DataTable';

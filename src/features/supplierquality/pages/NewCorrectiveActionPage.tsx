@@ -1,7 +1,7 @@
 // Raising a corrective-action request from one or several NCRs of one supplier's part. Coming from
 // an NCR (`?ncr=ID`) narrows the choice to that NCR's supplier and part.
 import { useMemo } from 'react';
-import { Link, useNavigate, useSearchParams } from 'react-router';
+import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { carRaiseSchema, type CarRaiseInput } from '@shared/schemas/correctiveActions';

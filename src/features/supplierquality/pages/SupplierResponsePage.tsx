@@ -1,7 +1,7 @@
 // Public: the supplier answers a corrective-action request through the mailed link, without an
 // account. The link's token is read from the URL's fragment (never sent in a URL to the server).
 import { useMemo, useRef, useState } from 'react';
-import { useLocation } from 'react-router';
+import { useLocation } from 'react-router-dom';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { MAX_RESPONSE_FILES, supplierResponseSchema, type SupplierRequestView, type SupplierResponseInput } from '@shared/schemas/correctiveActions';

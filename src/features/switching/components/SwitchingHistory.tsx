@@ -1,7 +1,7 @@
 // The supplier-part's switching history, newest first: every decided lot (sampled on which
 // severity, accepted or not), every resumption and override, what each did to the state and why.
 // A result replaced by a superseding decision stays, struck through.
-import { Link } from 'react-router';
+import { Link } from 'react-router-dom';
 import { ArrowRight } from 'lucide-react';
 import { DISPOSITION_LABELS, type Disposition } from '@shared/inspection/lotVerdict';
 import type { SwitchingHistoryEntry } from '@shared/schemas/switching';

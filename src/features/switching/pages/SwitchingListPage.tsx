@@ -1,5 +1,5 @@
 import { useMemo } from 'react';
-import { useNavigate } from 'react-router';
+import { useNavigate } from 'react-router-dom';
 import { createColumnHelper } from '@tanstack/react-table';
 import { SWITCHING_PHASES, SWITCHING_PHASE_LABELS, type SwitchingRow } from '@shared/schemas/switching';
 import { DataTable, useListState } from '@/components/DataTable';

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link, useParams } from 'react-router';
+import { Link, useParams } from 'react-router-dom';
 import { can } from '@shared/policies';
 import { SWITCHING_PHASE_LABELS } from '@shared/schemas/switching';
 import { LOT_STATE_LABELS, lotName, type LotState } from '@shared/schemas/stock';
