@@ -193,6 +193,7 @@ class ReadingsCopy {
 }
 
 /** What JSON escapes in a string: a quote, a backslash, a control character. */
+// eslint-disable-next-line no-control-regex -- control characters are exactly what must be found
 const NEEDS_ESCAPE = /["\\\u0000-\u001f]/;
 
 /** Bytes of a file handed to the engine at a time. */
