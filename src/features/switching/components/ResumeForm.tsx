@@ -22,15 +22,17 @@ export function ResumeForm({ supplierId, partId, waitingLots, onResumed }: Props
   });
   const errors = form.formState.errors;
   const pickedRequest = form.watch('correctiveActionId');
+  // The promise rather than mutate's own callbacks: once the new state is read this form is gone,
+  // and callbacks of an unmounted mutation never run.
   const submit = form.handleSubmit((values) =>
-    resume.mutate(values, {
-      onSuccess: (answer) => onResumed(answer.plansDrawnFor),
+    resume.mutateAsync(values).then(
+      (answer) => onResumed(answer.plansDrawnFor),
       // What was typed stays; a refused password is typed again.
-      onError: () => {
+      () => {
         form.setValue('password', '');
         form.setFocus('password');
       },
-    }),
+    ),
   );
   return (
     <form onSubmit={submit} noValidate aria-label="Resume inspection" className="space-y-3 rounded border border-state-fail/40 bg-paper-card p-4">
