@@ -46,7 +46,6 @@ export async function fill(options: { force: boolean }) {
   const started = performance.now();
 
   // Imported only now: they read the bench database's settings, which the caller has set.
-  const { sequelize } = await import('../../db');
   const { migrate } = await import('../../db/migrator');
   const { seedDemo } = await import('../../db/seeders/demo');
   const { verifyAuditChain } = await import('../../server/audit/verify');
@@ -88,7 +87,6 @@ export async function fill(options: { force: boolean }) {
     `fill: audit chain verified in ${(verified.ms / 1000).toFixed(1)} s (the check GET /api/audit/verify runs): ${report.checked} events, ` +
       (report.intact ? 'intact' : `${report.problems.length} problem(s), first: ${JSON.stringify(report.problems[0])}`),
   );
-  await sequelize.close();
 }
 
 export class FillRefused extends Error {}
