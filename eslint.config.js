@@ -8,7 +8,20 @@ import prettier from 'eslint-config-prettier';
 import globals from 'globals';
 import tseslint from 'typescript-eslint';
 
-const AREAS = ['purchasing', 'receiving', 'stock', 'inspection', 'documents', 'exports', 'users', 'instruments', 'settings', 'nonconformance', 'supplierquality', 'supplierperformance'];
+const AREAS = [
+  'purchasing',
+  'receiving',
+  'stock',
+  'inspection',
+  'documents',
+  'exports',
+  'users',
+  'instruments',
+  'settings',
+  'nonconformance',
+  'supplierquality',
+  'supplierperformance',
+];
 const INFRASTRUCTURE = ['http', 'auth', 'audit', 'storage', 'mail', 'jobs'];
 
 const type = (name) => ({ element: { type: name } });
@@ -92,8 +105,17 @@ export default tseslint.config(
   {
     files: ['shared/**'],
     rules: {
-      'no-restricted-imports': ['error', { patterns: [{ group: ['node:*', 'fs', 'path', 'crypto', 'events', 'buffer', 'stream'], message: 'shared/ must run in a browser as well as in Node' }] }],
-      'no-restricted-globals': ['error', { name: 'Buffer', message: 'shared/ must run in a browser: use Uint8Array / TextEncoder' }, { name: 'process', message: 'shared/ must run in a browser' }],
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [{ group: ['node:*', 'fs', 'path', 'crypto', 'events', 'buffer', 'stream'], message: 'shared/ must run in a browser as well as in Node' }],
+        },
+      ],
+      'no-restricted-globals': [
+        'error',
+        { name: 'Buffer', message: 'shared/ must run in a browser: use Uint8Array / TextEncoder' },
+        { name: 'process', message: 'shared/ must run in a browser' },
+      ],
     },
   },
   prettier,

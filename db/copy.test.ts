@@ -18,9 +18,17 @@ describe('COPY of rows within a transaction', () => {
     const values = ['tab\there', 'line\nbreak', 'cr\rreturn', 'back\\slash', '\\N as text', 'ünïcödé λ ±0.003', '{"json": "\\"quoted\\""}'];
     const read = await inTransaction(async (transaction) => {
       await sequelize.query('CREATE TEMP TABLE copied (n int, text text, nothing text) ON COMMIT DROP', { transaction });
-      const count = await copyRows(transaction, 'copied', ['n', 'text', 'nothing'], values.map((v, i) => [i, copyCell(v), copyCell(null)].join('\t')));
+      const count = await copyRows(
+        transaction,
+        'copied',
+        ['n', 'text', 'nothing'],
+        values.map((v, i) => [i, copyCell(v), copyCell(null)].join('\t')),
+      );
       expect(count).toBe(values.length);
-      return sequelize.query<{ n: number; text: string; nothing: string | null }>('SELECT n, text, nothing FROM copied ORDER BY n', { type: QueryTypes.SELECT, transaction });
+      return sequelize.query<{ n: number; text: string; nothing: string | null }>('SELECT n, text, nothing FROM copied ORDER BY n', {
+        type: QueryTypes.SELECT,
+        transaction,
+      });
     });
     expect(read.map((r) => r.text)).toEqual(values);
     expect(read.every((r) => r.nothing === null)).toBe(true);

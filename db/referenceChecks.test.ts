@@ -35,14 +35,28 @@ async function refusal(work: (t: Transaction) => Promise<unknown>): Promise<stri
     await t.rollback();
   }
 }
-const run = (sql: string, bind: unknown[] = []) => (t: Transaction) => sequelize.query(sql, { transaction: t, bind });
+const run =
+  (sql: string, bind: unknown[] = []) =>
+  (t: Transaction) =>
+    sequelize.query(sql, { transaction: t, bind });
 
 describe('readings and results name an existing file and piece, checked per statement', () => {
   it('takes rows that name existing files and pieces, by INSERT and by COPY', async () => {
     expect(await refusal(run(`INSERT INTO readings (file_id, line, serial, wavelength_nm, fields) VALUES ($1, 1, 'X-1', 632.8, '{}')`, [fileId]))).toBeNull();
-    expect(await refusal((t) => copyRows(t, 'readings', ['file_id', 'line', 'serial', 'wavelength_nm', 'fields'], Array.from({ length: 5000 }, (_, i) => reading(fileId, i + 1))))).toBeNull();
     expect(
-      await refusal(run(`INSERT INTO piece_results (piece_id, file_id, wavelength_nm, verdict, result) VALUES ($1, $2, 600, 'pass', '{}')`, [otherPieceId, fileId])),
+      await refusal((t) =>
+        copyRows(
+          t,
+          'readings',
+          ['file_id', 'line', 'serial', 'wavelength_nm', 'fields'],
+          Array.from({ length: 5000 }, (_, i) => reading(fileId, i + 1)),
+        ),
+      ),
+    ).toBeNull();
+    expect(
+      await refusal(
+        run(`INSERT INTO piece_results (piece_id, file_id, wavelength_nm, verdict, result) VALUES ($1, $2, 600, 'pass', '{}')`, [otherPieceId, fileId]),
+      ),
     ).toBeNull();
   });
 
@@ -51,18 +65,26 @@ describe('readings and results name an existing file and piece, checked per stat
     expect(await refusal((t) => copyRows(t, 'readings', ['file_id', 'line', 'serial', 'wavelength_nm', 'fields'], rows))).toBe(
       `23503: insert into readings names measurement_files id ${MISSING}, which does not exist`,
     );
-    expect(await refusal(run(`INSERT INTO readings (file_id, line, serial, wavelength_nm, fields) VALUES ($1, 1, 'X-1', 632.8, '{}')`, [MISSING]))).toMatch(/^23503: /);
-    expect(await refusal(run(`INSERT INTO piece_results (piece_id, file_id, wavelength_nm, verdict, result) VALUES ($1, $2, 600, 'pass', '{}')`, [MISSING, fileId]))).toBe(
-      `23503: insert into piece_results names pieces id ${MISSING}, which does not exist`,
+    expect(await refusal(run(`INSERT INTO readings (file_id, line, serial, wavelength_nm, fields) VALUES ($1, 1, 'X-1', 632.8, '{}')`, [MISSING]))).toMatch(
+      /^23503: /,
     );
-    expect(await refusal(run(`INSERT INTO piece_results (piece_id, file_id, wavelength_nm, verdict, result) VALUES ($1, $2, 600, 'pass', '{}')`, [otherPieceId, MISSING]))).toMatch(/^23503: /);
+    expect(
+      await refusal(run(`INSERT INTO piece_results (piece_id, file_id, wavelength_nm, verdict, result) VALUES ($1, $2, 600, 'pass', '{}')`, [MISSING, fileId])),
+    ).toBe(`23503: insert into piece_results names pieces id ${MISSING}, which does not exist`);
+    expect(
+      await refusal(
+        run(`INSERT INTO piece_results (piece_id, file_id, wavelength_nm, verdict, result) VALUES ($1, $2, 600, 'pass', '{}')`, [otherPieceId, MISSING]),
+      ),
+    ).toMatch(/^23503: /);
   });
 
   it('keeps what each row names, and keeps the files and pieces that rows name', async () => {
     expect(await refusal(run('UPDATE readings SET file_id = file_id + 0 WHERE file_id = $1', [fileId]))).toBeNull();
     expect(await refusal(run(`UPDATE readings SET file_id = $2 WHERE file_id = $1`, [fileId, MISSING]))).toMatch(/^23503: /);
     expect(await refusal(run(`UPDATE piece_results SET piece_id = $2 WHERE file_id = $1`, [fileId, otherPieceId]))).toMatch(/^23503: /);
-    expect(await refusal(run('DELETE FROM measurement_files WHERE id = $1', [fileId]))).toMatch(/^23503: measurement_files id \d+ is still named by (readings|piece_results)$/);
+    expect(await refusal(run('DELETE FROM measurement_files WHERE id = $1', [fileId]))).toMatch(
+      /^23503: measurement_files id \d+ is still named by (readings|piece_results)$/,
+    );
     expect(await refusal(run('UPDATE measurement_files SET id = $2 WHERE id = $1', [fileId, MISSING]))).toMatch(/^23503: /);
     expect(await refusal(run('DELETE FROM pieces WHERE id = $1', [pieceId]))).toBe(`23503: pieces id ${pieceId} is still named by piece_results`);
     // Superseding a result still only marks it.

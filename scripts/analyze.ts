@@ -48,8 +48,7 @@ async function main(): Promise<void> {
 
   const { method, metadata, pieces, serials, warnings, errors } = result;
   // Six decimals are far below any tolerance and keep the JSON readable.
-  const rounded = (_key: string, value: unknown) =>
-    typeof value === 'number' && !Number.isInteger(value) ? Number(value.toFixed(6)) : value;
+  const rounded = (_key: string, value: unknown) => (typeof value === 'number' && !Number.isInteger(value) ? Number(value.toFixed(6)) : value);
   process.stdout.write(`${JSON.stringify({ method, metadata, pieces, serials, warnings, errors }, rounded, 2)}\n`);
 }
 

@@ -17,7 +17,9 @@ const stamp = new Date().toISOString().replace(/[:.]/g, '-');
 const file = resolve(values.out ?? join(import.meta.dirname, '..', '.data', 'backups', `phaselot-${stamp}.zip`));
 try {
   const manifest = await createBackup({ ownerUrl: config.MIGRATION_DATABASE_URL, store: blobStore, file });
-  console.log(`database ${manifest.database.name} (PostgreSQL ${manifest.database.serverVersion}, ${manifest.database.bytes} bytes dumped) and ${manifest.files.count} stored file(s) from the ${manifest.files.store}`);
+  console.log(
+    `database ${manifest.database.name} (PostgreSQL ${manifest.database.serverVersion}, ${manifest.database.bytes} bytes dumped) and ${manifest.files.count} stored file(s) from the ${manifest.files.store}`,
+  );
   console.log(file);
 } catch (error) {
   console.error(`backup failed: ${error instanceof Error ? error.message : String(error)}`);

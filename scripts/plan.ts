@@ -25,7 +25,11 @@ function stop(message: string): never {
 type Issue = { code: string; message: string; keys?: string[] };
 const issues = (error: { issues: Issue[] }) =>
   error.issues
-    .map((issue) => (issue.code === 'unrecognized_keys' ? `unknown field ${issue.keys!.map((key) => `"${key}"`).join(', ')} (a query has lotSize, level, aql and severity)` : issue.message))
+    .map((issue) =>
+      issue.code === 'unrecognized_keys'
+        ? `unknown field ${issue.keys!.map((key) => `"${key}"`).join(', ')} (a query has lotSize, level, aql and severity)`
+        : issue.message,
+    )
     .join('; ');
 
 // A batch query is JSON, so its numbers must be JSON numbers and no other field is taken.

@@ -33,7 +33,9 @@ async function otherSessions(url: string) {
   const client = new pg.Client({ connectionString: url });
   await client.connect();
   try {
-    const { rows } = await client.query<{ count: string }>('SELECT count(*) FROM pg_stat_activity WHERE datname = current_database() AND pid <> pg_backend_pid()');
+    const { rows } = await client.query<{ count: string }>(
+      'SELECT count(*) FROM pg_stat_activity WHERE datname = current_database() AND pid <> pg_backend_pid()',
+    );
     return Number(rows[0].count);
   } finally {
     await client.end();
@@ -44,9 +46,16 @@ const ownerUrl = onDatabase(config.MIGRATION_DATABASE_URL, values.database);
 try {
   const others = await otherSessions(ownerUrl);
   if (others > 0) throw new Error(`${others} other connection(s) use the target database: stop Phaselot (and anything else using it) first`);
-  const restored = await restoreBackup(positionals[0], { ownerUrl, appUrl: onDatabase(config.DATABASE_URL, values.database), store: blobStore, force: values.force });
+  const restored = await restoreBackup(positionals[0], {
+    ownerUrl,
+    appUrl: onDatabase(config.DATABASE_URL, values.database),
+    store: blobStore,
+    force: values.force,
+  });
   const { manifest } = restored;
-  console.log(`restored the backup of ${manifest.createdAt} (database ${manifest.database.name}) into ${new URL(ownerUrl).pathname.slice(1)}, and ${restored.files} stored file(s) into the ${blobStore.location}`);
+  console.log(
+    `restored the backup of ${manifest.createdAt} (database ${manifest.database.name}) into ${new URL(ownerUrl).pathname.slice(1)}, and ${restored.files} stored file(s) into the ${blobStore.location}`,
+  );
   if (restored.migrationsApplied.length) console.log(`applied ${restored.migrationsApplied.length} migration(s) newer than the backup`);
 } catch (error) {
   console.error(`restore failed: ${error instanceof Error ? error.message : String(error)}`);

@@ -23,7 +23,12 @@ const schema = z.object({
   PUBLIC_URL: z
     .string()
     .default('http://127.0.0.1:4870')
-    .transform((value) => value.split(',').map((entry) => entry.trim()).filter(Boolean))
+    .transform((value) =>
+      value
+        .split(',')
+        .map((entry) => entry.trim())
+        .filter(Boolean),
+    )
     .pipe(z.array(z.url({ protocol: /^https?$/ })).min(1)),
   UPLOAD_DIR: z.string().optional(),
   LOG_LEVEL: z.string().default('info'),
@@ -35,7 +40,10 @@ const schema = z.object({
   S3_FORCE_PATH_STYLE: z.stringbool().optional(),
   S3_ACCESS_KEY_ID: z.string().min(1).optional(),
   S3_SECRET_ACCESS_KEY: z.string().min(1).optional(),
-  S3_PREFIX: z.string().regex(/^([\w.-]+\/)*$/, 'a folder path ending in /, e.g. phaselot/').default(''),
+  S3_PREFIX: z
+    .string()
+    .regex(/^([\w.-]+\/)*$/, 'a folder path ending in /, e.g. phaselot/')
+    .default(''),
   // Background jobs: an export still running after EXPORT_TIMEOUT_SECONDS is taken for dead and
   // started again; JOBS_MAINTENANCE_SECONDS is how often that is looked for.
   EXPORT_TIMEOUT_SECONDS: z.coerce.number().int().min(1).default(900),
@@ -46,7 +54,12 @@ const schema = z.object({
   LONG_STATEMENT_TIMEOUT_SECONDS: z.coerce.number().int().min(0).default(900),
 });
 
-export type Config = Omit<z.infer<typeof schema>, 'PUBLIC_URL'> & { JWT_SECRET: string; PUBLIC_URL: string; PUBLIC_ORIGINS: string[]; MIGRATION_DATABASE_URL: string };
+export type Config = Omit<z.infer<typeof schema>, 'PUBLIC_URL'> & {
+  JWT_SECRET: string;
+  PUBLIC_URL: string;
+  PUBLIC_ORIGINS: string[];
+  MIGRATION_DATABASE_URL: string;
+};
 
 function load(): Config {
   const parsed = schema.safeParse(process.env);
@@ -58,7 +71,8 @@ function load(): Config {
     throw new Error('JWT_SECRET must be set (16 characters or more) when NODE_ENV=production');
   }
   if (env.STORAGE === 's3' && !env.S3_BUCKET) throw new Error('S3_BUCKET must be set when STORAGE=s3');
-  if (Boolean(env.S3_ACCESS_KEY_ID) !== Boolean(env.S3_SECRET_ACCESS_KEY)) throw new Error('S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY are set together (or neither, for the AWS SDK\'s own credential chain)');
+  if (Boolean(env.S3_ACCESS_KEY_ID) !== Boolean(env.S3_SECRET_ACCESS_KEY))
+    throw new Error("S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY are set together (or neither, for the AWS SDK's own credential chain)");
   return {
     ...env,
     MIGRATION_DATABASE_URL: env.MIGRATION_DATABASE_URL ?? env.DATABASE_URL,

@@ -12,6 +12,7 @@ const REDACTED_PATHS = [
   ...['password', 'currentPassword', 'newPassword', 'token'].flatMap((field) => [field, `*.${field}`, `*.*.${field}`]),
 ];
 
-export const createLogger = (level: string, destination?: DestinationStream) => pino({ level, redact: { paths: REDACTED_PATHS, censor: '[redacted]' } }, destination);
+export const createLogger = (level: string, destination?: DestinationStream) =>
+  pino({ level, redact: { paths: REDACTED_PATHS, censor: '[redacted]' } }, destination);
 
 export const logger = createLogger(config.NODE_ENV === 'test' ? 'silent' : config.LOG_LEVEL);

@@ -32,17 +32,36 @@ export async function createPlanHistory(sequelize: Sequelize, transaction: Trans
 }
 
 type StoredPlan = {
-  inspectionId: number; lotId: number; state: string; quantity: number; ordered100: boolean; severity: string; level: string; aql: number;
-  codeLetter: string; planLetter: string; sampleSize: number; accept: number; reject: number; hundredPercent: boolean; seed: string;
+  inspectionId: number;
+  lotId: number;
+  state: string;
+  quantity: number;
+  ordered100: boolean;
+  severity: string;
+  level: string;
+  aql: number;
+  codeLetter: string;
+  planLetter: string;
+  sampleSize: number;
+  accept: number;
+  reject: number;
+  hundredPercent: boolean;
+  seed: string;
 };
 
 const planOf = (p: Pick<StoredPlan, 'codeLetter' | 'planLetter' | 'sampleSize' | 'accept' | 'reject' | 'hundredPercent'>) => ({
-  codeLetter: p.codeLetter, planLetter: p.planLetter, sampleSize: p.sampleSize, accept: p.accept, reject: p.reject, hundredPercent: p.hundredPercent,
+  codeLetter: p.codeLetter,
+  planLetter: p.planLetter,
+  sampleSize: p.sampleSize,
+  accept: p.accept,
+  reject: p.reject,
+  hundredPercent: p.hundredPercent,
 });
 
 /** Redraws every undecided lot's plan that the tables now give differently; answers those lots. */
 export async function redrawUndecidedPlans(sequelize: Sequelize, transaction: Transaction): Promise<number[]> {
-  const select = <T extends object>(sql: string, replacements: Record<string, unknown> = {}) => sequelize.query<T>(sql, { type: QueryTypes.SELECT, transaction, replacements });
+  const select = <T extends object>(sql: string, replacements: Record<string, unknown> = {}) =>
+    sequelize.query<T>(sql, { type: QueryTypes.SELECT, transaction, replacements });
   const run = (sql: string, replacements: Record<string, unknown>) => sequelize.query(sql, { transaction, replacements });
   const plans = await select<StoredPlan>(
     `SELECT li.id AS "inspectionId", l.id AS "lotId", l.state, l.quantity, pol.hundred_percent AS "ordered100", li.severity, li.inspection_level AS level,
@@ -68,7 +87,11 @@ export async function redrawUndecidedPlans(sequelize: Sequelize, transaction: Tr
     );
     const before = { ...planOf(old), severity: old.severity, level: old.level, aql: old.aql, seed: old.seed };
     await run('INSERT INTO superseded_lot_plans (lot_id, inspection_id, plan, sample, reason) VALUES (:lotId, :id, :plan::jsonb, :sample::jsonb, :reason)', {
-      lotId: old.lotId, id: old.inspectionId, plan: JSON.stringify(before), sample: JSON.stringify(oldSample.map((s) => s.serial)), reason: REDRAW_REASON,
+      lotId: old.lotId,
+      id: old.inspectionId,
+      plan: JSON.stringify(before),
+      sample: JSON.stringify(oldSample.map((s) => s.serial)),
+      reason: REDRAW_REASON,
     });
     await run(
       `UPDATE lot_inspections SET code_letter = :codeLetter, plan_letter = :planLetter, sample_size = :sampleSize, accept_number = :accept,
@@ -79,7 +102,10 @@ export async function redrawUndecidedPlans(sequelize: Sequelize, transaction: Tr
     const chosen = new Set(next.hundredPercent ? serials : drawSample(serials, next.sampleSize, old.seed));
     const sample = pieces.filter((p) => chosen.has(p.serial));
     await run('DELETE FROM sample_pieces WHERE inspection_id = :id', { id: old.inspectionId });
-    await run('INSERT INTO sample_pieces (inspection_id, piece_id) SELECT :id, unnest(ARRAY[:pieces]::integer[])', { id: old.inspectionId, pieces: sample.map((p) => p.id) });
+    await run('INSERT INTO sample_pieces (inspection_id, piece_id) SELECT :id, unnest(ARRAY[:pieces]::integer[])', {
+      id: old.inspectionId,
+      pieces: sample.map((p) => p.id),
+    });
 
     let state = old.state;
     if (old.state !== 'quarantine') {
@@ -101,7 +127,12 @@ export async function redrawUndecidedPlans(sequelize: Sequelize, transaction: Tr
       {
         lotId: String(old.lotId),
         before: JSON.stringify({ plan: before, sample: oldSample.map((s) => s.serial), state: old.state }),
-        after: JSON.stringify({ plan: { ...next, severity: old.severity, level: old.level, aql: old.aql, seed: old.seed }, sample: sample.map((p) => p.serial), state, reason: REDRAW_REASON }),
+        after: JSON.stringify({
+          plan: { ...next, severity: old.severity, level: old.level, aql: old.aql, seed: old.seed },
+          sample: sample.map((p) => p.serial),
+          state,
+          reason: REDRAW_REASON,
+        }),
       },
     );
     redrawn.push(old.lotId);

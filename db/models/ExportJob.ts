@@ -30,7 +30,13 @@ export class ExportJob extends Model<InferAttributes<ExportJob>, InferCreationAt
         error: DataTypes.TEXT,
         storageKey: DataTypes.STRING(64),
         // bigint arrives from pg as a string; ZIP sizes stay far below 2^53.
-        size: { type: DataTypes.BIGINT, get() { const raw = this.getDataValue('size'); return raw === null ? null : Number(raw); } },
+        size: {
+          type: DataTypes.BIGINT,
+          get() {
+            const raw = this.getDataValue('size');
+            return raw === null ? null : Number(raw);
+          },
+        },
         sha256: DataTypes.CHAR(64),
         createdAt: DataTypes.DATE,
         finishedAt: DataTypes.DATE,

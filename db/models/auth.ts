@@ -1,6 +1,15 @@
 // Models of sign-in state (see migration 20261202-0500): server-side sessions and password reset
 // links. The throttle and lock-out counters are counted in SQL where they are used (server/auth).
-import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type NonAttribute, type Sequelize } from 'sequelize';
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type ForeignKey,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type NonAttribute,
+  type Sequelize,
+} from 'sequelize';
 import { User } from './User';
 
 export const SESSION_END_REASONS = ['sign-out', 'password-changed', 'password-reset', 'deactivated'] as const;

@@ -31,7 +31,27 @@ export function initModels(sequelize: Sequelize) {
   const nonconformance = initNonconformanceModels(sequelize);
   const deviations = initDeviationModels(sequelize);
   const correctiveActions = initCorrectiveActionModels(sequelize);
-  return { ...auth, ...nonconformance, ...deviations, ...correctiveActions, User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment, ...inspection };
+  return {
+    ...auth,
+    ...nonconformance,
+    ...deviations,
+    ...correctiveActions,
+    User,
+    OutboxMail,
+    Instrument,
+    ExportJob,
+    Supplier,
+    Part,
+    PurchaseOrder,
+    PurchaseOrderLine,
+    Shipment,
+    Lot,
+    Piece,
+    Location,
+    StockMove,
+    Attachment,
+    ...inspection,
+  };
 }
 
 /** Purchasing, receiving and stock (migration 0101). */
@@ -55,7 +75,29 @@ function initReceivingModels(sequelize: Sequelize) {
 export { User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment };
 export type { OutboxAttachment } from './OutboxMail';
 export { Session, PasswordResetToken, type SessionEndReason } from './auth';
-export { LotInspection, SamplePiece, SwitchingStateRecord, SwitchingEvent, MeasurementFile, Reading, PieceResult, DispositionRecord, LotDocument } from './inspection';
-export { RecordCounter, DefectCode, Nonconformance, NonconformanceDefect, NonconformancePiece, NcrDisposition, NcrDispositionPiece, VendorReturn, type NcrOrigin, type NcrStatus, type NcrDecision } from './nonconformance';
+export {
+  LotInspection,
+  SamplePiece,
+  SwitchingStateRecord,
+  SwitchingEvent,
+  MeasurementFile,
+  Reading,
+  PieceResult,
+  DispositionRecord,
+  LotDocument,
+} from './inspection';
+export {
+  RecordCounter,
+  DefectCode,
+  Nonconformance,
+  NonconformanceDefect,
+  NonconformancePiece,
+  NcrDisposition,
+  NcrDispositionPiece,
+  VendorReturn,
+  type NcrOrigin,
+  type NcrStatus,
+  type NcrDecision,
+} from './nonconformance';
 export { Deviation, DeviationApproval, DeviationUse, type ApprovalSlot } from './deviation';
 export { CorrectiveAction, CorrectiveActionLink, CorrectiveActionResponse, CorrectiveActionAttachment, type CorrectiveActionStatus } from './correctiveAction';

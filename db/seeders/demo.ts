@@ -22,7 +22,12 @@ async function seedUsers() {
   const passwordHash = await hashPassword(DEMO_PASSWORD);
   const users: Partial<Record<Role, User>> = {};
   for (const role of ROLES) {
-    users[role] = await User.create({ email: demoLogin(role).email, name: `${faker.person.firstName()} ${faker.person.lastName()}`, roles: [role], passwordHash });
+    users[role] = await User.create({
+      email: demoLogin(role).email,
+      name: `${faker.person.firstName()} ${faker.person.lastName()}`,
+      roles: [role],
+      passwordHash,
+    });
   }
   return users as Record<Role, User>;
 }
@@ -30,10 +35,45 @@ async function seedUsers() {
 /** The inspection bench of the demo site; one instrument is past its calibration date on purpose. */
 async function seedInstruments() {
   const rows: InstrumentInput[] = [
-    { code: 'BENCH-2', kind: 'stokes-polarimeter', description: 'Six-state Stokes polarimeter, 632.8 nm and 1064 nm sources', uncertaintyWaves: 0.0008, uncertaintyDeg: 0.05, calibratedOn: '2026-05-12', calibrationDueOn: '2027-05-12' },
-    { code: 'BENCH-1', kind: 'rotating-plate', description: 'Rotating-plate bench between fixed polarisers; exports angles clockwise', angleSign: -1, uncertaintyWaves: 0.0015, uncertaintyDeg: 0.1, calibratedOn: '2026-03-02', calibrationDueOn: '2027-03-02' },
-    { code: 'RM-3', kind: 'direct-retardance', description: 'Direct-reading retardance meter, 400–1100 nm', s3Sign: -1, uncertaintyWaves: 0.001, uncertaintyDeg: 0.08, calibratedOn: '2026-08-20', calibrationDueOn: '2027-08-20' },
-    { code: 'BENCH-0', kind: 'stokes-polarimeter', description: 'Retired bench, calibration lapsed', uncertaintyWaves: 0.002, uncertaintyDeg: 0.2, calibratedOn: '2024-09-01', calibrationDueOn: '2025-09-01', active: false },
+    {
+      code: 'BENCH-2',
+      kind: 'stokes-polarimeter',
+      description: 'Six-state Stokes polarimeter, 632.8 nm and 1064 nm sources',
+      uncertaintyWaves: 0.0008,
+      uncertaintyDeg: 0.05,
+      calibratedOn: '2026-05-12',
+      calibrationDueOn: '2027-05-12',
+    },
+    {
+      code: 'BENCH-1',
+      kind: 'rotating-plate',
+      description: 'Rotating-plate bench between fixed polarisers; exports angles clockwise',
+      angleSign: -1,
+      uncertaintyWaves: 0.0015,
+      uncertaintyDeg: 0.1,
+      calibratedOn: '2026-03-02',
+      calibrationDueOn: '2027-03-02',
+    },
+    {
+      code: 'RM-3',
+      kind: 'direct-retardance',
+      description: 'Direct-reading retardance meter, 400–1100 nm',
+      s3Sign: -1,
+      uncertaintyWaves: 0.001,
+      uncertaintyDeg: 0.08,
+      calibratedOn: '2026-08-20',
+      calibrationDueOn: '2027-08-20',
+    },
+    {
+      code: 'BENCH-0',
+      kind: 'stokes-polarimeter',
+      description: 'Retired bench, calibration lapsed',
+      uncertaintyWaves: 0.002,
+      uncertaintyDeg: 0.2,
+      calibratedOn: '2024-09-01',
+      calibrationDueOn: '2025-09-01',
+      active: false,
+    },
   ];
   return Instrument.bulkCreate(rows.map((r) => instrumentInputSchema.parse(r)));
 }

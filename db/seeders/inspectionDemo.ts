@@ -14,7 +14,10 @@ type Plan = 'accept' | 'reject' | 'awaiting' | 'partial' | 'deviation' | 'sort';
 
 function benchFileFor(lot: LotForInspection, serials: string[], failing: Set<string>, seed: number) {
   const whole = lot.spec.construction === 'multi-order' ? (lot.spec.multiOrder ?? 0) : 0;
-  const wavelengths = lot.spec.construction === 'achromatic' && lot.spec.bandNm ? [lot.spec.bandNm[0], lot.spec.designWavelengthNm, lot.spec.bandNm[1]] : [lot.spec.designWavelengthNm];
+  const wavelengths =
+    lot.spec.construction === 'achromatic' && lot.spec.bandNm
+      ? [lot.spec.bandNm[0], lot.spec.designWavelengthNm, lot.spec.bandNm[1]]
+      : [lot.spec.designWavelengthNm];
   const plates = serials.flatMap((serial, i) =>
     wavelengths.map((wavelengthNm) => ({
       serial,
@@ -51,7 +54,9 @@ export async function seedInspectionDemo(password: string) {
         meaningAcknowledged: true,
         expectedDispositionId: null,
         ...(decision === 'reject' && { justification: 'Retardance out of tolerance on several sample pieces.' }),
-        ...(decision === 'sort' && { justification: 'The build needs these plates now: sort at our bench, return the nonconforming ones. Agreed with the supplier.' }),
+        ...(decision === 'sort' && {
+          justification: 'The build needs these plates now: sort at our bench, return the nonconforming ones. Agreed with the supplier.',
+        }),
         ...(decision === 'use-as-is' && {
           deviationId: (await seedApprovedDeviation(lot.supplier.id, lot.part.id, lot.pieces.length + 20, password)).id,
           justification: 'One plate 0.005 λ long; the alignment fixture it goes into tolerates ±0.01 λ. Agreed with engineering.',

@@ -55,7 +55,11 @@ export type MeterReading = { serial: string; wavelengthNm: number; retardanceWav
 export async function meterFile(readings: MeterReading[]) {
   const meter = await Instrument.findOne({ where: { code: 'RM-3' }, rejectOnEmpty: true });
   const rows = readings.map((r) => directRow({ ...r, fastAxisDeg: (r.fastAxisDeg - (meter.s3Sign === -1 ? 90 : 0)) * meter.angleSign }, 'waves'));
-  return Buffer.from(['# Invented readings (Phaselot demo data)', '# instrument: RM-3', '# operator: QC-07', `# date: ${isoDay(Date.now())}`, DIRECT_HEADER, ...rows, ''].join('\n'));
+  return Buffer.from(
+    ['# Invented readings (Phaselot demo data)', '# instrument: RM-3', '# operator: QC-07', `# date: ${isoDay(Date.now())}`, DIRECT_HEADER, ...rows, ''].join(
+      '\n',
+    ),
+  );
 }
 
 /** The meter's file of pieces of a lot's part (zero-order or multi-order) at its design wavelength. */
@@ -105,7 +109,10 @@ export async function recordHistoryLot(people: HistoryPeople, spec: HistoryLot) 
     (await signDisposition(people.quality, lot.id, { ...input, password: people.password, meaningAcknowledged: true, expectedDispositionId })).disposition.id;
   const { proposal, explanation } = (await evaluateLot(await lotForInspection(lot.id))).verdict;
   if (proposal === 'undecided') throw new Error(`lot ${lot.id} of the history cannot be decided: ${explanation}`);
-  const byVerdict = { decision: proposal === 'accept' ? 'accept' : 'reject', justification: proposal === 'accept' ? undefined : 'Sample out of tolerance.' } as const;
+  const byVerdict = {
+    decision: proposal === 'accept' ? 'accept' : 'reject',
+    justification: proposal === 'accept' ? undefined : 'Sample out of tolerance.',
+  } as const;
   if (decision === 'sort') await sign({ decision: 'sort', justification: 'Needed for the build: sorted at our bench.' }, null);
   else if (decision === 'reject-then-verdict') await sign(byVerdict, await sign({ decision: 'reject', justification: 'Held for a packaging check.' }, null));
   else await sign(byVerdict, null);
@@ -140,20 +147,44 @@ const CORVANE = {
 
 const HISTORIES: History[] = [
   {
-    supplier: 'Quillmere Crystal Foundry', part: 'VW-QWP-633', prefix: 'QH-', lotPrefix: 'QCF-26', lots: 8, firstDaysAgo: 200, everyDays: 22, quantity: 40, leadDays: 24,
+    supplier: 'Quillmere Crystal Foundry',
+    part: 'VW-QWP-633',
+    prefix: 'QH-',
+    lotPrefix: 'QCF-26',
+    lots: 8,
+    firstDaysAgo: 200,
+    everyDays: 22,
+    quantity: 40,
+    leadDays: 24,
     lateness: (i) => (i === 4 ? 3 : -2),
     level: (i) => ({ retardanceWaves: 0.1 * Math.cos(1.3 * i), axisDeg: 0.12 * Math.sin(1.9 * i) }),
     spread: { retardanceWaves: 0.18, axisDeg: 0.16 },
   },
   {
-    supplier: 'Saltern Birefringents', part: 'VW-MOQ-633-12', prefix: 'SH-', lotPrefix: 'SB-69', lots: 6, firstDaysAgo: 190, everyDays: 28, quantity: 30, leadDays: 20,
+    supplier: 'Saltern Birefringents',
+    part: 'VW-MOQ-633-12',
+    prefix: 'SH-',
+    lotPrefix: 'SB-69',
+    lots: 6,
+    firstDaysAgo: 190,
+    everyDays: 28,
+    quantity: 30,
+    leadDays: 20,
     lateness: (i) => [4, -1, 9, 2, -3, 6][i],
     level: (i) => ({ retardanceWaves: 0.12 + 0.1 * Math.sin(2.3 * i), axisDeg: -0.05 + 0.08 * Math.cos(1.7 * i) }),
     spread: { retardanceWaves: 0.2, axisDeg: 0.18 },
   },
   {
     // The marking jig drifts: the mean axis error walks up lot by lot until pieces pass the tolerance.
-    supplier: CORVANE.name, part: 'VW-QWP-1064', prefix: 'CH-', lotPrefix: 'CPW-4', lots: 11, firstDaysAgo: 150, everyDays: 13, quantity: 40, leadDays: 18,
+    supplier: CORVANE.name,
+    part: 'VW-QWP-1064',
+    prefix: 'CH-',
+    lotPrefix: 'CPW-4',
+    lots: 11,
+    firstDaysAgo: 150,
+    everyDays: 13,
+    quantity: 40,
+    leadDays: 18,
     lateness: (i) => (i % 3 === 0 ? 1 : -1),
     level: (i) => ({ retardanceWaves: 0.02, axisDeg: [0.02, -0.03, 0.01, -0.02, 0.1, 0.18, 0.28, 0.4, 0.55, 0.9, 1.05][i] }),
     spread: { retardanceWaves: 0.16, axisDeg: 0.1 },
@@ -164,7 +195,13 @@ const HISTORIES: History[] = [
 /** Seeds the histories against the demo's suppliers and parts. */
 export async function seedPerformanceHistory(password: string) {
   const find = (role: string) => User.findOne({ where: { email: `${role}@phaselot.test` }, rejectOnEmpty: true });
-  const people: HistoryPeople = { buyer: await find('buyer'), clerk: await find('clerk'), inspector: await find('inspector'), quality: await find('quality'), password };
+  const people: HistoryPeople = {
+    buyer: await find('buyer'),
+    clerk: await find('clerk'),
+    inspector: await find('inspector'),
+    quality: await find('quality'),
+    password,
+  };
   await createSupplier(actorFromUser(people.buyer), CORVANE);
   let poNumber = 61;
   for (const [h, history] of HISTORIES.entries()) {

@@ -25,21 +25,127 @@ const LOCATIONS = [
 ] as const;
 
 const SUPPLIERS = [
-  { key: 'quillmere', name: 'Quillmere Crystal Foundry', contactEmail: 'orders@quillmere-crystal.example', notes: 'Grows and polishes its own quartz; zero-order plates cemented in-house.' },
+  {
+    key: 'quillmere',
+    name: 'Quillmere Crystal Foundry',
+    contactEmail: 'orders@quillmere-crystal.example',
+    notes: 'Grows and polishes its own quartz; zero-order plates cemented in-house.',
+  },
   { key: 'saltern', name: 'Saltern Birefringents', contactEmail: 'sales@saltern-biref.example', notes: 'Multi-order and large-aperture quartz.' },
-  { key: 'orrisdale', name: 'Orrisdale Thin Films', contactEmail: 'po-desk@orrisdale-films.example', notes: 'Stretched polymer retarders, laminated between glass.' },
-  { key: 'veylune', name: 'Vey & Lune Retarder Works', contactEmail: 'dispatch@veylune.example', notes: 'New supplier since 2026; first lots on 100 % inspection.' },
+  {
+    key: 'orrisdale',
+    name: 'Orrisdale Thin Films',
+    contactEmail: 'po-desk@orrisdale-films.example',
+    notes: 'Stretched polymer retarders, laminated between glass.',
+  },
+  {
+    key: 'veylune',
+    name: 'Vey & Lune Retarder Works',
+    contactEmail: 'dispatch@veylune.example',
+    notes: 'New supplier since 2026; first lots on 100 % inspection.',
+  },
 ] as const;
 type SupplierKey = (typeof SUPPLIERS)[number]['key'];
 
 const zeroOrderQuartz = { construction: 'zero-order', material: 'quartz' } as const;
 const PARTS: (PartInput & { key: string; spec: PartSpecInput })[] = [
-  { key: 'qwp633', number: 'VW-QWP-633', description: 'Quarter-wave plate, 632.8 nm, Ø12.7 mm, cemented zero-order', spec: { ...zeroOrderQuartz, nominalWaves: 0.25, designWavelengthNm: 632.8, retardanceTolWaves: 0.003, axisTolDeg: 0.5, clearApertureMm: 10, diameterMm: 12.7, decisionRule: 'simple' } },
-  { key: 'hwp1064', number: 'VW-HWP-1064', description: 'Half-wave plate, 1064 nm, Ø25.4 mm, for the laser head', spec: { ...zeroOrderQuartz, nominalWaves: 0.5, designWavelengthNm: 1064, retardanceTolWaves: 0.004, axisTolDeg: 0.3, clearApertureMm: 20, diameterMm: 25.4, maxDiattenuation: 0.01, decisionRule: 'guarded' } },
-  { key: 'hwp532', number: 'VW-HWP-532', description: 'Half-wave plate, 532 nm, Ø10 mm, MgF₂', spec: { construction: 'zero-order', material: 'mgf2', nominalWaves: 0.5, designWavelengthNm: 532, retardanceTolWaves: 0.003, axisTolDeg: 0.5, clearApertureMm: 8, diameterMm: 10, decisionRule: 'simple' } },
-  { key: 'qwp1064', number: 'VW-QWP-1064', description: 'Quarter-wave plate, 1064 nm, Ø12.7 mm', spec: { ...zeroOrderQuartz, nominalWaves: 0.25, designWavelengthNm: 1064, retardanceTolWaves: 0.003, axisTolDeg: 0.5, clearApertureMm: 10, diameterMm: 12.7, decisionRule: 'guarded' } },
-  { key: 'moq633', number: 'VW-MOQ-633-12', description: 'Multi-order quarter-wave, 632.8 nm, order 12, single quartz plate', spec: { construction: 'multi-order', multiOrder: 12, material: 'quartz', nominalWaves: 0.25, designWavelengthNm: 632.8, retardanceTolWaves: 0.005, axisTolDeg: 1, clearApertureMm: 10, diameterMm: 12.7, decisionRule: 'simple' } },
-  { key: 'ach700', number: 'VW-ACH-QWP-700', description: 'Achromatic quarter-wave, 450–950 nm, polymer laminate, Ø20 mm', spec: { construction: 'achromatic', bandNm: [450, 950], material: 'polymer', nominalWaves: 0.25, designWavelengthNm: 700, retardanceTolWaves: 0.01, axisTolDeg: 1, clearApertureMm: 15, diameterMm: 20, maxDepolarization: 0.02, decisionRule: 'simple' } },
+  {
+    key: 'qwp633',
+    number: 'VW-QWP-633',
+    description: 'Quarter-wave plate, 632.8 nm, Ø12.7 mm, cemented zero-order',
+    spec: {
+      ...zeroOrderQuartz,
+      nominalWaves: 0.25,
+      designWavelengthNm: 632.8,
+      retardanceTolWaves: 0.003,
+      axisTolDeg: 0.5,
+      clearApertureMm: 10,
+      diameterMm: 12.7,
+      decisionRule: 'simple',
+    },
+  },
+  {
+    key: 'hwp1064',
+    number: 'VW-HWP-1064',
+    description: 'Half-wave plate, 1064 nm, Ø25.4 mm, for the laser head',
+    spec: {
+      ...zeroOrderQuartz,
+      nominalWaves: 0.5,
+      designWavelengthNm: 1064,
+      retardanceTolWaves: 0.004,
+      axisTolDeg: 0.3,
+      clearApertureMm: 20,
+      diameterMm: 25.4,
+      maxDiattenuation: 0.01,
+      decisionRule: 'guarded',
+    },
+  },
+  {
+    key: 'hwp532',
+    number: 'VW-HWP-532',
+    description: 'Half-wave plate, 532 nm, Ø10 mm, MgF₂',
+    spec: {
+      construction: 'zero-order',
+      material: 'mgf2',
+      nominalWaves: 0.5,
+      designWavelengthNm: 532,
+      retardanceTolWaves: 0.003,
+      axisTolDeg: 0.5,
+      clearApertureMm: 8,
+      diameterMm: 10,
+      decisionRule: 'simple',
+    },
+  },
+  {
+    key: 'qwp1064',
+    number: 'VW-QWP-1064',
+    description: 'Quarter-wave plate, 1064 nm, Ø12.7 mm',
+    spec: {
+      ...zeroOrderQuartz,
+      nominalWaves: 0.25,
+      designWavelengthNm: 1064,
+      retardanceTolWaves: 0.003,
+      axisTolDeg: 0.5,
+      clearApertureMm: 10,
+      diameterMm: 12.7,
+      decisionRule: 'guarded',
+    },
+  },
+  {
+    key: 'moq633',
+    number: 'VW-MOQ-633-12',
+    description: 'Multi-order quarter-wave, 632.8 nm, order 12, single quartz plate',
+    spec: {
+      construction: 'multi-order',
+      multiOrder: 12,
+      material: 'quartz',
+      nominalWaves: 0.25,
+      designWavelengthNm: 632.8,
+      retardanceTolWaves: 0.005,
+      axisTolDeg: 1,
+      clearApertureMm: 10,
+      diameterMm: 12.7,
+      decisionRule: 'simple',
+    },
+  },
+  {
+    key: 'ach700',
+    number: 'VW-ACH-QWP-700',
+    description: 'Achromatic quarter-wave, 450–950 nm, polymer laminate, Ø20 mm',
+    spec: {
+      construction: 'achromatic',
+      bandNm: [450, 950],
+      material: 'polymer',
+      nominalWaves: 0.25,
+      designWavelengthNm: 700,
+      retardanceTolWaves: 0.01,
+      axisTolDeg: 1,
+      clearApertureMm: 15,
+      diameterMm: 20,
+      maxDepolarization: 0.02,
+      decisionRule: 'simple',
+    },
+  },
 ];
 type PartKey = (typeof PARTS)[number]['key'];
 
@@ -50,12 +156,18 @@ type Order = { number: string; supplier: SupplierKey; orderedOn: string; lines: 
 // Received oldest first; the inspection seed takes the four oldest lots (accept, reject, measured, partly measured).
 const ORDERS: Order[] = [
   {
-    number: 'VW-PO-26-0141', supplier: 'quillmere', orderedOn: '2026-10-06', closeAfterwards: true, notes: 'Blanket order for the 2026 Q4 interferometer build.',
+    number: 'VW-PO-26-0141',
+    supplier: 'quillmere',
+    orderedOn: '2026-10-06',
+    closeAfterwards: true,
+    notes: 'Blanket order for the 2026 Q4 interferometer build.',
     lines: [{ part: 'qwp633', quantity: 120, unitPrice: 86.5, aql: 1 }],
     receipts: [{ line: 1, at: '2026-10-20T09:40:00Z', quantity: 120, first: 1, prefix: 'QW-', supplierLot: 'QCF-2610-A', carrier: 'Larchway Freight' }],
   },
   {
-    number: 'VW-PO-26-0152', supplier: 'saltern', orderedOn: '2026-10-14',
+    number: 'VW-PO-26-0152',
+    supplier: 'saltern',
+    orderedOn: '2026-10-14',
     lines: [
       { part: 'hwp1064', quantity: 80, unitPrice: 212, aql: 0.65 },
       { part: 'moq633', quantity: 40, unitPrice: 48, inspectionLevel: 'S-4', aql: 2.5 },
@@ -66,7 +178,9 @@ const ORDERS: Order[] = [
     ],
   },
   {
-    number: 'VW-PO-26-0167', supplier: 'quillmere', orderedOn: '2026-10-28',
+    number: 'VW-PO-26-0167',
+    supplier: 'quillmere',
+    orderedOn: '2026-10-28',
     lines: [
       { part: 'hwp532', quantity: 60, unitPrice: 138, aql: 1 },
       { part: 'qwp633', quantity: 100, unitPrice: 84, aql: 1 },
@@ -77,12 +191,17 @@ const ORDERS: Order[] = [
     ],
   },
   {
-    number: 'VW-PO-26-0173', supplier: 'orrisdale', orderedOn: '2026-11-03',
+    number: 'VW-PO-26-0173',
+    supplier: 'orrisdale',
+    orderedOn: '2026-11-03',
     lines: [{ part: 'ach700', quantity: 120, unitPrice: 64, aql: 1.5 }],
     receipts: [{ line: 1, at: '2026-11-26T15:10:00Z', quantity: 120, first: 1, prefix: 'AQ-', supplierLot: 'OTF-26-118', carrier: 'Brindle Air Parcel' }],
   },
   {
-    number: 'VW-PO-26-0180', supplier: 'veylune', orderedOn: '2026-11-10', notes: 'First order with Vey & Lune: every plate is measured.',
+    number: 'VW-PO-26-0180',
+    supplier: 'veylune',
+    orderedOn: '2026-11-10',
+    notes: 'First order with Vey & Lune: every plate is measured.',
     lines: [
       { part: 'qwp1064', quantity: 300, unitPrice: 72, aql: 0.65, hundredPercent: true },
       { part: 'hwp1064', quantity: 50, unitPrice: 205, aql: 0.65, hundredPercent: true },
@@ -90,7 +209,9 @@ const ORDERS: Order[] = [
     receipts: [{ line: 1, at: '2026-11-30T13:45:00Z', quantity: 300, first: 1, prefix: 'Q1-', supplierLot: 'VL-0042', carrier: 'Brindle Air Parcel' }],
   },
   {
-    number: 'VW-PO-26-0188', supplier: 'orrisdale', orderedOn: '2026-11-20',
+    number: 'VW-PO-26-0188',
+    supplier: 'orrisdale',
+    orderedOn: '2026-11-20',
     lines: [{ part: 'ach700', quantity: 40, unitPrice: 66, aql: 1.5 }],
     receipts: [],
   },
@@ -132,7 +253,14 @@ export async function seedReceivingDemo(users: Record<Role, User>) {
       orderedOn: order.orderedOn,
       currency: 'EUR',
       notes: order.notes ?? '',
-      lines: order.lines.map((line) => ({ partId: parts[line.part].id, quantity: line.quantity, unitPrice: line.unitPrice, inspectionLevel: line.inspectionLevel ?? 'II', aql: line.aql, hundredPercent: line.hundredPercent ?? false })),
+      lines: order.lines.map((line) => ({
+        partId: parts[line.part].id,
+        quantity: line.quantity,
+        unitPrice: line.unitPrice,
+        inspectionLevel: line.inspectionLevel ?? 'II',
+        aql: line.aql,
+        hundredPercent: line.hundredPercent ?? false,
+      })),
     };
     const created = await createPurchaseOrder(buyer, input);
     const lines = await PurchaseOrderLine.findAll({ where: { purchaseOrderId: created.id }, order: [['lineNumber', 'ASC']] });
@@ -168,7 +296,8 @@ export async function seedReceivingDemo(users: Record<Role, User>) {
       );
       lots.push(lot);
     }
-    if (order.closeAfterwards) await updatePurchaseOrder(buyer, created.id, { ...input, status: 'closed', lines: input.lines.map((l, i) => ({ ...l, id: lines[i].id })) });
+    if (order.closeAfterwards)
+      await updatePurchaseOrder(buyer, created.id, { ...input, status: 'closed', lines: input.lines.map((l, i) => ({ ...l, id: lines[i].id })) });
     purchaseOrders.push(created);
   }
   return { locations, suppliers: Object.values(suppliers), parts: Object.values(parts), purchaseOrders, lots };
@@ -180,8 +309,13 @@ export async function seedStockDemo(users: Record<Role, User>, lots: Lot[]) {
   const binA2 = await Location.findOne({ where: { code: 'BIN-A2' } });
   const accepted = await Lot.findAll({ where: { id: lots.map((l) => l.id), state: 'accepted' }, include: [{ association: 'pieces' }], order: [['id', 'ASC']] });
   for (const [index, lot] of accepted.entries()) {
-    const serials = (lot.pieces ?? []).filter((p) => p.state === 'in-stock').map((p) => p.serial).sort();
-    if (binA2 && serials.length >= 30) await transferBetweenBins(clerk, { partId: lot.partId, toLocationId: binA2.id, serials: serials.slice(0, 20).join('\n') });
-    if (serials.length >= 40) await issueToWorkOrder(clerk, { partId: lot.partId, workOrder: `WO-26-${3318 + index}`, serials: serials.slice(20, 32).join('\n') });
+    const serials = (lot.pieces ?? [])
+      .filter((p) => p.state === 'in-stock')
+      .map((p) => p.serial)
+      .sort();
+    if (binA2 && serials.length >= 30)
+      await transferBetweenBins(clerk, { partId: lot.partId, toLocationId: binA2.id, serials: serials.slice(0, 20).join('\n') });
+    if (serials.length >= 40)
+      await issueToWorkOrder(clerk, { partId: lot.partId, workOrder: `WO-26-${3318 + index}`, serials: serials.slice(20, 32).join('\n') });
   }
 }

@@ -72,7 +72,7 @@ export async function run({ tries }: { tries: number }) {
     'client',
     async () => [
       { name: `first page's JavaScript, gzipped (${first.length} chunk${first.length === 1 ? '' : 's'})`, value: firstKb, unit: 'kB', target: { max: 200 } },
-      { name: "chunks of the first page holding chart code", value: chartsFirst.length, unit: 'count', target: { max: 0 } },
+      { name: 'chunks of the first page holding chart code', value: chartsFirst.length, unit: 'count', target: { max: 0 } },
       { name: 'all JavaScript, gzipped (every page)', value: allChunks.reduce((sum, file) => sum + gzipKb(file), 0), unit: 'kB', target: null },
     ],
     tries,

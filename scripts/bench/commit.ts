@@ -24,7 +24,9 @@ async function copyRows(text: string) {
   const client = new pg.Client({ connectionString: benchUrl('app') });
   await client.connect();
   try {
-    await client.query('CREATE TEMP TABLE bench_rows (serial text, wavelength_nm numeric, input text, s0 float8, s1 float8, s2 float8, s3 float8, mount_deg numeric)');
+    await client.query(
+      'CREATE TEMP TABLE bench_rows (serial text, wavelength_nm numeric, input text, s0 float8, s1 float8, s2 float8, s3 float8, mount_deg numeric)',
+    );
     const data = text.slice(text.indexOf(STOKES_HEADER));
     return await timed(() => pipeline(Readable.from([data]), client.query(copyFrom('COPY bench_rows FROM STDIN WITH (FORMAT csv, HEADER true)'))));
   } finally {
@@ -35,29 +37,44 @@ async function copyRows(text: string) {
 export async function run({ server, tries }: { server: BenchServer; tries: number }) {
   const token = await signIn(server, 'inspector@phaselot.test', DEMO_PASSWORD);
   let run = 0;
-  await measured('commit', async (): Promise<Figure[]> => {
-    run++;
-    const lot = await receivedLot({ quantity: PIECES });
-    const text = stokesFile(lot.serials, run);
-    const rows = lot.serials.length * 6;
-    console.log(`commit | lot L-${lot.lotId} of ${PIECES.toLocaleString('en-GB')} pieces received; file of ${rows.toLocaleString('en-GB')} rows, ${(Buffer.byteLength(text) / 1024 / 1024).toFixed(1)} MiB`);
+  await measured(
+    'commit',
+    async (): Promise<Figure[]> => {
+      run++;
+      const lot = await receivedLot({ quantity: PIECES });
+      const text = stokesFile(lot.serials, run);
+      const rows = lot.serials.length * 6;
+      console.log(
+        `commit | lot L-${lot.lotId} of ${PIECES.toLocaleString('en-GB')} pieces received; file of ${rows.toLocaleString('en-GB')} rows, ${(Buffer.byteLength(text) / 1024 / 1024).toFixed(1)} MiB`,
+      );
 
-    const parsing = await timed(() => parse(text, CSV_OPTIONS));
-    const copying = await copyRows(text);
-    const limit = { name: `csv-parse alone (${parsing.ms.toFixed(0)} ms) + COPY into a bare table (${copying.ms.toFixed(0)} ms)`, value: parsing.ms + copying.ms };
+      const parsing = await timed(() => parse(text, CSV_OPTIONS));
+      const copying = await copyRows(text);
+      const limit = {
+        name: `csv-parse alone (${parsing.ms.toFixed(0)} ms) + COPY into a bare table (${copying.ms.toFixed(0)} ms)`,
+        value: parsing.ms + copying.ms,
+      };
 
-    const path = `/api/inspection/lots/${lot.lotId}/measurements`;
-    server.resetPeak();
-    const preview = await timed(() => api(server, `${path}/preview`, { token, form: upload(text, 'bench-commit.csv') }));
-    const previewPeak = server.memory().peakMb;
-    server.resetPeak();
-    const commit = await timed(() => api(server, path, { token, form: upload(text, 'bench-commit.csv') }));
-    const commitPeak = server.memory().peakMb;
-    return [
-      { name: `preview of the ${rows.toLocaleString('en-GB')}-row file`, value: preview.ms, unit: 'ms', limit, target: { ratio: 2 } },
-      { name: 'preview answer (JSON)', value: preview.result.bytes / 1024 / 1024, unit: 'MB', target: null, note: `server peak RSS during the preview ${previewPeak.toFixed(0)} MB` },
-      { name: 'commit of the same file', value: commit.ms, unit: 'ms', limit, target: { ratio: 3, max: 15_000 } },
-      { name: 'server peak RSS during the commit', value: commitPeak, unit: 'MB', target: { max: 400 } },
-    ];
-  }, tries);
+      const path = `/api/inspection/lots/${lot.lotId}/measurements`;
+      server.resetPeak();
+      const preview = await timed(() => api(server, `${path}/preview`, { token, form: upload(text, 'bench-commit.csv') }));
+      const previewPeak = server.memory().peakMb;
+      server.resetPeak();
+      const commit = await timed(() => api(server, path, { token, form: upload(text, 'bench-commit.csv') }));
+      const commitPeak = server.memory().peakMb;
+      return [
+        { name: `preview of the ${rows.toLocaleString('en-GB')}-row file`, value: preview.ms, unit: 'ms', limit, target: { ratio: 2 } },
+        {
+          name: 'preview answer (JSON)',
+          value: preview.result.bytes / 1024 / 1024,
+          unit: 'MB',
+          target: null,
+          note: `server peak RSS during the preview ${previewPeak.toFixed(0)} MB`,
+        },
+        { name: 'commit of the same file', value: commit.ms, unit: 'ms', limit, target: { ratio: 3, max: 15_000 } },
+        { name: 'server peak RSS during the commit', value: commitPeak, unit: 'MB', target: { max: 400 } },
+      ];
+    },
+    tries,
+  );
 }

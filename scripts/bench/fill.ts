@@ -26,7 +26,19 @@ const CHUNK = 2_000;
 const AUDIT_BATCH = 250;
 const VACUUM_HEAD_EVERY = 40;
 
-type Ids = Record<'suppliers' | 'parts' | 'purchase_orders' | 'purchase_order_lines' | 'shipments' | 'lots' | 'pieces' | 'lot_inspections' | 'measurement_files' | 'dispositions', number>;
+type Ids = Record<
+  | 'suppliers'
+  | 'parts'
+  | 'purchase_orders'
+  | 'purchase_order_lines'
+  | 'shipments'
+  | 'lots'
+  | 'pieces'
+  | 'lot_inspections'
+  | 'measurement_files'
+  | 'dispositions',
+  number
+>;
 type Context = {
   client: pg.Client;
   bar: SingleBar;
@@ -57,7 +69,13 @@ export async function fill(options: { force: boolean }) {
   const history = simulateHistory();
   const totals = countRows(history.lots);
   await withBenchClient(async (client) => {
-    const bar = new SingleBar({ format: 'fill [{bar}] {percentage}% | {value}/{total} rows | {step} | {duration_formatted} (ETA {eta_formatted})', hideCursor: true, etaBuffer: 200, noTTYOutput: true, notTTYSchedule: 10_000 });
+    const bar = new SingleBar({
+      format: 'fill [{bar}] {percentage}% | {value}/{total} rows | {step} | {duration_formatted} (ETA {eta_formatted})',
+      hideCursor: true,
+      etaBuffer: 200,
+      noTTYOutput: true,
+      notTTYSchedule: 10_000,
+    });
     const context = await contextOf(client, bar);
     bar.start(totals.all, 0, { step: 'staging' });
     const { specs, ids } = await stage(context, history);
@@ -97,10 +115,19 @@ async function contextOf(client: pg.Client, bar: SingleBar): Promise<Context> {
   return {
     client,
     bar,
-    users: { clerk: await user('clerk@phaselot.test'), inspector: await user('inspector@phaselot.test'), quality: await user('quality@phaselot.test'), buyer: await user('buyer@phaselot.test') },
+    users: {
+      clerk: await user('clerk@phaselot.test'),
+      inspector: await user('inspector@phaselot.test'),
+      quality: await user('quality@phaselot.test'),
+      buyer: await user('buyer@phaselot.test'),
+    },
     locations: {
-      quarantine: await location('QUARANTINE'), stock: await location('BIN-A1'), stock2: await location('BIN-A2'), stock3: await location('BIN-B1'),
-      review: await location('MRB'), vendor: await location('RTV'),
+      quarantine: await location('QUARANTINE'),
+      stock: await location('BIN-A1'),
+      stock2: await location('BIN-A2'),
+      stock3: await location('BIN-B1'),
+      review: await location('MRB'),
+      vendor: await location('RTV'),
     },
   };
 }
@@ -128,13 +155,28 @@ function countRows(lots: FillLot[]) {
 async function stage(context: Context, history: ReturnType<typeof simulateHistory>) {
   const { client } = context;
   const base = {} as Ids;
-  for (const table of ['suppliers', 'parts', 'purchase_orders', 'purchase_order_lines', 'shipments', 'lots', 'pieces', 'lot_inspections', 'measurement_files', 'dispositions'] as const) {
+  for (const table of [
+    'suppliers',
+    'parts',
+    'purchase_orders',
+    'purchase_order_lines',
+    'shipments',
+    'lots',
+    'pieces',
+    'lot_inspections',
+    'measurement_files',
+    'dispositions',
+  ] as const) {
     base[table] = Number((await client.query(`SELECT coalesce(max(id), 0) AS id FROM ${table}`)).rows[0].id);
   }
   // Filled parts take the demo's single-wavelength specifications in turn.
-  const specs = (await client.query<{ spec: PartSpec }>("SELECT spec FROM parts WHERE spec->>'construction' <> 'achromatic' ORDER BY id")).rows.map((p) => p.spec);
+  const specs = (await client.query<{ spec: PartSpec }>("SELECT spec FROM parts WHERE spec->>'construction' <> 'achromatic' ORDER BY id")).rows.map(
+    (p) => p.spec,
+  );
   const [instrument] = (
-    await client.query("SELECT uncertainty_waves::float8 AS \"uncertaintyWaves\", uncertainty_deg::float8 AS \"uncertaintyDeg\", s3_sign AS \"s3Sign\", angle_sign AS \"angleSign\" FROM instruments WHERE code = 'BENCH-2'")
+    await client.query(
+      'SELECT uncertainty_waves::float8 AS "uncertaintyWaves", uncertainty_deg::float8 AS "uncertaintyDeg", s3_sign AS "s3Sign", angle_sign AS "angleSign" FROM instruments WHERE code = \'BENCH-2\'',
+    )
   ).rows;
   const templates = readingTemplates(specs, instrument);
 
@@ -147,9 +189,19 @@ async function stage(context: Context, history: ReturnType<typeof simulateHistor
       sw_position int, sw_before jsonb, sw_after jsonb, sw_explanation text, sw_changed boolean);
   `);
   for (const [s, t] of templates.entries()) {
-    for (const [verdict, list] of [['pass', t.pass], ['fail', t.fail]] as const) {
+    for (const [verdict, list] of [
+      ['pass', t.pass],
+      ['fail', t.fail],
+    ] as const) {
       for (const [variant, template] of list.entries()) {
-        await client.query('INSERT INTO fill_template VALUES ($1, $2, $3, $4, $5, $6)', [s, verdict, variant, specs[s].designWavelengthNm, JSON.stringify(template.fields), JSON.stringify(template.result)]);
+        await client.query('INSERT INTO fill_template VALUES ($1, $2, $3, $4, $5, $6)', [
+          s,
+          verdict,
+          variant,
+          specs[s].designWavelengthNm,
+          JSON.stringify(template.fields),
+          JSON.stringify(template.result),
+        ]);
       }
     }
   }
@@ -172,13 +224,37 @@ async function stage(context: Context, history: ReturnType<typeof simulateHistor
            AS raw(n, ord, line, line_number, supplier, part, quantity, first_piece, received_at, state, aql, severity, code_letter, plan_letter, sample_size, accept,
                   reject, hundred, seed, sample, measured, defectives, decision, signed_at, doc_serial, cert_serial, sw_position, sw_before, sw_after, sw_explanation, sw_changed)`,
       [
-        column((l) => l.n), column((l) => l.order), column((l) => l.line), column((l) => l.lineNumber), column((l) => l.supplier), column((l) => l.part),
-        column((l) => l.quantity), column((l) => l.firstPiece), column((l) => l.receivedAt), column((l) => l.state), column((l) => l.aql), column((l) => l.severity),
-        column((l) => l.codeLetter), column((l) => l.planLetter), column((l) => l.sampleSize), column((l) => l.accept), column((l) => l.reject),
-        column((l) => l.hundredPercent), column((l) => l.seed), column((l) => `{${l.sample.join(',')}}`), column((l) => l.measured), column((l) => l.defectives),
-        column((l) => l.decision), column((l) => l.signedAt), column((_l, i) => docSerial[i]), column((_l, i) => certSerial[i]),
-        column((l) => l.switching?.position ?? null), column((l) => (l.switching ? JSON.stringify(l.switching.before) : null)),
-        column((l) => (l.switching ? JSON.stringify(l.switching.after) : null)), column((l) => l.switching?.explanation ?? null), column((l) => l.switching?.changed ?? null),
+        column((l) => l.n),
+        column((l) => l.order),
+        column((l) => l.line),
+        column((l) => l.lineNumber),
+        column((l) => l.supplier),
+        column((l) => l.part),
+        column((l) => l.quantity),
+        column((l) => l.firstPiece),
+        column((l) => l.receivedAt),
+        column((l) => l.state),
+        column((l) => l.aql),
+        column((l) => l.severity),
+        column((l) => l.codeLetter),
+        column((l) => l.planLetter),
+        column((l) => l.sampleSize),
+        column((l) => l.accept),
+        column((l) => l.reject),
+        column((l) => l.hundredPercent),
+        column((l) => l.seed),
+        column((l) => `{${l.sample.join(',')}}`),
+        column((l) => l.measured),
+        column((l) => l.defectives),
+        column((l) => l.decision),
+        column((l) => l.signedAt),
+        column((_l, i) => docSerial[i]),
+        column((_l, i) => certSerial[i]),
+        column((l) => l.switching?.position ?? null),
+        column((l) => (l.switching ? JSON.stringify(l.switching.before) : null)),
+        column((l) => (l.switching ? JSON.stringify(l.switching.after) : null)),
+        column((l) => l.switching?.explanation ?? null),
+        column((l) => l.switching?.changed ?? null),
       ],
     );
     context.bar.increment(rows.length);
@@ -239,82 +315,104 @@ function steps(base: Ids, specs: PartSpec[]): Step[] {
   const lotName = `'L-' || l.lot_id`;
   const docNumber = (prefix: string, serial: string, at: string) => `'${prefix}-' || extract(year FROM ${at})::int || '-' || lpad(${serial}::text, 5, '0')`;
   return [
-    ['suppliers and parts', async ({ client, bar, users }) => {
-      const suppliers = await client.query(
-        `INSERT INTO suppliers (id, name, contact_email, owner_id, notes, created_at, updated_at)
+    [
+      'suppliers and parts',
+      async ({ client, bar, users }) => {
+        const suppliers = await client.query(
+          `INSERT INTO suppliers (id, name, contact_email, owner_id, notes, created_at, updated_at)
          SELECT ${base.suppliers} + s + 1, 'Fill supplier ' || lpad((s + 1)::text, 2, '0'), 'orders@supplier-' || lpad((s + 1)::text, 2, '0') || '.fill.example', $1,
                 'Invented supplier of the benchmark fill.', $2, $2
            FROM generate_series(0, ${SCALE.suppliers - 1}) s`,
-        [users.buyer, new Date(SCALE.first - 60 * 86_400_000)],
-      );
-      const parts = await client.query(
-        `INSERT INTO parts (id, number, description, spec, created_at, updated_at)
+          [users.buyer, new Date(SCALE.first - 60 * 86_400_000)],
+        );
+        const parts = await client.query(
+          `INSERT INTO parts (id, number, description, spec, created_at, updated_at)
          SELECT ${base.parts} + p + 1, 'FILL-' || lpad((p + 1)::text, 3, '0'), (ARRAY[${specs.map((s) => q(`${s.nominalWaves === 0.5 ? 'Half' : 'Quarter'}-wave plate, ${s.designWavelengthNm} nm (fill)`)).join(', ')}])[p % ${specs.length} + 1],
                 (ARRAY[${specs.map((s) => `${q(JSON.stringify(s))}::jsonb`).join(', ')}])[p % ${specs.length} + 1], $1, $1
            FROM generate_series(0, ${SCALE.parts - 1}) p`,
-        [new Date(SCALE.first - 60 * 86_400_000)],
-      );
-      bar.increment((suppliers.rowCount ?? 0) + (parts.rowCount ?? 0));
-    }],
-    ['purchase orders', async ({ client, bar, users }) => {
-      const orders = await client.query(
-        `INSERT INTO purchase_orders (id, number, supplier_id, buyer_id, ordered_on, currency, status, notes, created_at, updated_at)
+          [new Date(SCALE.first - 60 * 86_400_000)],
+        );
+        bar.increment((suppliers.rowCount ?? 0) + (parts.rowCount ?? 0));
+      },
+    ],
+    [
+      'purchase orders',
+      async ({ client, bar, users }) => {
+        const orders = await client.query(
+          `INSERT INTO purchase_orders (id, number, supplier_id, buyer_id, ordered_on, currency, status, notes, created_at, updated_at)
          SELECT po_id, 'FPO-' || lpad((ord + 1)::text, 6, '0'), min(supplier_id), $1, (min(received_at) - interval '12 days')::date, 'EUR',
                 CASE WHEN bool_and(decision IS NOT NULL) THEN 'closed' ELSE 'open' END, '', min(received_at) - interval '12 days', max(coalesce(signed_at, received_at))
            FROM fill_lot l GROUP BY po_id, ord ORDER BY po_id`,
-        [users.buyer],
-      );
-      const lines = await client.query(
-        `INSERT INTO purchase_order_lines (id, purchase_order_id, line_number, part_id, quantity, unit_price, inspection_level, aql, hundred_percent, spec, created_at, updated_at)
+          [users.buyer],
+        );
+        const lines = await client.query(
+          `INSERT INTO purchase_order_lines (id, purchase_order_id, line_number, part_id, quantity, unit_price, inspection_level, aql, hundred_percent, spec, created_at, updated_at)
          SELECT l.line_id, min(l.po_id), min(l.line_number), min(l.part_id), sum(l.quantity), 40 + (min(l.part) % 9) * 15, 'II', min(l.aql), false, min(p.spec::text)::jsonb,
                 min(l.received_at) - interval '12 days', min(l.received_at) - interval '12 days'
            FROM fill_lot l JOIN parts p ON p.id = l.part_id GROUP BY l.line_id ORDER BY l.line_id`,
-      );
-      bar.increment((orders.rowCount ?? 0) + (lines.rowCount ?? 0));
-    }],
-    ['shipments and lots', async ({ client, bar, users }) => {
-      const shipments = await client.query(
-        `INSERT INTO shipments (id, purchase_order_id, packing_slip, carrier, received_at, received_by, created_at)
+        );
+        bar.increment((orders.rowCount ?? 0) + (lines.rowCount ?? 0));
+      },
+    ],
+    [
+      'shipments and lots',
+      async ({ client, bar, users }) => {
+        const shipments = await client.query(
+          `INSERT INTO shipments (id, purchase_order_id, packing_slip, carrier, received_at, received_by, created_at)
          SELECT shipment_id, po_id, 'PS-F' || lpad((n + 1)::text, 6, '0'), (ARRAY['Larchway Freight', 'Pellow Couriers', 'Brindle Air Parcel'])[n % 3 + 1], received_at, $1, received_at
            FROM fill_lot ORDER BY n`,
-        [users.clerk],
-      );
-      const lots = await client.query(
-        `INSERT INTO lots (id, shipment_id, po_line_id, part_id, supplier_lot, quantity, state, created_at, updated_at)
+          [users.clerk],
+        );
+        const lots = await client.query(
+          `INSERT INTO lots (id, shipment_id, po_line_id, part_id, supplier_lot, quantity, state, created_at, updated_at)
          SELECT lot_id, shipment_id, line_id, part_id, 'FSL-' || lpad((n + 1)::text, 6, '0'), quantity, state, received_at, coalesce(sorted_at, signed_at, measured_at, received_at)
            FROM fill_lot ORDER BY n`,
-      );
-      bar.increment((shipments.rowCount ?? 0) + (lots.rowCount ?? 0));
-    }],
-    ['pieces', byChunks(`
+        );
+        bar.increment((shipments.rowCount ?? 0) + (lots.rowCount ?? 0));
+      },
+    ],
+    [
+      'pieces',
+      byChunks(`
       INSERT INTO pieces (id, lot_id, part_id, serial, state, created_at, updated_at)
       SELECT piece_id, lot_id, part_id, serial,
              CASE dest WHEN 'stock' THEN CASE WHEN issued THEN 'issued' ELSE 'in-stock' END WHEN 'review' THEN 'held' WHEN 'vendor' THEN 'returned' ELSE 'quarantine' END,
              received_at, coalesce(sorted_at, signed_at, received_at)
-        FROM fill_piece WHERE n >= $1 AND n < $2 ORDER BY piece_id`)],
-    ['sampling plans and samples', async (context) => {
-      const plans = await context.client.query(`
+        FROM fill_piece WHERE n >= $1 AND n < $2 ORDER BY piece_id`),
+    ],
+    [
+      'sampling plans and samples',
+      async (context) => {
+        const plans = await context.client.query(`
         INSERT INTO lot_inspections (id, lot_id, severity, inspection_level, aql, code_letter, plan_letter, sample_size, accept_number, reject_number, hundred_percent, sample_seed, created_at)
         SELECT inspection_id, lot_id, severity, 'II', aql, code_letter, plan_letter, sample_size, accept, reject, hundred, seed, received_at FROM fill_lot ORDER BY n`);
-      context.bar.increment(plans.rowCount ?? 0);
-      await byChunks(`INSERT INTO sample_pieces (inspection_id, piece_id) SELECT inspection_id, piece_id FROM fill_piece WHERE pos IS NOT NULL AND n >= $1 AND n < $2`)(context);
-    }],
-    ['measurement files', async ({ client, bar, users }) => {
-      const key = (await client.query<{ key: string }>('SELECT storage_key AS key FROM measurement_files ORDER BY id LIMIT 1')).rows[0].key;
-      const files = await client.query(
-        `INSERT INTO measurement_files (id, lot_id, instrument_id, original_name, sha256, size_bytes, method, metadata, row_count, warnings, storage_key, uploaded_by, uploaded_at)
+        context.bar.increment(plans.rowCount ?? 0);
+        await byChunks(
+          `INSERT INTO sample_pieces (inspection_id, piece_id) SELECT inspection_id, piece_id FROM fill_piece WHERE pos IS NOT NULL AND n >= $1 AND n < $2`,
+        )(context);
+      },
+    ],
+    [
+      'measurement files',
+      async ({ client, bar, users }) => {
+        const key = (await client.query<{ key: string }>('SELECT storage_key AS key FROM measurement_files ORDER BY id LIMIT 1')).rows[0].key;
+        const files = await client.query(
+          `INSERT INTO measurement_files (id, lot_id, instrument_id, original_name, sha256, size_bytes, method, metadata, row_count, warnings, storage_key, uploaded_by, uploaded_at)
          SELECT f.id, l.lot_id, (SELECT id FROM instruments WHERE code = 'BENCH-2'), f.name, $1::text, f.rows * 58 + 120, 'stokes',
                 jsonb_build_object('date', to_char(f.at, 'YYYY-MM-DD'), 'operator', 'QC-07', 'instrument', 'BENCH-2'), f.rows, '[]', $1::text, $2, f.at
            FROM fill_lot l CROSS JOIN LATERAL (VALUES
              (l.file_id, 'bench-' || ${lotName} || '.csv', l.measured * 6, l.measured_at),
              (l.sort_file_id, 'sort-' || ${lotName} || '.csv', (l.quantity - l.sample_size) * 6, l.signed_at + interval '1 day')) f(id, name, rows, at)
           WHERE f.id IS NOT NULL ORDER BY f.id`,
-        [key, users.inspector],
-      );
-      bar.increment(files.rowCount ?? 0);
-    }],
+          [key, users.inspector],
+        );
+        bar.increment(files.rowCount ?? 0);
+      },
+    ],
     // A sample piece is line 6 + 6k of its file (after four # lines and the header), k its place in the sample; a sorted piece the same in the sort file.
-    ['readings', byChunks(`
+    [
+      'readings',
+      byChunks(`
       INSERT INTO readings (file_id, line, serial, wavelength_nm, fields)
       SELECT f.file, 6 + 6 * f.k + j, p.serial, t.wavelength, jsonb_set(t.fields -> j, '{serial}', to_jsonb(p.serial))
         FROM fill_piece p
@@ -323,8 +421,11 @@ function steps(base: Ids, specs: PartSpec[]): Step[] {
         JOIN fill_template t ON t.spec = p.spec AND t.verdict = p.verdict AND t.variant = (p.n + p.i) % 8
         CROSS JOIN generate_series(0, 5) j
        WHERE p.verdict IS NOT NULL AND p.n >= $1 AND p.n < $2
-       ORDER BY f.file, f.k, j`)],
-    ['piece results', byChunks(`
+       ORDER BY f.file, f.k, j`),
+    ],
+    [
+      'piece results',
+      byChunks(`
       INSERT INTO piece_results (piece_id, file_id, wavelength_nm, verdict, result, created_at)
       SELECT p.piece_id, f.file, t.wavelength, p.verdict,
              jsonb_set(jsonb_set(t.result, '{serial}', to_jsonb(p.serial)), '{lines}', to_jsonb(ARRAY[6 + 6 * f.k, 7 + 6 * f.k, 8 + 6 * f.k, 9 + 6 * f.k, 10 + 6 * f.k, 11 + 6 * f.k])),
@@ -334,61 +435,77 @@ function steps(base: Ids, specs: PartSpec[]): Step[] {
                                    CASE WHEN p.pos IS NOT NULL THEN p.pos - 1 ELSE p.i - (SELECT count(*) FROM unnest(p.sample) s WHERE s < p.i)::int END AS k) f
         JOIN fill_template t ON t.spec = p.spec AND t.verdict = p.verdict AND t.variant = (p.n + p.i) % 8
        WHERE p.verdict IS NOT NULL AND p.n >= $1 AND p.n < $2
-       ORDER BY f.file, f.k`)],
-    ['dispositions and documents', async ({ client, bar, users }) => {
-      const dispositions = await client.query(
-        `INSERT INTO dispositions (id, lot_id, decision, meaning, deviation_number, justification, lot_verdict, signer_id, signed_at)
+       ORDER BY f.file, f.k`),
+    ],
+    [
+      'dispositions and documents',
+      async ({ client, bar, users }) => {
+        const dispositions = await client.query(
+          `INSERT INTO dispositions (id, lot_id, decision, meaning, deviation_number, justification, lot_verdict, signer_id, signed_at)
          SELECT l.disposition_id, l.lot_id, l.decision,
-                CASE l.decision ${Object.entries(SIGNATURE_MEANINGS).map(([d, m]) => `WHEN ${q(d)} THEN ${q(m)}`).join(' ')} END, NULL,
+                CASE l.decision ${Object.entries(SIGNATURE_MEANINGS)
+                  .map(([d, m]) => `WHEN ${q(d)} THEN ${q(m)}`)
+                  .join(' ')} END, NULL,
                 CASE l.decision WHEN 'reject' THEN 'Retardance out of tolerance on sample pieces.'
                                 WHEN 'sort' THEN 'Needed for the build: sort at our bench, return the nonconforming plates.' END,
                 ${verdictJson}, $1, l.signed_at
            FROM fill_lot l WHERE l.decision IS NOT NULL ORDER BY l.n`,
-        [users.quality],
-      );
-      const blob = async (kind: string) => (await client.query<{ key: string }>('SELECT storage_key AS key FROM lot_documents WHERE kind = $1 ORDER BY id LIMIT 1', [kind])).rows[0].key;
-      const documents = await client.query(
-        `INSERT INTO lot_documents (lot_id, disposition_id, kind, number, data_hash, pdf_sha256, storage_key, issued_at)
+          [users.quality],
+        );
+        const blob = async (kind: string) =>
+          (await client.query<{ key: string }>('SELECT storage_key AS key FROM lot_documents WHERE kind = $1 ORDER BY id LIMIT 1', [kind])).rows[0].key;
+        const documents = await client.query(
+          `INSERT INTO lot_documents (lot_id, disposition_id, kind, number, data_hash, pdf_sha256, storage_key, issued_at)
          SELECT l.lot_id, l.disposition_id, d.kind, d.number, encode(sha256(convert_to(d.number, 'UTF8')), 'hex'), d.key, d.key, d.at
            FROM fill_lot l CROSS JOIN LATERAL (VALUES
              ('certificate', CASE WHEN l.decision = 'accept' THEN ${docNumber('PLC', 'l.doc_serial', 'l.signed_at')} END, $1::text, l.signed_at),
              ('inspection-report', ${docNumber('PLR', 'l.doc_serial', 'l.signed_at')}, $2::text, l.signed_at),
              ('certificate', CASE WHEN l.cert_serial IS NOT NULL THEN ${docNumber('PLC', 'l.cert_serial', 'l.sorted_at')} END, $1::text, l.sorted_at)) d(kind, number, key, at)
           WHERE l.decision IS NOT NULL AND d.number IS NOT NULL ORDER BY d.at, d.number`,
-        [await blob('certificate'), await blob('inspection-report')],
-      );
-      await client.query(`SELECT setval('certificate_numbers', (SELECT max(greatest(doc_serial, coalesce(cert_serial, 0))) FROM fill_lot))`);
-      bar.increment((dispositions.rowCount ?? 0) + (documents.rowCount ?? 0));
-    }],
-    ['switching history', async ({ client, bar, users }) => {
-      const events = await client.query(
-        `INSERT INTO switching_events (supplier_id, part_id, lot_id, before, after, explanation, created_at, kind, position, result, reduced_enabled, disposition_id, actor_id)
+          [await blob('certificate'), await blob('inspection-report')],
+        );
+        await client.query(`SELECT setval('certificate_numbers', (SELECT max(greatest(doc_serial, coalesce(cert_serial, 0))) FROM fill_lot))`);
+        bar.increment((dispositions.rowCount ?? 0) + (documents.rowCount ?? 0));
+      },
+    ],
+    [
+      'switching history',
+      async ({ client, bar, users }) => {
+        const events = await client.query(
+          `INSERT INTO switching_events (supplier_id, part_id, lot_id, before, after, explanation, created_at, kind, position, result, reduced_enabled, disposition_id, actor_id)
          SELECT supplier_id, part_id, lot_id, sw_before, sw_after, sw_explanation, signed_at, 'lot', sw_position,
                 jsonb_build_object('accepted', decision = 'accept', 'defectives', defectives, 'plan', jsonb_build_object('aql', aql::float8, 'level', 'II', 'accept', accept,
                   'reject', reject, 'severity', sw_before->>'severity', 'planLetter', plan_letter, 'sampleSize', sample_size)),
                 true, disposition_id, $1
            FROM fill_lot WHERE decision IS NOT NULL ORDER BY signed_at`,
-        [users.quality],
-      );
-      const states = await client.query(
-        `INSERT INTO switching_states (supplier_id, part_id, state, updated_at)
+          [users.quality],
+        );
+        const states = await client.query(
+          `INSERT INTO switching_states (supplier_id, part_id, state, updated_at)
          SELECT DISTINCT ON (supplier_id, part_id) supplier_id, part_id, coalesce(sw_after, '{"stopped": false, "severity": "normal", "recentResults": [], "switchingScore": 0, "tightenedCount": 0, "consecutiveAccepted": 0}'), coalesce(signed_at, received_at)
            FROM fill_lot ORDER BY supplier_id, part_id, (sw_after IS NULL), n DESC`,
-      );
-      bar.increment((events.rowCount ?? 0) + (states.rowCount ?? 0));
-    }],
+        );
+        bar.increment((events.rowCount ?? 0) + (states.rowCount ?? 0));
+      },
+    ],
     // Moves in the order they happened, so each leaves a piece from where the one before put it.
-    ['stock moves: receipts', byChunks(`
+    [
+      'stock moves: receipts',
+      byChunks(`
       INSERT INTO stock_moves (piece_id, from_location_id, to_location_id, reason, actor_id, moved_at)
       SELECT piece_id, NULL, (SELECT id FROM locations WHERE code = 'QUARANTINE'), 'receipt', (SELECT id FROM users WHERE email = 'clerk@phaselot.test'), received_at
-        FROM fill_piece WHERE n >= $1 AND n < $2 ORDER BY piece_id`)],
+        FROM fill_piece WHERE n >= $1 AND n < $2 ORDER BY piece_id`),
+    ],
     ['stock moves: decisions', moves('decision')],
     ['stock moves: transfers', moves('transfer')],
     ['stock moves: issues', moves('issue')],
-    ['audit trail', async (context) => {
-      await collectAudit(context, docNumber);
-      await insertAuditInChainOrder(context);
-    }],
+    [
+      'audit trail',
+      async (context) => {
+        await collectAudit(context, docNumber);
+        await insertAuditInChainOrder(context);
+      },
+    ],
   ];
 }
 
@@ -398,7 +515,8 @@ const TRANSFER_TO = '(CASE WHEN p.luck % 2 = 0 THEN :stock2 ELSE :stock3 END)';
 /** The moves of one kind, in chunks of lots, with the locations of the demo site. */
 function moves(kind: 'decision' | 'transfer' | 'issue') {
   return async (context: Context) => {
-    const at = (sql: string) => sql.replace(/:(quarantine|stock2|stock3|stock|review|vendor)\b/g, (_m, name: keyof Context['locations']) => String(context.locations[name]));
+    const at = (sql: string) =>
+      sql.replace(/:(quarantine|stock2|stock3|stock|review|vendor)\b/g, (_m, name: keyof Context['locations']) => String(context.locations[name]));
     const note = `CASE WHEN p.state = 'accepted' AND p.dest = 'stock' THEN 'lot L-' || p.lot_id || ' accepted'
                       WHEN p.state = 'accepted' THEN 'lot L-' || p.lot_id || ' accepted; this piece failed inspection, so to material review'
                       WHEN p.state = 'rejected' THEN 'lot L-' || p.lot_id || ' rejected to vendor'
@@ -413,9 +531,11 @@ function moves(kind: 'decision' | 'transfer' | 'issue') {
                      'WO-' || to_char(p.signed_at, 'YY') || '-' || lpad(((p.n / 40) % 10000)::text, 4, '0'), NULL, ${context.users.clerk},
                      coalesce(p.sorted_at, p.signed_at) + make_interval(days => 10 + p.luck) FROM fill_piece p WHERE p.issued`,
     }[kind];
-    await byChunks(at(`
+    await byChunks(
+      at(`
       INSERT INTO stock_moves (piece_id, from_location_id, to_location_id, reason, work_order, note, actor_id, moved_at)
-      ${sql} AND p.n >= $1 AND p.n < $2 ORDER BY p.piece_id`))(context);
+      ${sql} AND p.n >= $1 AND p.n < $2 ORDER BY p.piece_id`),
+    )(context);
   };
 }
 

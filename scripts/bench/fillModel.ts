@@ -78,7 +78,10 @@ export const aqlOfPart = (part: number) => AQLS[part % AQLS.length];
 
 export function simulateHistory(): { lots: FillLot[]; states: Map<string, SwitchingState> } {
   const uniform = seededUniform(20261202);
-  const hex = () => Math.floor(uniform() * 2 ** 32).toString(16).padStart(8, '0');
+  const hex = () =>
+    Math.floor(uniform() * 2 ** 32)
+      .toString(16)
+      .padStart(8, '0');
   const pairStates = new Map<number, { state: SwitchingState; position: number; supplier: number; part: number }>();
   // Some suppliers are better than others: a pair's share of lots not accepted lies between 2 % and 8 %.
   const rejectRate = Array.from({ length: PAIRS }, () => 0.02 + 0.06 * uniform());
@@ -108,9 +111,31 @@ export function simulateHistory(): { lots: FillLot[]; states: Map<string, Switch
     const sample = serials.flatMap((serial, i) => (chosen.has(serial) ? [i] : []));
 
     const lot: FillLot = {
-      n, order, line, lineNumber: lineIndexOnOrder + 1, supplier, part, quantity, firstPiece, receivedAt, aql,
-      severity: entry.state.severity, codeLetter: table.codeLetter, planLetter: table.planLetter, sampleSize, accept: table.accept, reject: table.reject,
-      hundredPercent: table.hundredPercent, seed, sample, state: open ? openState : 'accepted', measured: 0, defectives: 0, decision: null, signedAt: null, switching: null,
+      n,
+      order,
+      line,
+      lineNumber: lineIndexOnOrder + 1,
+      supplier,
+      part,
+      quantity,
+      firstPiece,
+      receivedAt,
+      aql,
+      severity: entry.state.severity,
+      codeLetter: table.codeLetter,
+      planLetter: table.planLetter,
+      sampleSize,
+      accept: table.accept,
+      reject: table.reject,
+      hundredPercent: table.hundredPercent,
+      seed,
+      sample,
+      state: open ? openState : 'accepted',
+      measured: 0,
+      defectives: 0,
+      decision: null,
+      signedAt: null,
+      switching: null,
     };
     firstPiece += quantity;
     lots.push(lot);
@@ -142,7 +167,13 @@ export function simulateHistory(): { lots: FillLot[]; states: Map<string, Switch
     });
     entry.position += 1;
     entry.state = outcome.state;
-    lot.switching = { position: entry.position, before, after: outcome.state, explanation: outcome.explanation, changed: switchingPhaseOf(before) !== switchingPhaseOf(outcome.state) };
+    lot.switching = {
+      position: entry.position,
+      before,
+      after: outcome.state,
+      explanation: outcome.explanation,
+      changed: switchingPhaseOf(before) !== switchingPhaseOf(outcome.state),
+    };
   }
   const states = new Map([...pairStates.values()].map((e) => [`${e.supplier}/${e.part}`, e.state]));
   return { lots, states };
@@ -176,7 +207,8 @@ export function readingTemplates(specs: PartSpec[], instrument: Parameters<typeo
     };
     const pass = plates.slice(0, variants).map((p) => template(p.serial));
     const fail = plates.slice(variants).map((p) => template(p.serial));
-    if (pass.some((t) => t.result.verdict !== 'pass') || fail.some((t) => t.result.verdict !== 'fail')) throw new Error(`fill: template plates of ${spec.designWavelengthNm} nm did not get the intended verdicts`);
+    if (pass.some((t) => t.result.verdict !== 'pass') || fail.some((t) => t.result.verdict !== 'fail'))
+      throw new Error(`fill: template plates of ${spec.designWavelengthNm} nm did not get the intended verdicts`);
     return { pass, fail };
   });
 }

@@ -14,7 +14,10 @@ type Benchmark = (typeof BENCHMARKS)[number];
 const NEEDS_SERVER: Benchmark[] = ['lists', 'commit', 'sign', 'export'];
 
 const usage = `usage: npm run bench -- <${[...BENCHMARKS, 'all'].join('|')}> [--force] [--tries N]`;
-const { values, positionals } = parseArgs({ options: { force: { type: 'boolean', default: false }, tries: { type: 'string', default: '2' } }, allowPositionals: true });
+const { values, positionals } = parseArgs({
+  options: { force: { type: 'boolean', default: false }, tries: { type: 'string', default: '2' } },
+  allowPositionals: true,
+});
 const [name, ...extra] = positionals;
 const tries = Number(values.tries);
 if (!name || extra.length || ![...BENCHMARKS, 'all'].includes(name) || !Number.isInteger(tries) || tries < 1) {
@@ -37,11 +40,12 @@ try {
       const { fill, FillRefused } = await import('./fill');
       // `all` fills only a database that is not filled yet.
       if (name === 'all' && !values.force && (await fillRecord())) console.log(`fill: ${await fillRecord()}`);
-      else await fill({ force: values.force }).catch((error) => {
-        if (!(error instanceof FillRefused)) throw error;
-        console.error(`fill: ${error.message}`);
-        failed = true;
-      });
+      else
+        await fill({ force: values.force }).catch((error) => {
+          if (!(error instanceof FillRefused)) throw error;
+          console.error(`fill: ${error.message}`);
+          failed = true;
+        });
       continue;
     }
     if (NEEDS_SERVER.includes(benchmark)) {

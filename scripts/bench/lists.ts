@@ -29,7 +29,13 @@ async function load(server: BenchServer, path: string, token: string | null, amo
   const latencies: number[] = [];
   let failed = 0;
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
-    const options = { url: `${server.baseUrl}${path}`, connections: CONNECTIONS, amount, timeout: TIMEOUT_SECONDS, headers: token ? { authorization: `Bearer ${token}` } : {} };
+    const options = {
+      url: `${server.baseUrl}${path}`,
+      connections: CONNECTIONS,
+      amount,
+      timeout: TIMEOUT_SECONDS,
+      headers: token ? { authorization: `Bearer ${token}` } : {},
+    };
     const instance = autocannon(options, (error, done) => (error ? reject(error) : resolve(done)));
     instance.on('response', (_client: unknown, statusCode: number, _bytes: number, responseTime: number) => {
       if (statusCode >= 200 && statusCode < 300) latencies.push(responseTime);
@@ -50,7 +56,10 @@ const loadNote = (l: Load) =>
 
 async function settle(server: BenchServer, label: string) {
   const { busySeconds, cancelled } = await waitUntilIdle(server, SETTLE_SECONDS);
-  if (busySeconds > 0.5) console.log(`lists | after ${label}: the server stayed busy ${busySeconds.toFixed(1)} s more${cancelled ? `; ${cancelled} queries still running were cancelled` : ''}`);
+  if (busySeconds > 0.5)
+    console.log(
+      `lists | after ${label}: the server stayed busy ${busySeconds.toFixed(1)} s more${cancelled ? `; ${cancelled} queries still running were cancelled` : ''}`,
+    );
 }
 
 async function sequentialMedian(server: BenchServer, path: string, token: string | null, times = 20) {
@@ -64,15 +73,21 @@ async function sequentialMedian(server: BenchServer, path: string, token: string
 /** Requests whose clients hang up after `patienceMs`, as a user leaving a slow page does. */
 function abandon(server: BenchServer, path: string, token: string, count: number, patienceMs: number) {
   return Promise.all(
-    Array.from({ length: count }, () => new Promise<void>((done) => {
-      const req = request(`${server.baseUrl}${path}`, { headers: { authorization: `Bearer ${token}` } }, (res) => res.resume().on('end', done).on('error', done));
-      req.on('error', () => done());
-      req.end();
-      setTimeout(() => {
-        req.destroy();
-        done();
-      }, patienceMs);
-    })),
+    Array.from(
+      { length: count },
+      () =>
+        new Promise<void>((done) => {
+          const req = request(`${server.baseUrl}${path}`, { headers: { authorization: `Bearer ${token}` } }, (res) =>
+            res.resume().on('end', done).on('error', done),
+          );
+          req.on('error', () => done());
+          req.end();
+          setTimeout(() => {
+            req.destroy();
+            done();
+          }, patienceMs);
+        }),
+    ),
   );
 }
 
@@ -91,37 +106,73 @@ export async function run({ server, tries }: { server: BenchServer; tries: numbe
   for (const [name, path] of lists) {
     const alone = await timed(() => api(server, path, { token }));
     console.log(`lists | ${name}: one request alone ${alone.ms.toFixed(0)} ms, ${(alone.result.bytes / 1024).toFixed(1)} kB of JSON`);
-    await measured('lists', async (): Promise<Figure[]> => {
-      const health = await load(server, '/api/health', null, amountFor(healthAlone.ms, HEALTH_SECONDS));
-      const list = await load(server, path, token, amountFor(alone.ms, LIST_SECONDS));
-      await settle(server, name);
-      return [
-        { name: `${name}, p95 at ${CONNECTIONS} connections`, value: list.p95, unit: 'ms', limit: { name: 'health p95 just before', value: health.p95 }, target: { ratio: 2 }, note: loadNote(list) },
-      ];
-    }, tries);
+    await measured(
+      'lists',
+      async (): Promise<Figure[]> => {
+        const health = await load(server, '/api/health', null, amountFor(healthAlone.ms, HEALTH_SECONDS));
+        const list = await load(server, path, token, amountFor(alone.ms, LIST_SECONDS));
+        await settle(server, name);
+        return [
+          {
+            name: `${name}, p95 at ${CONNECTIONS} connections`,
+            value: list.p95,
+            unit: 'ms',
+            limit: { name: 'health p95 just before', value: health.p95 },
+            target: { ratio: 2 },
+            note: loadNote(list),
+          },
+        ];
+      },
+      tries,
+    );
   }
 
-  await measured('lists', async (): Promise<Figure[]> => {
-    const health = await sequentialMedian(server, '/api/health', null);
-    const lot = await sequentialMedian(server, `/api/lots/${lotId}`, token);
-    return [{ name: `GET /api/lots/${lotId} (L-${lotId}), median of 20 warm requests in a row`, value: lot, unit: 'ms', limit: { name: 'health, the same', value: health }, target: { ratio: 5 } }];
-  }, tries);
+  await measured(
+    'lists',
+    async (): Promise<Figure[]> => {
+      const health = await sequentialMedian(server, '/api/health', null);
+      const lot = await sequentialMedian(server, `/api/lots/${lotId}`, token);
+      return [
+        {
+          name: `GET /api/lots/${lotId} (L-${lotId}), median of 20 warm requests in a row`,
+          value: lot,
+          unit: 'ms',
+          limit: { name: 'health, the same', value: health },
+          target: { ratio: 5 },
+        },
+      ];
+    },
+    tries,
+  );
 
   // The filtered lot list, the slowest of the lists a user would give up on.
   const [abandonedName, abandonedPath] = lists[1];
-  await measured('lists', async (): Promise<Figure[]> => {
-    await abandon(server, abandonedPath, token, CONNECTIONS, 1000);
-    await sleep(2000);
-    const running = await runningQueries();
-    const { rssMb } = server.memory();
-    const { busySeconds, cancelled } = await waitUntilIdle(server, 180);
-    return [
-      {
-        name: `queries of ${CONNECTIONS} abandoned ${abandonedName} still running 2 s after their clients left (after 1 s)`, value: running.count, unit: 'count', target: { max: 0 },
-        note: running.count ? `oldest running ${running.oldestSeconds.toFixed(1)} s` : undefined,
-      },
-      { name: 'server RSS 2 s after they left', value: rssMb, unit: 'MB', target: { max: 400 } },
-      { name: 'server busy with them after they left', value: busySeconds, unit: 's', target: null, note: cancelled ? `stopped by the benchmark at 180 s: ${cancelled} queries cancelled` : undefined },
-    ];
-  }, tries);
+  await measured(
+    'lists',
+    async (): Promise<Figure[]> => {
+      await abandon(server, abandonedPath, token, CONNECTIONS, 1000);
+      await sleep(2000);
+      const running = await runningQueries();
+      const { rssMb } = server.memory();
+      const { busySeconds, cancelled } = await waitUntilIdle(server, 180);
+      return [
+        {
+          name: `queries of ${CONNECTIONS} abandoned ${abandonedName} still running 2 s after their clients left (after 1 s)`,
+          value: running.count,
+          unit: 'count',
+          target: { max: 0 },
+          note: running.count ? `oldest running ${running.oldestSeconds.toFixed(1)} s` : undefined,
+        },
+        { name: 'server RSS 2 s after they left', value: rssMb, unit: 'MB', target: { max: 400 } },
+        {
+          name: 'server busy with them after they left',
+          value: busySeconds,
+          unit: 's',
+          target: null,
+          note: cancelled ? `stopped by the benchmark at 180 s: ${cancelled} queries cancelled` : undefined,
+        },
+      ];
+    },
+    tries,
+  );
 }

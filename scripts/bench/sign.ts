@@ -21,7 +21,19 @@ type Row = { serial: string; verdict: string | null; result: Record<string, numb
 async function documentsOf(lotId: number, signer: string, baseUrl: string): Promise<LotReportData[]> {
   return withBenchClient(async (client) => {
     const [lot] = (
-      await client.query<{ supplier_lot: string; quantity: number; received_at: Date; po: string; line: number; spec: PartSpec; part: string; description: string; supplier: string; site: string; plan: string }>(
+      await client.query<{
+        supplier_lot: string;
+        quantity: number;
+        received_at: Date;
+        po: string;
+        line: number;
+        spec: PartSpec;
+        part: string;
+        description: string;
+        supplier: string;
+        site: string;
+        plan: string;
+      }>(
         `SELECT l.supplier_lot, l.quantity, s.received_at, po.number AS po, pol.line_number AS line, pol.spec, p.number AS part, p.description, sup.name AS supplier,
                 (SELECT value->>'siteName' FROM site_settings) AS site,
                 li.severity || ' inspection, level ' || li.inspection_level || ', AQL ' || li.aql::float8 || ': n = ' || li.sample_size || ', Ac ' || li.accept_number || ', Re ' || li.reject_number AS plan
@@ -48,13 +60,19 @@ async function documentsOf(lotId: number, signer: string, baseUrl: string): Prom
     });
     const now = `${new Date().toISOString().slice(0, 16).replace('T', ' ')} UTC`;
     const common = {
-      issuedAt: now, siteName: lot.site, supplier: lot.supplier, purchaseOrder: `${lot.po} line ${lot.line}`, part: { number: lot.part, description: lot.description },
-      specLines: specLines(lot.spec), lot: { id: lotId, supplierLot: lot.supplier_lot, quantity: lot.quantity, receivedAt: lot.received_at.toISOString().slice(0, 10) },
+      issuedAt: now,
+      siteName: lot.site,
+      supplier: lot.supplier,
+      purchaseOrder: `${lot.po} line ${lot.line}`,
+      part: { number: lot.part, description: lot.description },
+      specLines: specLines(lot.spec),
+      lot: { id: lotId, supplierLot: lot.supplier_lot, quantity: lot.quantity, receivedAt: lot.received_at.toISOString().slice(0, 10) },
       sampling: { summary: lot.plan, defectives: 0, result: 'accept: 0 defective(s) in the sample, within Ac' },
       instruments: [{ code: 'BENCH-2', calibratedOn: '2026-05-12', calibrationDueOn: '2027-05-12', uncertainty: '±0.0008 λ, ±0.05° (k = 2)' }],
       decisionRule: 'simple acceptance: |error| ≤ tolerance (ILAC-G8:09/2019)',
       disposition: { decision: 'Accept', signer, signedAt: now, meaning: 'I approve this lot for use.', outcome: `${lot.quantity} pieces released to stock` },
-      dataHash: '0'.repeat(64), verifyUrl: `${baseUrl}/verify?number=PLC-2026-00000&hash=${'0'.repeat(64)}`,
+      dataHash: '0'.repeat(64),
+      verifyUrl: `${baseUrl}/verify?number=PLC-2026-00000&hash=${'0'.repeat(64)}`,
     };
     return [
       { ...common, kind: 'certificate', number: 'PLC-2026-00000', pieces: rows.map((r) => piece(r, 'released under the sampling plan')) },
@@ -66,34 +84,62 @@ async function documentsOf(lotId: number, signer: string, baseUrl: string): Prom
 export async function run({ server, tries }: { server: BenchServer; tries: number }) {
   const inspector = await signIn(server, 'inspector@phaselot.test', DEMO_PASSWORD);
   const quality = await signIn(server, 'quality@phaselot.test', DEMO_PASSWORD);
-  const signer = await withBenchClient(async (c) => (await c.query<{ name: string; email: string; hash: string }>("SELECT name, email, password_hash AS hash FROM users WHERE email = 'quality@phaselot.test'")).rows[0]);
+  const signer = await withBenchClient(
+    async (c) =>
+      (
+        await c.query<{ name: string; email: string; hash: string }>(
+          "SELECT name, email, password_hash AS hash FROM users WHERE email = 'quality@phaselot.test'",
+        )
+      ).rows[0],
+  );
   let run = 0;
-  await measured('sign', async (): Promise<Figure[]> => {
-    run++;
-    const lot = await receivedLot({ quantity: PIECES });
-    const sample = await withBenchClient(async (c) =>
-      (await c.query<{ serial: string }>('SELECT p.serial FROM sample_pieces sp JOIN lot_inspections li ON li.id = sp.inspection_id JOIN pieces p ON p.id = sp.piece_id WHERE li.lot_id = $1 ORDER BY p.serial', [lot.lotId])).rows.map((r) => r.serial),
-    );
-    await api(server, `/api/inspection/lots/${lot.lotId}/measurements`, { token: inspector, form: upload(stokesFile(sample, 100 + run), 'bench-sample.csv') });
-    console.log(`sign | lot L-${lot.lotId} of ${PIECES} pieces received, its sample of ${sample.length} measured`);
+  await measured(
+    'sign',
+    async (): Promise<Figure[]> => {
+      run++;
+      const lot = await receivedLot({ quantity: PIECES });
+      const sample = await withBenchClient(async (c) =>
+        (
+          await c.query<{ serial: string }>(
+            'SELECT p.serial FROM sample_pieces sp JOIN lot_inspections li ON li.id = sp.inspection_id JOIN pieces p ON p.id = sp.piece_id WHERE li.lot_id = $1 ORDER BY p.serial',
+            [lot.lotId],
+          )
+        ).rows.map((r) => r.serial),
+      );
+      await api(server, `/api/inspection/lots/${lot.lotId}/measurements`, {
+        token: inspector,
+        form: upload(stokesFile(sample, 100 + run), 'bench-sample.csv'),
+      });
+      console.log(`sign | lot L-${lot.lotId} of ${PIECES} pieces received, its sample of ${sample.length} measured`);
 
-    server.resetPeak();
-    const signing = await timed(() =>
-      api(server, `/api/inspection/lots/${lot.lotId}/dispositions`, { token: quality, json: { decision: 'accept', password: DEMO_PASSWORD, meaningAcknowledged: true, expectedDispositionId: null } }),
-    );
-    const peak = server.memory().peakMb;
+      server.resetPeak();
+      const signing = await timed(() =>
+        api(server, `/api/inspection/lots/${lot.lotId}/dispositions`, {
+          token: quality,
+          json: { decision: 'accept', password: DEMO_PASSWORD, meaningAcknowledged: true, expectedDispositionId: null },
+        }),
+      );
+      const peak = server.memory().peakMb;
 
-    const documents = await documentsOf(lot.lotId, `${signer.name} (${signer.email})`, server.baseUrl);
-    const rendering = await timed(async () => {
-      for (const data of documents) await renderLotReport(data);
-      if (!(await bcrypt.compare(DEMO_PASSWORD, signer.hash))) throw new Error('sign: the demo password does not match the quality manager');
-    });
-    return [
-      {
-        name: `signing acceptance of a ${PIECES}-piece lot`, value: signing.ms, unit: 'ms', target: { ratio: 1.5 },
-        limit: { name: `rendering the certificate (${documents[0].pieces.length} pieces) and the report (${documents[1].pieces.length}) + one bcrypt compare`, value: rendering.ms },
-        note: `server peak RSS ${peak.toFixed(0)} MB`,
-      },
-    ];
-  }, tries);
+      const documents = await documentsOf(lot.lotId, `${signer.name} (${signer.email})`, server.baseUrl);
+      const rendering = await timed(async () => {
+        for (const data of documents) await renderLotReport(data);
+        if (!(await bcrypt.compare(DEMO_PASSWORD, signer.hash))) throw new Error('sign: the demo password does not match the quality manager');
+      });
+      return [
+        {
+          name: `signing acceptance of a ${PIECES}-piece lot`,
+          value: signing.ms,
+          unit: 'ms',
+          target: { ratio: 1.5 },
+          limit: {
+            name: `rendering the certificate (${documents[0].pieces.length} pieces) and the report (${documents[1].pieces.length}) + one bcrypt compare`,
+            value: rendering.ms,
+          },
+          note: `server peak RSS ${peak.toFixed(0)} MB`,
+        },
+      ];
+    },
+    tries,
+  );
 }

@@ -35,7 +35,12 @@ export type Manifest = {
 /** pg_dump and pg_restore of the newest PostgreSQL installed (they must not be older than the server), else from PATH. */
 function postgresTool(name: 'pg_dump' | 'pg_restore') {
   const base = '/usr/lib/postgresql';
-  const versions = existsSync(base) ? readdirSync(base).filter((v) => /^\d+$/.test(v)).map(Number).sort((a, b) => b - a) : [];
+  const versions = existsSync(base)
+    ? readdirSync(base)
+        .filter((v) => /^\d+$/.test(v))
+        .map(Number)
+        .sort((a, b) => b - a)
+    : [];
   return versions.length ? join(base, String(versions[0]), 'bin', name) : name;
 }
 
@@ -92,7 +97,9 @@ export async function createBackup({ ownerUrl, store, file }: { ownerUrl: string
   try {
     // The snapshot stays open while pg_dump reads it and while the files it names are collected.
     await client.query('BEGIN ISOLATION LEVEL REPEATABLE READ READ ONLY');
-    const { rows: [{ snapshot, name, version }] } = await client.query<{ snapshot: string; name: string; version: string }>(
+    const {
+      rows: [{ snapshot, name, version }],
+    } = await client.query<{ snapshot: string; name: string; version: string }>(
       "SELECT pg_export_snapshot() AS snapshot, current_database() AS name, current_setting('server_version') AS version",
     );
     const keys = await referencedKeys(client);
@@ -145,7 +152,9 @@ type ZipFile = yauzl.ZipFile;
 
 const openZip = (file: string) =>
   new Promise<ZipFile>((resolve, reject) =>
-    yauzl.open(file, { lazyEntries: true, autoClose: false }, (error, zip) => (error ? reject(new Error(`${file} is not a backup archive: ${error.message}`)) : resolve(zip))),
+    yauzl.open(file, { lazyEntries: true, autoClose: false }, (error, zip) =>
+      error ? reject(new Error(`${file} is not a backup archive: ${error.message}`)) : resolve(zip),
+    ),
   );
 
 const entriesOf = (zip: ZipFile) =>
@@ -184,7 +193,8 @@ function readManifest(text: string, file: string): Manifest {
     throw new Error(`${file}: its manifest is not JSON`);
   }
   if (manifest.format !== BACKUP_FORMAT) throw new Error(`${file} is not a Phaselot backup (format ${JSON.stringify(manifest.format)})`);
-  if (manifest.version !== FORMAT_VERSION) throw new Error(`${file} is a backup of format version ${manifest.version}; this Phaselot reads version ${FORMAT_VERSION}`);
+  if (manifest.version !== FORMAT_VERSION)
+    throw new Error(`${file} is a backup of format version ${manifest.version}; this Phaselot reads version ${FORMAT_VERSION}`);
   return manifest;
 }
 
@@ -228,14 +238,16 @@ export async function restoreBackup(file: string, { ownerUrl, appUrl, store, for
 
     const dumpPath = join(work, DUMP_ENTRY);
     const dump = await extract(zip, dumpEntry, dumpPath);
-    if (dump.sha256 !== manifest.database.sha256) throw new Error(`${file}: the database dump does not match the SHA-256 in its manifest: the archive is damaged`);
+    if (dump.sha256 !== manifest.database.sha256)
+      throw new Error(`${file}: the database dump does not match the SHA-256 in its manifest: the archive is damaged`);
 
     await client.connect();
     if ((await relationCount(client)) > 0) {
       if (!force) throw new Error('The target database is not empty: restore into an empty or new database, or give --force to replace what it holds');
       await client.query('DROP OWNED BY CURRENT_USER CASCADE');
       const left = await relationCount(client);
-      if (left > 0) throw new Error(`The target database still holds ${left} relation(s) owned by other roles after emptying what its owner owns; empty it by hand`);
+      if (left > 0)
+        throw new Error(`The target database still holds ${left} relation(s) owned by other roles after emptying what its owner owns; empty it by hand`);
     }
 
     // Files first: named by their content, they are harmless extras should the database step fail.

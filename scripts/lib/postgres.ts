@@ -75,7 +75,9 @@ export function ensureCluster(name: string, port: number): Cluster {
   let startedByUs = false;
   if (!isRunning(bin, dataDir)) {
     const options = `-p ${port} -c listen_addresses=127.0.0.1 -k ${dataDir} -c fsync=${name.includes('test') ? 'off' : 'on'}`;
-    const started = runAsOwner(join(bin, 'pg_ctl'), ['-D', dataDir, '-l', join(dataDir, 'server.log'), '-o', options, '-w', '-t', '60', 'start'], { allowFail: true });
+    const started = runAsOwner(join(bin, 'pg_ctl'), ['-D', dataDir, '-l', join(dataDir, 'server.log'), '-o', options, '-w', '-t', '60', 'start'], {
+      allowFail: true,
+    });
     if (started.status !== 0) {
       const log = readFileSync(join(dataDir, 'server.log'), 'utf8').trim().split('\n').slice(-4).join('\n');
       throw new Error(`PostgreSQL did not start on 127.0.0.1:${port} (is another server using the port?):\n${log}`);

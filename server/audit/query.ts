@@ -21,13 +21,37 @@ function whereOf(filter: Filter) {
 }
 
 type Row = {
-  id: string; seq: string; occurred_at: Date; actor_email: string | null; actor_roles: string[]; action: string; entity_type: string;
-  entity_id: string | null; before: unknown; after: unknown; request_id: string | null; address: string | null; prev_hash: string | null; hash: string;
+  id: string;
+  seq: string;
+  occurred_at: Date;
+  actor_email: string | null;
+  actor_roles: string[];
+  action: string;
+  entity_type: string;
+  entity_id: string | null;
+  before: unknown;
+  after: unknown;
+  request_id: string | null;
+  address: string | null;
+  prev_hash: string | null;
+  hash: string;
 };
 
 const present = (r: Row): AuditEventView => ({
-  id: r.id, seq: r.seq, occurredAt: r.occurred_at.toISOString(), actorEmail: r.actor_email, actorRoles: r.actor_roles, action: r.action,
-  entityType: r.entity_type, entityId: r.entity_id, before: r.before, after: r.after, requestId: r.request_id, address: r.address, prevHash: r.prev_hash, hash: r.hash,
+  id: r.id,
+  seq: r.seq,
+  occurredAt: r.occurred_at.toISOString(),
+  actorEmail: r.actor_email,
+  actorRoles: r.actor_roles,
+  action: r.action,
+  entityType: r.entity_type,
+  entityId: r.entity_id,
+  before: r.before,
+  after: r.after,
+  requestId: r.request_id,
+  address: r.address,
+  prevHash: r.prev_hash,
+  hash: r.hash,
 });
 
 export async function listAuditEvents(query: AuditQuery): Promise<ListPage<AuditEventView>> {
@@ -53,10 +77,10 @@ export async function* streamAuditEvents(filter: Filter, batchSize = 1000): Asyn
   const { sql, replacements } = whereOf(filter);
   let afterSeq = '0';
   for (;;) {
-    const rows = await sequelize.query<Row>(
-      `SELECT * FROM audit_events ${sql ? `${sql} AND` : 'WHERE'} seq > :afterSeq ORDER BY seq LIMIT :batchSize`,
-      { type: QueryTypes.SELECT, replacements: { ...replacements, afterSeq, batchSize } },
-    );
+    const rows = await sequelize.query<Row>(`SELECT * FROM audit_events ${sql ? `${sql} AND` : 'WHERE'} seq > :afterSeq ORDER BY seq LIMIT :batchSize`, {
+      type: QueryTypes.SELECT,
+      replacements: { ...replacements, afterSeq, batchSize },
+    });
     for (const row of rows) yield present(row);
     if (rows.length < batchSize) return;
     afterSeq = rows[rows.length - 1].seq;

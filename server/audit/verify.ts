@@ -58,9 +58,17 @@ export function verifyAuditChain(transaction?: Transaction): Promise<AuditChainR
 /** Whether the row at an anchored position still carries the anchored hash. With an intact chain,
  * a match means nothing up to that position has changed since the anchor was taken. */
 export async function checkAnchor(anchor: AuditAnchor): Promise<AuditAnchorCheck> {
-  const [row] = await sequelize.query<{ hash: string }>('SELECT hash FROM audit_events WHERE seq = :seq', { type: QueryTypes.SELECT, replacements: { seq: anchor.seq } });
+  const [row] = await sequelize.query<{ hash: string }>('SELECT hash FROM audit_events WHERE seq = :seq', {
+    type: QueryTypes.SELECT,
+    replacements: { seq: anchor.seq },
+  });
   const seq = String(anchor.seq);
   if (!row) return { seq, matches: false, message: `The trail has no event at position ${seq}: events have been removed, or the anchor is from another site.` };
-  if (row.hash !== anchor.hash) return { seq, matches: false, message: `The event at position ${seq} carries another hash: the trail up to there has changed since the anchor was taken.` };
-  return { seq, matches: true, message: `The event at position ${seq} carries the anchored hash: if the chain verifies, nothing up to there has changed since.` };
+  if (row.hash !== anchor.hash)
+    return { seq, matches: false, message: `The event at position ${seq} carries another hash: the trail up to there has changed since the anchor was taken.` };
+  return {
+    seq,
+    matches: true,
+    message: `The event at position ${seq} carries the anchored hash: if the chain verifies, nothing up to there has changed since.`,
+  };
 }

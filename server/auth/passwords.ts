@@ -106,7 +106,12 @@ export async function sendResetLink(admin: AuditActor, userId: number): Promise<
     if (!user) throw notFound('User');
     if (!user.active) throw new AppError(409, 'user_inactive', 'The account is deactivated: reactivate it before sending a reset link');
     const sent = await issueResetLink(user, admin, transaction);
-    if (!sent) throw new AppError(429, 'too_many_reset_links', `${RESET_LINKS_PER_HOUR} reset links were sent to this account in the last hour: wait before sending another`);
+    if (!sent)
+      throw new AppError(
+        429,
+        'too_many_reset_links',
+        `${RESET_LINKS_PER_HOUR} reset links were sent to this account in the last hour: wait before sending another`,
+      );
     return { sent };
   });
 }

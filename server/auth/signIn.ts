@@ -30,7 +30,8 @@ const LONGEST_WINDOW = Math.max(...SIGN_IN_LIMITS.map((l) => l.windowSeconds));
 // the same time and get the same answer.
 const DECOY_HASH = bcrypt.hashSync('decoy-password-never-used', 10);
 
-const scopeKey = (scope: Scope, email: string, address: string) => (scope === 'site' ? 'site' : scope === 'account' ? `account:${email}` : `address:${address}`);
+const scopeKey = (scope: Scope, email: string, address: string) =>
+  scope === 'site' ? 'site' : scope === 'account' ? `account:${email}` : `address:${address}`;
 
 function waitText(seconds: number) {
   return seconds < 90 ? `${seconds} seconds` : `${Math.ceil(seconds / 60)} minutes`;
@@ -74,7 +75,9 @@ async function reserveTry(email: string, actor: AuditActor): Promise<string> {
           transaction,
         );
       }
-      return { refusal: new AppError(429, 'too_many_attempts', `${message} Try again in ${waitText(waitSeconds)}.`, { scope, retryAfterSeconds: waitSeconds }) };
+      return {
+        refusal: new AppError(429, 'too_many_attempts', `${message} Try again in ${waitText(waitSeconds)}.`, { scope, retryAfterSeconds: waitSeconds }),
+      };
     }
     const [row] = await sequelize.query<{ id: string }>(`INSERT INTO refused_sign_ins (email, address) VALUES (:email, :address) RETURNING id`, {
       type: QueryTypes.SELECT,

@@ -33,11 +33,15 @@ describe('the signature lock-out', () => {
     for (const triesLeft of [4, 3, 2, 1]) {
       const error = await attempt(user, 'not-my-password');
       expect(error).toMatchObject({ status: 401, code: 'signature_refused', details: { triesLeft } });
-      expect(error!.message).toMatch(new RegExp(`^The password does not match: nothing was signed\\. ${triesLeft} tr(y|ies) left before signing is locked for 15 minutes\\.$`));
+      expect(error!.message).toMatch(
+        new RegExp(`^The password does not match: nothing was signed\\. ${triesLeft} tr(y|ies) left before signing is locked for 15 minutes\\.$`),
+      );
     }
     const locked = await attempt(user, 'not-my-password');
     expect(locked).toMatchObject({ status: 423, code: 'signing_locked' });
-    expect(locked!.message).toMatch(/^The password does not match, 5 times in 15 minutes: signing is locked until \d\d:\d\d UTC \(in 15 minutes\)\. An administrator can unlock it sooner\.$/);
+    expect(locked!.message).toMatch(
+      /^The password does not match, 5 times in 15 minutes: signing is locked until \d\d:\d\d UTC \(in 15 minutes\)\. An administrator can unlock it sooner\.$/,
+    );
     const until = new Date((locked!.details as { lockedUntil: string }).lockedUntil).getTime();
     expect(until - Date.now()).toBeGreaterThan(14 * 60_000);
     expect(until - Date.now()).toBeLessThanOrEqual(15 * 60_000);

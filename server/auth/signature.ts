@@ -30,10 +30,15 @@ export async function verifySignature(user: User, password: string, actor: Audit
   const outcome = await inTransaction(async (own): Promise<Outcome> => {
     // The row lock makes parallel guesses for one user count one after another.
     const current = await User.findByPk(user.id, { transaction: own, lock: own.LOCK.UPDATE, rejectOnEmpty: true });
-    if (current.signingLockedUntil && current.signingLockedUntil.getTime() > Date.now()) return { kind: 'locked', until: current.signingLockedUntil, justNow: false };
+    if (current.signingLockedUntil && current.signingLockedUntil.getTime() > Date.now())
+      return { kind: 'locked', until: current.signingLockedUntil, justNow: false };
     if (await bcrypt.compare(password, current.passwordHash)) return { kind: 'right' };
 
-    await sequelize.query('INSERT INTO signature_failures (user_id) VALUES (:userId)', { type: QueryTypes.INSERT, transaction: own, replacements: { userId: user.id } });
+    await sequelize.query('INSERT INTO signature_failures (user_id) VALUES (:userId)', {
+      type: QueryTypes.INSERT,
+      transaction: own,
+      replacements: { userId: user.id },
+    });
     const [{ failures }] = await sequelize.query<{ failures: number }>(
       `SELECT count(*)::int AS failures FROM signature_failures WHERE user_id = :userId AND created_at > now() - make_interval(mins => :window)`,
       { type: QueryTypes.SELECT, transaction: own, replacements: { userId: user.id, window: WINDOW_MINUTES } },
@@ -46,7 +51,11 @@ export async function verifySignature(user: User, password: string, actor: Audit
     current.signingLockedUntil = new Date(Date.now() + SIGNING_LOCK_MINUTES * 60_000);
     await current.save({ transaction: own });
     // The lock-out begins a fresh count: the wrong passwords that caused it are settled by it.
-    await sequelize.query('DELETE FROM signature_failures WHERE user_id = :userId', { type: QueryTypes.DELETE, transaction: own, replacements: { userId: user.id } });
+    await sequelize.query('DELETE FROM signature_failures WHERE user_id = :userId', {
+      type: QueryTypes.DELETE,
+      transaction: own,
+      replacements: { userId: user.id },
+    });
     await recordAudit(
       actor,
       { action: 'signature.locked', entityType: 'user', entityId: user.id, after: { act, failures, lockedUntil: current.signingLockedUntil.toISOString() } },
@@ -56,14 +65,23 @@ export async function verifySignature(user: User, password: string, actor: Audit
   });
 
   if (outcome.kind === 'right') {
-    await sequelize.query('DELETE FROM signature_failures WHERE user_id = :userId', { type: QueryTypes.DELETE, transaction, replacements: { userId: user.id } });
+    await sequelize.query('DELETE FROM signature_failures WHERE user_id = :userId', {
+      type: QueryTypes.DELETE,
+      transaction,
+      replacements: { userId: user.id },
+    });
     return;
   }
   if (outcome.kind === 'wrong') {
     const tries = outcome.triesLeft === 1 ? '1 try' : `${outcome.triesLeft} tries`;
-    throw new AppError(401, 'signature_refused', `The password does not match: nothing was signed. ${tries} left before signing is locked for ${SIGNING_LOCK_MINUTES} minutes.`, {
-      triesLeft: outcome.triesLeft,
-    });
+    throw new AppError(
+      401,
+      'signature_refused',
+      `The password does not match: nothing was signed. ${tries} left before signing is locked for ${SIGNING_LOCK_MINUTES} minutes.`,
+      {
+        triesLeft: outcome.triesLeft,
+      },
+    );
   }
   const minutes = Math.max(1, Math.ceil((outcome.until.getTime() - Date.now()) / 60_000));
   throw new AppError(
@@ -85,7 +103,13 @@ export async function unlockSigning(admin: AuditActor, userId: number) {
     await sequelize.query('DELETE FROM signature_failures WHERE user_id = :userId', { type: QueryTypes.DELETE, transaction, replacements: { userId } });
     await recordAudit(
       admin,
-      { action: 'signature.unlocked', entityType: 'user', entityId: userId, before: { lockedUntil: lockedUntil?.toISOString() ?? null }, after: { lockedUntil: null } },
+      {
+        action: 'signature.unlocked',
+        entityType: 'user',
+        entityId: userId,
+        before: { lockedUntil: lockedUntil?.toISOString() ?? null },
+        after: { lockedUntil: null },
+      },
       transaction,
     );
     return user;

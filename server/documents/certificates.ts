@@ -7,8 +7,23 @@ import { DISPOSITION_LABELS, type Disposition } from '../../shared/inspection/lo
 import type { CertificateListQuery, VerificationResult } from '../../shared/schemas/certificates';
 
 type DocumentRow = {
-  id: number; number: string; kind: 'certificate' | 'inspection-report'; data_hash: string; pdf_sha256: string; storage_key: string; issued_at: Date; revoked_at: Date | null;
-  lot_id: number; supplier_lot: string; part_id: number; part_number: string; part_description: string; supplier_id: number; supplier_name: string; decision: Disposition; signer_name: string;
+  id: number;
+  number: string;
+  kind: 'certificate' | 'inspection-report';
+  data_hash: string;
+  pdf_sha256: string;
+  storage_key: string;
+  issued_at: Date;
+  revoked_at: Date | null;
+  lot_id: number;
+  supplier_lot: string;
+  part_id: number;
+  part_number: string;
+  part_description: string;
+  supplier_id: number;
+  supplier_name: string;
+  decision: Disposition;
+  signer_name: string;
 };
 
 const DOCUMENT_SELECT = `
@@ -46,9 +61,18 @@ function whereOf(filter: DocumentFilter) {
 }
 
 const present = (r: DocumentRow) => ({
-  id: r.id, number: r.number, kind: r.kind, dataHash: r.data_hash, pdfSha256: r.pdf_sha256, issuedAt: r.issued_at.toISOString(), revokedAt: r.revoked_at?.toISOString() ?? null,
-  lot: { id: r.lot_id, supplierLot: r.supplier_lot }, part: { id: r.part_id, number: r.part_number, description: r.part_description },
-  supplier: { id: r.supplier_id, name: r.supplier_name }, decision: r.decision, signer: r.signer_name,
+  id: r.id,
+  number: r.number,
+  kind: r.kind,
+  dataHash: r.data_hash,
+  pdfSha256: r.pdf_sha256,
+  issuedAt: r.issued_at.toISOString(),
+  revokedAt: r.revoked_at?.toISOString() ?? null,
+  lot: { id: r.lot_id, supplierLot: r.supplier_lot },
+  part: { id: r.part_id, number: r.part_number, description: r.part_description },
+  supplier: { id: r.supplier_id, name: r.supplier_name },
+  decision: r.decision,
+  signer: r.signer_name,
 });
 export type DocumentView = ReturnType<typeof present>;
 
@@ -56,7 +80,10 @@ export async function listDocuments(query: CertificateListQuery) {
   const { sql, replacements } = whereOf(query);
   const { expression, direction } = sortOf(SORTABLE, query.sort || '-issuedAt');
   const order = `${expression} ${direction}, d.id DESC`;
-  const [{ total }] = await sequelize.query<{ total: string }>(`SELECT count(*) AS total FROM (${DOCUMENT_SELECT} ${sql}) matching`, { type: QueryTypes.SELECT, replacements });
+  const [{ total }] = await sequelize.query<{ total: string }>(`SELECT count(*) AS total FROM (${DOCUMENT_SELECT} ${sql}) matching`, {
+    type: QueryTypes.SELECT,
+    replacements,
+  });
   const rows = await sequelize.query<DocumentRow>(`${DOCUMENT_SELECT} ${sql} ORDER BY ${order} LIMIT :limit OFFSET :offset`, {
     type: QueryTypes.SELECT,
     replacements: { ...replacements, limit: query.pageSize, offset: (query.page - 1) * query.pageSize },
@@ -84,8 +111,14 @@ export async function verifyDocument(number: string, hash: string): Promise<Veri
       ? 'Genuine and current: this document was issued by this site and its decision stands.'
       : 'Genuine but revoked: the lot decision it records was superseded; ask the site for the current document.',
     document: {
-      number: row.number, kind: row.kind, issuedAt: row.issued_at.toISOString(), revokedAt: row.revoked_at?.toISOString() ?? null,
-      part: `${row.part_number} — ${row.part_description}`, supplier: row.supplier_name, supplierLot: row.supplier_lot, decision: DISPOSITION_LABELS[row.decision],
+      number: row.number,
+      kind: row.kind,
+      issuedAt: row.issued_at.toISOString(),
+      revokedAt: row.revoked_at?.toISOString() ?? null,
+      part: `${row.part_number} — ${row.part_description}`,
+      supplier: row.supplier_name,
+      supplierLot: row.supplier_lot,
+      decision: DISPOSITION_LABELS[row.decision],
     },
   };
 }

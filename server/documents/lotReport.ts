@@ -40,7 +40,8 @@ export type LotReportData = {
   verifyUrl: string;
 };
 
-const fmt = (value: number | null, digits: number, unit = '') => (value === null ? '—' : `${value >= 0 && unit !== 'nm' ? '+' : ''}${value.toFixed(digits)}${unit}`);
+const fmt = (value: number | null, digits: number, unit = '') =>
+  value === null ? '—' : `${value >= 0 && unit !== 'nm' ? '+' : ''}${value.toFixed(digits)}${unit}`;
 const plain = (value: number | null, digits: number) => (value === null ? '—' : value.toFixed(digits));
 
 const INK = '#1e2421';
@@ -59,7 +60,12 @@ const COLUMNS: { header: string; width: number; align: 'left' | 'right'; cell: (
 ];
 
 export async function renderLotReport(data: LotReportData): Promise<Buffer> {
-  const doc = new PDFDocument({ size: 'A4', margins: { top: 50, bottom: 60, left: 50, right: 50 }, bufferPages: true, info: { Title: `${data.number}`, Author: data.siteName, Creator: 'Phaselot' } });
+  const doc = new PDFDocument({
+    size: 'A4',
+    margins: { top: 50, bottom: 60, left: 50, right: 50 },
+    bufferPages: true,
+    info: { Title: `${data.number}`, Author: data.siteName, Creator: 'Phaselot' },
+  });
   doc.registerFont('body', join(FONTS, 'DejaVuSans.ttf'));
   doc.registerFont('bold', join(FONTS, 'DejaVuSans-Bold.ttf'));
   doc.registerFont('mono', join(FONTS, 'DejaVuSansMono.ttf'));
@@ -75,8 +81,16 @@ export async function renderLotReport(data: LotReportData): Promise<Buffer> {
   doc.rect(0, 0, doc.page.width, 8).fill(FRAME);
   const qr = await QRCode.toBuffer(data.verifyUrl, { margin: 1, width: 180 });
   doc.image(qr, left + width - 78, 40, { width: 78 });
-  doc.fillColor(INK).font('bold').fontSize(18).text(title, left, 46, { width: width - 90 });
-  doc.font('body').fontSize(9).fillColor(MUTED).text(`${data.siteName} · incoming inspection of wave plates`, { width: width - 90 });
+  doc
+    .fillColor(INK)
+    .font('bold')
+    .fontSize(18)
+    .text(title, left, 46, { width: width - 90 });
+  doc
+    .font('body')
+    .fontSize(9)
+    .fillColor(MUTED)
+    .text(`${data.siteName} · incoming inspection of wave plates`, { width: width - 90 });
   doc.moveDown(0.6).font('bold').fontSize(11).fillColor(INK).text(`No. ${data.number}`);
   doc.font('body').fontSize(8.5).fillColor(MUTED).text(`Issued ${data.issuedAt}`);
   doc.text(`Verify: ${data.verifyUrl}`, { width: width - 90 });
@@ -84,14 +98,22 @@ export async function renderLotReport(data: LotReportData): Promise<Buffer> {
 
   const section = (heading: string) => {
     doc.moveDown(0.5).font('bold').fontSize(10).fillColor(FRAME).text(heading.toUpperCase(), left, doc.y, { characterSpacing: 0.6 });
-    doc.moveTo(left, doc.y + 2).lineTo(left + width, doc.y + 2).lineWidth(0.5).strokeColor(LINE).stroke();
+    doc
+      .moveTo(left, doc.y + 2)
+      .lineTo(left + width, doc.y + 2)
+      .lineWidth(0.5)
+      .strokeColor(LINE)
+      .stroke();
     doc.moveDown(0.4);
   };
   const pairs = (rows: [string, string][]) => {
     for (const [label, value] of rows) {
       const y = doc.y;
       doc.font('body').fontSize(8.5).fillColor(MUTED).text(label, left, y, { width: 150 });
-      doc.font('body').fillColor(INK).text(value, left + 155, y, { width: width - 155 });
+      doc
+        .font('body')
+        .fillColor(INK)
+        .text(value, left + 155, y, { width: width - 155 });
       doc.moveDown(0.15);
     }
   };
@@ -157,16 +179,24 @@ export async function renderLotReport(data: LotReportData): Promise<Buffer> {
       x += column.width;
     }
     doc.y = y + rowHeight;
-    doc.moveTo(left, doc.y - 1).lineTo(left + width, doc.y - 1).lineWidth(0.3).strokeColor(LINE).stroke();
+    doc
+      .moveTo(left, doc.y - 1)
+      .lineTo(left + width, doc.y - 1)
+      .lineWidth(0.3)
+      .strokeColor(LINE)
+      .stroke();
   }
 
   doc.moveDown(1).font('body').fontSize(7.5).fillColor(MUTED);
   doc.text(`SHA-256 of the certified data: `, left, doc.y, { continued: true }).font('mono').text(data.dataHash);
-  doc.font('body').moveDown(0.4).text(
-    'Acceptance of this lot was decided under the site quality system and its procedures; Phaselot records the measurements, the rule applied and the signature. ' +
-      'Handle plates by the rim; cemented plates have damage thresholds.',
-    { width },
-  );
+  doc
+    .font('body')
+    .moveDown(0.4)
+    .text(
+      'Acceptance of this lot was decided under the site quality system and its procedures; Phaselot records the measurements, the rule applied and the signature. ' +
+        'Handle plates by the rim; cemented plates have damage thresholds.',
+      { width },
+    );
 
   // Page numbers on every page, written once the page count is known.
   const range = doc.bufferedPageRange();

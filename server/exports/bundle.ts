@@ -58,7 +58,12 @@ async function* csvRecords<T>(columns: CsvColumn<T>[], rows: Iterable<T> | Async
 /** Writes rows as CSV to `path` and answers the file's SHA-256. */
 async function writeCsvFile<T>(path: string, columns: CsvColumn<T>[], rows: Iterable<T> | AsyncIterable<T>) {
   const hashed = hashing();
-  await pipeline(Readable.from(csvRecords(columns, rows)), stringify({ header: true, columns: columns.map((c) => c.header), bom: true }), hashed.stream, createWriteStream(path));
+  await pipeline(
+    Readable.from(csvRecords(columns, rows)),
+    stringify({ header: true, columns: columns.map((c) => c.header), bom: true }),
+    hashed.stream,
+    createWriteStream(path),
+  );
   return hashed.digest();
 }
 
@@ -89,7 +94,11 @@ async function storedPdf(document: ExportDocument) {
 }
 
 /** Writes the bundle and hands the finished ZIP to `keep` while it still exists; answers what `keep` answers. */
-export async function writeExportBundle<T>(documents: ExportDocument[], onPdfAdded: (done: number) => Promise<void>, keep: (file: BundleFile) => Promise<T>): Promise<T> {
+export async function writeExportBundle<T>(
+  documents: ExportDocument[],
+  onPdfAdded: (done: number) => Promise<void>,
+  keep: (file: BundleFile) => Promise<T>,
+): Promise<T> {
   const workDir = await mkdtemp(join(tmpdir(), 'phaselot-export-'));
   const zipPath = join(workDir, 'bundle.zip');
   const archive = archiver('zip', { zlib: { level: 6 } });
@@ -106,7 +115,10 @@ export async function writeExportBundle<T>(documents: ExportDocument[], onPdfAdd
     sums.push({ path: 'index.csv', sha256: await writeCsvFile(indexPath, INDEX_CSV_COLUMNS, documents) });
     const auditPath = join(workDir, 'audit-log.csv');
     const lotIds = [...new Set(documents.map((d) => String(d.lot.id)))];
-    sums.push({ path: 'audit-log.csv', sha256: await writeCsvFile(auditPath, AUDIT_CSV_COLUMNS, streamAuditEvents({ entityType: 'lot', entityIds: lotIds, uptoSeq: head.seq })) });
+    sums.push({
+      path: 'audit-log.csv',
+      sha256: await writeCsvFile(auditPath, AUDIT_CSV_COLUMNS, streamAuditEvents({ entityType: 'lot', entityIds: lotIds, uptoSeq: head.seq })),
+    });
 
     await appendEntry(archive, 'index.csv', createReadStream(indexPath));
     await appendEntry(archive, 'audit-log.csv', createReadStream(auditPath));

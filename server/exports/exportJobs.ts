@@ -54,7 +54,10 @@ async function buildExport({ exportId }: ExportJobData, { retryCount }: JobRun) 
         const current = await ExportJob.findOne({ where: mine, lock: transaction.LOCK.UPDATE, transaction });
         if (!current) return false;
         const storageKey = await storeBlobFile(bundle.path, bundle.sha256, transaction);
-        await current.update({ status: 'done', done: documents.length, storageKey, size: bundle.size, sha256: bundle.sha256, finishedAt: new Date() }, { transaction });
+        await current.update(
+          { status: 'done', done: documents.length, storageKey, size: bundle.size, sha256: bundle.sha256, finishedAt: new Date() },
+          { transaction },
+        );
         return true;
       }),
   );
@@ -80,12 +83,21 @@ export async function findExportJob(id: number) {
 /** An export job as stored, for the route's presenter. */
 export type ExportJobRecord = Awaited<ReturnType<typeof findExportJob>>;
 
-export const recentExports = (userId: number) => ExportJob.findAll({ where: { requestedBy: userId }, order: [['createdAt', 'DESC'], ['id', 'DESC']], limit: 10 });
+export const recentExports = (userId: number) =>
+  ExportJob.findAll({
+    where: { requestedBy: userId },
+    order: [
+      ['createdAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
+    limit: 10,
+  });
 
 /** The finished job whose ZIP is about to be sent, with the download recorded first. */
 export async function exportForDownload(actor: AuditActor, id: number) {
   const job = await findExportJob(id);
-  if (job.status !== 'done' || !job.storageKey) throw conflict(job.status === 'failed' ? `This export failed: ${job.error}` : 'This export is not finished yet.');
+  if (job.status !== 'done' || !job.storageKey)
+    throw conflict(job.status === 'failed' ? `This export failed: ${job.error}` : 'This export is not finished yet.');
   await recordAudit(actor, { action: 'export.download', entityType: 'export', entityId: id, after: { sha256: job.sha256, size: job.size } });
   return job;
 }

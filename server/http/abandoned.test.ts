@@ -75,10 +75,13 @@ afterAll(() => new Promise((done) => server.close(done)));
 const running = async (tag: string) =>
   Number(
     (
-      await sequelize.query<{ n: string }>(`SELECT count(*) AS n FROM pg_stat_activity WHERE state = 'active' AND query LIKE :pattern AND pid <> pg_backend_pid()`, {
-        type: QueryTypes.SELECT,
-        replacements: { pattern: `%/* ${tag} */%` },
-      })
+      await sequelize.query<{ n: string }>(
+        `SELECT count(*) AS n FROM pg_stat_activity WHERE state = 'active' AND query LIKE :pattern AND pid <> pg_backend_pid()`,
+        {
+          type: QueryTypes.SELECT,
+          replacements: { pattern: `%/* ${tag} */%` },
+        },
+      )
     )[0].n,
   );
 

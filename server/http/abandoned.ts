@@ -40,10 +40,10 @@ async function cancel(statements: Statement[]) {
   for (const { sql, connection } of statements) {
     if (!sql || !connection.processID) continue;
     // pg_stat_activity keeps the first track_activity_query_size bytes of the text.
-    await canceller.query(`SELECT pg_cancel_backend(pid) FROM pg_stat_activity WHERE pid = $1 AND state = 'active' AND query <> '' AND starts_with($2, query)`, [
-      connection.processID,
-      sql,
-    ]);
+    await canceller.query(
+      `SELECT pg_cancel_backend(pid) FROM pg_stat_activity WHERE pid = $1 AND state = 'active' AND query <> '' AND starts_with($2, query)`,
+      [connection.processID, sql],
+    );
   }
 }
 

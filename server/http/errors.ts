@@ -81,7 +81,9 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   // PostgreSQL stopped the statement: it ran past STATEMENT_TIMEOUT_SECONDS (or its client left, and nobody reads this).
   if (err instanceof DatabaseError && (err.parent as { code?: string }).code === '57014') {
-    res.status(503).json({ error: { code: 'timeout', message: 'The server stopped this request: it took longer than allowed. Narrow it down and try again.' } });
+    res
+      .status(503)
+      .json({ error: { code: 'timeout', message: 'The server stopped this request: it took longer than allowed. Narrow it down and try again.' } });
     return;
   }
   const refused = err instanceof DatabaseError ? REFUSED_VALUES[(err.parent as { code?: string }).code ?? ''] : undefined;

@@ -123,7 +123,9 @@ export async function listPage<Row, Query extends ListQuery>(definition: ListDef
   const presented = rows.map(definition.present);
   const page = uncountedPage(presented, query);
   if (page) return page;
-  const totalColumns = Object.entries(definition.totals ?? {}).map(([name, expression]) => `, ${expression} AS "${name}"`).join('');
+  const totalColumns = Object.entries(definition.totals ?? {})
+    .map(([name, expression]) => `, ${expression} AS "${name}"`)
+    .join('');
   const [summary] = await sequelize.query<Record<string, string | null>>(`SELECT count(*) AS total${totalColumns} FROM (${all}) AS listed`, {
     type: QueryTypes.SELECT,
     replacements,
@@ -158,7 +160,12 @@ export function mountList<Row, Schema extends z.ZodType<ListQuery>>(
 ) {
   const csv = (query: z.infer<Schema>, res: Response) =>
     sendCsv(res, `${definition.csv.filename}-${new Date().toISOString().slice(0, 10)}.csv`, definition.csv.columns, listAll(definition, query));
-  router.get(`${path === '/' ? '' : path}/export.csv`, authenticate, allow(permission), validated({ query: querySchema }, ({ query }, _req, res) => csv(query, res)));
+  router.get(
+    `${path === '/' ? '' : path}/export.csv`,
+    authenticate,
+    allow(permission),
+    validated({ query: querySchema }, ({ query }, _req, res) => csv(query, res)),
+  );
   router.get(
     path,
     authenticate,

@@ -23,7 +23,9 @@ function refusal(req: Request): string | null {
   }
   const site = req.get('sec-fetch-site');
   if (site !== undefined) {
-    return site === 'same-origin' || site === 'none' ? null : `This change was sent from another site (${site}) and is refused. Open Phaselot at ${config.PUBLIC_URL} and try again.`;
+    return site === 'same-origin' || site === 'none'
+      ? null
+      : `This change was sent from another site (${site}) and is refused. Open Phaselot at ${config.PUBLIC_URL} and try again.`;
   }
   // Neither header: not a current browser. Only a request carrying the session cookie could be
   // riding on someone's session.
@@ -37,6 +39,9 @@ export const sameOriginChanges: RequestHandler = (req, _res, next) => {
   if (SAFE_METHODS.has(req.method)) return next();
   const message = refusal(req);
   if (!message) return next();
-  logger.warn({ requestId: req.id, method: req.method, path: req.path, origin: req.get('origin'), site: req.get('sec-fetch-site') }, 'cross-origin change refused');
+  logger.warn(
+    { requestId: req.id, method: req.method, path: req.path, origin: req.get('origin'), site: req.get('sec-fetch-site') },
+    'cross-origin change refused',
+  );
   next(new AppError(403, 'cross_origin', message));
 };

@@ -18,15 +18,30 @@ type RecordRoutes<Schema extends z.ZodType> = {
 };
 
 export function mountRecord<Schema extends z.ZodType>(router: Router, routes: RecordRoutes<Schema>) {
-  router.get('/:id', authenticate, allow(routes.read), validated({ params: idParams }, async ({ params }, _req, res) => {
-    res.json(await routes.view(params.id));
-  }));
-  router.post('/', authenticate, allow(routes.write), validated({ body: routes.schema }, async ({ body }, req, res) => {
-    const created = await routes.create(actorOf(req), body);
-    res.status(201).json(await routes.view(created.id));
-  }));
-  router.put('/:id', authenticate, allow(routes.write), validated({ params: idParams, body: routes.schema }, async ({ params, body }, req, res) => {
-    await routes.update(actorOf(req), params.id, body);
-    res.json(await routes.view(params.id));
-  }));
+  router.get(
+    '/:id',
+    authenticate,
+    allow(routes.read),
+    validated({ params: idParams }, async ({ params }, _req, res) => {
+      res.json(await routes.view(params.id));
+    }),
+  );
+  router.post(
+    '/',
+    authenticate,
+    allow(routes.write),
+    validated({ body: routes.schema }, async ({ body }, req, res) => {
+      const created = await routes.create(actorOf(req), body);
+      res.status(201).json(await routes.view(created.id));
+    }),
+  );
+  router.put(
+    '/:id',
+    authenticate,
+    allow(routes.write),
+    validated({ params: idParams, body: routes.schema }, async ({ params, body }, req, res) => {
+      await routes.update(actorOf(req), params.id, body);
+      res.json(await routes.view(params.id));
+    }),
+  );
 }

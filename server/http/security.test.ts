@@ -40,13 +40,21 @@ describe('changes from other origins', () => {
       .attach('packingSlip', TINY_PDF, 'slip.pdf')
       .expect(403);
     expect(response.body.error).toMatchObject({ code: 'cross_origin', message: expect.stringContaining(`sent from another site (${OTHER_ORIGIN})`) });
-    expect(await sequelize.query('SELECT id FROM lots WHERE supplier_lot = :supplierLot', { type: QueryTypes.SELECT, replacements: { supplierLot } })).toEqual([]);
+    expect(await sequelize.query('SELECT id FROM lots WHERE supplier_lot = :supplierLot', { type: QueryTypes.SELECT, replacements: { supplierLot } })).toEqual(
+      [],
+    );
   });
 
   it('accepts changes from the public address and from the address the request was sent to', async () => {
     const cookie = await sessionCookie('buyer');
     await request(app).post('/api/suppliers').set('Cookie', cookie).set('Origin', config.PUBLIC_ORIGINS[0]).send(newSupplier()).expect(201);
-    await request(app).post('/api/suppliers').set('Cookie', cookie).set('Host', 'bench-hall.example:8443').set('Origin', 'http://bench-hall.example:8443').send(newSupplier()).expect(201);
+    await request(app)
+      .post('/api/suppliers')
+      .set('Cookie', cookie)
+      .set('Host', 'bench-hall.example:8443')
+      .set('Origin', 'http://bench-hall.example:8443')
+      .send(newSupplier())
+      .expect(201);
     await request(app).post('/api/suppliers').set('Cookie', cookie).set('Sec-Fetch-Site', 'same-origin').send(newSupplier()).expect(201);
   });
 
@@ -61,8 +69,16 @@ describe('changes from other origins', () => {
   });
 
   it('lets a script with a bearer token and no cookie change things, and anyone read from anywhere', async () => {
-    await request(app).post('/api/suppliers').set('Authorization', `Bearer ${await tokenFor('buyer')}`).send(newSupplier()).expect(201);
-    await request(app).get('/api/suppliers').set('Cookie', await sessionCookie('buyer')).set('Origin', OTHER_ORIGIN).expect(200);
+    await request(app)
+      .post('/api/suppliers')
+      .set('Authorization', `Bearer ${await tokenFor('buyer')}`)
+      .send(newSupplier())
+      .expect(201);
+    await request(app)
+      .get('/api/suppliers')
+      .set('Cookie', await sessionCookie('buyer'))
+      .set('Origin', OTHER_ORIGIN)
+      .expect(200);
   });
 
   it('reads PUBLIC_URL as a list: the first address is printed, all are allowed origins', async () => {
@@ -104,7 +120,12 @@ describe('the log', () => {
     const { email, password } = demoLogin('auditor');
     const signIn = await request(logged).post('/api/auth/login').set('X-Request-Id', 'log-redaction-sign-in').send({ email, password }).expect(200);
     const token = signIn.body.token as string;
-    await request(logged).get('/api/auth/me').set('Authorization', `Bearer ${token}`).set('Cookie', `${SESSION_COOKIE}=${token}`).set('X-Request-Id', 'log-redaction-me').expect(200);
+    await request(logged)
+      .get('/api/auth/me')
+      .set('Authorization', `Bearer ${token}`)
+      .set('Cookie', `${SESSION_COOKIE}=${token}`)
+      .set('X-Request-Id', 'log-redaction-me')
+      .expect(200);
     // pino-http writes its line when the response finishes; let that turn of the event loop pass.
     await new Promise((done) => setImmediate(done));
     const text = lines.join('');

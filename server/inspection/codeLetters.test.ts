@@ -13,11 +13,17 @@ import { receivedLot } from '../../tests/helpers/receivedLot';
 const BOTH_LETTERS = 'code letter C (plan of letter E after the arrow)';
 
 async function pdfText(number: string) {
-  const pdf = await (await as('auditor')).get(`/api/documents/${number}.pdf`).buffer(true).parse((res, done) => {
-    const chunks: Buffer[] = [];
-    res.on('data', (chunk: Buffer) => chunks.push(chunk));
-    res.on('end', () => done(null, Buffer.concat(chunks)));
-  }).expect(200);
+  const pdf = await (
+    await as('auditor')
+  )
+    .get(`/api/documents/${number}.pdf`)
+    .buffer(true)
+    .parse((res, done) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (chunk: Buffer) => chunks.push(chunk));
+      res.on('end', () => done(null, Buffer.concat(chunks)));
+    })
+    .expect(200);
   return (await pdfPages(pdf.body as Buffer)).join(' ').replace(/\s+/g, ' ');
 }
 
@@ -66,8 +72,14 @@ describe('code letter and plan letter', () => {
       return { before, codeLetters: await letters(transaction, 'code_letter'), planLetters: await letters(transaction, 'plan_letter') };
     });
     // Before: one column, holding the plan's letter.
-    expect(before).toEqual([{ lotId: small.lotId, letter: 'E' }, { lotId: special.lotId, letter: 'G' }]);
+    expect(before).toEqual([
+      { lotId: small.lotId, letter: 'E' },
+      { lotId: special.lotId, letter: 'G' },
+    ]);
     expect(planLetters).toEqual(before);
-    expect(codeLetters).toEqual([{ lotId: small.lotId, letter: 'C' }, { lotId: special.lotId, letter: 'E' }]);
+    expect(codeLetters).toEqual([
+      { lotId: small.lotId, letter: 'C' },
+      { lotId: special.lotId, letter: 'E' },
+    ]);
   });
 });

@@ -48,7 +48,18 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
     }
     // Every piece of the lot is released under the deviation, so it must cover them all.
     const deviation =
-      input.decision === 'use-as-is' ? await takeDeviation({ deviationId: input.deviationId!, supplierId: lot.supplier.id, partId: lot.part.id, quantity: lot.pieces.length, pieceIds: lot.pieces.map((p) => p.id) }, transaction) : null;
+      input.decision === 'use-as-is'
+        ? await takeDeviation(
+            {
+              deviationId: input.deviationId!,
+              supplierId: lot.supplier.id,
+              partId: lot.part.id,
+              quantity: lot.pieces.length,
+              pieceIds: lot.pieces.map((p) => p.id),
+            },
+            transaction,
+          )
+        : null;
     const disposition = await DispositionRecord.create(
       {
         lotId,
@@ -68,7 +79,19 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
     const context = { dispositionId: disposition.id, deviationNumber: disposition.deviationNumber };
     const routed = await routeLotPieces(lot, input.decision, evaluation.pieceVerdicts, context, actor, transaction);
     const setAside = [...routed['material-review'], ...routed['return-to-vendor']];
-    await openLotNcr({ lot, routing: input.decision, dispositionId: disposition.id, signerId: signer.id, explanation: verdict.explanation, setAside, supersededId: current?.id ?? null }, actor, transaction);
+    await openLotNcr(
+      {
+        lot,
+        routing: input.decision,
+        dispositionId: disposition.id,
+        signerId: signer.id,
+        explanation: verdict.explanation,
+        setAside,
+        supersededId: current?.id ?? null,
+      },
+      actor,
+      transaction,
+    );
     const outcome = routingOutcome(input.decision, routed, evaluation.pieceVerdicts);
     const documents = await issueLotDocuments({ lot, evaluation, disposition, signer, released: routed.stock, outcome }, transaction);
 
@@ -106,7 +129,15 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
         entityType: 'lot',
         entityId: lotId,
         before: current ? { dispositionId: current.id, decision: current.decision } : { state: lot.state },
-        after: { dispositionId: disposition.id, decision: input.decision, meaning: disposition.meaning, deviationNumber: disposition.deviationNumber, note: disposition.justification, pieces: outcome, documents: documents.map((d) => d.number) },
+        after: {
+          dispositionId: disposition.id,
+          decision: input.decision,
+          meaning: disposition.meaning,
+          deviationNumber: disposition.deviationNumber,
+          note: disposition.justification,
+          pieces: outcome,
+          documents: documents.map((d) => d.number),
+        },
       },
       transaction,
     );

@@ -29,7 +29,18 @@ function pieceRows(pieces: { id: number; serial: string }[], evaluation: LotEval
   return pieces.flatMap((piece): ReportPiece[] => {
     const results = evaluation.allResults.get(piece.id) ?? [];
     if (results.length === 0) {
-      return [{ serial: piece.serial, wavelengthNm: null, retardanceWaves: null, retardanceNm: null, retardanceErrorWaves: null, axisErrorDeg: null, verdict: unmeasured, reasons: [] }];
+      return [
+        {
+          serial: piece.serial,
+          wavelengthNm: null,
+          retardanceWaves: null,
+          retardanceNm: null,
+          retardanceErrorWaves: null,
+          axisErrorDeg: null,
+          verdict: unmeasured,
+          reasons: [],
+        },
+      ];
     }
     return results.map((r) => ({
       serial: piece.serial,
@@ -75,7 +86,10 @@ type Issue = {
   issuedAt?: Date;
 };
 
-export async function issueLotDocuments({ lot, evaluation, disposition, signer, released, outcome, issuedAt = disposition.signedAt }: Issue, transaction: Transaction) {
+export async function issueLotDocuments(
+  { lot, evaluation, disposition, signer, released, outcome, issuedAt = disposition.signedAt }: Issue,
+  transaction: Transaction,
+) {
   const [{ n }] = await sequelize.query<{ n: string }>("SELECT nextval('certificate_numbers') AS n", { type: QueryTypes.SELECT, transaction });
   const serial = `${issuedAt.getUTCFullYear()}-${String(n).padStart(5, '0')}`;
   const site = await readSiteSettings(transaction);
@@ -93,7 +107,10 @@ export async function issueLotDocuments({ lot, evaluation, disposition, signer, 
     lot: { id: lot.id, supplierLot: lot.supplierLot, quantity: lot.quantity, receivedAt: lot.receivedAt },
     sampling: { summary: evaluation.planSummary, defectives: verdict.defectives, result: `${verdict.proposal}: ${verdict.explanation}` },
     instruments: await instrumentsUsed(evaluation, transaction),
-    decisionRule: lot.spec.decisionRule === 'guarded' ? 'guarded acceptance: |error| + U ≤ tolerance (ILAC-G8:09/2019, ISO 14253-1:2017)' : 'simple acceptance: |error| ≤ tolerance (ILAC-G8:09/2019)',
+    decisionRule:
+      lot.spec.decisionRule === 'guarded'
+        ? 'guarded acceptance: |error| + U ≤ tolerance (ILAC-G8:09/2019, ISO 14253-1:2017)'
+        : 'simple acceptance: |error| ≤ tolerance (ILAC-G8:09/2019)',
     disposition: {
       decision: DISPOSITION_LABELS[disposition.decision],
       signer: `${signer.name} (${signer.email})`,
@@ -109,7 +126,11 @@ export async function issueLotDocuments({ lot, evaluation, disposition, signer, 
     const number = `${kind === 'certificate' ? 'PLC' : 'PLR'}-${serial}`;
     const pieces =
       kind === 'certificate'
-        ? pieceRows(lot.pieces.filter((p) => releasedIds.has(p.id)), evaluation, 'released under the sampling plan')
+        ? pieceRows(
+            lot.pieces.filter((p) => releasedIds.has(p.id)),
+            evaluation,
+            'released under the sampling plan',
+          )
         : pieceRows(reportedPieces(lot, evaluation), evaluation, 'not measured');
     const certified = { ...common, kind, number, pieces };
     const dataHash = certifiedDataHash(certified);

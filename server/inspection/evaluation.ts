@@ -16,7 +16,11 @@ export type SamplePieceState = {
 };
 
 export async function currentResults(pieceIds: number[], transaction?: Transaction) {
-  const rows = await PieceResult.findAll({ where: { pieceId: pieceIds, supersededByFileId: { [Op.is]: null } }, order: [['wavelengthNm', 'ASC']], transaction });
+  const rows = await PieceResult.findAll({
+    where: { pieceId: pieceIds, supersededByFileId: { [Op.is]: null } },
+    order: [['wavelengthNm', 'ASC']],
+    transaction,
+  });
   const byPiece = new Map<number, PieceResult[]>();
   for (const row of rows) byPiece.set(row.pieceId, [...(byPiece.get(row.pieceId) ?? []), row]);
   return byPiece;
@@ -56,7 +60,10 @@ async function planAndSample(lot: LotForInspection, transaction?: Transaction) {
 
 export async function evaluateLot(lot: LotForInspection, transaction?: Transaction) {
   const { plan, sampleIds } = await planAndSample(lot, transaction);
-  const results = await currentResults(lot.pieces.map((p) => p.id), transaction);
+  const results = await currentResults(
+    lot.pieces.map((p) => p.id),
+    transaction,
+  );
   const judged = (rows: PieceResult[]) => rows.filter((r) => r.result.judged !== false);
   const samplePieces: SamplePieceState[] = lot.pieces
     .filter((p) => sampleIds.has(p.id))
@@ -74,7 +81,9 @@ export async function evaluateLot(lot: LotForInspection, transaction?: Transacti
     lot,
     plan,
     sampleIds,
-    judgedVerdicts([...results.values()].flat().map((r) => ({ pieceId: r.pieceId, wavelengthNm: r.wavelengthNm, verdict: r.verdict, judged: r.result.judged !== false }))),
+    judgedVerdicts(
+      [...results.values()].flat().map((r) => ({ pieceId: r.pieceId, wavelengthNm: r.wavelengthNm, verdict: r.verdict, judged: r.result.judged !== false })),
+    ),
   );
   return { plan, planSummary: describePlan(plan), samplePieces, allResults: results, pieceVerdicts, verdict };
 }

@@ -29,9 +29,24 @@ export type LotForInspection = {
 };
 
 type LotRow = {
-  id: number; state: string; supplier_lot: string; quantity: number; received_at: Date; po_number: string; line_number: number; spec: PartSpec;
-  inspection_level: string; aql: string; hundred_percent: boolean; supplier_id: number; supplier_name: string; part_id: number; part_number: string;
-  part_description: string; buyer_email: string | null; buyer_name: string | null;
+  id: number;
+  state: string;
+  supplier_lot: string;
+  quantity: number;
+  received_at: Date;
+  po_number: string;
+  line_number: number;
+  spec: PartSpec;
+  inspection_level: string;
+  aql: string;
+  hundred_percent: boolean;
+  supplier_id: number;
+  supplier_name: string;
+  part_id: number;
+  part_number: string;
+  part_description: string;
+  buyer_email: string | null;
+  buyer_name: string | null;
 };
 
 /** A lot `l` with its receipt `s`, PO line `pol`, order `po`, supplier `sup` and part `p`. */
@@ -107,7 +122,12 @@ export type Routing = Disposition | 'sorted';
 type Destination = 'stock' | 'material-review' | 'return-to-vendor' | 'quarantine';
 
 const LOT_STATE_UNDER: Record<Routing, LotState> = { accept: 'accepted', reject: 'rejected', sort: 'sorting', sorted: 'sorted', 'use-as-is': 'use-as-is' };
-const REASON_TO: Record<Destination, Exclude<MoveReason, 'receipt'>> = { stock: 'release', 'material-review': 'hold', 'return-to-vendor': 'return-to-vendor', quarantine: 'inspection' };
+const REASON_TO: Record<Destination, Exclude<MoveReason, 'receipt'>> = {
+  stock: 'release',
+  'material-review': 'hold',
+  'return-to-vendor': 'return-to-vendor',
+  quarantine: 'inspection',
+};
 
 /** Where a decision sends one piece, by the piece's own current verdict. */
 function destinationOf(routing: Routing, verdict: PieceVerdict | 'unmeasured'): Destination {
@@ -135,7 +155,9 @@ function moveNote(lot: LotForInspection, routing: Routing, destination: Destinat
     case 'accept':
       return destination === 'stock' ? `${name} accepted` : `${name} accepted; this piece failed inspection, so to material review`;
     case 'use-as-is':
-      return failing ? `Released as is under deviation ${context.deviationNumber} (${name}): this piece failed inspection` : `${name} used as is under deviation ${context.deviationNumber}`;
+      return failing
+        ? `Released as is under deviation ${context.deviationNumber} (${name}): this piece failed inspection`
+        : `${name} used as is under deviation ${context.deviationNumber}`;
     case 'reject':
       return `${name} rejected to vendor`;
     case 'sort':
@@ -156,7 +178,10 @@ export async function routeLotPieces(
   actor: AuditActor,
   transaction: Transaction,
 ) {
-  await sequelize.query('UPDATE lots SET state = :state, updated_at = now() WHERE id = :lotId', { transaction, replacements: { state: LOT_STATE_UNDER[routing], lotId: lot.id } });
+  await sequelize.query('UPDATE lots SET state = :state, updated_at = now() WHERE id = :lotId', {
+    transaction,
+    replacements: { state: LOT_STATE_UNDER[routing], lotId: lot.id },
+  });
   const onSite = await sequelize.query<{ id: number; kind: LocationKind }>(
     `SELECT p.id, loc.kind FROM pieces p JOIN piece_locations pl ON pl.piece_id = p.id JOIN locations loc ON loc.id = pl.location_id
       WHERE p.lot_id = :lotId ORDER BY p.id`,
@@ -177,9 +202,17 @@ export async function routeLotPieces(
   }
   for (const { destination, note, pieceIds } of batches.values()) {
     const location = await defaultLocation(destination, transaction).catch(() => {
-      throw new AppError(409, 'no_location', `No active ${LOCATION_KIND_LABELS[destination].toLowerCase()} location is set up to receive pieces of lot ${lotName(lot.id)}`);
+      throw new AppError(
+        409,
+        'no_location',
+        `No active ${LOCATION_KIND_LABELS[destination].toLowerCase()} location is set up to receive pieces of lot ${lotName(lot.id)}`,
+      );
     });
-    await movePieces({ pieceIds, toLocationId: location.id, reason: REASON_TO[destination], note, signedDispositionId: context.dispositionId }, actor, transaction);
+    await movePieces(
+      { pieceIds, toLocationId: location.id, reason: REASON_TO[destination], note, signedDispositionId: context.dispositionId },
+      actor,
+      transaction,
+    );
   }
   return routed;
 }
@@ -191,7 +224,12 @@ export function routingOutcome(routing: Routing, routed: Awaited<ReturnType<type
   const failed = routed.stock.filter((id) => verdicts.get(id) === 'fail').length;
   switch (routing) {
     case 'accept':
-      return [count(routed.stock.length, 'released to stock (measured conforming, or released under the sampling plan)'), routed['material-review'].length && count(routed['material-review'].length, 'failed inspection: to material review')].filter(Boolean).join('; ');
+      return [
+        count(routed.stock.length, 'released to stock (measured conforming, or released under the sampling plan)'),
+        routed['material-review'].length && count(routed['material-review'].length, 'failed inspection: to material review'),
+      ]
+        .filter(Boolean)
+        .join('; ');
     case 'use-as-is':
       return `${count(routed.stock.length, 'released to stock under the deviation')}${failed ? `, ${failed} of them failed inspection and released as is` : ''}`;
     case 'reject':

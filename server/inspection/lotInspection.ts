@@ -14,7 +14,12 @@ export async function findLotInspection(lotId: number) {
     LotDocument.findAll({ where: { lotId }, order: [['id', 'DESC']] }),
     switchingStateOf(lot.supplier.id, lot.part.id),
   ]);
-  const people = new Map((await User.findAll({ where: { id: [...new Set([...files.map((f) => f.uploadedBy), ...dispositions.map((d) => d.signerId)])] } })).map((u) => [u.id, u.name]));
+  const people = new Map(
+    (await User.findAll({ where: { id: [...new Set([...files.map((f) => f.uploadedBy), ...dispositions.map((d) => d.signerId)])] } })).map((u) => [
+      u.id,
+      u.name,
+    ]),
+  );
   const instruments = new Map((await Instrument.findAll()).map((i) => [i.id, i.code]));
   return { lot, evaluation, files, dispositions, documents, switching, people, instruments };
 }

@@ -5,7 +5,18 @@ import type { Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
 import { CopyText, copyCell, copyRows, openCopy, type CopySink } from '../../db/copy';
 import { Instrument, MeasurementFile } from '../../db/models';
-import { analyzeStream, analyzeText, decodeBenchFile, readMetadata, type AnalysisResult, type FileMetadata, type LineMessage, type Method, type ParsedRow, type PieceResult } from '../../shared/optics';
+import {
+  analyzeStream,
+  analyzeText,
+  decodeBenchFile,
+  readMetadata,
+  type AnalysisResult,
+  type FileMetadata,
+  type LineMessage,
+  type Method,
+  type ParsedRow,
+  type PieceResult,
+} from '../../shared/optics';
 import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName, type LotState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { AppError, badRequest } from '../http/errors';
@@ -43,7 +54,9 @@ async function resolveInstrument({ metadata, lines }: Metadata, chosenId: number
     if (!named) return { problem: `${at}: the file names instrument "${metadata.instrument}", which is not in the register` };
     if (chosenId && named.id !== chosenId) {
       const chosen = await Instrument.findByPk(chosenId, { transaction });
-      return { problem: `${at}: the file was measured on ${named.code}, not on ${chosen?.code ?? 'the instrument'} chosen for the upload; the instrument the file names is the one that counts` };
+      return {
+        problem: `${at}: the file was measured on ${named.code}, not on ${chosen?.code ?? 'the instrument'} chosen for the upload; the instrument the file names is the one that counts`,
+      };
     }
     return { instrument: named };
   }
@@ -92,7 +105,12 @@ type Prepared = {
  * A file before its rows are read: refused already (not text; an instrument unknown, contradicted or
  * out of calibration; a bad date), or ready for the engine with the instrument that shapes the analysis.
  */
-async function prepareFile(file: UploadedFile, lot: LotForInspection, chosenInstrumentId: number | undefined, transaction?: Transaction): Promise<{ refused: CheckedFile } | Prepared> {
+async function prepareFile(
+  file: UploadedFile,
+  lot: LotForInspection,
+  chosenInstrumentId: number | undefined,
+  transaction?: Transaction,
+): Promise<{ refused: CheckedFile } | Prepared> {
   const base = { name: file.originalname, sha256: sha256(file.buffer), sizeBytes: file.buffer.length };
   const refused = (fatal: string, metadata: AnalysisResult['metadata'], instrument: CheckedFile['instrument'] = null) => ({
     refused: { ...base, method: null, metadata, instrument, pieces: [], warnings: [], errors: [], fatal },
@@ -143,7 +161,12 @@ function checkedOf({ base, used }: Prepared, lot: LotForInspection, result: Anal
 }
 
 /** Checks a file for the lot, writing nothing. */
-export async function analyseFile(file: UploadedFile, lot: LotForInspection, chosenInstrumentId: number | undefined, transaction?: Transaction): Promise<CheckedFile> {
+export async function analyseFile(
+  file: UploadedFile,
+  lot: LotForInspection,
+  chosenInstrumentId: number | undefined,
+  transaction?: Transaction,
+): Promise<CheckedFile> {
   const prepared = await prepareFile(file, lot, chosenInstrumentId, transaction);
   if ('refused' in prepared) return prepared.refused;
   return checkedOf(prepared, lot, analyzeText(prepared.text, pieceSpecFor(lot.spec, prepared.instrument), { maxBytes: MAX_MEASUREMENT_BYTES }));
@@ -225,7 +248,13 @@ function* resultRows(fileId: number, pieces: readonly PieceResult[], pieceIdBySe
  * and nothing is read back, so a file of 100,000 rows costs about what it takes to read it and to
  * write them. A file the check refuses answers why, and its transaction must not commit.
  */
-async function checkAndSave(actor: AuditActor & { id: number }, lot: LotForInspection, file: UploadedFile, instrumentId: number | undefined, transaction: Transaction) {
+async function checkAndSave(
+  actor: AuditActor & { id: number },
+  lot: LotForInspection,
+  file: UploadedFile,
+  instrumentId: number | undefined,
+  transaction: Transaction,
+) {
   const prepared = await prepareFile(file, lot, instrumentId, transaction);
   if ('refused' in prepared) return prepared;
   const { base, used } = prepared;
@@ -233,38 +262,59 @@ async function checkAndSave(actor: AuditActor & { id: number }, lot: LotForInspe
   // readings that name it can be written while they are read.
   const stored = await MeasurementFile.create(
     {
-      lotId: lot.id, instrumentId: used.id, originalName: base.name, sha256: base.sha256, sizeBytes: base.sizeBytes, method: '', metadata: {}, rowCount: 0,
-      warnings: [], storageKey: await storeBlob(file.buffer, transaction), uploadedBy: actor.id,
+      lotId: lot.id,
+      instrumentId: used.id,
+      originalName: base.name,
+      sha256: base.sha256,
+      sizeBytes: base.sizeBytes,
+      method: '',
+      metadata: {},
+      rowCount: 0,
+      warnings: [],
+      storageKey: await storeBlob(file.buffer, transaction),
+      uploadedBy: actor.id,
     },
     { transaction },
   );
   const sink = openCopy(transaction, 'readings', ['file_id', 'line', 'serial', 'wavelength_nm', 'fields']);
   const readings = new ReadingsCopy(stored.id, sink);
-  const result = await analyzeStream(inPieces(file.buffer, sink), pieceSpecFor(lot.spec, prepared.instrument), { maxBytes: MAX_MEASUREMENT_BYTES, onRow: readings.add });
+  const result = await analyzeStream(inPieces(file.buffer, sink), pieceSpecFor(lot.spec, prepared.instrument), {
+    maxBytes: MAX_MEASUREMENT_BYTES,
+    onRow: readings.add,
+  });
   readings.finish();
   await sink.end();
   const checked = checkedOf(prepared, lot, result);
   if (cannotBeSaved(checked)) return { refused: checked };
 
   const { pieces } = checked;
-  await stored.update({ method: checked.method!, metadata: checked.metadata as Record<string, string>, rowCount: readings.rows, warnings: checked.warnings }, { transaction });
+  await stored.update(
+    { method: checked.method!, metadata: checked.metadata as Record<string, string>, rowCount: readings.rows, warnings: checked.warnings },
+    { transaction },
+  );
   const pieceIdBySerial = new Map(lot.pieces.map((p) => [p.serial, p.id]));
   // The new file's results replace the current ones of the same pieces at the same wavelengths
   // (compared as the table stores wavelengths, to 0.001 nm). Each is looked up in the index of
   // current results by its piece and wavelength (LIMIT 1: there is at most one, and the planner
   // keeps the lookup instead of scanning the whole table), whatever the size of the table.
-  if (pieces.length) await sequelize.query(
-    `UPDATE piece_results SET superseded_by_file_id = $1
+  if (pieces.length)
+    await sequelize.query(
+      `UPDATE piece_results SET superseded_by_file_id = $1
       WHERE id = ANY (ARRAY(
         SELECT current.id FROM unnest($2::int[], $3::numeric(9, 3)[]) AS measured(piece_id, wavelength_nm)
         CROSS JOIN LATERAL (SELECT r.id FROM piece_results r
                              WHERE r.piece_id = measured.piece_id AND r.wavelength_nm = measured.wavelength_nm AND r.superseded_by_file_id IS NULL LIMIT 1) current))`,
-    { transaction, bind: [stored.id, pieces.map((piece) => pieceIdBySerial.get(piece.serial)!), pieces.map((piece) => piece.wavelengthNm)] },
-  );
+      { transaction, bind: [stored.id, pieces.map((piece) => pieceIdBySerial.get(piece.serial)!), pieces.map((piece) => piece.wavelengthNm)] },
+    );
   await copyRows(transaction, 'piece_results', ['piece_id', 'file_id', 'wavelength_nm', 'verdict', 'result'], resultRows(stored.id, pieces, pieceIdBySerial));
   await recordAudit(
     actor,
-    { action: 'measurement.upload', entityType: 'lot', entityId: lot.id, after: { fileId: stored.id, name: checked.name, sha256: checked.sha256, pieces: pieces.length, instrument: used.code } },
+    {
+      action: 'measurement.upload',
+      entityType: 'lot',
+      entityId: lot.id,
+      after: { fileId: stored.id, name: checked.name, sha256: checked.sha256, pieces: pieces.length, instrument: used.code },
+    },
     transaction,
   );
   return { saved: { fileId: stored.id, name: checked.name, sha256: checked.sha256, pieces: pieces.length, rows: readings.rows } };
@@ -287,7 +337,12 @@ export function commitMeasurements(actor: AuditActor & { id: number }, lotId: nu
       else committed.push(outcome.saved);
     }
     if (refused.length) {
-      throw new AppError(422, 'measurement_errors', 'Nothing was saved: fix the errors in the file(s) and upload again', refused.map((p) => ({ name: p.name, fatal: p.fatal, errors: p.errors })));
+      throw new AppError(
+        422,
+        'measurement_errors',
+        'Nothing was saved: fix the errors in the file(s) and upload again',
+        refused.map((p) => ({ name: p.name, fatal: p.fatal, errors: p.errors })),
+      );
     }
     // The supplier's drift check reads the new results as soon as they are committed.
     await enqueue(QUEUES.supplierDriftCheck, { lotId }, transaction);

@@ -31,8 +31,15 @@ import { piecesLeftToSort } from './sort';
 type Lists = { pieces: PreviewPiece[]; errors: LineMessage[]; warnings: LineMessage[] };
 
 const previewPiece = (p: PieceResult): PreviewPiece => ({
-  serial: p.serial, wavelengthNm: p.wavelengthNm, retardanceWaves: p.retardanceWaves, retardanceErrorWaves: p.retardanceErrorWaves,
-  axisErrorDeg: p.axisErrorDeg, verdict: p.verdict, reasons: p.reasons, judged: p.judged, lines: p.lines,
+  serial: p.serial,
+  wavelengthNm: p.wavelengthNm,
+  retardanceWaves: p.retardanceWaves,
+  retardanceErrorWaves: p.retardanceErrorWaves,
+  axisErrorDeg: p.axisErrorDeg,
+  verdict: p.verdict,
+  reasons: p.reasons,
+  judged: p.judged,
+  lines: p.lines,
 });
 
 const listsOf = (checked: CheckedFile): Lists => ({ pieces: checked.pieces.map(previewPiece), errors: checked.errors, warnings: checked.warnings });

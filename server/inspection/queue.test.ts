@@ -7,10 +7,24 @@ import { as } from '../../tests/helpers/api';
 import { benchFile, sampleOf, signDecision, uploadBench } from '../../tests/helpers/bench';
 import { receivedLot } from '../../tests/helpers/receivedLot';
 
-type Row = { lotId: number; state: string; plan: Record<string, unknown> | null; sampleSerials: string[]; measured: number; sortRemaining: number | null; proposal: string | null; receivedAt: string };
+type Row = {
+  lotId: number;
+  state: string;
+  plan: Record<string, unknown> | null;
+  sampleSerials: string[];
+  measured: number;
+  sortRemaining: number | null;
+  proposal: string | null;
+  receivedAt: string;
+};
 
 async function queued(lotId: number): Promise<Row> {
-  const found = await (await as('inspector')).get('/api/inspection/queue').query({ q: `L-${lotId}` }).expect(200);
+  const found = await (
+    await as('inspector')
+  )
+    .get('/api/inspection/queue')
+    .query({ q: `L-${lotId}` })
+    .expect(200);
   const row = found.body.data.find((r: Row) => r.lotId === lotId);
   expect(row, `L-${lotId} in the queue`).toBeDefined();
   return row;
@@ -21,7 +35,14 @@ async function expectAsOnItsPage(lotId: number) {
   const [row, { view, sample }] = await Promise.all([queued(lotId), sampleOf(lotId)]);
   expect(row).toMatchObject({
     state: view.lot.state,
-    plan: { codeLetter: view.plan.codeLetter, planLetter: view.plan.planLetter, sampleSize: view.plan.sampleSize, accept: view.plan.accept, reject: view.plan.reject, severity: view.plan.severity },
+    plan: {
+      codeLetter: view.plan.codeLetter,
+      planLetter: view.plan.planLetter,
+      sampleSize: view.plan.sampleSize,
+      accept: view.plan.accept,
+      reject: view.plan.reject,
+      severity: view.plan.severity,
+    },
     sampleSerials: sample,
     measured: view.verdict.measured,
     proposal: view.verdict.proposal,

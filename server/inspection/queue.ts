@@ -54,13 +54,34 @@ export const inspectionQueue: ListDefinition<QueueRow, ListQuery> = {
       daysInQuarantine: Math.floor((Date.now() - new Date(receivedAt).getTime()) / DAY_MS),
     };
     if (r.sampleSize === null) return { ...row, acceptanceDiscontinued: true, plan: null, sampleSerials: [], measured: 0, sortRemaining: null, proposal: null };
-    const plan = { codeLetter: String(r.codeLetter), planLetter: String(r.planLetter), sampleSize: Number(r.sampleSize), accept: Number(r.accept), reject: Number(r.reject), severity: String(r.severity) };
+    const plan = {
+      codeLetter: String(r.codeLetter),
+      planLetter: String(r.planLetter),
+      sampleSize: Number(r.sampleSize),
+      accept: Number(r.accept),
+      reject: Number(r.reject),
+      severity: String(r.severity),
+    };
     const sample = (r.sample as SampleEntry[] | null) ?? [];
-    const verdict = proposeLotVerdict(sample.map(([serial, verdicts]) => ({ serial, verdicts })), plan);
+    const verdict = proposeLotVerdict(
+      sample.map(([serial, verdicts]) => ({ serial, verdicts })),
+      plan,
+    );
     const sortGroups = r.sortGroups as SortGroup[] | null;
     // A sort needs a verdict of every piece still on site: those without pass or fail remain.
-    const sortRemaining = row.state === 'sorting' ? (sortGroups ?? []).filter(([verdicts]) => !['pass', 'fail'].includes(pieceVerdict(verdicts))).reduce((n, [, pieces]) => n + Number(pieces), 0) : null;
-    return { ...row, acceptanceDiscontinued: false, plan, sampleSerials: sample.map(([serial]) => serial), measured: verdict.measured, sortRemaining, proposal: verdict.proposal };
+    const sortRemaining =
+      row.state === 'sorting'
+        ? (sortGroups ?? []).filter(([verdicts]) => !['pass', 'fail'].includes(pieceVerdict(verdicts))).reduce((n, [, pieces]) => n + Number(pieces), 0)
+        : null;
+    return {
+      ...row,
+      acceptanceDiscontinued: false,
+      plan,
+      sampleSerials: sample.map(([serial]) => serial),
+      measured: verdict.measured,
+      sortRemaining,
+      proposal: verdict.proposal,
+    };
   },
   csv: {
     filename: 'inspection-queue',

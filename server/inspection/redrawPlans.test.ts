@@ -31,7 +31,16 @@ async function planOf(lotId: number, transaction?: Transaction): Promise<Plan> {
     'SELECT p.serial FROM sample_pieces sp JOIN pieces p ON p.id = sp.piece_id WHERE sp.inspection_id = :id ORDER BY p.serial',
     { type: QueryTypes.SELECT, transaction, replacements: { id: plan.id } },
   );
-  return { sampleSize: plan.sampleSize, planLetter: plan.planLetter, accept: plan.accept, reject: plan.reject, severity: plan.severity, seed: plan.seed, state: plan.state, sample: sample.map((s) => s.serial) };
+  return {
+    sampleSize: plan.sampleSize,
+    planLetter: plan.planLetter,
+    accept: plan.accept,
+    reject: plan.reject,
+    severity: plan.severity,
+    seed: plan.seed,
+    state: plan.state,
+    sample: sample.map((s) => s.serial),
+  };
 }
 
 /** Writes a plan as an earlier table gave it over the lot's plan, with the sample its seed draws at that size. */
@@ -40,13 +49,28 @@ async function outdate(lotId: number, old: { severity: string; planLetter: strin
     type: QueryTypes.SELECT,
     replacements: { lotId },
   });
-  const pieces = await sequelize.query<{ id: number; serial: string }>('SELECT id, serial FROM pieces WHERE lot_id = :lotId ORDER BY serial', { type: QueryTypes.SELECT, replacements: { lotId } });
-  const chosen = new Set(drawSample(pieces.map((p) => p.serial), old.sampleSize, seed));
+  const pieces = await sequelize.query<{ id: number; serial: string }>('SELECT id, serial FROM pieces WHERE lot_id = :lotId ORDER BY serial', {
+    type: QueryTypes.SELECT,
+    replacements: { lotId },
+  });
+  const chosen = new Set(
+    drawSample(
+      pieces.map((p) => p.serial),
+      old.sampleSize,
+      seed,
+    ),
+  );
   await sequelize.transaction(async (transaction) => {
     const run = (sql: string, replacements: Record<string, unknown>) => sequelize.query(sql, { transaction, replacements });
-    await run('UPDATE lot_inspections SET severity = :severity, plan_letter = :planLetter, sample_size = :sampleSize, accept_number = :accept, reject_number = :reject WHERE id = :id', { ...old, id });
+    await run(
+      'UPDATE lot_inspections SET severity = :severity, plan_letter = :planLetter, sample_size = :sampleSize, accept_number = :accept, reject_number = :reject WHERE id = :id',
+      { ...old, id },
+    );
     await run('DELETE FROM sample_pieces WHERE inspection_id = :id', { id });
-    await run('INSERT INTO sample_pieces (inspection_id, piece_id) SELECT :id, unnest(ARRAY[:pieces]::integer[])', { id, pieces: pieces.filter((p) => chosen.has(p.serial)).map((p) => p.id) });
+    await run('INSERT INTO sample_pieces (inspection_id, piece_id) SELECT :id, unnest(ARRAY[:pieces]::integer[])', {
+      id,
+      pieces: pieces.filter((p) => chosen.has(p.serial)).map((p) => p.id),
+    });
   });
 }
 
@@ -93,10 +117,15 @@ describe('redrawing the plans of undecided lots from the corrected tables', () =
         { type: QueryTypes.SELECT, transaction, replacements: { lotId: waiting.lotId } },
       );
       expect(kept).toMatchObject({ plan: { sampleSize: 32, planLetter: 'G', seed: before.seed }, sample: before.sample, reason: REDRAW_REASON });
-      const [audit] = await owner.query<{ actor_email: string; before: { plan: { sampleSize: number } }; after: { plan: { sampleSize: number }; sample: string[] } }>(
-        `SELECT actor_email, before, after FROM audit_events WHERE action = 'lot.plan-redrawn' AND entity_id = :lotId`,
-        { type: QueryTypes.SELECT, transaction, replacements: { lotId: String(waiting.lotId) } },
-      );
+      const [audit] = await owner.query<{
+        actor_email: string;
+        before: { plan: { sampleSize: number } };
+        after: { plan: { sampleSize: number }; sample: string[] };
+      }>(`SELECT actor_email, before, after FROM audit_events WHERE action = 'lot.plan-redrawn' AND entity_id = :lotId`, {
+        type: QueryTypes.SELECT,
+        transaction,
+        replacements: { lotId: String(waiting.lotId) },
+      });
       expect(audit).toMatchObject({ actor_email: 'system', before: { plan: { sampleSize: 32 } }, after: { plan: { sampleSize: 20 }, sample: after.sample } });
 
       // Run again, nothing is left to redraw.
@@ -110,7 +139,9 @@ describe('redrawing the plans of undecided lots from the corrected tables', () =
     const lot = await receivedLot({ quantity: 60, level: 'II', aql: 1 });
     await outdate(lot.lotId, { severity: 'normal', planLetter: 'D', sampleSize: 8, accept: 0, reject: 1 });
     const small = await planOf(lot.lotId);
-    await (await as('inspector'))
+    await (
+      await as('inspector')
+    )
       .post(`/api/inspection/lots/${lot.lotId}/measurements`)
       .attach('files', Buffer.from(benchFile(small.sample)), { filename: 'bench.csv', contentType: 'text/csv' })
       .expect(201);

@@ -19,7 +19,10 @@ type StateLock = 'share' | 'update';
 export async function switchingStateOf(supplierId: number, partId: number, transaction?: Transaction, lock?: StateLock): Promise<SwitchingState> {
   const replacements = { supplierId, partId, initial: JSON.stringify(initialSwitchingState()) };
   if (lock) {
-    await sequelize.query('INSERT INTO switching_states (supplier_id, part_id, state) VALUES (:supplierId, :partId, :initial::jsonb) ON CONFLICT DO NOTHING', { transaction, replacements });
+    await sequelize.query('INSERT INTO switching_states (supplier_id, part_id, state) VALUES (:supplierId, :partId, :initial::jsonb) ON CONFLICT DO NOTHING', {
+      transaction,
+      replacements,
+    });
   }
   const [row] = await sequelize.query<{ state: SwitchingState }>(
     `SELECT state FROM switching_states WHERE supplier_id = :supplierId AND part_id = :partId${lock ? ` FOR ${lock.toUpperCase()}` : ''}`,
@@ -30,8 +33,15 @@ export async function switchingStateOf(supplierId: number, partId: number, trans
 
 export function describePlan(plan: LotInspection) {
   return describeSamplingPlan({
-    severity: plan.severity, level: plan.inspectionLevel, aql: plan.aql, codeLetter: plan.codeLetter, planLetter: plan.planLetter,
-    sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, hundredPercent: plan.hundredPercent,
+    severity: plan.severity,
+    level: plan.inspectionLevel,
+    aql: plan.aql,
+    codeLetter: plan.codeLetter,
+    planLetter: plan.planLetter,
+    sampleSize: plan.sampleSize,
+    accept: plan.acceptNumber,
+    reject: plan.rejectNumber,
+    hundredPercent: plan.hundredPercent,
   });
 }
 
@@ -72,8 +82,19 @@ async function drawPlan(lot: LotForInspection, state: SwitchingState, transactio
     },
     { transaction },
   );
-  const chosen = new Set(hundredPercent ? lot.pieces.map((p) => p.serial) : drawSample(lot.pieces.map((p) => p.serial), sampleSize, seed));
-  await SamplePiece.bulkCreate(lot.pieces.filter((p) => chosen.has(p.serial)).map((p) => ({ inspectionId: inspection.id, pieceId: p.id })), { transaction });
+  const chosen = new Set(
+    hundredPercent
+      ? lot.pieces.map((p) => p.serial)
+      : drawSample(
+          lot.pieces.map((p) => p.serial),
+          sampleSize,
+          seed,
+        ),
+  );
+  await SamplePiece.bulkCreate(
+    lot.pieces.filter((p) => chosen.has(p.serial)).map((p) => ({ inspectionId: inspection.id, pieceId: p.id })),
+    { transaction },
+  );
   return inspection;
 }
 

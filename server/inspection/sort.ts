@@ -27,7 +27,19 @@ export async function completeSortWhenMeasured(lot: LotForInspection, evaluation
   const signer = (await User.findByPk(disposition.signerId, { transaction }))!;
   const routed = await routeLotPieces(lot, 'sorted', evaluation.pieceVerdicts, { dispositionId: disposition.id, deviationNumber: null }, actor, transaction);
   const explanation = (disposition.lotVerdict as { explanation?: string }).explanation ?? '';
-  await openLotNcr({ lot, routing: 'sorted', dispositionId: disposition.id, signerId: disposition.signerId, explanation, setAside: routed['return-to-vendor'], supersededId: null }, actor, transaction);
+  await openLotNcr(
+    {
+      lot,
+      routing: 'sorted',
+      dispositionId: disposition.id,
+      signerId: disposition.signerId,
+      explanation,
+      setAside: routed['return-to-vendor'],
+      supersededId: null,
+    },
+    actor,
+    transaction,
+  );
   const documents = await issueLotDocuments(
     { lot, evaluation, disposition, signer, released: routed.stock, outcome: routingOutcome('sorted', routed, evaluation.pieceVerdicts), issuedAt: new Date() },
     transaction,
@@ -39,7 +51,13 @@ export async function completeSortWhenMeasured(lot: LotForInspection, evaluation
       entityType: 'lot',
       entityId: lot.id,
       before: { state: 'sorting' },
-      after: { state: 'sorted', dispositionId: disposition.id, released: routed.stock.length, returned: routed['return-to-vendor'].length, documents: documents.map((d) => d.number) },
+      after: {
+        state: 'sorted',
+        dispositionId: disposition.id,
+        released: routed.stock.length,
+        returned: routed['return-to-vendor'].length,
+        documents: documents.map((d) => d.number),
+      },
     },
     transaction,
   );

@@ -1,7 +1,6 @@
 // The ordered specification in words, for documents and mail.
 import { MATERIAL_LABELS, type PartSpec } from '../../shared/schemas/spec';
 
-
 export function constructionText(spec: PartSpec) {
   if (spec.construction === 'multi-order') return `multi-order (order ${spec.multiOrder})`;
   if (spec.construction === 'achromatic') return `achromatic, ${spec.bandNm?.[0]}–${spec.bandNm?.[1]} nm`;

@@ -25,7 +25,10 @@ function entryOf(event: Pick<SwitchingEvent, 'kind' | 'result' | 'reducedEnabled
   return { kind: 'override', severity: event.severity! };
 }
 
-type NewEvent = Pick<SwitchingEvent, 'kind'> & Partial<Pick<SwitchingEvent, 'lotId' | 'result' | 'reducedEnabled' | 'dispositionId' | 'severity' | 'reason' | 'reference' | 'correctiveActionId' | 'actorId'>>;
+type NewEvent = Pick<SwitchingEvent, 'kind'> &
+  Partial<
+    Pick<SwitchingEvent, 'lotId' | 'result' | 'reducedEnabled' | 'dispositionId' | 'severity' | 'reason' | 'reference' | 'correctiveActionId' | 'actorId'>
+  >;
 
 /**
  * Adds an event to the supplier-part's sequence (in place of `replacing`, when a lot's result is
@@ -46,15 +49,19 @@ async function feedSequence(
     await replacing.save({ transaction });
   }
   const current = await SwitchingEvent.findAll({ where: { supplierId, partId, supersededAt: { [Op.is]: null } }, order: [['position', 'ASC']], transaction });
-  const [{ last }] = await sequelize.query<{ last: number | null }>('SELECT max(position) AS last FROM switching_events WHERE supplier_id = :supplierId AND part_id = :partId', {
-    type: QueryTypes.SELECT,
-    transaction,
-    replacements: { supplierId, partId },
-  });
-  const position = replacing?.position ?? (last ?? 0) + 1;
-  const sequence = [...current.map((e) => ({ position: e.position, entry: entryOf(e) })), { position, entry: entryOf({ severity: null, result: null, reducedEnabled: null, ...event }) }].sort(
-    (a, b) => a.position - b.position,
+  const [{ last }] = await sequelize.query<{ last: number | null }>(
+    'SELECT max(position) AS last FROM switching_events WHERE supplier_id = :supplierId AND part_id = :partId',
+    {
+      type: QueryTypes.SELECT,
+      transaction,
+      replacements: { supplierId, partId },
+    },
   );
+  const position = replacing?.position ?? (last ?? 0) + 1;
+  const sequence = [
+    ...current.map((e) => ({ position: e.position, entry: entryOf(e) })),
+    { position, entry: entryOf({ severity: null, result: null, reducedEnabled: null, ...event }) },
+  ].sort((a, b) => a.position - b.position);
   const { state, outcomes } = replaySwitching(sequence.map((s) => s.entry));
   const index = sequence.findIndex((s) => s.position === position);
   const later = sequence.length - 1 - index;
@@ -63,7 +70,23 @@ async function feedSequence(
       (later ? `; after ${later} later ${later === 1 ? 'entry' : 'entries'}, the state is ${switchingPhaseOf(state)}` : '')
     : outcomes[index].explanation;
   const created = await SwitchingEvent.create(
-    { supplierId, partId, position, before, after: state, explanation, lotId: null, result: null, reducedEnabled: null, dispositionId: null, severity: null, reason: null, reference: null, actorId: null, ...event },
+    {
+      supplierId,
+      partId,
+      position,
+      before,
+      after: state,
+      explanation,
+      lotId: null,
+      result: null,
+      reducedEnabled: null,
+      dispositionId: null,
+      severity: null,
+      reason: null,
+      reference: null,
+      actorId: null,
+      ...event,
+    },
     { transaction },
   );
   await sequelize.query('UPDATE switching_states SET state = :state::jsonb, updated_at = now() WHERE supplier_id = :supplierId AND part_id = :partId', {
@@ -75,19 +98,31 @@ async function feedSequence(
   for (const plan of plansDrawn) {
     await recordAudit(
       actor,
-      { action: 'lot.plan-drawn', entityType: 'lot', entityId: plan.lotId, after: { severity: plan.severity, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, seed: plan.sampleSeed } },
+      {
+        action: 'lot.plan-drawn',
+        entityType: 'lot',
+        entityId: plan.lotId,
+        after: { severity: plan.severity, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, seed: plan.sampleSeed },
+      },
       transaction,
     );
   }
   return { state, event: created, plansDrawn };
 }
 
-const resultText = (result: LotResult) => `${result.accepted ? 'accepted' : 'not accepted'}, ${result.defectives} defective${result.defectives === 1 ? '' : 's'}`;
+const resultText = (result: LotResult) =>
+  `${result.accepted ? 'accepted' : 'not accepted'}, ${result.defectives} defective${result.defectives === 1 ? '' : 's'}`;
 
 /** Feeds a signed decision into the lot's supplier-part sequence: at its end for a first decision,
  * in place of the earlier result when the decision supersedes one. Only an acceptance counts as
  * accepted; a rejection, a sort and a use under deviation are lots not accepted. */
-export async function recordLotInSwitching(lot: LotForInspection, evaluation: LotEvaluation, disposition: DispositionRecord, actor: AuditActor, transaction: Transaction) {
+export async function recordLotInSwitching(
+  lot: LotForInspection,
+  evaluation: LotEvaluation,
+  disposition: DispositionRecord,
+  actor: AuditActor,
+  transaction: Transaction,
+) {
   const supplierId = lot.supplier.id;
   const partId = lot.part.id;
   const before = await switchingStateOf(supplierId, partId, transaction, 'update');
@@ -95,7 +130,15 @@ export async function recordLotInSwitching(lot: LotForInspection, evaluation: Lo
   const result: LotResult = {
     accepted: disposition.decision === 'accept',
     defectives: verdict.defectives,
-    plan: { planLetter: plan.planLetter, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, severity: plan.severity, aql: plan.aql, level: plan.inspectionLevel },
+    plan: {
+      planLetter: plan.planLetter,
+      sampleSize: plan.sampleSize,
+      accept: plan.acceptNumber,
+      reject: plan.rejectNumber,
+      severity: plan.severity,
+      aql: plan.aql,
+      level: plan.inspectionLevel,
+    },
   };
   const replacing = await SwitchingEvent.findOne({ where: { lotId: lot.id, kind: 'lot', supersededAt: { [Op.is]: null } }, transaction });
   const settings = await readSiteSettings(transaction);
@@ -111,7 +154,13 @@ export async function recordLotInSwitching(lot: LotForInspection, evaluation: Lo
   if (switchingPhaseOf(before) !== switchingPhaseOf(fed.state)) {
     await recordAudit(
       actor,
-      { action: 'switching.change', entityType: 'switching', entityId: entityId(supplierId, partId), before, after: { state: fed.state, lotId: lot.id, explanation: fed.event.explanation } },
+      {
+        action: 'switching.change',
+        entityType: 'switching',
+        entityId: entityId(supplierId, partId),
+        before,
+        after: { state: fed.state, lotId: lot.id, explanation: fed.event.explanation },
+      },
       transaction,
     );
   }
@@ -140,7 +189,8 @@ export async function resumeInspection(signer: User, supplierId: number, partId:
   return inTransaction(async (transaction) => {
     const names = await supplierAndPart(supplierId, partId, transaction);
     const before = await switchingStateOf(supplierId, partId, transaction, 'update');
-    if (!before.stopped) throw conflict(`Acceptance inspection of ${names.part} from ${names.supplier} is not discontinued; it is on ${before.severity} inspection`);
+    if (!before.stopped)
+      throw conflict(`Acceptance inspection of ${names.part} from ${names.supplier} is not discontinued; it is on ${before.severity} inspection`);
     // An accepted corrective-action request of the supplier's part names itself; a free-text reference is for actions recorded elsewhere.
     const request = input.correctiveActionId ? await acceptedRequestFor(input.correctiveActionId, supplierId, partId, transaction) : null;
     const reference = request?.number ?? input.reference!;
@@ -155,7 +205,20 @@ export async function resumeInspection(signer: User, supplierId: number, partId:
     const lots = fed.plansDrawn.map((p) => p.lotId);
     await recordAudit(
       actor,
-      { action: 'switching.resume', entityType: 'switching', entityId: entityId(supplierId, partId), before, after: { state: fed.state, meaning: RESUME_MEANING, correctiveAction: input.correctiveAction, reference, correctiveActionId: request?.id ?? null, plansDrawnFor: lots } },
+      {
+        action: 'switching.resume',
+        entityType: 'switching',
+        entityId: entityId(supplierId, partId),
+        before,
+        after: {
+          state: fed.state,
+          meaning: RESUME_MEANING,
+          correctiveAction: input.correctiveAction,
+          reference,
+          correctiveActionId: request?.id ?? null,
+          plansDrawnFor: lots,
+        },
+      },
       transaction,
     );
     return { state: fed.state, eventId: fed.event.id, plansDrawnFor: lots };
@@ -170,12 +233,26 @@ export async function overrideSeverity(signer: User, supplierId: number, partId:
   return inTransaction(async (transaction) => {
     const names = await supplierAndPart(supplierId, partId, transaction);
     const before = await switchingStateOf(supplierId, partId, transaction, 'update');
-    if (before.stopped) throw conflict(`Acceptance inspection of ${names.part} from ${names.supplier} is discontinued: resume it, recording the supplier’s corrective action`);
+    if (before.stopped)
+      throw conflict(`Acceptance inspection of ${names.part} from ${names.supplier} is discontinued: resume it, recording the supplier’s corrective action`);
     if (before.severity === input.severity) throw conflict(`${names.part} from ${names.supplier} is already on ${input.severity} inspection`);
-    const fed = await feedSequence(supplierId, partId, before, { kind: 'override', severity: input.severity, reason: input.reason, actorId: signer.id }, actor, transaction);
+    const fed = await feedSequence(
+      supplierId,
+      partId,
+      before,
+      { kind: 'override', severity: input.severity, reason: input.reason, actorId: signer.id },
+      actor,
+      transaction,
+    );
     await recordAudit(
       actor,
-      { action: 'switching.override', entityType: 'switching', entityId: entityId(supplierId, partId), before, after: { state: fed.state, meaning: OVERRIDE_MEANING, severity: input.severity, reason: input.reason } },
+      {
+        action: 'switching.override',
+        entityType: 'switching',
+        entityId: entityId(supplierId, partId),
+        before,
+        after: { state: fed.state, meaning: OVERRIDE_MEANING, severity: input.severity, reason: input.reason },
+      },
       transaction,
     );
     return { state: fed.state, eventId: fed.event.id };

@@ -65,9 +65,22 @@ export const switchingList: ListDefinition<SwitchingRow, SwitchingListQuery> = {
 };
 
 export type SwitchingEventRow = {
-  id: number; kind: SwitchingHistoryEntry['kind']; position: number; lot_id: number | null; decision: string | null; result: { accepted: boolean; defectives: number; plan: { severity: string } } | null;
-  severity: SwitchingHistoryEntry['severity']; reason: string | null; reference: string | null; corrective_action_id: number | null; by: string | null; before: SwitchingState; after: SwitchingState;
-  explanation: string; created_at: Date; superseded_at: Date | null;
+  id: number;
+  kind: SwitchingHistoryEntry['kind'];
+  position: number;
+  lot_id: number | null;
+  decision: string | null;
+  result: { accepted: boolean; defectives: number; plan: { severity: string } } | null;
+  severity: SwitchingHistoryEntry['severity'];
+  reason: string | null;
+  reference: string | null;
+  corrective_action_id: number | null;
+  by: string | null;
+  before: SwitchingState;
+  after: SwitchingState;
+  explanation: string;
+  created_at: Date;
+  superseded_at: Date | null;
 };
 
 /** One pair: its names, state, the site's settings, lots waiting for a plan or a decision, and its history (newest first). */

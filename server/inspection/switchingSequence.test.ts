@@ -21,7 +21,13 @@ const events = (supplierId: number, db: Sequelize = sequelize, transaction?: Tra
     { type: QueryTypes.SELECT, transaction, replacements: { supplierId } },
   );
 const stateOf = async (supplierId: number, db: Sequelize = sequelize, transaction?: Transaction) =>
-  (await db.query<{ state: unknown }>('SELECT state FROM switching_states WHERE supplier_id = :supplierId', { type: QueryTypes.SELECT, transaction, replacements: { supplierId } }))[0].state;
+  (
+    await db.query<{ state: unknown }>('SELECT state FROM switching_states WHERE supplier_id = :supplierId', {
+      type: QueryTypes.SELECT,
+      transaction,
+      replacements: { supplierId },
+    })
+  )[0].state;
 
 describe('the switching sequence of existing history', () => {
   it('gives every earlier lot decision its place and result, as it was fed, and keeps the stored state', async () => {

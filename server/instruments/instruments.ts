@@ -10,7 +10,11 @@ export const listInstruments = () => Instrument.findAll({ order: [['code', 'ASC'
 export function registerInstrument(actor: AuditActor, input: InstrumentInput) {
   return inTransaction(async (transaction) => {
     const instrument = await Instrument.create(instrumentInputSchema.parse(input), { transaction });
-    await recordAudit(actor, { action: 'instrument.create', entityType: 'instrument', entityId: instrument.id, after: presentInstrument(instrument) }, transaction);
+    await recordAudit(
+      actor,
+      { action: 'instrument.create', entityType: 'instrument', entityId: instrument.id, after: presentInstrument(instrument) },
+      transaction,
+    );
     return instrument;
   });
 }
@@ -22,7 +26,11 @@ export function updateInstrument(actor: AuditActor, id: number, input: Instrumen
     const before = presentInstrument(instrument);
     instrument.set(instrumentInputSchema.parse(input));
     await instrument.save({ transaction });
-    await recordAudit(actor, { action: 'instrument.update', entityType: 'instrument', entityId: id, before, after: presentInstrument(instrument) }, transaction);
+    await recordAudit(
+      actor,
+      { action: 'instrument.update', entityType: 'instrument', entityId: id, before, after: presentInstrument(instrument) },
+      transaction,
+    );
     return instrument;
   });
 }

@@ -7,7 +7,12 @@ import { readBlob, sha256 } from '../storage/blobs';
 
 const context = { sequelize, queryInterface: sequelize.getQueryInterface() };
 const attachmentsOf = async (id: number) =>
-  (await sequelize.query<{ attachments: Record<string, string>[] }>('SELECT attachments FROM mail_outbox WHERE id = :id', { type: QueryTypes.SELECT, replacements: { id } }))[0].attachments;
+  (
+    await sequelize.query<{ attachments: Record<string, string>[] }>('SELECT attachments FROM mail_outbox WHERE id = :id', {
+      type: QueryTypes.SELECT,
+      replacements: { id },
+    })
+  )[0].attachments;
 
 describe('mail attachments in the file store (migration 0802)', () => {
   it('moves inline attachments of queued and sent mail into the store, and back on the way down', async () => {

@@ -4,9 +4,7 @@ import { join } from 'node:path';
 import { simpleParser, type AddressObject } from 'mailparser';
 import type { CaughtMessage } from '../../shared/schemas/mail';
 
-
-const addressText = (a: AddressObject | AddressObject[] | undefined) =>
-  (Array.isArray(a) ? a : a ? [a] : []).map((x) => x.text).join(', ');
+const addressText = (a: AddressObject | AddressObject[] | undefined) => (Array.isArray(a) ? a : a ? [a] : []).map((x) => x.text).join(', ');
 
 export async function readCaughtMail(dir: string): Promise<CaughtMessage[]> {
   let names: string[];

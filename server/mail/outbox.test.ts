@@ -12,7 +12,6 @@ import { deliverDueMail, deliverOutboxMail, queueMail, retryDelayMs } from './ou
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../db';
 
-
 describe('mail outbox', () => {
   it('keeps a message while the relay is down and delivers it exactly once when it is back', async () => {
     // A port that was free a moment ago stands for the relay that is down.
@@ -71,7 +70,8 @@ describe('mail outbox', () => {
       const mail = await inTransaction((t) => queueMail({ to: ['buyer@phaselot.test'], subject: 'Raced for', text: 'Once only.' }, t));
       // The delivery job was queued in the same transaction, for the queue's workers.
       const jobs = await sequelize.query<{ state: string }>("SELECT state FROM pgboss.job WHERE name = 'mail-deliver' AND data->>'outboxId' = :id", {
-        type: QueryTypes.SELECT, replacements: { id: String(mail.id) },
+        type: QueryTypes.SELECT,
+        replacements: { id: String(mail.id) },
       });
       expect(jobs).toHaveLength(1);
 
@@ -89,10 +89,12 @@ describe('mail outbox', () => {
 
   it('queues no delivery job for a message whose transaction rolls back', async () => {
     const subject = `Never sent ${Math.random()}`;
-    await expect(inTransaction(async (t) => {
-      await queueMail({ to: ['buyer@phaselot.test'], subject, text: 'Rolled back.' }, t);
-      throw new Error('the event failed');
-    })).rejects.toThrow('the event failed');
+    await expect(
+      inTransaction(async (t) => {
+        await queueMail({ to: ['buyer@phaselot.test'], subject, text: 'Rolled back.' }, t);
+        throw new Error('the event failed');
+      }),
+    ).rejects.toThrow('the event failed');
     expect(await OutboxMail.count({ where: { subject } })).toBe(0);
     const [{ orphans }] = await sequelize.query<{ orphans: string }>(
       "SELECT count(*) AS orphans FROM pgboss.job j WHERE j.name = 'mail-deliver' AND NOT EXISTS (SELECT 1 FROM mail_outbox m WHERE m.id = (j.data->>'outboxId')::int)",

@@ -57,7 +57,10 @@ async function deliverOne(transport: Transporter, where: WhereOptions<OutboxMail
   return sequelize.transaction(async (transaction) => {
     const mail = await OutboxMail.findOne({
       where: { ...where, status: 'queued' },
-      order: [['nextAttemptAt', 'ASC'], ['id', 'ASC']],
+      order: [
+        ['nextAttemptAt', 'ASC'],
+        ['id', 'ASC'],
+      ],
       lock: transaction.LOCK.UPDATE,
       skipLocked: true,
       transaction,
@@ -72,7 +75,9 @@ async function deliverOne(transport: Transporter, where: WhereOptions<OutboxMail
         // A stable Message-ID lets a receiving server drop a duplicate should a crash land between
         // the relay's acceptance and our commit.
         messageId: `<outbox-${mail.id}@phaselot.local>`,
-        attachments: await Promise.all(mail.attachments.map(async (a) => ({ filename: a.filename, contentType: a.contentType, content: await readBlob(a.storageKey) }))),
+        attachments: await Promise.all(
+          mail.attachments.map(async (a) => ({ filename: a.filename, contentType: a.contentType, content: await readBlob(a.storageKey) })),
+        ),
       });
       mail.status = 'sent';
       mail.sentAt = new Date();

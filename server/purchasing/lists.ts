@@ -1,6 +1,14 @@
 // The purchasing lists (suppliers, parts, purchase orders): their SQL, the row each shows and their CSV.
 import type { z } from 'zod';
-import type { PartView, PoStatus, PurchaseOrderRow, SupplierView, partListQuerySchema, poListQuerySchema, supplierListQuerySchema } from '../../shared/schemas/purchasing';
+import type {
+  PartView,
+  PoStatus,
+  PurchaseOrderRow,
+  SupplierView,
+  partListQuerySchema,
+  poListQuerySchema,
+  supplierListQuerySchema,
+} from '../../shared/schemas/purchasing';
 import { retardanceName, type PartSpec } from '../../shared/schemas/spec';
 import { filterWhen, type ListDefinition } from '../http/list';
 import { onHandSql } from '../stock/onHand';
@@ -92,8 +100,16 @@ export const purchaseOrderList: ListDefinition<PurchaseOrderRow, z.infer<typeof 
     t.lines AS "lineCount", t.ordered, t.received, t.value, q.accepted, q.nonconforming, q.returned`,
   from: `purchase_orders po JOIN suppliers s ON s.id = po.supplier_id CROSS JOIN LATERAL ${lineTotals} AS t CROSS JOIN LATERAL ${outcomes} AS q`,
   sortable: {
-    number: 'po.number', supplierName: 's.name', orderedOn: 'po.ordered_on', status: 'po.status', ordered: 't.ordered', received: 't.received', value: 't.value',
-    accepted: 'q.accepted', nonconforming: 'q.nonconforming', returned: 'q.returned',
+    number: 'po.number',
+    supplierName: 's.name',
+    orderedOn: 'po.ordered_on',
+    status: 'po.status',
+    ordered: 't.ordered',
+    received: 't.received',
+    value: 't.value',
+    accepted: 'q.accepted',
+    nonconforming: 'q.nonconforming',
+    returned: 'q.returned',
   },
   defaultSort: '-orderedOn',
   tieBreaker: 'po.id',

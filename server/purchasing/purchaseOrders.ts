@@ -72,7 +72,15 @@ export function createPurchaseOrder(actor: AuditActor, rawInput: PurchaseOrderIn
     if (input.lines.some((l) => l.id !== undefined)) throw badRequest('A new PO cannot name existing lines');
     const parts = await partsOf(input, transaction, new Map());
     const order = await PurchaseOrder.create(
-      { number: input.number, supplierId: supplier.id, buyerId: actor.id, orderedOn: input.orderedOn, currency: input.currency, status: input.status, notes: input.notes },
+      {
+        number: input.number,
+        supplierId: supplier.id,
+        buyerId: actor.id,
+        orderedOn: input.orderedOn,
+        currency: input.currency,
+        status: input.status,
+        notes: input.notes,
+      },
       { transaction },
     );
     await PurchaseOrderLine.bulkCreate(
@@ -106,12 +114,14 @@ export function updatePurchaseOrder(actor: AuditActor, id: number, rawInput: Pur
       const current = existing.get(line.id);
       const got = received.get(line.id) ?? 0;
       if (!current) problems.push({ path: `lines.${index}.id`, message: 'This line is not on the PO' });
-      else if (got > 0 && current.partId !== line.partId) problems.push({ path: `lines.${index}.partId`, message: `Line ${current.lineNumber} has received pieces; its part cannot change` });
+      else if (got > 0 && current.partId !== line.partId)
+        problems.push({ path: `lines.${index}.partId`, message: `Line ${current.lineNumber} has received pieces; its part cannot change` });
       else if (line.quantity < got) problems.push({ path: `lines.${index}.quantity`, message: `Line ${current.lineNumber} has already received ${got}` });
     });
     const kept = new Set(input.lines.map((l) => l.id).filter((lineId) => lineId !== undefined));
     for (const line of lines) {
-      if (!kept.has(line.id) && (received.get(line.id) ?? 0) > 0) problems.push({ path: 'lines', message: `Line ${line.lineNumber} has received pieces and cannot be removed` });
+      if (!kept.has(line.id) && (received.get(line.id) ?? 0) > 0)
+        problems.push({ path: 'lines', message: `Line ${line.lineNumber} has received pieces and cannot be removed` });
     }
     if (problems.length) throw conflict('The PO cannot be changed that way', problems);
 
@@ -124,10 +134,20 @@ export function updatePurchaseOrder(actor: AuditActor, id: number, rawInput: Pur
         current.set({ ...lineFields(line), ...(partChanged ? { spec: parts.get(line.partId)!.spec } : {}) });
         await current.save({ transaction });
       } else {
-        await PurchaseOrderLine.create({ ...lineFields(line), purchaseOrderId: id, lineNumber: nextNumber++, spec: parts.get(line.partId)!.spec }, { transaction });
+        await PurchaseOrderLine.create(
+          { ...lineFields(line), purchaseOrderId: id, lineNumber: nextNumber++, spec: parts.get(line.partId)!.spec },
+          { transaction },
+        );
       }
     }
-    order.set({ number: input.number, supplierId: input.supplierId, orderedOn: input.orderedOn, currency: input.currency, status: input.status, notes: input.notes });
+    order.set({
+      number: input.number,
+      supplierId: input.supplierId,
+      orderedOn: input.orderedOn,
+      currency: input.currency,
+      status: input.status,
+      notes: input.notes,
+    });
     await order.save({ transaction });
     await recordAudit(actor, { action: 'purchase-order.update', entityType: 'purchase-order', entityId: id, before, after: input }, transaction);
     return order;

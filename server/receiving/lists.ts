@@ -85,7 +85,15 @@ export const lotList: ListDefinition<LotRow, LotListQuery> = {
   defaultSort: '-receivedAt',
   tieBreaker: 'l.id',
   // A lot is also found by any of its serials, or by its number as shown (L-12).
-  search: ['l.supplier_lot', 'p.number', 's.name', 'po.number', "'L-' || l.id", 'sh.packing_slip', 'EXISTS (SELECT 1 FROM pieces pc WHERE pc.lot_id = l.id AND pc.serial ILIKE :q)'],
+  search: [
+    'l.supplier_lot',
+    'p.number',
+    's.name',
+    'po.number',
+    "'L-' || l.id",
+    'sh.packing_slip',
+    'EXISTS (SELECT 1 FROM pieces pc WHERE pc.lot_id = l.id AND pc.serial ILIKE :q)',
+  ],
   totals: { quantity: 'sum(quantity)', accepted: 'sum(accepted)', nonconforming: 'sum(nonconforming)', returned: 'sum(returned)' },
   filters: (query) => {
     const filters = filterWhen({ clauses: [], replacements: {} }, query.state, 'l.state = :state', 'state');

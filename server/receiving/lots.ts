@@ -22,7 +22,15 @@ export function lotAuditEvents(lotIds: number[]) {
   );
 }
 
-export type LotMoveBatch = { moved_at: Date; reason: MoveReason; from_code: string | null; to_code: string | null; work_order: string | null; who: string | null; pieces: string };
+export type LotMoveBatch = {
+  moved_at: Date;
+  reason: MoveReason;
+  from_code: string | null;
+  to_code: string | null;
+  work_order: string | null;
+  who: string | null;
+  pieces: string;
+};
 
 /** The lot's moves, one row per batch of pieces moved together. */
 function lotMoveBatches(lotId: number) {
@@ -57,8 +65,23 @@ export async function findLot(id: number) {
   );
   const attachments = await Attachment.findAll({ where: { lotId: id }, order: [['id', 'ASC']] });
   const plan = await inspectionPlanOf(id);
-  const [quantities] = await sequelize.query<Record<string, unknown>>(`SELECT * FROM ${pieceQuantitiesSql('pc.lot_id = :id')} AS q`, { type: QueryTypes.SELECT, replacements: { id } });
-  const [{ waiting }] = await sequelize.query<{ waiting: boolean }>(`SELECT ${AWAITING_RESUMPTION} AS waiting FROM lots l WHERE l.id = :id`, { type: QueryTypes.SELECT, replacements: { id } });
-  return { lot, pieces, attachments, plan, quantities, acceptanceDiscontinued: waiting, auditEvents: await lotAuditEvents([id]), moves: await lotMoveBatches(id) };
+  const [quantities] = await sequelize.query<Record<string, unknown>>(`SELECT * FROM ${pieceQuantitiesSql('pc.lot_id = :id')} AS q`, {
+    type: QueryTypes.SELECT,
+    replacements: { id },
+  });
+  const [{ waiting }] = await sequelize.query<{ waiting: boolean }>(`SELECT ${AWAITING_RESUMPTION} AS waiting FROM lots l WHERE l.id = :id`, {
+    type: QueryTypes.SELECT,
+    replacements: { id },
+  });
+  return {
+    lot,
+    pieces,
+    attachments,
+    plan,
+    quantities,
+    acceptanceDiscontinued: waiting,
+    auditEvents: await lotAuditEvents([id]),
+    moves: await lotMoveBatches(id),
+  };
 }
 export type LotRecord = Awaited<ReturnType<typeof findLot>>;

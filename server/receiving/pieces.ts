@@ -9,11 +9,32 @@ import { failingNowSql } from '../stock/standing';
 import { lotAuditEvents } from './lots';
 
 type PieceRow = {
-  id: number; serial: string; state: PieceState; locationCode: string | null; locationKind: LocationKind | null;
-  partId: number; partNumber: string; partDescription: string; supplierId: number; supplierName: string;
-  purchaseOrderId: number; poNumber: string; lineNumber: number; lotId: number; supplierLot: string; lotState: LotState;
+  id: number;
+  serial: string;
+  state: PieceState;
+  locationCode: string | null;
+  locationKind: LocationKind | null;
+  partId: number;
+  partNumber: string;
+  partDescription: string;
+  supplierId: number;
+  supplierName: string;
+  purchaseOrderId: number;
+  poNumber: string;
+  lineNumber: number;
+  lotId: number;
+  supplierLot: string;
+  lotState: LotState;
 };
-type ReadingRow = { wavelength_nm: string; verdict: 'pass' | 'fail' | 'incomplete'; result: { retardanceWaves: number | null; retardanceErrorWaves: number | null; axisErrorDeg: number | null; reasons: string[] }; file: string; instrument: string; measured_at: Date; superseded: boolean };
+type ReadingRow = {
+  wavelength_nm: string;
+  verdict: 'pass' | 'fail' | 'incomplete';
+  result: { retardanceWaves: number | null; retardanceErrorWaves: number | null; axisErrorDeg: number | null; reasons: string[] };
+  file: string;
+  instrument: string;
+  measured_at: Date;
+  superseded: boolean;
+};
 type DocumentRow = { number: string; kind: 'certificate' | 'inspection-report'; issued_at: Date; revoked_at: Date | null };
 type AsIsRow = { deviation_number: string; justification: string | null; signed_at: Date; signer: string | null };
 
@@ -39,7 +60,16 @@ async function inspectionOf(pieceId: number, lotId: number) {
   return { asIs, readings, documents };
 }
 
-type MoveRow = { id: string; at: Date; reason: MoveReason; from: string | null; to: string | null; workOrder: string | null; note: string | null; who: string | null };
+type MoveRow = {
+  id: string;
+  at: Date;
+  reason: MoveReason;
+  from: string | null;
+  to: string | null;
+  workOrder: string | null;
+  note: string | null;
+  who: string | null;
+};
 
 /** Every piece with this serial (a serial is unique per part, so usually one) and its whole story. */
 export async function findPieceHistories(serial: string) {

@@ -8,10 +8,13 @@ import { receiveThroughApi } from '../../tests/helpers/purchasing';
 
 const times = async (lotId: number) =>
   (
-    await sequelize.query<{ lot: Date; shipment: Date }>('SELECT l.received_at AS lot, s.received_at AS shipment FROM lots l JOIN shipments s ON s.id = l.shipment_id WHERE l.id = :lotId', {
-      type: QueryTypes.SELECT,
-      replacements: { lotId },
-    })
+    await sequelize.query<{ lot: Date; shipment: Date }>(
+      'SELECT l.received_at AS lot, s.received_at AS shipment FROM lots l JOIN shipments s ON s.id = l.shipment_id WHERE l.id = :lotId',
+      {
+        type: QueryTypes.SELECT,
+        replacements: { lotId },
+      },
+    )
   )[0];
 
 describe("a lot's receipt time", () => {
@@ -20,7 +23,9 @@ describe("a lot's receipt time", () => {
     const received = await times(lot.lotId);
     expect(received.lot).toEqual(received.shipment);
 
-    await sequelize.query(`UPDATE shipments SET received_at = received_at - interval '2 days' WHERE id = (SELECT shipment_id FROM lots WHERE id = :lotId)`, { replacements: { lotId: lot.lotId } });
+    await sequelize.query(`UPDATE shipments SET received_at = received_at - interval '2 days' WHERE id = (SELECT shipment_id FROM lots WHERE id = :lotId)`, {
+      replacements: { lotId: lot.lotId },
+    });
     const corrected = await times(lot.lotId);
     expect(corrected.shipment.getTime()).toBe(received.shipment.getTime() - 2 * 86_400_000);
     expect(corrected.lot).toEqual(corrected.shipment);

@@ -40,7 +40,8 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
   const documents = await checkDocuments({ 'packing-slip': files.packingSlip, certificate: files.certificate });
   const receivedAt = input.receivedAt ? new Date(input.receivedAt) : new Date();
   // A few minutes of grace for a clock that runs ahead of the server's.
-  if (receivedAt.getTime() > Date.now() + 5 * 60_000) throw badRequest('The receipt time lies in the future', [{ path: 'receivedAt', message: 'Not after now' }]);
+  if (receivedAt.getTime() > Date.now() + 5 * 60_000)
+    throw badRequest('The receipt time lies in the future', [{ path: 'receivedAt', message: 'Not after now' }]);
 
   return inTransaction(async (transaction) => {
     // The line is locked so two clerks receiving against it at once count each other's receipts.
@@ -51,7 +52,9 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
     if (order.status !== 'open') throw conflict(`PO ${order.number} is closed; nothing more can be received against it`);
 
     // A replacement may bring, beyond what the line still expects, the pieces its NCR shipped back.
-    const replacement = input.replacementForNcrId ? await replacementOwed(input.replacementForNcrId, { supplierId: order.supplierId, partId: line.partId }, transaction) : null;
+    const replacement = input.replacementForNcrId
+      ? await replacementOwed(input.replacementForNcrId, { supplierId: order.supplierId, partId: line.partId }, transaction)
+      : null;
     const outstanding = line.quantity - (await receivedOnLine(line.id, transaction)) + (replacement?.owed ?? 0);
     if (input.quantity > outstanding && !input.overReceiptReason) {
       throw badRequest(
@@ -65,21 +68,49 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
       { type: QueryTypes.SELECT, replacements: { partId: line.partId, serials: list.serials }, transaction },
     );
     if (known.length) {
-      const shown = known.slice(0, 12).map((k) => `${k.serial} (lot ${lotName(k.lotId)})`).join(', ');
-      throw conflict(`Already received for this part: ${shown}${known.length > 12 ? ` and ${known.length - 12} more` : ''}`, { serials: known.map((k) => k.serial) });
+      const shown = known
+        .slice(0, 12)
+        .map((k) => `${k.serial} (lot ${lotName(k.lotId)})`)
+        .join(', ');
+      throw conflict(`Already received for this part: ${shown}${known.length > 12 ? ` and ${known.length - 12} more` : ''}`, {
+        serials: known.map((k) => k.serial),
+      });
     }
 
     const quarantine = await defaultLocation('quarantine', transaction);
     const shipment = await Shipment.create(
-      { purchaseOrderId: order.id, packingSlip: input.packingSlipNumber, carrier: input.carrier, receivedAt, receivedBy: actor.id, replacementForNcrId: replacement?.ncr.id ?? null },
+      {
+        purchaseOrderId: order.id,
+        packingSlip: input.packingSlipNumber,
+        carrier: input.carrier,
+        receivedAt,
+        receivedBy: actor.id,
+        replacementForNcrId: replacement?.ncr.id ?? null,
+      },
       { transaction },
     );
     const lot = await Lot.create(
-      { shipmentId: shipment.id, poLineId: line.id, partId: line.partId, supplierLot: input.supplierLot, quantity: input.quantity, overReceiptReason: input.quantity > outstanding ? input.overReceiptReason : null },
+      {
+        shipmentId: shipment.id,
+        poLineId: line.id,
+        partId: line.partId,
+        supplierLot: input.supplierLot,
+        quantity: input.quantity,
+        overReceiptReason: input.quantity > outstanding ? input.overReceiptReason : null,
+      },
       { transaction },
     );
-    const pieces = await Piece.bulkCreate(list.serials.map((serial) => ({ lotId: lot.id, partId: line.partId, serial })), { transaction });
-    await recordReceipt(pieces.map((p) => p.id), quarantine.id, shipment.receivedAt, actor, transaction);
+    const pieces = await Piece.bulkCreate(
+      list.serials.map((serial) => ({ lotId: lot.id, partId: line.partId, serial })),
+      { transaction },
+    );
+    await recordReceipt(
+      pieces.map((p) => p.id),
+      quarantine.id,
+      shipment.receivedAt,
+      actor,
+      transaction,
+    );
     const plan = await drawPlanAtReceipt(lot.id, transaction);
     const keys: string[] = [];
     for (const d of documents) keys.push(await storeBlob(d.data, transaction));
@@ -113,7 +144,15 @@ export async function receiveShipment(actor: AuditActor, rawInput: ShipmentRecei
           serials: list.serials,
           attachments: attachments.map((a) => ({ kind: a.kind, name: a.originalName, sha256: a.sha256 })),
           sampling: plan
-            ? { severity: plan.severity, codeLetter: plan.codeLetter, planLetter: plan.planLetter, sampleSize: plan.sampleSize, accept: plan.acceptNumber, reject: plan.rejectNumber, seed: plan.sampleSeed }
+            ? {
+                severity: plan.severity,
+                codeLetter: plan.codeLetter,
+                planLetter: plan.planLetter,
+                sampleSize: plan.sampleSize,
+                accept: plan.acceptNumber,
+                reject: plan.rejectNumber,
+                seed: plan.sampleSeed,
+              }
             : 'acceptance discontinued: the lot waits without a plan',
         },
       },

@@ -78,7 +78,10 @@ describe.each(withParams.map((route) => [routeName(route), route] as const))('%s
 describe('odd bodies', () => {
   it('refuses a JSON body over 2 MB with 413', async () => {
     const buyer = await as('buyer');
-    const response = await buyer.post('/api/suppliers').send({ name: 'Big', notes: 'x'.repeat(2.5 * 1024 * 1024) }).expect(413);
+    const response = await buyer
+      .post('/api/suppliers')
+      .send({ name: 'Big', notes: 'x'.repeat(2.5 * 1024 * 1024) })
+      .expect(413);
     expect(response.body.error).toMatchObject({ code: 'too_large', message: expect.stringMatching(/larger than the 2mb allowed/) });
   });
 
@@ -86,7 +89,13 @@ describe('odd bodies', () => {
     const buyer = await as('buyer');
     const order = (fields: Record<string, unknown>) =>
       buyer.post('/api/purchase-orders').send({ number: `PO-${uniqueTag()}`, supplierId: 1, orderedOn: '2026-11-02', currency: 'EUR', lines: [], ...fields });
-    for (const fields of [{ supplierId: 99999999999 }, { supplierId: 1e300 }, { orderedOn: '2026-02-30' }, { orderedOn: '99999-01-01' }, { lines: [{ partId: 99999999999, quantity: 1, unitPrice: 1 }] }]) {
+    for (const fields of [
+      { supplierId: 99999999999 },
+      { supplierId: 1e300 },
+      { orderedOn: '2026-02-30' },
+      { orderedOn: '99999-01-01' },
+      { lines: [{ partId: 99999999999, quantity: 1, unitPrice: 1 }] },
+    ]) {
       const response = await order(fields);
       expect(response.status, `${JSON.stringify(fields)}: ${response.text.slice(0, 200)}`).toBeGreaterThanOrEqual(400);
       await expectClientError(response, JSON.stringify(fields));
@@ -96,7 +105,10 @@ describe('odd bodies', () => {
   it('refuses a NUL character in the site name with 400 naming the field, and keeps the old name', async () => {
     const admin = await as('admin');
     const before = (await admin.get('/api/settings').expect(200)).body;
-    const response = await admin.put('/api/settings').send({ ...before, siteName: 'Bench\u0000hall' }).expect(400);
+    const response = await admin
+      .put('/api/settings')
+      .send({ ...before, siteName: 'Bench\u0000hall' })
+      .expect(400);
     expect(response.body.error.details).toEqual([{ path: 'siteName', message: expect.stringMatching(/NUL character/) }]);
     expect((await admin.get('/api/settings').expect(200)).body.siteName).toBe(before.siteName);
   });

@@ -7,7 +7,19 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
 import { Location, Piece, StockMove } from '../../db/models';
-import { LOCATION_KIND_LABELS, LOT_STATE_LABELS, OUT_OF_STORES_REASONS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, lotName, pieceStateAt, type LocationKind, type LotState, type MoveReason, type PieceState } from '../../shared/schemas/stock';
+import {
+  LOCATION_KIND_LABELS,
+  LOT_STATE_LABELS,
+  OUT_OF_STORES_REASONS,
+  PIECE_STATE_LABELS,
+  RELEASABLE_LOT_STATES,
+  lotName,
+  pieceStateAt,
+  type LocationKind,
+  type LotState,
+  type MoveReason,
+  type PieceState,
+} from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { badRequest, conflict, notFound } from '../http/errors';
 import { failingNowSql, releasedByNcrSql, usedAsIsSql } from './standing';
@@ -28,12 +40,25 @@ export type MoveRequest = {
 };
 
 type LockedPiece = {
-  id: number; serial: string; state: PieceState; lotId: number; lotState: LotState; locationId: number | null; locationCode: string | null;
-  locationKind: LocationKind | null; failing: boolean; usedAsIs: boolean;
+  id: number;
+  serial: string;
+  state: PieceState;
+  lotId: number;
+  lotState: LotState;
+  locationId: number | null;
+  locationCode: string | null;
+  locationKind: LocationKind | null;
+  failing: boolean;
+  usedAsIs: boolean;
 };
 
 const listSerials = (pieces: { serial: string }[], most = 12) =>
-  pieces.length <= most ? pieces.map((p) => p.serial).join(', ') : `${pieces.slice(0, most).map((p) => p.serial).join(', ')} and ${pieces.length - most} more`;
+  pieces.length <= most
+    ? pieces.map((p) => p.serial).join(', ')
+    : `${pieces
+        .slice(0, most)
+        .map((p) => p.serial)
+        .join(', ')} and ${pieces.length - most} more`;
 
 /** Locks the pieces (in id order, so concurrent movers cannot deadlock) and reads where each is. */
 async function lockPieces(pieceIds: number[], transaction: Transaction): Promise<LockedPiece[]> {
@@ -94,7 +119,8 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
     refuseUnless(
       pieces,
       (p) => !RELEASABLE_LOT_STATES.includes(p.lotState) && !p.usedAsIs,
-      (bad) => `Only pieces of accepted lots go to stock; lot ${lotName(bad[0].lotId)} is ${LOT_STATE_LABELS[bad[0].lotState].toLowerCase()}: ${listSerials(bad)}`,
+      (bad) =>
+        `Only pieces of accepted lots go to stock; lot ${lotName(bad[0].lotId)} is ${LOT_STATE_LABELS[bad[0].lotState].toLowerCase()}: ${listSerials(bad)}`,
     );
   }
   // Nonconforming material never reaches a stock bin or a work order.
@@ -102,7 +128,8 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
     refuseUnless(
       pieces,
       (p) => unfitForUse(p, request) !== null,
-      (bad) => `Nonconforming pieces cannot ${request.reason === 'issue' ? 'be issued' : 'go to stock'}: ${listSerials(bad.map((p) => ({ serial: `${p.serial} (${unfitForUse(p, request)})` })))}`,
+      (bad) =>
+        `Nonconforming pieces cannot ${request.reason === 'issue' ? 'be issued' : 'go to stock'}: ${listSerials(bad.map((p) => ({ serial: `${p.serial} (${unfitForUse(p, request)})` })))}`,
     );
   }
 
@@ -111,12 +138,31 @@ export async function movePieces(request: MoveRequest, actor: AuditActor, transa
     refuseUnless(
       pieces,
       (p) => !allowed.includes(p.state),
-      (bad) => `Not available: ${bad.map((p) => `${p.serial} (${PIECE_STATE_LABELS[p.state].toLowerCase()})`).slice(0, 12).join(', ')}${bad.length > 12 ? ` and ${bad.length - 12} more` : ''}`,
+      (bad) =>
+        `Not available: ${bad
+          .map((p) => `${p.serial} (${PIECE_STATE_LABELS[p.state].toLowerCase()})`)
+          .slice(0, 12)
+          .join(', ')}${bad.length > 12 ? ` and ${bad.length - 12} more` : ''}`,
     );
   }
-  if (request.reason === 'return') refuseUnless(pieces, (p) => p.state !== 'issued', (bad) => `Not issued, so nothing to return: ${listSerials(bad)}`);
-  else refuseUnless(pieces, (p) => p.locationId === null, (bad) => `Already out of stores: ${listSerials(bad.map((p) => ({ serial: `${p.serial} (${PIECE_STATE_LABELS[p.state].toLowerCase()})` })))}`);
-  if (destination) refuseUnless(pieces, (p) => p.locationId === destination.id, (bad) => `Already in ${destination.code}: ${listSerials(bad)}`);
+  if (request.reason === 'return')
+    refuseUnless(
+      pieces,
+      (p) => p.state !== 'issued',
+      (bad) => `Not issued, so nothing to return: ${listSerials(bad)}`,
+    );
+  else
+    refuseUnless(
+      pieces,
+      (p) => p.locationId === null,
+      (bad) => `Already out of stores: ${listSerials(bad.map((p) => ({ serial: `${p.serial} (${PIECE_STATE_LABELS[p.state].toLowerCase()})` })))}`,
+    );
+  if (destination)
+    refuseUnless(
+      pieces,
+      (p) => p.locationId === destination.id,
+      (bad) => `Already in ${destination.code}: ${listSerials(bad)}`,
+    );
 
   // One time for the whole move, so the pieces moved together read as one event.
   const movedAt = new Date();
@@ -163,7 +209,16 @@ export async function releasePiecesToLocation(pieceIds: number[], locationId: nu
 /** First ledger rows of newly received pieces: they arrive in `locationId` (normally quarantine) at `movedAt`. */
 export async function recordReceipt(pieceIds: number[], locationId: number, movedAt: Date, actor: AuditActor, transaction: Transaction) {
   return StockMove.bulkCreate(
-    pieceIds.map((pieceId) => ({ pieceId, fromLocationId: null, toLocationId: locationId, reason: 'receipt' as const, workOrder: null, note: null, actorId: actor.id, movedAt })),
+    pieceIds.map((pieceId) => ({
+      pieceId,
+      fromLocationId: null,
+      toLocationId: locationId,
+      reason: 'receipt' as const,
+      workOrder: null,
+      note: null,
+      actorId: actor.id,
+      movedAt,
+    })),
     { transaction },
   );
 }

@@ -26,7 +26,9 @@ async function ledgerAndStored(db: Sequelize, openTransaction = false) {
     const moves = await select<{ id: string; piece_id: number; part_id: number; to_location_id: number | null; moved_at: Date }>(
       'SELECT m.id, m.piece_id, p.part_id, m.to_location_id, m.moved_at FROM stock_moves m JOIN pieces p ON p.id = m.piece_id ORDER BY m.id',
     );
-    const stored = await select<{ piece_id: number; location_id: number | null; moved_at: Date; move_id: string }>('SELECT piece_id, location_id, moved_at, move_id FROM piece_locations');
+    const stored = await select<{ piece_id: number; location_id: number | null; moved_at: Date; move_id: string }>(
+      'SELECT piece_id, location_id, moved_at, move_id FROM piece_locations',
+    );
     const onHand = await select<{ part_id: number; location_id: number; pieces: number }>('SELECT part_id, location_id, pieces FROM on_hand');
     return { moves, stored, onHand };
   };
@@ -35,7 +37,14 @@ async function ledgerAndStored(db: Sequelize, openTransaction = false) {
 
 function replay(moves: Awaited<ReturnType<typeof ledgerAndStored>>['moves']): Replayed {
   const locations = new Map<number, Stored & { partId: number }>();
-  for (const m of moves) locations.set(m.piece_id, { pieceId: m.piece_id, partId: m.part_id, locationId: m.to_location_id, movedAt: m.moved_at.toISOString(), moveId: String(m.id) });
+  for (const m of moves)
+    locations.set(m.piece_id, {
+      pieceId: m.piece_id,
+      partId: m.part_id,
+      locationId: m.to_location_id,
+      movedAt: m.moved_at.toISOString(),
+      moveId: String(m.id),
+    });
   const onHand = new Map<string, number>();
   for (const piece of locations.values()) {
     if (piece.locationId === null) continue;
@@ -51,20 +60,29 @@ async function compared(db: Sequelize, openTransaction = false) {
   const expected = replay(moves);
   return {
     expected,
-    storedLocations: new Map(stored.map((s) => [s.piece_id, { pieceId: s.piece_id, locationId: s.location_id, movedAt: s.moved_at.toISOString(), moveId: String(s.move_id) }])),
+    storedLocations: new Map(
+      stored.map((s) => [s.piece_id, { pieceId: s.piece_id, locationId: s.location_id, movedAt: s.moved_at.toISOString(), moveId: String(s.move_id) }]),
+    ),
     storedOnHand: new Map(onHand.map((o) => [pairKey(o.part_id, o.location_id), Number(o.pieces)])),
   };
 }
 
 const locationIds = async () =>
-  Object.fromEntries((await sequelize.query<{ id: number; code: string }>('SELECT id, code FROM locations', { type: QueryTypes.SELECT })).map((l) => [l.code, l.id]));
+  Object.fromEntries(
+    (await sequelize.query<{ id: number; code: string }>('SELECT id, code FROM locations', { type: QueryTypes.SELECT })).map((l) => [l.code, l.id]),
+  );
 
 describe('stored piece locations and on-hand counts', () => {
   it('equal the replay of the ledger for every piece after a random sequence of moves', async () => {
     faker.seed(20261202);
     const lots = [await receiveThroughApi(12), await receiveThroughApi(9)];
     await sequelize.query(`UPDATE lots SET state = 'accepted' WHERE id IN (:ids)`, { replacements: { ids: lots.map((l) => l.lotId) } });
-    const pieceIds = (await sequelize.query<{ id: number }>('SELECT id FROM pieces WHERE lot_id IN (:ids)', { type: QueryTypes.SELECT, replacements: { ids: lots.map((l) => l.lotId) } })).map((p) => p.id);
+    const pieceIds = (
+      await sequelize.query<{ id: number }>('SELECT id FROM pieces WHERE lot_id IN (:ids)', {
+        type: QueryTypes.SELECT,
+        replacements: { ids: lots.map((l) => l.lotId) },
+      })
+    ).map((p) => p.id);
     const at = await locationIds();
     const kinds: Omit<MoveRequest, 'pieceIds'>[] = [
       { toLocationId: at['BIN-A1'], reason: 'release' },
@@ -108,13 +126,21 @@ describe('stored piece locations and on-hand counts', () => {
   it('refuse a move that does not start where the stored location says the piece is', async () => {
     const lot = await receiveThroughApi(1);
     const at = await locationIds();
-    const [piece] = await sequelize.query<{ id: number }>('SELECT id FROM pieces WHERE lot_id = :id', { type: QueryTypes.SELECT, replacements: { id: lot.lotId } });
+    const [piece] = await sequelize.query<{ id: number }>('SELECT id FROM pieces WHERE lot_id = :id', {
+      type: QueryTypes.SELECT,
+      replacements: { id: lot.lotId },
+    });
     const insert = (from: number | null, to: number, reason: string) =>
-      sequelize.query('INSERT INTO stock_moves (piece_id, from_location_id, to_location_id, reason) VALUES (:piece, :from, :to, :reason)', { replacements: { piece: piece.id, from, to, reason } });
+      sequelize.query('INSERT INTO stock_moves (piece_id, from_location_id, to_location_id, reason) VALUES (:piece, :from, :to, :reason)', {
+        replacements: { piece: piece.id, from, to, reason },
+      });
     await expect(insert(at['BIN-A1'], at['BIN-A2'], 'transfer')).rejects.toThrow(`piece ${piece.id} is not where the move starts from`);
     await expect(insert(null, at['BIN-A1'], 'receipt')).rejects.toThrow(`piece ${piece.id} was already received`);
     await insert(at.QUARANTINE, at.MRB, 'hold');
-    const [stored] = await sequelize.query<{ location_id: number }>('SELECT location_id FROM piece_locations WHERE piece_id = :id', { type: QueryTypes.SELECT, replacements: { id: piece.id } });
+    const [stored] = await sequelize.query<{ location_id: number }>('SELECT location_id FROM piece_locations WHERE piece_id = :id', {
+      type: QueryTypes.SELECT,
+      replacements: { id: piece.id },
+    });
     expect(stored.location_id).toBe(at.MRB);
   });
 });
@@ -122,7 +148,11 @@ describe('stored piece locations and on-hand counts', () => {
 describe('migration 0900 on existing rows', () => {
   // Migrations run as the database owner. Its one connection holds a transaction opened by hand
   // around the whole round trip, which is rolled back, so other tests never see it.
-  const owner = new Sequelize(process.env.MIGRATION_DATABASE_URL ?? config.DATABASE_URL, { dialect: 'postgres', logging: false, pool: { max: 1, min: 1, idle: 600_000 } });
+  const owner = new Sequelize(process.env.MIGRATION_DATABASE_URL ?? config.DATABASE_URL, {
+    dialect: 'postgres',
+    logging: false,
+    pool: { max: 1, min: 1, idle: 600_000 },
+  });
   afterAll(() => owner.close());
 
   it('fills the stored locations and counts from the ledger written under the view', async () => {
@@ -132,12 +162,17 @@ describe('migration 0900 on existing rows', () => {
     await owner.query('BEGIN');
     try {
       await migration.down(context);
-      const [{ kind }] = await owner.query<{ kind: string }>(`SELECT relkind AS kind FROM pg_class WHERE relname = 'piece_locations'`, { type: QueryTypes.SELECT });
+      const [{ kind }] = await owner.query<{ kind: string }>(`SELECT relkind AS kind FROM pg_class WHERE relname = 'piece_locations'`, {
+        type: QueryTypes.SELECT,
+      });
       expect(kind).toBe('v');
       // History written while the location was still a view over the ledger.
-      await owner.query(`INSERT INTO stock_moves (piece_id, from_location_id, to_location_id, reason) SELECT id, :from, :to, 'hold' FROM pieces WHERE lot_id = :lot ORDER BY id`, {
-        replacements: { from: at.QUARANTINE, to: at.MRB, lot: lot.lotId },
-      });
+      await owner.query(
+        `INSERT INTO stock_moves (piece_id, from_location_id, to_location_id, reason) SELECT id, :from, :to, 'hold' FROM pieces WHERE lot_id = :lot ORDER BY id`,
+        {
+          replacements: { from: at.QUARANTINE, to: at.MRB, lot: lot.lotId },
+        },
+      );
 
       await migration.up(context);
       const { expected, storedLocations, storedOnHand } = await compared(owner, true);

@@ -1,5 +1,11 @@
 import { Location } from '../../db/models';
 
 /** Every location, grouped by kind. */
-export const listLocations = () => Location.findAll({ order: [['kind', 'ASC'], ['code', 'ASC']] });
+export const listLocations = () =>
+  Location.findAll({
+    order: [
+      ['kind', 'ASC'],
+      ['code', 'ASC'],
+    ],
+  });
 export type LocationRecord = Awaited<ReturnType<typeof listLocations>>[number];

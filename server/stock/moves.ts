@@ -3,7 +3,15 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
 import { Location, Lot, Part, Piece } from '../../db/models';
-import { issueInputSchema, lotName, releaseInputSchema, transferInputSchema, type IssueInput, type ReleaseInput, type TransferInput } from '../../shared/schemas/stock';
+import {
+  issueInputSchema,
+  lotName,
+  releaseInputSchema,
+  transferInputSchema,
+  type IssueInput,
+  type ReleaseInput,
+  type TransferInput,
+} from '../../shared/schemas/stock';
 import { parseSerialText } from '../../shared/serials';
 import type { AuditActor } from '../audit/record';
 import { AppError, badRequest, notFound } from '../http/errors';
@@ -25,7 +33,11 @@ async function piecesOfPart(partId: number, serials: string[], transaction: Tran
   const pieces = await Piece.findAll({ where: { partId, serial: serials }, transaction });
   const found = new Set(pieces.map((p) => p.serial));
   const missing = serials.filter((s) => !found.has(s));
-  if (missing.length) throw badRequest(`Never received for part ${part.number}: ${missing.slice(0, 12).join(', ')}${missing.length > 12 ? ` and ${missing.length - 12} more` : ''}`, { serials: missing });
+  if (missing.length)
+    throw badRequest(
+      `Never received for part ${part.number}: ${missing.slice(0, 12).join(', ')}${missing.length > 12 ? ` and ${missing.length - 12} more` : ''}`,
+      { serials: missing },
+    );
   return pieces;
 }
 
@@ -34,7 +46,11 @@ export function issueToWorkOrder(actor: AuditActor, rawInput: IssueInput) {
   const serials = serialsFrom(input.serials);
   return inTransaction(async (transaction) => {
     const pieces = await piecesOfPart(input.partId, serials, transaction);
-    return movePieces({ pieceIds: pieces.map((p) => p.id), toLocationId: null, reason: 'issue', workOrder: input.workOrder, fromStates: ['in-stock'] }, actor, transaction);
+    return movePieces(
+      { pieceIds: pieces.map((p) => p.id), toLocationId: null, reason: 'issue', workOrder: input.workOrder, fromStates: ['in-stock'] },
+      actor,
+      transaction,
+    );
   });
 }
 
@@ -68,12 +84,15 @@ export function putAwayLot(actor: AuditActor, rawInput: ReleaseInput) {
   return inTransaction(async (transaction) => {
     const lot = await Lot.findByPk(input.lotId, { transaction });
     if (!lot) throw notFound('Lot');
-    const pieces = serials
-      ? await piecesOfPart(lot.partId, serials, transaction)
-      : await waitingPieces(lot.id, transaction);
+    const pieces = serials ? await piecesOfPart(lot.partId, serials, transaction) : await waitingPieces(lot.id, transaction);
     const strangers = pieces.filter((p) => p.lotId !== lot.id);
     if (strangers.length) throw badRequest(`Not pieces of lot ${lotName(lot.id)}: ${strangers.map((p) => p.serial).join(', ')}`);
     if (pieces.length === 0) throw badRequest(`Lot ${lotName(lot.id)} has no pieces waiting to be put away`);
-    return releasePiecesToLocation(pieces.map((p) => p.id), input.toLocationId, actor, transaction);
+    return releasePiecesToLocation(
+      pieces.map((p) => p.id),
+      input.toLocationId,
+      actor,
+      transaction,
+    );
   });
 }

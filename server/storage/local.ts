@@ -98,4 +98,3 @@ export class LocalBlobStore implements BlobStore {
     return removed;
   }
 }
-

@@ -1,7 +1,15 @@
 // The file store in any S3-compatible bucket through the AWS SDK v3. The bucket must exist; the
 // store never creates or configures it. A write interrupted half-way leaves an unfinished
 // multipart upload, which the bucket's lifecycle rule (README) aborts.
-import { DeleteObjectCommand, GetObjectCommand, HeadObjectCommand, ListObjectsV2Command, PutObjectCommand, S3Client, S3ServiceException } from '@aws-sdk/client-s3';
+import {
+  DeleteObjectCommand,
+  GetObjectCommand,
+  HeadObjectCommand,
+  ListObjectsV2Command,
+  PutObjectCommand,
+  S3Client,
+  S3ServiceException,
+} from '@aws-sdk/client-s3';
 import { Upload } from '@aws-sdk/lib-storage';
 import { createReadStream } from 'node:fs';
 import { Readable } from 'node:stream';

@@ -70,7 +70,15 @@ describe('orphan files', () => {
     const bytes = Buffer.from(`%PDF-1.4 attached ${Math.random()}`);
     const key = sha256(bytes);
     await inTransaction(async (transaction) => {
-      await queueMail({ to: ['buyer@phaselot.test'], subject: 'Sweep test', text: 'Attached.', attachments: [{ filename: 'a.pdf', contentType: 'application/pdf', content: bytes }] }, transaction);
+      await queueMail(
+        {
+          to: ['buyer@phaselot.test'],
+          subject: 'Sweep test',
+          text: 'Attached.',
+          attachments: [{ filename: 'a.pdf', contentType: 'application/pdf', content: bytes }],
+        },
+        transaction,
+      );
       // Not committed yet: no row names the file, but its key is locked by this transaction.
       expect((await sweepOrphanBlobs({ graceMs: 0 })).removed).not.toContain(key);
     });

@@ -41,7 +41,11 @@ export async function sweepOrphanBlobs({ graceMs = ORPHAN_GRACE_MS }: { graceMs?
       // Checked again under the key's lock: a transaction may have committed a reference since.
       const gone = await inTransaction(async (transaction) => {
         if (!(await tryHoldBlobKey(key, transaction))) return false;
-        const [{ referenced: stillNamed }] = await sequelize.query<{ referenced: boolean }>(IS_REFERENCED, { replacements: { key }, type: QueryTypes.SELECT, transaction });
+        const [{ referenced: stillNamed }] = await sequelize.query<{ referenced: boolean }>(IS_REFERENCED, {
+          replacements: { key },
+          type: QueryTypes.SELECT,
+          transaction,
+        });
         if (stillNamed) return false;
         await blobStore.remove(key);
         return true;

@@ -13,7 +13,16 @@ import { characteristicView, type MeasuredPiece } from './series';
 /** The pieces of the supplier's part measured in lots received in the period, and how many were
  * left out for a mark on the slow axis (a gross error of another kind than the spread). */
 export async function measuredPieces(supplierId: number, partId: number, period: Period, transaction?: Transaction) {
-  const rows = await sequelize.query<{ lot_id: number; supplier_lot: string; received_at: Date; spec: PartSpec; verdict: string; retardance: number; axis: number; slow_axis: boolean }>(
+  const rows = await sequelize.query<{
+    lot_id: number;
+    supplier_lot: string;
+    received_at: Date;
+    spec: PartSpec;
+    verdict: string;
+    retardance: number;
+    axis: number;
+    slow_axis: boolean;
+  }>(
     `SELECT l.id AS lot_id, l.supplier_lot, sh.received_at, pol.spec, r.verdict,
             (r.result->>'retardanceErrorWaves')::float8 AS retardance, (r.result->>'axisErrorDeg')::float8 AS axis,
             coalesce(r.result->'reasons' @> jsonb_build_array(CAST(:slowAxis AS text)), false) AS slow_axis

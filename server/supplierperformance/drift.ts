@@ -8,7 +8,13 @@
 // locked while it is checked).
 import { QueryTypes, type Transaction } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
-import { CHARACTERISTIC_LABELS, DRIFT_CHARACTERISTICS, resolvePeriod, type CharacteristicView, type DriftCharacteristic } from '../../shared/schemas/supplierPerformance';
+import {
+  CHARACTERISTIC_LABELS,
+  DRIFT_CHARACTERISTICS,
+  resolvePeriod,
+  type CharacteristicView,
+  type DriftCharacteristic,
+} from '../../shared/schemas/supplierPerformance';
 import { lotName } from '../../shared/schemas/stock';
 import { recordAudit, SYSTEM_ACTOR } from '../audit/record';
 import { config } from '../config';
@@ -34,7 +40,14 @@ async function recipients(supplierId: number, transaction: Transaction) {
 
 const DIGITS: Record<DriftCharacteristic, number> = { retardance: 4, axis: 3 };
 
-function alarmText(supplierId: number, partId: number, names: { supplier: string; part: string }, characteristic: DriftCharacteristic, view: CharacteristicView, drift: NonNullable<ReturnType<typeof currentDrift>>) {
+function alarmText(
+  supplierId: number,
+  partId: number,
+  names: { supplier: string; part: string },
+  characteristic: DriftCharacteristic,
+  view: CharacteristicView,
+  drift: NonNullable<ReturnType<typeof currentDrift>>,
+) {
   const { name, unit } = CHARACTERISTIC_LABELS[characteristic];
   const digits = DIGITS[characteristic];
   const value = (x: number) => `${x >= 0 ? '+' : ''}${x.toFixed(digits)} ${unit}`;
@@ -44,10 +57,15 @@ function alarmText(supplierId: number, partId: number, names: { supplier: string
     `The ordered tolerance is ±${view.tolerance} ${unit}; ${drift.lot.failing === 0 ? 'no piece of that lot fails yet' : `${drift.lot.failing} piece${drift.lot.failing === 1 ? '' : 's'} of that lot already fail`}.`,
     '',
     'Latest lot means:',
-    ...lots.map((p) => `  ${p.lot.name} (${p.receivedAt.slice(0, 10)}, ${p.pieces} measured${p.failing ? `, ${p.failing} failing` : ''}): ${value(p.mean)}, EWMA ${value(p.ewma!)}`),
+    ...lots.map(
+      (p) =>
+        `  ${p.lot.name} (${p.receivedAt.slice(0, 10)}, ${p.pieces} measured${p.failing ? `, ${p.failing} failing` : ''}): ${value(p.mean)}, EWMA ${value(p.ewma!)}`,
+    ),
     '',
     `EWMA of the lot means around the ordered value, weight ${view.ewma!.lambda}, limits at ${view.ewma!.width} standard deviations; σ of a lot mean ${view.ewma!.sigma.toFixed(digits + 1)} ${unit} from the moving ranges.`,
-    characteristic === 'axis' ? 'A steady walk of the mean axis error often means a marking jig that has moved: ask the supplier to check it.' : 'Ask the supplier to check the thickness control of its recent lots.',
+    characteristic === 'axis'
+      ? 'A steady walk of the mean axis error often means a marking jig that has moved: ask the supplier to check it.'
+      : 'Ask the supplier to check the thickness control of its recent lots.',
     '',
     `The charts: ${supplierPerformanceUrl(supplierId, partId)}`,
   ].join('\n');
@@ -59,11 +77,14 @@ export async function checkDrift(supplierId: number, partId: number, today = new
     // One check of a supplier-part at a time, so two runs never both raise an excursion's alarm.
     await sequelize.query('SELECT pg_advisory_xact_lock(:supplierId, :partId)', { transaction, replacements: { supplierId, partId } });
     const { pieces } = await measuredPieces(supplierId, partId, resolvePeriod({}, today), transaction);
-    const [names] = await sequelize.query<{ supplier: string; part: string }>('SELECT s.name AS supplier, p.number AS part FROM suppliers s, parts p WHERE s.id = :supplierId AND p.id = :partId', {
-      type: QueryTypes.SELECT,
-      transaction,
-      replacements: { supplierId, partId },
-    });
+    const [names] = await sequelize.query<{ supplier: string; part: string }>(
+      'SELECT s.name AS supplier, p.number AS part FROM suppliers s, parts p WHERE s.id = :supplierId AND p.id = :partId',
+      {
+        type: QueryTypes.SELECT,
+        transaction,
+        replacements: { supplierId, partId },
+      },
+    );
     const raised: { id: number; characteristic: DriftCharacteristic; lotId: number }[] = [];
     for (const characteristic of DRIFT_CHARACTERISTICS) {
       const view = characteristicView(characteristic, pieces);
@@ -91,14 +112,38 @@ export async function checkDrift(supplierId: number, partId: number, today = new
           type: QueryTypes.SELECT,
           transaction,
           replacements: {
-            supplierId, partId, characteristic, lotId: drift.lot.lot.id, direction: drift.direction, lotMean: drift.lot.mean, ewma: drift.lot.ewma, limit: drift.limit,
-            sigma: view.ewma!.sigma, lots: view.lots.length, failing: drift.lot.failing, mailId: mail.id,
+            supplierId,
+            partId,
+            characteristic,
+            lotId: drift.lot.lot.id,
+            direction: drift.direction,
+            lotMean: drift.lot.mean,
+            ewma: drift.lot.ewma,
+            limit: drift.limit,
+            sigma: view.ewma!.sigma,
+            lots: view.lots.length,
+            failing: drift.lot.failing,
+            mailId: mail.id,
           },
         },
       );
       await recordAudit(
         SYSTEM_ACTOR,
-        { action: 'supplier.drift-alarm', entityType: 'supplier', entityId: supplierId, after: { alarmId: alarm.id, partId, characteristic, lot: lotName(drift.lot.lot.id), direction: drift.direction, ewma: drift.lot.ewma, limit: drift.limit, failingPieces: drift.lot.failing } },
+        {
+          action: 'supplier.drift-alarm',
+          entityType: 'supplier',
+          entityId: supplierId,
+          after: {
+            alarmId: alarm.id,
+            partId,
+            characteristic,
+            lot: lotName(drift.lot.lot.id),
+            direction: drift.direction,
+            ewma: drift.lot.ewma,
+            limit: drift.limit,
+            failingPieces: drift.lot.failing,
+          },
+        },
         transaction,
       );
       raised.push({ id: alarm.id, characteristic, lotId: drift.lot.lot.id });

@@ -102,7 +102,8 @@ export function countsOf(row: Record<string, unknown>): FigureCounts {
 /** The counts of several groups (a supplier's parts) as one. */
 export function addCounts(groups: readonly FigureCounts[]): FigureCounts {
   const sum = (key: keyof FigureCounts) => groups.reduce((total, g) => total + (g[key] ?? 0), 0);
-  const oldest = (key: 'ncrOldestDays' | 'carOldestDays') => groups.reduce<number | null>((max, g) => (g[key] === null ? max : Math.max(max ?? 0, g[key]!)), null);
+  const oldest = (key: 'ncrOldestDays' | 'carOldestDays') =>
+    groups.reduce<number | null>((max, g) => (g[key] === null ? max : Math.max(max ?? 0, g[key]!)), null);
   return {
     lotsReceived: sum('lotsReceived'),
     lotsDecided: sum('lotsDecided'),

@@ -42,7 +42,12 @@ export async function supplierScorecard(supplierId: number, query: ScorecardQuer
     };
   });
   return {
-    supplier: { id: supplier.id, name: supplier.name, active: supplier.active, owner: supplier.owner_id ? { id: supplier.owner_id, name: supplier.owner_name! } : null },
+    supplier: {
+      id: supplier.id,
+      name: supplier.name,
+      active: supplier.active,
+      owner: supplier.owner_id ? { id: supplier.owner_id, name: supplier.owner_name! } : null,
+    },
     part: query.partId ? parts[0].part : null,
     period,
     figures: figuresOf(addCounts(counts)),

@@ -49,7 +49,11 @@ describe('a characteristic of a supplier-part', () => {
     expect(view.lots.map((l) => l.lot.name)).toEqual(['L-1', 'L-2', 'L-3']);
     expect(view.lots.map((l) => l.mean)).toEqual([expect.closeTo(0, 12), expect.closeTo(0.0008, 12), expect.closeTo(0.0015, 12)]);
     expect(view.lots.map((l) => l.movingRange)).toEqual([null, expect.closeTo(0.0008, 12), expect.closeTo(0.0007, 12)]);
-    expect(view.lots.map((l) => [l.pieces, l.outside, l.failing])).toEqual([[5, 0, 0], [3, 0, 0], [2, 0, 0]]);
+    expect(view.lots.map((l) => [l.pieces, l.outside, l.failing])).toEqual([
+      [5, 0, 0],
+      [3, 0, 0],
+      [2, 0, 0],
+    ]);
     // x̄ = 0.00076667, MR̄ = 0.00075, σ̂ = MR̄/1.128 (common practice, d₂ for ranges of two).
     expect(view.individuals!.sigma).toBeCloseTo(0.00075 / 1.128, 12);
     expect(view.individuals!.center).toBeCloseTo(0.0023 / 3, 12);
@@ -64,7 +68,12 @@ describe('a characteristic of a supplier-part', () => {
   it('judges each piece against its own tolerance when the lines ordered different ones', () => {
     // Errors as fractions of their tolerance: 0.5, −0.5, 0.25, −0.25 against ±1: s of those is the
     // spread, Cp = 2/(6s) (definition, as above).
-    const mixed = [piece(1, 0.0015), piece(1, -0.0015), piece(2, 0.0005, 0, { retardanceTolWaves: 0.002, axisTolDeg: 0.5 }), piece(2, -0.0005, 0, { retardanceTolWaves: 0.002, axisTolDeg: 0.5 })];
+    const mixed = [
+      piece(1, 0.0015),
+      piece(1, -0.0015),
+      piece(2, 0.0005, 0, { retardanceTolWaves: 0.002, axisTolDeg: 0.5 }),
+      piece(2, -0.0005, 0, { retardanceTolWaves: 0.002, axisTolDeg: 0.5 }),
+    ];
     const mixedView = characteristicView('retardance', mixed);
     expect(mixedView.tolerancesDiffer).toBe(true);
     expect(mixedView.tolerance).toBe(0.002);
@@ -109,22 +118,72 @@ describe('drift of the lot means', () => {
 
 describe('scorecard figures from counts', () => {
   const zero: FigureCounts = {
-    lotsReceived: 0, lotsDecided: 0, lotsAccepted: 0, piecesInspected: 0, piecesNonconforming: 0, lotsWithDueDate: 0, lotsOnTime: 0,
-    ncrOpen: 0, ncrOpenDays: 0, ncrOldestDays: null, ncrOpened: 0, carOpen: 0, carOpenDays: 0, carOldestDays: null, carOverdue: 0, carRequested: 0,
+    lotsReceived: 0,
+    lotsDecided: 0,
+    lotsAccepted: 0,
+    piecesInspected: 0,
+    piecesNonconforming: 0,
+    lotsWithDueDate: 0,
+    lotsOnTime: 0,
+    ncrOpen: 0,
+    ncrOpenDays: 0,
+    ncrOldestDays: null,
+    ncrOpened: 0,
+    carOpen: 0,
+    carOpenDays: 0,
+    carOldestDays: null,
+    carOverdue: 0,
+    carRequested: 0,
   };
 
   it('has no rates without anything to divide by', () => {
     const figures = figuresOf(zero);
-    expect([figures.acceptanceRate, figures.ppm, figures.onTimeRate, figures.ncrs.oldestOpenDays, figures.ncrs.meanOpenDays]).toEqual([null, null, null, null, null]);
+    expect([figures.acceptanceRate, figures.ppm, figures.onTimeRate, figures.ncrs.oldestOpenDays, figures.ncrs.meanOpenDays]).toEqual([
+      null,
+      null,
+      null,
+      null,
+      null,
+    ]);
   });
 
   it("adds parts' counts into the supplier's and forms its rates from the sums", () => {
     // By hand: 3 of 4 lots accepted; 2 nonconforming of 250 inspected = 8000 ppm; 1 of 2 on time;
     // NCRs open 10 + 4 days → mean 7, oldest 10.
-    const a = { ...zero, lotsReceived: 3, lotsDecided: 3, lotsAccepted: 3, piecesInspected: 150, lotsWithDueDate: 2, lotsOnTime: 1, ncrOpen: 1, ncrOpenDays: 10, ncrOldestDays: 10 };
-    const b = { ...zero, lotsReceived: 2, lotsDecided: 1, piecesInspected: 100, piecesNonconforming: 2, ncrOpen: 1, ncrOpenDays: 4, ncrOldestDays: 4, ncrOpened: 1 };
+    const a = {
+      ...zero,
+      lotsReceived: 3,
+      lotsDecided: 3,
+      lotsAccepted: 3,
+      piecesInspected: 150,
+      lotsWithDueDate: 2,
+      lotsOnTime: 1,
+      ncrOpen: 1,
+      ncrOpenDays: 10,
+      ncrOldestDays: 10,
+    };
+    const b = {
+      ...zero,
+      lotsReceived: 2,
+      lotsDecided: 1,
+      piecesInspected: 100,
+      piecesNonconforming: 2,
+      ncrOpen: 1,
+      ncrOpenDays: 4,
+      ncrOldestDays: 4,
+      ncrOpened: 1,
+    };
     const figures = figuresOf(addCounts([a, b]));
-    expect(figures).toMatchObject({ lotsReceived: 5, lotsDecided: 4, lotsAccepted: 3, acceptanceRate: 0.75, piecesInspected: 250, piecesNonconforming: 2, ppm: 8000, onTimeRate: 0.5 });
+    expect(figures).toMatchObject({
+      lotsReceived: 5,
+      lotsDecided: 4,
+      lotsAccepted: 3,
+      acceptanceRate: 0.75,
+      piecesInspected: 250,
+      piecesNonconforming: 2,
+      ppm: 8000,
+      onTimeRate: 0.5,
+    });
     expect(figures.ncrs).toEqual({ open: 2, oldestOpenDays: 10, meanOpenDays: 7, openedInPeriod: 1 });
   });
 });

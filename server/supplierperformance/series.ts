@@ -27,8 +27,10 @@ export type MeasuredPiece = {
   failing: boolean;
 };
 
-const valueOf = (piece: MeasuredPiece, characteristic: DriftCharacteristic) => (characteristic === 'retardance' ? piece.retardanceErrorWaves : piece.axisErrorDeg);
-const toleranceOf = (piece: MeasuredPiece, characteristic: DriftCharacteristic) => (characteristic === 'retardance' ? piece.retardanceTolWaves : piece.axisTolDeg);
+const valueOf = (piece: MeasuredPiece, characteristic: DriftCharacteristic) =>
+  characteristic === 'retardance' ? piece.retardanceErrorWaves : piece.axisErrorDeg;
+const toleranceOf = (piece: MeasuredPiece, characteristic: DriftCharacteristic) =>
+  characteristic === 'retardance' ? piece.retardanceTolWaves : piece.axisTolDeg;
 
 /** The pieces grouped by lot, in the order given (the lots' arrival). */
 function byLot(pieces: readonly MeasuredPiece[]) {
@@ -44,7 +46,15 @@ function capabilityOf(pieces: readonly MeasuredPiece[], characteristic: DriftCha
   const limit = tolerancesDiffer ? 1 : toleranceOf(pieces[0], characteristic);
   const result = capability(summarize(values), { lower: -limit, upper: limit }, CONFIDENCE);
   if (!result) return null;
-  return { cp: result.cp, cpk: result.cpk, cpLow: result.cpInterval!.low, cpHigh: result.cpInterval!.high, cpkLow: result.cpkInterval!.low, cpkHigh: result.cpkInterval!.high, confidence: CONFIDENCE };
+  return {
+    cp: result.cp,
+    cpk: result.cpk,
+    cpLow: result.cpInterval!.low,
+    cpHigh: result.cpInterval!.high,
+    cpkLow: result.cpkInterval!.low,
+    cpkHigh: result.cpkInterval!.high,
+    confidence: CONFIDENCE,
+  };
 }
 
 export function characteristicView(characteristic: DriftCharacteristic, pieces: readonly MeasuredPiece[]): CharacteristicView {
@@ -75,7 +85,13 @@ export function characteristicView(characteristic: DriftCharacteristic, pieces: 
     tolerancesDiffer,
     pieces: { n: summary.n, mean: Number.isNaN(summary.mean) ? null : summary.mean, sd: Number.isNaN(summary.sd) ? null : summary.sd },
     capability: pieces.length ? capabilityOf(pieces, characteristic, tolerancesDiffer) : null,
-    individuals: individuals && { center: individuals.center, upper: individuals.upper, lower: individuals.lower, sigma: individuals.sigma, movingRangeUpper: individuals.movingRangeUpper },
+    individuals: individuals && {
+      center: individuals.center,
+      upper: individuals.upper,
+      lower: individuals.lower,
+      sigma: individuals.sigma,
+      movingRangeUpper: individuals.movingRangeUpper,
+    },
     ewma: ewma && { target: 0, lambda: EWMA_LAMBDA, width: EWMA_WIDTH, sigma },
     lots: points,
   };
@@ -91,5 +107,10 @@ export function currentDrift(view: CharacteristicView) {
   const side = Math.sign(last.ewma! - view.ewma.target);
   let start = view.lots.length - 1;
   while (start > 0 && Math.sign(view.lots[start - 1].ewma! - view.ewma.target) === side) start--;
-  return { lot: last, direction: last.signal, limit: last.signal === 'high' ? last.ewmaUpper! : last.ewmaLower!, excursion: view.lots.slice(start).map((p) => p.lot.id) };
+  return {
+    lot: last,
+    direction: last.signal,
+    limit: last.signal === 'high' ? last.ewmaUpper! : last.ewmaLower!,
+    excursion: view.lots.slice(start).map((p) => p.lot.id),
+  };
 }

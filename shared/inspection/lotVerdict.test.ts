@@ -23,7 +23,15 @@ describe('proposeLotVerdict', () => {
 
   it('counts a piece failing at any one of its wavelengths as one defective', () => {
     expect(pieceVerdict(['pass', 'fail', 'pass'])).toBe('fail');
-    expect(proposeLotVerdict(sample([['pass', 'fail', 'fail'], ['pass', 'pass']]), plan)).toMatchObject({ proposal: 'accept', defectives: 1 });
+    expect(
+      proposeLotVerdict(
+        sample([
+          ['pass', 'fail', 'fail'],
+          ['pass', 'pass'],
+        ]),
+        plan,
+      ),
+    ).toMatchObject({ proposal: 'accept', defectives: 1 });
   });
 
   it('accepts a result between Ac and Re of a reduced plan, saying that normal inspection resumes', () => {
@@ -52,7 +60,9 @@ describe('dispositionInputSchema', () => {
     const result = dispositionInputSchema.safeParse({ ...base, decision: 'use-as-is' });
     expect(result.success).toBe(false);
     expect(result.error?.issues.map((i) => i.path.join('.')).sort()).toEqual(['deviationId', 'justification']);
-    expect(dispositionInputSchema.safeParse({ ...base, decision: 'use-as-is', deviationId: 42, justification: 'Axis error only affects a test fixture' }).success).toBe(true);
+    expect(
+      dispositionInputSchema.safeParse({ ...base, decision: 'use-as-is', deviationId: 42, justification: 'Axis error only affects a test fixture' }).success,
+    ).toBe(true);
   });
 
   it('requires the meaning of the signature to be acknowledged', () => {

@@ -40,7 +40,9 @@ export function proposeLotVerdict(sample: SamplePieceOutcome[], plan: { accept: 
     return { ...base, proposal: 'reject', explanation: `${defectives} defective(s) in the sample reach Re ${plan.reject}` };
   }
   if (incomplete.length || unmeasured.length) {
-    const open = [incomplete.length && `${incomplete.length} incomplete`, unmeasured.length && `${unmeasured.length} not yet measured`].filter(Boolean).join(', ');
+    const open = [incomplete.length && `${incomplete.length} incomplete`, unmeasured.length && `${unmeasured.length} not yet measured`]
+      .filter(Boolean)
+      .join(', ');
     return { ...base, proposal: 'undecided', explanation: `The sample is not complete: ${open}` };
   }
   if (defectives <= plan.accept) {
@@ -68,7 +70,12 @@ export const SIGNATURE_MEANINGS: Record<Disposition, string> = {
   'use-as-is': 'I release this nonconforming lot for use as is under the deviation stated, for the reason given.',
 };
 
-export const DISPOSITION_LABELS: Record<Disposition, string> = { accept: 'Accept', reject: 'Reject to vendor', sort: 'Sort 100 %', 'use-as-is': 'Use as is (deviation)' };
+export const DISPOSITION_LABELS: Record<Disposition, string> = {
+  accept: 'Accept',
+  reject: 'Reject to vendor',
+  sort: 'Sort 100 %',
+  'use-as-is': 'Use as is (deviation)',
+};
 
 export const dispositionInputSchema = z
   .object({
@@ -84,6 +91,7 @@ export const dispositionInputSchema = z
   .superRefine((value, ctx) => {
     if (value.decision !== 'use-as-is') return;
     if (!value.deviationId) ctx.addIssue({ code: 'custom', path: ['deviationId'], message: 'Choose the deviation the lot is used under' });
-    if (!value.justification || value.justification.length < 10) ctx.addIssue({ code: 'custom', path: ['justification'], message: 'State the justification (10 characters or more)' });
+    if (!value.justification || value.justification.length < 10)
+      ctx.addIssue({ code: 'custom', path: ['justification'], message: 'State the justification (10 characters or more)' });
   });
 export type DispositionInput = z.infer<typeof dispositionInputSchema>;

@@ -44,7 +44,13 @@ function expectRecovered(result: ReturnType<typeof analyzeText>, truth: Syntheti
 describe('synthetic readings recovered by each method', () => {
   it('stokes: exact readings give retardance and axis to 1e-6', () => {
     const truth = plates(61, 12);
-    const result = analyzeText(file(STOKES_HEADER, truth.flatMap((p) => stokesRows(p))), QWP);
+    const result = analyzeText(
+      file(
+        STOKES_HEADER,
+        truth.flatMap((p) => stokesRows(p)),
+      ),
+      QWP,
+    );
     expect(result.method).toBe('stokes');
     expectRecovered(result, truth, 1e-6, 1e-4);
     for (const piece of result.pieces) {
@@ -63,7 +69,18 @@ describe('synthetic readings recovered by each method', () => {
 
   it('stokes: four inputs H, V, D, R are enough', () => {
     const truth = plates(64, 5);
-    expectRecovered(analyzeText(file(STOKES_HEADER, truth.flatMap((p) => stokesRows(p, ['H', 'V', 'D', 'R']))), QWP), truth, 1e-6, 1e-4);
+    expectRecovered(
+      analyzeText(
+        file(
+          STOKES_HEADER,
+          truth.flatMap((p) => stokesRows(p, ['H', 'V', 'D', 'R'])),
+        ),
+        QWP,
+      ),
+      truth,
+      1e-6,
+      1e-4,
+    );
   });
 
   it('scan: crossed and parallel readings without noise, then with 0.2 % noise (seeded)', () => {
@@ -129,7 +146,9 @@ describe('verdicts through the whole file', () => {
     const thickness = (6.2504 * 632.8e-6) / MATERIALS.quartz!.birefringence(632.8);
     expect(atDesign[1].thicknessMm).toBeCloseTo(thickness, 3);
     expect(atDesign[1].reasons).toEqual([
-      expect.stringMatching(/^order 6 \(thickness 0\.437\d mm\) estimated from the birefringence dispersion of crystal quartz \(Ghosh 1999\); ordered: zero-order \(m = 0\)$/),
+      expect.stringMatching(
+        /^order 6 \(thickness 0\.437\d mm\) estimated from the birefringence dispersion of crystal quartz \(Ghosh 1999\); ordered: zero-order \(m = 0\)$/,
+      ),
     ]);
     expect(result.serials.map((s) => s.verdict)).toEqual(['pass', 'fail']);
     // Ordered as a 6th-order plate, the same piece passes.
@@ -187,7 +206,13 @@ describe('instrument profiles', () => {
 });
 
 describe('reading the same file three ways', () => {
-  const fixtures = { 'stokes-qwp.csv': stokesQwp, 'scan-hwp.csv': scanHwp, 'direct-qwp.csv': directQwp, 'stokes-errors.csv': stokesErrors, 'quartz-multiwavelength.csv': quartzMultiwavelength };
+  const fixtures = {
+    'stokes-qwp.csv': stokesQwp,
+    'scan-hwp.csv': scanHwp,
+    'direct-qwp.csv': directQwp,
+    'stokes-errors.csv': stokesErrors,
+    'quartz-multiwavelength.csv': quartzMultiwavelength,
+  };
 
   it('gives the same result from text, bytes and a stream of small chunks', async () => {
     for (const [name, text] of Object.entries(fixtures)) {

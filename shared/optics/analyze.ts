@@ -52,11 +52,7 @@ function analyzeNormalized(text: string, spec: PieceSpecInput, options: AnalyzeO
   return finish(begun.collector, begun.spec);
 }
 
-export async function analyzeStream(
-  source: AsyncIterable<Uint8Array | string>,
-  spec: PieceSpecInput,
-  options: AnalyzeOptions = {},
-): Promise<AnalysisResult> {
+export async function analyzeStream(source: AsyncIterable<Uint8Array | string>, spec: PieceSpecInput, options: AnalyzeOptions = {}): Promise<AnalysisResult> {
   const begun = start(spec, options);
   if (typeof begun === 'string') return fatalResult(begun);
   await collectStream(source, begun.collector, options.maxBytes ?? DEFAULT_MAX_BYTES, options.maxRows ?? DEFAULT_MAX_ROWS);

@@ -171,12 +171,7 @@ function collectSlice(text: string, slice: Slice, collector: ReadingCollector, l
  * Reads chunks as they come (any async iterable: a Node stream, a web ReadableStream, a generator);
  * stops at maxBytes. Each chunk is decoded and normalised, then read as the text is.
  */
-export async function collectStream(
-  source: AsyncIterable<Uint8Array | string>,
-  collector: ReadingCollector,
-  maxBytes: number,
-  maxRows: number,
-): Promise<void> {
+export async function collectStream(source: AsyncIterable<Uint8Array | string>, collector: ReadingCollector, maxBytes: number, maxRows: number): Promise<void> {
   const reader = new SliceReader(collector, maxRows, true);
   const decoder = new TextDecoder('utf-8', { fatal: true });
   const encoder = new TextEncoder();

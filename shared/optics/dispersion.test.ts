@@ -39,7 +39,11 @@ describe('birefringence dispersion', () => {
 
 describe('order and thickness from several wavelengths', () => {
   it('finds the order and thickness of zero-order and multi-order quartz plates', () => {
-    for (const [total, order] of [[0.25, 0], [6.25, 6], [12.25, 12]]) {
+    for (const [total, order] of [
+      [0.25, 0],
+      [6.25, 6],
+      [12.25, 12],
+    ]) {
       const result = estimateOrder(fractions(quartz, total), 'quartz', 632.8, 0.25);
       expect(result.ok).toBe(true);
       if (!result.ok) continue;
@@ -61,7 +65,12 @@ describe('order and thickness from several wavelengths', () => {
   it('keeps the order with 0.001 wave of noise (seeded)', () => {
     const noise = seededNormal(51);
     for (let i = 0; i < 10; i++) {
-      const result = estimateOrder(fractions(quartz, 6.25, () => 0.001 * noise()), 'quartz', 632.8, 0.25);
+      const result = estimateOrder(
+        fractions(quartz, 6.25, () => 0.001 * noise()),
+        'quartz',
+        632.8,
+        0.25,
+      );
       expect(result.ok && result.value.order).toBe(6);
     }
   });

@@ -107,12 +107,7 @@ const MIN_SEPARATION_WAVES = 0.01;
  * best reproduces every measured fraction is kept. The fractions may be measured along the slow axis
  * instead (1 - w everywhere); both readings of the axis are tried.
  */
-export function estimateOrder(
-  points: readonly FractionAtWavelength[],
-  material: Material,
-  designWavelengthNm: number,
-  nominalFraction: number,
-): OrderResult {
+export function estimateOrder(points: readonly FractionAtWavelength[], material: Material, designWavelengthNm: number, nominalFraction: number): OrderResult {
   const model = MATERIALS[material];
   if (!model) return { ok: false, reason: `no birefringence dispersion is known for ${material}` };
   const distinct = new Set(points.map((p) => p.wavelengthNm));

@@ -16,19 +16,13 @@ export const DESIGN_WAVELENGTH_WINDOW_NM = 0.5;
 /** A coherency eigenvalue below -this·m00 is more than measurement noise explains. */
 export const MAX_NEGATIVE_COHERENCY = 0.02;
 
-type Extras = Partial<
-  Pick<
-    PieceResult,
-    'diattenuation' | 'depolarization' | 'depolarizationIndex' | 'circularRetardanceDeg' | 'mueller' | 'fitResidual'
-  >
->;
+type Extras = Partial<Pick<PieceResult, 'diattenuation' | 'depolarization' | 'depolarizationIndex' | 'circularRetardanceDeg' | 'mueller' | 'fitResidual'>>;
 
 type Measurement =
   | { ok: true; measured: MeasuredRetarder; along: AlongMark; axisAmbiguous: boolean; extras: Extras; notes: string[] }
   | { ok: false; reason: string; error?: string };
 
-const linesText = (lines: readonly number[]) =>
-  lines.length === 1 ? `line ${lines[0]}` : `lines ${lines[0]}-${lines[lines.length - 1]}`;
+const linesText = (lines: readonly number[]) => (lines.length === 1 ? `line ${lines[0]}` : `lines ${lines[0]}-${lines[lines.length - 1]}`);
 
 function countDistinctInputs(readings: readonly StokesReading[]): number {
   let distinct = 0;
@@ -159,8 +153,7 @@ function pieceResult(method: Method, group: Group, spec: PieceSpec, errors: Line
   if (group.errorLines.length > 0) {
     reasons.push(`readings with errors on ${group.errorLines.length === 1 ? 'line' : 'lines'} ${group.errorLines.join(', ')}`);
   }
-  const measurement: Measurement =
-    group.readings.length > 0 ? measure(method, group) : { ok: false, reason: '' };
+  const measurement: Measurement = group.readings.length > 0 ? measure(method, group) : { ok: false, reason: '' };
   if (!measurement.ok && measurement.error) {
     errors.push({ line: group.lines[0], message: `${group.serial} at ${group.wavelengthNm} nm: ${measurement.error}` });
   }
@@ -242,9 +235,7 @@ function applyOrderEstimate(pieces: PieceResult[], spec: PieceSpec): void {
     } else if (spec.multiOrder !== undefined && order !== spec.multiOrder && p.judged && p.verdict !== 'incomplete') {
       const ordered = spec.multiOrder === 0 ? 'zero-order (m = 0)' : `multi-order m = ${spec.multiOrder}`;
       p.verdict = 'fail';
-      p.reasons.push(
-        `order ${order} (thickness ${thicknessMm.toFixed(4)} mm) estimated from the birefringence dispersion of ${material}; ordered: ${ordered}`,
-      );
+      p.reasons.push(`order ${order} (thickness ${thicknessMm.toFixed(4)} mm) estimated from the birefringence dispersion of ${material}; ordered: ${ordered}`);
     }
   }
 }
@@ -287,12 +278,7 @@ function serialResult(serial: string, pieces: PieceResult[], spec: PieceSpec): S
   return result;
 }
 
-export function evaluate(
-  method: Method,
-  groups: readonly Group[],
-  spec: PieceSpec,
-  errors: LineMessage[],
-): { pieces: PieceResult[]; serials: SerialResult[] } {
+export function evaluate(method: Method, groups: readonly Group[], spec: PieceSpec, errors: LineMessage[]): { pieces: PieceResult[]; serials: SerialResult[] } {
   const pieces = groups.map((g) => pieceResult(method, g, spec, errors));
   const bySerial = new Map<string, PieceResult[]>();
   for (const p of pieces) {

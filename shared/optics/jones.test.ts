@@ -58,7 +58,13 @@ describe('Jones matrices of retarders', () => {
 
   // Hecht ch. 8: a half-wave plate at t turns linear light at a into linear light at 2t - a.
   it('turns linear light at a into 2t - a through a half-wave plate at t', () => {
-    for (const [t, a] of [[10, 0], [22.5, 0], [30, 75], [-40, 12], [100, 33]]) {
+    for (const [t, a] of [
+      [10, 0],
+      [22.5, 0],
+      [30, 75],
+      [-40, 12],
+      [100, 33],
+    ]) {
       const out = jonesToStokes(jonesApply(jonesRotatedRetarder(Math.PI, t * DEG), jonesLinear(a * DEG)));
       const expected = jonesToStokes(jonesLinear((2 * t - a) * DEG));
       expectClose(out, expected, 1e-14);
@@ -82,7 +88,10 @@ describe('Jones matrices of retarders', () => {
   it('keeps S0 for any polarisation and any retarder', () => {
     const random = seededUniform(12, -3, 3);
     for (let i = 0; i < 20; i++) {
-      const input = [{ re: random(), im: random() }, { re: random(), im: random() }] as const;
+      const input = [
+        { re: random(), im: random() },
+        { re: random(), im: random() },
+      ] as const;
       const before = jonesToStokes(input)[0];
       const after = jonesToStokes(jonesApply(jonesRotatedRetarder(random(), random()), input))[0];
       expect(after).toBeCloseTo(before, 12);

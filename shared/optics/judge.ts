@@ -77,12 +77,7 @@ export function judge(input: JudgeInput, spec: PieceSpec): Judgement {
   }
   const retardanceErrorWaves = wrapWaves(waves - nominal);
   const retardanceOk = accepts(retardanceErrorWaves, spec.retardanceTolWaves, spec.decisionRule, spec.uncertaintyWaves);
-  const otherDescriptionOk = accepts(
-    wrapWaves(1 - waves - nominal),
-    spec.retardanceTolWaves,
-    spec.decisionRule,
-    spec.uncertaintyWaves,
-  );
+  const otherDescriptionOk = accepts(wrapWaves(1 - waves - nominal), spec.retardanceTolWaves, spec.decisionRule, spec.uncertaintyWaves);
   if (!retardanceOk && otherDescriptionOk && !input.axisAmbiguous) {
     failures.push(MARK_ON_SLOW_AXIS);
   } else if (!retardanceOk) {
@@ -92,9 +87,7 @@ export function judge(input: JudgeInput, spec: PieceSpec): Judgement {
     );
   }
   if (!accepts(axisErrorDeg, spec.axisTolDeg, spec.decisionRule, spec.uncertaintyDeg)) {
-    failures.push(
-      `fast-axis error ${deg2(axisErrorDeg)}°${ruleText(spec, `${spec.uncertaintyDeg}°`)} is outside ±${spec.axisTolDeg}°`,
-    );
+    failures.push(`fast-axis error ${deg2(axisErrorDeg)}°${ruleText(spec, `${spec.uncertaintyDeg}°`)} is outside ±${spec.axisTolDeg}°`);
   }
   if (spec.maxDiattenuation !== undefined && input.diattenuation !== undefined && input.diattenuation > spec.maxDiattenuation) {
     failures.push(`diattenuation ${input.diattenuation.toFixed(4)} is above the limit ${spec.maxDiattenuation}`);

@@ -25,8 +25,7 @@ const symmetric = (random: () => number, n: number) => {
   const a = randomMatrix(random, n * n);
   return a.map((_, e) => (a[e] + a[(e % n) * n + Math.floor(e / n)]) / 2);
 };
-const sortedValues = (matrix: number[][]) =>
-  (eigs(matrix).values as unknown as number[]).map(Number).sort((x, y) => x - y);
+const sortedValues = (matrix: number[][]) => (eigs(matrix).values as unknown as number[]).map(Number).sort((x, y) => x - y);
 
 describe('real 4x4 algebra against mathjs', () => {
   const random = seededUniform(21, -1, 1);
@@ -36,7 +35,13 @@ describe('real 4x4 algebra against mathjs', () => {
       const a = randomMatrix(random);
       const b = randomMatrix(random);
       expectClose(mat4Multiply(a, b), (multiply(rows(a), rows(b)) as number[][]).flat(), 1e-14);
-      expectClose(mat4Transpose(a), rows(a)[0].map((_, j) => rows(a).map((r) => r[j])).flat(), 0);
+      expectClose(
+        mat4Transpose(a),
+        rows(a)[0]
+          .map((_, j) => rows(a).map((r) => r[j]))
+          .flat(),
+        0,
+      );
       expectClose(mat4Inverse(a)!, (inv(rows(a)) as number[][]).flat(), 1e-9);
     }
   });
@@ -63,7 +68,12 @@ describe('real 4x4 algebra against mathjs', () => {
   });
 
   it('refuses inputs that do not span the Stokes space', () => {
-    const linearOnly: Stokes[] = [[1, 1, 0, 0], [1, -1, 0, 0], [1, 0, 1, 0], [1, 0, -1, 0]];
+    const linearOnly: Stokes[] = [
+      [1, 1, 0, 0],
+      [1, -1, 0, 0],
+      [1, 0, 1, 0],
+      [1, 0, -1, 0],
+    ];
     const fit = muellerFromMeasurements(linearOnly, linearOnly);
     expect(fit).toEqual({ ok: false, reason: expect.stringContaining('do not span the Stokes space') });
     expect(muellerFromMeasurements(linearOnly.slice(0, 3), linearOnly.slice(0, 3))).toEqual({

@@ -14,8 +14,7 @@ export function mat4Multiply(a: Readonly<Mueller>, b: Readonly<Mueller>): Muelle
   const out: Mueller = new Array(16);
   for (let i = 0; i < 4; i++) {
     for (let j = 0; j < 4; j++) {
-      out[4 * i + j] =
-        a[4 * i] * b[j] + a[4 * i + 1] * b[4 + j] + a[4 * i + 2] * b[8 + j] + a[4 * i + 3] * b[12 + j];
+      out[4 * i + j] = a[4 * i] * b[j] + a[4 * i + 1] * b[4 + j] + a[4 * i + 2] * b[8 + j] + a[4 * i + 3] * b[12 + j];
     }
   }
   return out;
@@ -83,10 +82,22 @@ export function muellerRetarder(d: number, axis: readonly [number, number, numbe
   const s = Math.sin(d);
   const k = 1 - c;
   return [
-    1, 0, 0, 0,
-    0, c + k * x * x, k * x * y - s * z, k * x * z + s * y,
-    0, k * x * y + s * z, c + k * y * y, k * y * z - s * x,
-    0, k * x * z - s * y, k * y * z + s * x, c + k * z * z,
+    1,
+    0,
+    0,
+    0,
+    0,
+    c + k * x * x,
+    k * x * y - s * z,
+    k * x * z + s * y,
+    0,
+    k * x * y + s * z,
+    c + k * y * y,
+    k * y * z - s * x,
+    0,
+    k * x * z - s * y,
+    k * y * z + s * x,
+    c + k * z * z,
   ];
 }
 
@@ -100,9 +111,7 @@ export function muellerLinearPolarizer(t: number): Mueller {
   return jonesToMueller(jonesLinearPolarizer(t));
 }
 
-export type MuellerFit =
-  | { ok: true; mueller: Mueller; residualRms: number }
-  | { ok: false; reason: string };
+export type MuellerFit = { ok: true; mueller: Mueller; residualRms: number } | { ok: false; reason: string };
 
 /** Above this Frobenius condition number of Σ s sᵀ the inputs do not span the Stokes space. */
 const MAX_INPUT_CONDITION = 1e6;

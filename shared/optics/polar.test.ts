@@ -29,9 +29,7 @@ describe('polar decomposition (S.-Y. Lu & R. A. Chipman, J. Opt. Soc. Am. A 13, 
       const axis = unitVector([random(), random(), random()]);
       const retardance = 0.2 + 2.7 * Math.abs(random());
       const depolarizer: Mueller = [1, 0, 0, 0, 0.03, 0.9, 0, 0, -0.02, 0, 0.85, 0, 0.01, 0, 0, 0.8];
-      const m = mat4Multiply(mat4Multiply(depolarizer, muellerRetarder(retardance, axis)), diattenuator(dVector)).map(
-        (x) => 0.6 * x,
-      );
+      const m = mat4Multiply(mat4Multiply(depolarizer, muellerRetarder(retardance, axis)), diattenuator(dVector)).map((x) => 0.6 * x);
       const result = polarDecomposition(m);
       expect(result.ok).toBe(true);
       if (!result.ok) continue;

@@ -22,9 +22,7 @@ function mat3Multiply(a: Mat3, b: Mat3): Mat3 {
 }
 
 function mat3Determinant(a: Mat3): number {
-  return (
-    a[0] * (a[4] * a[8] - a[5] * a[7]) - a[1] * (a[3] * a[8] - a[5] * a[6]) + a[2] * (a[3] * a[7] - a[4] * a[6])
-  );
+  return a[0] * (a[4] * a[8] - a[5] * a[7]) - a[1] * (a[3] * a[8] - a[5] * a[6]) + a[2] * (a[3] * a[7] - a[4] * a[6]);
 }
 
 function mat3Inverse(a: Mat3): Mat3 | null {
@@ -99,9 +97,7 @@ export function polarDecomposition(mueller: Readonly<Mueller>): PolarResult {
     for (let j = 0; j < 3; j++) mDInverse[3 * i + j] = (i === j ? across : 0) + (1 - across) * unit[i] * unit[j];
   }
   const polarizanceOfDepolarizer = [0, 1, 2].map(
-    (i) =>
-      (pVector[i] - (lower[3 * i] * dVector[0] + lower[3 * i + 1] * dVector[1] + lower[3 * i + 2] * dVector[2])) /
-      (1 - diattenuation * diattenuation),
+    (i) => (pVector[i] - (lower[3 * i] * dVector[0] + lower[3 * i + 1] * dVector[1] + lower[3 * i + 2] * dVector[2])) / (1 - diattenuation * diattenuation),
   ) as Vec3;
   const shifted: Mat3 = new Array(9);
   for (let i = 0; i < 3; i++) {

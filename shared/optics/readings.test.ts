@@ -7,8 +7,7 @@ import type { PieceSpecInput } from './spec.js';
 import { bytesOf } from './testing.js';
 
 const QWP: PieceSpecInput = { nominalWaves: 0.25, designWavelengthNm: 632.8, retardanceTolWaves: 0.003, axisTolDeg: 0.5 };
-const good = (serial = 'QW-0001', wavelengthNm = 632.8) =>
-  stokesRows({ serial, wavelengthNm, retardanceWaves: 0.2497, fastAxisDeg: 0.1 });
+const good = (serial = 'QW-0001', wavelengthNm = 632.8) => stokesRows({ serial, wavelengthNm, retardanceWaves: 0.2497, fastAxisDeg: 0.1 });
 const lines = (...parts: (string | string[])[]) => parts.flat().join('\n');
 
 describe('bad files: every problem with its line number', () => {
@@ -33,16 +32,11 @@ describe('bad files: every problem with its line number', () => {
     const rows = good();
     rows[5] = rows[5].replace(',L,', ',Q,');
     const result = analyzeText(lines(STOKES_HEADER, rows), QWP);
-    expect(result.errors).toEqual([
-      { line: 7, message: 'unknown input state "Q": expected H, V, D, A, R, L or an angle in degrees' },
-    ]);
+    expect(result.errors).toEqual([{ line: 7, message: 'unknown input state "Q": expected H, V, D, A, R, L or an angle in degrees' }]);
   });
 
   it('reports a degree of polarisation above 1 and a non-positive s0', () => {
-    const result = analyzeText(
-      lines(STOKES_HEADER, good().slice(0, 4), 'QW-0001,632.8,R,1,0.9,0.5,0,0', 'QW-0001,632.8,L,0,0,0,0,0'),
-      QWP,
-    );
+    const result = analyzeText(lines(STOKES_HEADER, good().slice(0, 4), 'QW-0001,632.8,R,1,0.9,0.5,0,0', 'QW-0001,632.8,L,0,0,0,0,0'), QWP);
     expect(result.errors).toEqual([
       { line: 6, message: 'degree of polarisation 1.030 is above 1 (more than the 0.02 noise allowance)' },
       { line: 7, message: 's0 must be positive, got 0' },
@@ -76,7 +70,12 @@ describe('bad files: every problem with its line number', () => {
     const rows = ['H,1,1,0,0', 'V,1,-1,0,0', 'D,1,0,1,0', 'A,1,0,1,0', 'R,1,0,0,1', 'L,1,0,0,-1'].map((r) => `QW-0004,632.8,${r},0`);
     const result = analyzeText(lines(STOKES_HEADER, rows), QWP);
     expect(result.errors).toEqual([
-      { line: 2, message: expect.stringMatching(/^QW-0004 at 632.8 nm: the Mueller matrix from lines 2-7 is not physical \(coherency eigenvalue -0\.\d{3} m00, limit -0.02\)$/) },
+      {
+        line: 2,
+        message: expect.stringMatching(
+          /^QW-0004 at 632.8 nm: the Mueller matrix from lines 2-7 is not physical \(coherency eigenvalue -0\.\d{3} m00, limit -0.02\)$/,
+        ),
+      },
     ]);
     expect(result.pieces[0].verdict).toBe('incomplete');
   });
@@ -91,9 +90,7 @@ describe('bad files: every problem with its line number', () => {
     ]);
     const rows = good();
     rows[3] = rows[3].replace(/,0$/, ',5');
-    expect(analyzeText(lines(STOKES_HEADER, rows), QWP).errors).toEqual([
-      { line: 5, message: 'mount_deg 5 differs from 0 on line 2 for the same piece' },
-    ]);
+    expect(analyzeText(lines(STOKES_HEADER, rows), QWP).errors).toEqual([{ line: 5, message: 'mount_deg 5 differs from 0 on line 2 for the same piece' }]);
   });
 
   it('reports a broken quote with its line and reads the rest', () => {
@@ -210,7 +207,16 @@ describe('one reading of the text, whatever its line ends', () => {
   });
 
   it('returns the rows it read, with their lines, serials, wavelengths and cells', () => {
-    const result = analyzeText(lines('# instrument: BENCH-2', `${STOKES_HEADER},temperature_c`, '', good().map((r) => `${r},21.5`)), QWP, { keepRows: true });
+    const result = analyzeText(
+      lines(
+        '# instrument: BENCH-2',
+        `${STOKES_HEADER},temperature_c`,
+        '',
+        good().map((r) => `${r},21.5`),
+      ),
+      QWP,
+      { keepRows: true },
+    );
     expect(analyzeText(lines(STOKES_HEADER, good()), QWP).rows).toEqual([]);
     expect(result.columns).toEqual([...STOKES_HEADER.split(','), 'temperature_c']);
     expect(result.rows).toHaveLength(6);
@@ -255,7 +261,13 @@ describe('files that must be refused whole', () => {
 describe('repeated rows', () => {
   it('reports every repeated row of a Stokes file with both line numbers', () => {
     const rows = good();
-    const result = analyzeText(lines(STOKES_HEADER, rows.flatMap((r) => [r, r])), QWP);
+    const result = analyzeText(
+      lines(
+        STOKES_HEADER,
+        rows.flatMap((r) => [r, r]),
+      ),
+      QWP,
+    );
     expect(result.errors).toEqual(
       ['H', 'V', 'D', 'A', 'R', 'L'].map((input, i) => ({
         line: 3 + 2 * i,

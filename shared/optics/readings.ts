@@ -97,12 +97,7 @@ interface RowContext {
 }
 
 /** The reading of one row; when the row noted problems it is discarded, placeholders and all. */
-type RowParser<M extends Method> = (
-  fields: readonly string[],
-  columns: Columns,
-  context: RowContext,
-  problems: string[],
-) => ReadingsByMethod[M];
+type RowParser<M extends Method> = (fields: readonly string[], columns: Columns, context: RowContext, problems: string[]) => ReadingsByMethod[M];
 
 const ROW_PARSERS: { [M in Method]: RowParser<M> } = {
   stokes(fields, columns, { profile, readInput }, problems) {
@@ -348,9 +343,7 @@ export class ReadingCollector {
     if (wavelengthNm <= 0) problems.push(`wavelength_nm must be positive, got ${wavelengthNm}`);
     const mountCell = columns.mount_deg === undefined ? undefined : fields[columns.mount_deg];
     const mountDeg =
-      mountCell !== undefined && mountCell.trim() !== ''
-        ? numberCell(fields, columns.mount_deg, 'mount_deg', problems) * this.profile.angleSign
-        : 0;
+      mountCell !== undefined && mountCell.trim() !== '' ? numberCell(fields, columns.mount_deg, 'mount_deg', problems) * this.profile.angleSign : 0;
     this.context.line = line;
     this.context.wavelengthNm = wavelengthNm;
     const reading = ROW_PARSERS[method](fields, columns, this.context, problems);

@@ -19,7 +19,12 @@ describe('rotating-plate fit', () => {
   // Born & Wolf (from memory): crossed I = I0 sin²(2(t + e)) sin²(d/2); the synthetic readings come
   // from Jones matrices, so the fit is checked against the law, not against itself.
   it('recovers retardance and axis error from crossed readings and an open reference', () => {
-    for (const [waves, axis] of [[0.25, 0.3], [0.4993, -1.2], [0.1, 20], [0.37, -33]]) {
+    for (const [waves, axis] of [
+      [0.25, 0.3],
+      [0.4993, -1.2],
+      [0.1, 20],
+      [0.37, -33],
+    ]) {
       const fit = fitScan(readings(scanRows(plate(waves, axis), angles, { i0: 850 })));
       expect(fit.ok).toBe(true);
       if (!fit.ok) continue;

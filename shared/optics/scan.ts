@@ -112,8 +112,7 @@ function referenceFromPairs(crossed: readonly ScanReading[], parallel: readonly 
 
 /** Solves the symmetric 3x3 system by Cramer's rule; null when it is (nearly) singular. */
 function solve3(m: Float64Array, b: Float64Array): [number, number, number] | null {
-  const det = (a: ArrayLike<number>) =>
-    a[0] * (a[4] * a[8] - a[5] * a[7]) - a[1] * (a[3] * a[8] - a[5] * a[6]) + a[2] * (a[3] * a[7] - a[4] * a[6]);
+  const det = (a: ArrayLike<number>) => a[0] * (a[4] * a[8] - a[5] * a[7]) - a[1] * (a[3] * a[8] - a[5] * a[6]) + a[2] * (a[3] * a[7] - a[4] * a[6]);
   const d = det(m);
   const scale = m[0] * m[4] * m[8];
   if (!(Math.abs(d) > 1e-9 * scale)) return null;

@@ -2,15 +2,7 @@
  * Forward models: the readings an instrument would report for a known plate. For tests, the
  * benchmark and invented demo files; the engine itself never calls them.
  */
-import {
-  cAbs2,
-  jonesApply,
-  jonesLinear,
-  jonesLinearPolarizer,
-  jonesMultiply,
-  jonesRotatedRetarder,
-  jonesToMueller,
-} from './jones.js';
+import { cAbs2, jonesApply, jonesLinear, jonesLinearPolarizer, jonesMultiply, jonesRotatedRetarder, jonesToMueller } from './jones.js';
 import { mat4Apply } from './mueller.js';
 import { parseInputState, OUR_CONVENTION, type Stokes } from './stokes.js';
 import { DEG, fromWaves, wavesToRad, type RetardanceUnit } from './units.js';
@@ -45,11 +37,7 @@ export function plateOutput(plate: SyntheticPlate, input: Stokes): Stokes {
 }
 
 /** Stokes-method rows; `noise` gives the error added to each of s1, s2, s3 (and s0). */
-export function stokesRows(
-  plate: SyntheticPlate,
-  inputs: readonly string[] = ['H', 'V', 'D', 'A', 'R', 'L'],
-  noise: () => number = noNoise,
-): string[] {
+export function stokesRows(plate: SyntheticPlate, inputs: readonly string[] = ['H', 'V', 'D', 'A', 'R', 'L'], noise: () => number = noNoise): string[] {
   return inputs.map((code) => {
     const output = plateOutput(plate, parseInputState(code, OUR_CONVENTION)!);
     const values = output.map((s) => fixed(s + noise()));

@@ -78,15 +78,10 @@ export interface OcCurveOptions {
 }
 
 /** Evenly spaced points from 0 % nonconforming to the right edge, for charting. */
-export function ocCurve(
-  plan: { sampleSize: number; accept: number },
-  points = 41,
-  options: OcCurveOptions = {},
-): OcPoint[] {
+export function ocCurve(plan: { sampleSize: number; accept: number }, points = 41, options: OcCurveOptions = {}): OcPoint[] {
   assertCount(points, 'number of points', 2);
   const model = options.model ?? 'binomial';
-  const maxPercent =
-    options.maxPercentDefective ?? Math.min(100, roundUpForAxis(percentWherePaFallsTo(plan.sampleSize, plan.accept, 0.01, model)));
+  const maxPercent = options.maxPercentDefective ?? Math.min(100, roundUpForAxis(percentWherePaFallsTo(plan.sampleSize, plan.accept, 0.01, model)));
   if (!(maxPercent > 0 && maxPercent <= 100)) throw new RangeError(`right edge must be in (0, 100] percent, got ${maxPercent}`);
   return Array.from({ length: points }, (_, index) => {
     const percentDefective = (maxPercent * index) / (points - 1);

@@ -204,6 +204,8 @@ describe('the plan in words', () => {
   });
 
   it('says when every piece is inspected', () => {
-    expect(describeSamplingPlan({ ...plan(10, 'II', 1.0), sampleSize: 10 })).toContain('code letter B (plan of letter E after the arrow), every piece inspected (10), Ac 0, Re 1');
+    expect(describeSamplingPlan({ ...plan(10, 'II', 1.0), sampleSize: 10 })).toContain(
+      'code letter B (plan of letter E after the arrow), every piece inspected (10), Ac 0, Re 1',
+    );
   });
 });

@@ -14,17 +14,12 @@ import {
   type Severity,
 } from './tables';
 
-export const aqlSchema = z
-  .number({ error: 'AQL must be a number' })
-  .refine((value) => (AQL_VALUES as readonly number[]).includes(value), {
-    error: `AQL must be one of ${AQL_VALUES.join(', ')} (percent nonconforming)`,
-  });
+export const aqlSchema = z.number({ error: 'AQL must be a number' }).refine((value) => (AQL_VALUES as readonly number[]).includes(value), {
+  error: `AQL must be one of ${AQL_VALUES.join(', ')} (percent nonconforming)`,
+});
 
 export const samplingInputSchema = z.object({
-  lotSize: z
-    .number({ error: 'lot size must be a number' })
-    .int('lot size must be a whole number of pieces')
-    .min(1, 'lot size must be at least 1'),
+  lotSize: z.number({ error: 'lot size must be a number' }).int('lot size must be a whole number of pieces').min(1, 'lot size must be at least 1'),
   level: z.enum(INSPECTION_LEVELS, {
     error: `inspection level must be one of ${INSPECTION_LEVELS.join(', ')}`,
   }),
@@ -101,9 +96,7 @@ export function resolveCell(severity: Severity, letter: CodeLetter, aql: Aql): R
   const plan = parseCell(cell);
   if (plan) return { letterIndex, ...plan };
   const step = cell === '↓' ? 1 : -1;
-  const resolved =
-    findPlanInColumn(severity, aqlIndex, letterIndex, step) ??
-    findPlanInColumn(severity, aqlIndex, letterIndex, step === 1 ? -1 : 1);
+  const resolved = findPlanInColumn(severity, aqlIndex, letterIndex, step) ?? findPlanInColumn(severity, aqlIndex, letterIndex, step === 1 ? -1 : 1);
   if (!resolved) throw new Error(`no plan in the ${severity} column for AQL ${aql}`);
   return resolved;
 }
@@ -156,12 +149,7 @@ export function lookUpPlan(input: SamplingInput): PlanLookup {
 export function tighterNormalAcceptance(letter: CodeLetter, aql: Aql): number | null {
   const letterIndex = CODE_LETTERS.indexOf(letter);
   const aqlIndex = AQL_VALUES.indexOf(aql);
-  const cell =
-    aqlIndex > 0
-      ? PLAN_TABLES.normal[letter][aqlIndex - 1]
-      : letterIndex > 0
-        ? PLAN_TABLES.normal[CODE_LETTERS[letterIndex - 1]][aqlIndex]
-        : '↓';
+  const cell = aqlIndex > 0 ? PLAN_TABLES.normal[letter][aqlIndex - 1] : letterIndex > 0 ? PLAN_TABLES.normal[CODE_LETTERS[letterIndex - 1]][aqlIndex] : '↓';
   return parseCell(cell)?.accept ?? null;
 }
 

@@ -30,7 +30,11 @@ export function applySwitchingEntry(state: SwitchingState, entry: SwitchingEntry
   if (entry.kind === 'lot') return nextSwitchingState(state, entry.result, entry.settings);
   if (entry.kind === 'resume') {
     if (!state.stopped) {
-      return { state, change: null, explanation: `inspection resumed, but acceptance was not discontinued at this point; ${state.severity} inspection continues` };
+      return {
+        state,
+        change: null,
+        explanation: `inspection resumed, but acceptance was not discontinued at this point; ${state.severity} inspection continues`,
+      };
     }
     return {
       state: resumeAfterDiscontinuation(state),
@@ -39,7 +43,11 @@ export function applySwitchingEntry(state: SwitchingState, entry: SwitchingEntry
     };
   }
   if (state.stopped) {
-    return { state, change: null, explanation: `severity set to ${entry.severity}, which does not lift a discontinuation: acceptance stays discontinued until inspection is resumed` };
+    return {
+      state,
+      change: null,
+      explanation: `severity set to ${entry.severity}, which does not lift a discontinuation: acceptance stays discontinued until inspection is resumed`,
+    };
   }
   return {
     state: initialSwitchingState(entry.severity),

@@ -167,7 +167,9 @@ describe('reduced → normal', () => {
     const outcome = nextSwitchingState(reduced, lot(gapPlan, 3), enabled);
     expect(outcome.change).toEqual({ from: 'reduced', to: 'normal' });
     expect(outcome.state).toEqual(initialSwitchingState('normal'));
-    expect(outcome.explanation).toBe('lot accepted on reduced inspection; its 3 defective(s) lie between Ac 1 and Re 4, so normal inspection resumes (ANSI/ASQ Z1.4)');
+    expect(outcome.explanation).toBe(
+      'lot accepted on reduced inspection; its 3 defective(s) lie between Ac 1 and Re 4, so normal inspection resumes (ANSI/ASQ Z1.4)',
+    );
   });
 
   it('stays on reduced while lots are accepted', () => {
@@ -177,7 +179,9 @@ describe('reduced → normal', () => {
 
 describe('checks on what is fed in', () => {
   it('refuses an acceptance of a sample that reaches Re', () => {
-    expect(() => nextSwitchingState(initialSwitchingState(), { plan: acOnePlan('normal'), defectives: 2, accepted: true }, enabled)).toThrow('a lot with 2 defectives at Re 2 is not accepted, but the result says accepted');
+    expect(() => nextSwitchingState(initialSwitchingState(), { plan: acOnePlan('normal'), defectives: 2, accepted: true }, enabled)).toThrow(
+      'a lot with 2 defectives at Re 2 is not accepted, but the result says accepted',
+    );
   });
 
   it('counts a lot refused with its sample within Ac as not accepted, and resets the score', () => {

@@ -45,7 +45,11 @@ export type AuditChainReport = {
 /** An anchor taken earlier (a chain position and the hash printed for it), to check against the trail. */
 export const auditAnchorSchema = z.object({
   seq: z.coerce.number().int().positive().max(Number.MAX_SAFE_INTEGER),
-  hash: z.string().trim().toLowerCase().regex(/^[0-9a-f]{64}$/, 'The hash is the 64-character SHA-256 printed with the chain head'),
+  hash: z
+    .string()
+    .trim()
+    .toLowerCase()
+    .regex(/^[0-9a-f]{64}$/, 'The hash is the 64-character SHA-256 printed with the chain head'),
 });
 export type AuditAnchor = z.infer<typeof auditAnchorSchema>;
 export type AuditAnchorCheck = { seq: string; matches: boolean; message: string };

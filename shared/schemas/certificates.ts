@@ -3,7 +3,11 @@ import { listQuerySchema } from './paging';
 
 export const verifyQuerySchema = z.object({
   number: z.string().trim().min(1, 'Enter the certificate number').max(40),
-  hash: z.string().trim().toLowerCase().regex(/^[0-9a-f]{64}$/, 'The hash is the 64-character SHA-256 printed on the document'),
+  hash: z
+    .string()
+    .trim()
+    .toLowerCase()
+    .regex(/^[0-9a-f]{64}$/, 'The hash is the 64-character SHA-256 printed on the document'),
 });
 
 export const certificateListSchema = listQuerySchema.extend({
@@ -22,5 +26,14 @@ export type VerificationResult =
       genuine: true;
       current: boolean;
       message: string;
-      document: { number: string; kind: 'certificate' | 'inspection-report'; issuedAt: string; revokedAt: string | null; part: string; supplier: string; supplierLot: string; decision: string };
+      document: {
+        number: string;
+        kind: 'certificate' | 'inspection-report';
+        issuedAt: string;
+        revokedAt: string | null;
+        part: string;
+        supplier: string;
+        supplierLot: string;
+        decision: string;
+      };
     };

@@ -15,8 +15,21 @@ export const measurementUploadSchema = z.object({
 /** A stored result of one piece at one wavelength: the engine's result as committed, and its row's keys. */
 export type ResultView = Pick<
   PieceResult,
-  | 'wavelengthNm' | 'verdict' | 'reasons' | 'retardanceWaves' | 'retardanceNm' | 'retardanceErrorWaves' | 'retardanceErrorNm'
-  | 'fastAxisDeg' | 'axisErrorDeg' | 'judged' | 'axisAmbiguous' | 'diattenuation' | 'depolarizationIndex' | 'estimatedOrder' | 'thicknessMm'
+  | 'wavelengthNm'
+  | 'verdict'
+  | 'reasons'
+  | 'retardanceWaves'
+  | 'retardanceNm'
+  | 'retardanceErrorWaves'
+  | 'retardanceErrorNm'
+  | 'fastAxisDeg'
+  | 'axisErrorDeg'
+  | 'judged'
+  | 'axisAmbiguous'
+  | 'diattenuation'
+  | 'depolarizationIndex'
+  | 'estimatedOrder'
+  | 'thicknessMm'
 > & { id: number; fileId: number; createdAt: string };
 
 /** A row of the inspection queue. */
@@ -43,13 +56,30 @@ export type QueueRow = {
 /** One lot's whole inspection record. */
 export type LotInspectionView = {
   lot: {
-    id: number; state: LotState; supplierLot: string; quantity: number; receivedAt: string; poNumber: string; lineNumber: number;
-    part: { id: number; number: string; description: string }; supplier: { id: number; name: string };
+    id: number;
+    state: LotState;
+    supplierLot: string;
+    quantity: number;
+    receivedAt: string;
+    poNumber: string;
+    lineNumber: number;
+    part: { id: number; number: string; description: string };
+    supplier: { id: number; name: string };
   };
   spec: PartSpec;
   plan: {
-    codeLetter: string; planLetter: string; sampleSize: number; accept: number; reject: number; severity: string; level: string; aql: number;
-    hundredPercent: boolean; seed: string; summary: string; oc: OcPoint[];
+    codeLetter: string;
+    planLetter: string;
+    sampleSize: number;
+    accept: number;
+    reject: number;
+    severity: string;
+    level: string;
+    aql: number;
+    hundredPercent: boolean;
+    seed: string;
+    summary: string;
+    oc: OcPoint[];
   };
   switching: SwitchingState;
   verdict: LotVerdict;
@@ -58,13 +88,27 @@ export type LotInspectionView = {
   /** toMeasure: in the sample, or any piece on site while the lot is sorted 100 %. */
   pieces: { id: number; serial: string; state: string; inSample: boolean; toMeasure: boolean; verdict: PieceVerdict | 'unmeasured'; results: ResultView[] }[];
   files: {
-    id: number; name: string; sha256: string; sizeBytes: number; method: string; rows: number; instrument: string | null;
-    metadata: Record<string, string>; uploadedBy: string | null; uploadedAt: string;
+    id: number;
+    name: string;
+    sha256: string;
+    sizeBytes: number;
+    method: string;
+    rows: number;
+    instrument: string | null;
+    metadata: Record<string, string>;
+    uploadedBy: string | null;
+    uploadedAt: string;
   }[];
   disposition: { id: number; decision: Disposition } | null;
   dispositions: {
-    id: number; decision: Disposition; meaning: string; deviationNumber: string | null; justification: string | null; signer: string | null;
-    signedAt: string; supersededAt: string | null;
+    id: number;
+    decision: Disposition;
+    meaning: string;
+    deviationNumber: string | null;
+    justification: string | null;
+    signer: string | null;
+    signedAt: string;
+    supersededAt: string | null;
   }[];
   documents: { id: number; kind: 'certificate' | 'inspection-report'; number: string; dataHash: string; issuedAt: string; revokedAt: string | null }[];
 };
@@ -91,7 +135,10 @@ export const previewPageQuery = z.object({
 });
 
 /** A piece's result as a preview lists it: what the inspector checks before saving. */
-export type PreviewPiece = Pick<PieceResult, 'serial' | 'wavelengthNm' | 'retardanceWaves' | 'retardanceErrorWaves' | 'axisErrorDeg' | 'verdict' | 'reasons' | 'judged' | 'lines'>;
+export type PreviewPiece = Pick<
+  PieceResult,
+  'serial' | 'wavelengthNm' | 'retardanceWaves' | 'retardanceErrorWaves' | 'axisErrorDeg' | 'verdict' | 'reasons' | 'judged' | 'lines'
+>;
 
 /** A bench file run through the engine for the lot, nothing saved: what a commit of it would store, or why it cannot. */
 export type FilePreview = {

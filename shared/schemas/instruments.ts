@@ -11,7 +11,12 @@ const sign = z.union([z.literal(1), z.literal(-1)]);
 
 export const instrumentInputSchema = z
   .object({
-    code: z.string().trim().min(1, 'Give the instrument a code').max(40).regex(/^[A-Za-z0-9._-]+$/, 'Letters, digits, dot, dash and underscore only'),
+    code: z
+      .string()
+      .trim()
+      .min(1, 'Give the instrument a code')
+      .max(40)
+      .regex(/^[A-Za-z0-9._-]+$/, 'Letters, digits, dot, dash and underscore only'),
     kind: z.enum(INSTRUMENT_KINDS),
     description: z.string().trim().max(200).default(''),
     // The instrument profile: exports with the opposite S3 sign or angle direction are corrected here.

@@ -39,10 +39,7 @@ export async function passwordWeakness(password: string, related: string[] = [])
 export const PASSWORD_HINT = `At least ${PASSWORD_MIN_LENGTH} characters and not easy to guess: a few unrelated words work well.`;
 
 /** Length only, for objects that check the strength together with related fields. */
-export const passwordLengthSchema = z
-  .string()
-  .min(PASSWORD_MIN_LENGTH, `At least ${PASSWORD_MIN_LENGTH} characters`)
-  .max(200, 'At most 200 characters');
+export const passwordLengthSchema = z.string().min(PASSWORD_MIN_LENGTH, `At least ${PASSWORD_MIN_LENGTH} characters`).max(200, 'At most 200 characters');
 
 /** A new password, length and strength (the schema is asynchronous: parse it with parseAsync). */
 export const newPasswordSchema = passwordLengthSchema.superRefine(async (password, ctx) => {

@@ -45,32 +45,33 @@ export const poLineInputSchema = z.object({
   quantity: z.coerce.number({ error: 'Give the quantity' }).int('A whole number').min(1, 'At least 1').max(100_000),
   unitPrice: z.coerce.number({ error: 'Give the unit price' }).min(0, 'Not negative').max(1_000_000),
   inspectionLevel: z.enum(INSPECTION_LEVELS),
-  aql: z.coerce
-    .number()
-    .refine((v) => (AQL_VALUES as readonly number[]).includes(v), { message: `One of ${AQL_VALUES.join(', ')}` }),
+  aql: z.coerce.number().refine((v) => (AQL_VALUES as readonly number[]).includes(v), { message: `One of ${AQL_VALUES.join(', ')}` }),
   hundredPercent: z.boolean().default(false),
   // The date the supplier promised; on-time delivery counts lots received on or before it.
   dueOn: z.preprocess((v) => (v === '' || v === null ? undefined : v), z.iso.date('Give the due date as a date').optional()),
 });
 export type PoLineInput = z.input<typeof poLineInputSchema>;
 
-export const purchaseOrderInputSchema = z.object({
-  number: code('PO number', 30),
-  supplierId: z.coerce.number({ error: 'Choose a supplier' }).int().positive('Choose a supplier'),
-  orderedOn: z.iso.date('Give the order date'),
-  currency: z
-    .string()
-    .trim()
-    .toUpperCase()
-    .regex(/^[A-Z]{3}$/, 'A three-letter currency code'),
-  status: z.enum(PO_STATUSES).default('open'),
-  notes: z.string().trim().max(2000).default(''),
-  lines: z.array(poLineInputSchema).min(1, 'A PO needs at least one line').max(200),
-}).superRefine((order, context) => {
-  order.lines.forEach((line, index) => {
-    if (line.dueOn && order.orderedOn && line.dueOn < order.orderedOn) context.addIssue({ code: 'custom', path: ['lines', index, 'dueOn'], message: 'Due on or after the order date' });
+export const purchaseOrderInputSchema = z
+  .object({
+    number: code('PO number', 30),
+    supplierId: z.coerce.number({ error: 'Choose a supplier' }).int().positive('Choose a supplier'),
+    orderedOn: z.iso.date('Give the order date'),
+    currency: z
+      .string()
+      .trim()
+      .toUpperCase()
+      .regex(/^[A-Z]{3}$/, 'A three-letter currency code'),
+    status: z.enum(PO_STATUSES).default('open'),
+    notes: z.string().trim().max(2000).default(''),
+    lines: z.array(poLineInputSchema).min(1, 'A PO needs at least one line').max(200),
+  })
+  .superRefine((order, context) => {
+    order.lines.forEach((line, index) => {
+      if (line.dueOn && order.orderedOn && line.dueOn < order.orderedOn)
+        context.addIssue({ code: 'custom', path: ['lines', index, 'dueOn'], message: 'Due on or after the order date' });
+    });
   });
-});
 export type PurchaseOrderInput = z.input<typeof purchaseOrderInputSchema>;
 
 const optionalId = z.preprocess((v) => (v === '' ? undefined : v), z.coerce.number().int().positive().optional());

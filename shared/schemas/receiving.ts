@@ -81,7 +81,16 @@ export type LotView = PieceQuantities & {
   purchaseOrder: { id: number; number: string; supplier: { id: number; name: string } };
   line: { id: number; lineNumber: number; quantity: number; inspectionLevel: string; aql: number; hundredPercent: boolean; spec: PartSpec };
   /** The sampling plan drawn at receipt (null while the lot waits without one): Table 1's code letter and the plan's letter. */
-  plan: { severity: string; codeLetter: string; planLetter: string; sampleSize: number; accept: number; reject: number; hundredPercent: boolean; summary: string } | null;
+  plan: {
+    severity: string;
+    codeLetter: string;
+    planLetter: string;
+    sampleSize: number;
+    accept: number;
+    reject: number;
+    hundredPercent: boolean;
+    summary: string;
+  } | null;
   part: { id: number; number: string; description: string };
   pieceStates: Partial<Record<PieceState, number>>;
   pieces: { id: number; serial: string; state: PieceState; location: string | null }[];
@@ -98,10 +107,30 @@ export type PieceHistoryView = {
   supplier: { id: number; name: string };
   purchaseOrder: { id: number; number: string; lineNumber: number };
   lot: { id: number; supplierLot: string; state: LotState };
-  moves: { id: number; at: string; reason: MoveReason; from: string | null; to: string | null; workOrder: string | null; note: string | null; who: string | null }[];
+  moves: {
+    id: number;
+    at: string;
+    reason: MoveReason;
+    from: string | null;
+    to: string | null;
+    workOrder: string | null;
+    note: string | null;
+    who: string | null;
+  }[];
   history: HistoryEntry[];
   /** What the bench measured on this piece (superseded results too) and the lot's documents. */
-  readings: { wavelengthNm: number; verdict: 'pass' | 'fail' | 'incomplete'; retardanceWaves: number | null; retardanceErrorWaves: number | null; axisErrorDeg: number | null; reasons: string[]; file: string; instrument: string; measuredAt: string; current: boolean }[];
+  readings: {
+    wavelengthNm: number;
+    verdict: 'pass' | 'fail' | 'incomplete';
+    retardanceWaves: number | null;
+    retardanceErrorWaves: number | null;
+    axisErrorDeg: number | null;
+    reasons: string[];
+    file: string;
+    instrument: string;
+    measuredAt: string;
+    current: boolean;
+  }[];
   documents: { number: string; kind: 'certificate' | 'inspection-report'; issuedAt: string; revokedAt: string | null }[];
   /** Set when the piece failed inspection and is in use under its lot's signed use-as-is decision. */
   releasedAsIs: { deviationNumber: string; justification: string | null; signedBy: string | null; signedAt: string } | null;

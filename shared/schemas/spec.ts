@@ -24,11 +24,13 @@ export const DECISION_RULE_LABELS: Record<(typeof DECISION_RULES)[number], strin
 };
 
 /** Empty form inputs (blank text, NaN from a number field, null) mean "not given". */
-const blankToUndefined = (value: unknown) =>
-  value === '' || value === null || (typeof value === 'number' && Number.isNaN(value)) ? undefined : value;
+const blankToUndefined = (value: unknown) => (value === '' || value === null || (typeof value === 'number' && Number.isNaN(value)) ? undefined : value);
 
 const positive = (label: string, max: number) =>
-  z.coerce.number({ error: `${label} must be a number` }).positive(`${label} must be greater than 0`).max(max, `${label} is at most ${max}`);
+  z.coerce
+    .number({ error: `${label} must be a number` })
+    .positive(`${label} must be greater than 0`)
+    .max(max, `${label} is at most ${max}`);
 
 const optionalPositive = (label: string) => z.preprocess(blankToUndefined, positive(label, 20_000).optional());
 

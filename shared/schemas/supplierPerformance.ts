@@ -24,7 +24,9 @@ function checkPeriod(period: { from?: string; to?: string }, context: z.Refineme
 export const scorecardQuerySchema = z.object({ partId: optionalId, ...periodFields }).superRefine(checkPeriod);
 export type ScorecardQuery = z.infer<typeof scorecardQuerySchema>;
 
-export const capabilityQuerySchema = z.object({ partId: z.coerce.number({ error: 'Choose a part' }).int().positive().max(2_147_483_647), ...periodFields }).superRefine(checkPeriod);
+export const capabilityQuerySchema = z
+  .object({ partId: z.coerce.number({ error: 'Choose a part' }).int().positive().max(2_147_483_647), ...periodFields })
+  .superRefine(checkPeriod);
 export type CapabilityQuery = z.infer<typeof capabilityQuerySchema>;
 
 export const supplierRankingQuerySchema = listQuerySchema.extend(periodFields).superRefine(checkPeriod);

@@ -29,7 +29,8 @@ export type SwitchingListQuery = z.infer<typeof switchingListQuerySchema>;
 /** What each signature means, shown before signing and kept in the audit trail. */
 export const RESUME_MEANING =
   'I resume acceptance inspection of this part from this supplier on tightened inspection: the supplier has acted to improve the quality of what it submits.';
-export const OVERRIDE_MEANING = 'I put this part from this supplier on the severity chosen, for the reason given, in place of what the switching rules reached.';
+export const OVERRIDE_MEANING =
+  'I put this part from this supplier on the severity chosen, for the reason given, in place of what the switching rules reached.';
 
 const signature = {
   password: z.string().min(1, 'Re-enter your password to sign'),
@@ -46,7 +47,8 @@ export const resumeInspectionSchema = z
     reference: z.string().trim().max(80).optional(),
   })
   .superRefine((value, ctx) => {
-    if (!value.correctiveActionId && !value.reference) ctx.addIssue({ code: 'custom', path: ['reference'], message: 'Choose the accepted corrective-action request, or give the reference of the action' });
+    if (!value.correctiveActionId && !value.reference)
+      ctx.addIssue({ code: 'custom', path: ['reference'], message: 'Choose the accepted corrective-action request, or give the reference of the action' });
   });
 export type ResumeInspectionInput = z.infer<typeof resumeInspectionSchema>;
 

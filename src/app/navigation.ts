@@ -1,6 +1,23 @@
 // The app's areas, each shown only to roles holding its permission (the server enforces them anyway).
 import type { LucideIcon } from 'lucide-react';
-import { Archive, ArrowDownUp, ChartLine, ClipboardCheck, FileCheck2, Gauge, Layers, Mail, Microscope, OctagonAlert, PackageOpen, ReceiptText, ScrollText, Settings, Users, Warehouse } from 'lucide-react';
+import {
+  Archive,
+  ArrowDownUp,
+  ChartLine,
+  ClipboardCheck,
+  FileCheck2,
+  Gauge,
+  Layers,
+  Mail,
+  Microscope,
+  OctagonAlert,
+  PackageOpen,
+  ReceiptText,
+  ScrollText,
+  Settings,
+  Users,
+  Warehouse,
+} from 'lucide-react';
 import { ShieldAlert, Wrench } from 'lucide-react';
 import type { Permission } from '@shared/policies';
 

@@ -121,13 +121,25 @@ export function DataTable<T>({ columns, data, total, state, onChange, isLoading,
           {first}–{last} of {total}
         </span>
         <div className="flex items-center gap-1">
-          <button type="button" aria-label="Previous page" className="rounded p-1 hover:bg-paper-sunk disabled:opacity-40" disabled={state.page <= 1} onClick={() => onChange({ page: state.page - 1 })}>
+          <button
+            type="button"
+            aria-label="Previous page"
+            className="rounded p-1 hover:bg-paper-sunk disabled:opacity-40"
+            disabled={state.page <= 1}
+            onClick={() => onChange({ page: state.page - 1 })}
+          >
             <ChevronLeft className="h-4 w-4" />
           </button>
           <span>
             page {state.page} / {pages}
           </span>
-          <button type="button" aria-label="Next page" className="rounded p-1 hover:bg-paper-sunk disabled:opacity-40" disabled={state.page >= pages} onClick={() => onChange({ page: state.page + 1 })}>
+          <button
+            type="button"
+            aria-label="Next page"
+            className="rounded p-1 hover:bg-paper-sunk disabled:opacity-40"
+            disabled={state.page >= pages}
+            onClick={() => onChange({ page: state.page + 1 })}
+          >
             <ChevronRight className="h-4 w-4" />
           </button>
         </div>

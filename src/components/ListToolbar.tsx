@@ -41,7 +41,11 @@ export function ListToolbar({ list, filters, placeholder, exportPath, summary, c
       {children}
       <div className="ml-auto flex items-center gap-3 text-xs text-ink-muted">
         {summary}
-        <a href={apiUrl(exportPath, { q, sort, ...filters, format: 'csv' })} className="inline-flex items-center gap-1 rounded border border-paper-line bg-paper-card px-2 py-1 text-ink no-underline hover:bg-paper-sunk" download>
+        <a
+          href={apiUrl(exportPath, { q, sort, ...filters, format: 'csv' })}
+          className="inline-flex items-center gap-1 rounded border border-paper-line bg-paper-card px-2 py-1 text-ink no-underline hover:bg-paper-sunk"
+          download
+        >
           <Download className="h-3.5 w-3.5" aria-hidden /> CSV
         </a>
       </div>
@@ -50,7 +54,17 @@ export function ListToolbar({ list, filters, placeholder, exportPath, summary, c
 }
 
 /** A filter drop-down of a list; the empty choice shows everything. */
-export function FilterSelect({ label, value, options, onChange }: { label: string; value?: string; options: { value: string; label: string }[]; onChange: (value: string | undefined) => void }) {
+export function FilterSelect({
+  label,
+  value,
+  options,
+  onChange,
+}: {
+  label: string;
+  value?: string;
+  options: { value: string; label: string }[];
+  onChange: (value: string | undefined) => void;
+}) {
   return (
     <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
       {label}

@@ -35,7 +35,11 @@ export function PieceOutcomes({ quantities }: { quantities: PieceQuantities }) {
 /** The three figures as sortable list columns (the server sorts by the same keys). */
 export function outcomeColumns<T extends PieceQuantities>(column: ColumnHelper<T>) {
   return PIECE_OUTCOMES.map((outcome) =>
-    column.accessor((row) => row[outcome.key], { id: outcome.key, header: outcome.label, cell: ({ getValue }) => <OutcomeFigure outcome={outcome} value={getValue()} /> }),
+    column.accessor((row) => row[outcome.key], {
+      id: outcome.key,
+      header: outcome.label,
+      cell: ({ getValue }) => <OutcomeFigure outcome={outcome} value={getValue()} />,
+    }),
   );
 }
 

@@ -19,7 +19,15 @@ export function SpecSummary({ spec }: { spec: PartSpec }) {
         ['Construction', constructionText(spec)],
         ['Material', MATERIAL_LABELS[spec.material]],
         ['Size', `Ø ${spec.diameterMm} mm, clear aperture ${spec.clearApertureMm} mm`],
-        ['Limits', [spec.maxDiattenuation !== undefined && `diattenuation ≤ ${spec.maxDiattenuation}`, spec.maxDepolarization !== undefined && `depolarisation ≤ ${spec.maxDepolarization}`].filter(Boolean).join(', ') || 'none'],
+        [
+          'Limits',
+          [
+            spec.maxDiattenuation !== undefined && `diattenuation ≤ ${spec.maxDiattenuation}`,
+            spec.maxDepolarization !== undefined && `depolarisation ≤ ${spec.maxDepolarization}`,
+          ]
+            .filter(Boolean)
+            .join(', ') || 'none',
+        ],
         ['Decision rule', DECISION_RULE_LABELS[spec.decisionRule]],
       ]}
     />

@@ -13,7 +13,11 @@ type ListQuery = Record<string, string | number | undefined>;
 /** A count older than this is asked again with the next page. */
 const COUNT_FRESH_MS = 60_000;
 
-const countKey = (pageKey: QueryKey, { page: _page, pageSize: _pageSize, sort: _sort, ...filter }: ListQuery): QueryKey => [...pageKey.slice(0, -1), 'count', filter];
+const countKey = (pageKey: QueryKey, { page: _page, pageSize: _pageSize, sort: _sort, ...filter }: ListQuery): QueryKey => [
+  ...pageKey.slice(0, -1),
+  'count',
+  filter,
+];
 
 /** The query function of one page of the list at `path`; its query key must end with `query`. */
 export function listPage<T>(path: string, query: ListQuery): QueryFunction<Listed<T>> {

@@ -31,7 +31,10 @@ describe('purchasing and receiving in the browser', () => {
     await form.getByLabel('AQL of line 1').selectOption('0.65');
     // 50 pieces at level II: code letter D; at AQL 0.65 on normal inspection its arrow leads to F,
     // n = 20, Ac 0 / Re 1 (Tables 1 and 2-A; AQLSchemes R/AAZ14Single.R, normal row D at 0.65: 20, 0/1).
-    await form.getByRole('row', { name: 'Sampling plan of line 1' }).getByText('Code letter D (plan of letter F after the arrow), n = 20, Ac 0 / Re 1').waitFor();
+    await form
+      .getByRole('row', { name: 'Sampling plan of line 1' })
+      .getByText('Code letter D (plan of letter F after the arrow), n = 20, Ac 0 / Re 1')
+      .waitFor();
     await form.getByRole('button', { name: 'Add line' }).click();
     await form.getByLabel('Part of line 2').selectOption({ label: 'VW-HWP-532 — Half-wave plate, 532 nm, Ø10 mm, MgF₂' });
     await form.getByLabel('Quantity of line 2').fill('10');

@@ -58,7 +58,9 @@ describe('the web surface in the browser', () => {
     const supplierLot = `SL-${uniqueTag()}`;
     const fields = { poLineId: line.lineId, packingSlipNumber: `PS-${uniqueTag()}`, supplierLot, quantity: 2, serials: `${supplierLot}-1, ${supplierLot}-2` };
     attackPage = `<!doctype html><form method="post" enctype="multipart/form-data" action="${rig.baseUrl}/api/shipments">
-      ${Object.entries(fields).map(([name, value]) => `<input type="hidden" name="${name}" value="${value}">`).join('')}
+      ${Object.entries(fields)
+        .map(([name, value]) => `<input type="hidden" name="${name}" value="${value}">`)
+        .join('')}
       </form><script>document.forms[0].submit()</script>`;
     const { email, password } = await freshUser(['clerk']);
     const context = await rig.browser.newContext();
@@ -69,10 +71,11 @@ describe('the web surface in the browser', () => {
     const response = await answer;
     expect(response.status()).toBe(403);
     expect((await response.json()).error).toMatchObject({ code: 'cross_origin', message: expect.stringContaining(otherOrigin) });
-    expect(await sequelize.query('SELECT id FROM lots WHERE supplier_lot = :supplierLot', { type: QueryTypes.SELECT, replacements: { supplierLot } })).toEqual([]);
+    expect(await sequelize.query('SELECT id FROM lots WHERE supplier_lot = :supplierLot', { type: QueryTypes.SELECT, replacements: { supplierLot } })).toEqual(
+      [],
+    );
     await context.close();
   });
-
 });
 
 describe('every page under the content security policy', () => {
@@ -91,11 +94,37 @@ describe('every page under the content security policy', () => {
   afterAll(async () => page?.context().close());
 
   const pages = [
-    '/', '/purchasing/orders', '/purchasing/orders/new', '/purchasing/parts', '/purchasing/parts/:part', '/purchasing/suppliers',
-    '/receiving', '/receiving/new', '/lots', '/lots/:lot', '/stock', '/stock/moves', '/stock/issue', '/stock/transfer', '/stock/put-away',
-    '/pieces/:serial', '/inspection', '/inspection/lots/:lot', '/instruments', '/certificates', '/exports', '/audit',
-    '/admin/users', '/admin/settings', '/admin/mail', '/verify?number=:number&hash=:hash',
-    '/deviations', '/deviations/new', '/corrective-actions', '/corrective-actions/new', '/respond',
+    '/',
+    '/purchasing/orders',
+    '/purchasing/orders/new',
+    '/purchasing/parts',
+    '/purchasing/parts/:part',
+    '/purchasing/suppliers',
+    '/receiving',
+    '/receiving/new',
+    '/lots',
+    '/lots/:lot',
+    '/stock',
+    '/stock/moves',
+    '/stock/issue',
+    '/stock/transfer',
+    '/stock/put-away',
+    '/pieces/:serial',
+    '/inspection',
+    '/inspection/lots/:lot',
+    '/instruments',
+    '/certificates',
+    '/exports',
+    '/audit',
+    '/admin/users',
+    '/admin/settings',
+    '/admin/mail',
+    '/verify?number=:number&hash=:hash',
+    '/deviations',
+    '/deviations/new',
+    '/corrective-actions',
+    '/corrective-actions/new',
+    '/respond',
   ];
 
   it.each(pages)('%s shows without a violation or console error', async (path) => {

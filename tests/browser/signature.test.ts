@@ -22,7 +22,12 @@ async function measure(lotId: number, serials: string[], failing: string[] = [])
     serials.map((serial) => ({ serial, wavelengthNm: 632.8, retardanceWaves: failing.includes(serial) ? 0.2555 : 0.2501, fastAxisDeg: 0.05 })),
     { instrument: 'BENCH-2', date: new Date().toISOString().slice(0, 10), noise: 0.0004, seed: serials.length },
   );
-  await (await as('inspector')).post(`/api/inspection/lots/${lotId}/measurements`).attach('files', Buffer.from(file), { filename: 'bench.csv', contentType: 'text/csv' }).expect(201);
+  await (
+    await as('inspector')
+  )
+    .post(`/api/inspection/lots/${lotId}/measurements`)
+    .attach('files', Buffer.from(file), { filename: 'bench.csv', contentType: 'text/csv' })
+    .expect(201);
 }
 
 /** A lot whose measured sample proposes a rejection: its first two sample pieces are out of tolerance. */
@@ -81,7 +86,10 @@ describe('signing a lot disposition in the browser', () => {
     expect(text).toContain(deviation.number);
     const signed = await currentDecision(lot.lotId);
     expect(signed.decision).toBe('use-as-is');
-    const documents = (await (await as('quality')).get(`/api/inspection/lots/${lot.lotId}`).expect(200)).body.documents as { number: string; revokedAt: string | null }[];
+    const documents = (await (await as('quality')).get(`/api/inspection/lots/${lot.lotId}`).expect(200)).body.documents as {
+      number: string;
+      revokedAt: string | null;
+    }[];
     expect(documents.length).toBeGreaterThan(0);
     for (const d of documents) expect(await decision.getByRole('link', { name: d.number }).count()).toBe(1);
 
@@ -134,14 +142,20 @@ describe('signing a lot disposition in the browser', () => {
     for (let attempt = 1; attempt <= 5; attempt++) {
       await form.getByLabel(/Your password/).fill(`wrong-${attempt}`);
       await form.getByRole('button', { name: 'Sign: Reject to vendor' }).click();
-      await form.getByRole('alert').filter({ hasText: attempt < 5 ? `${5 - attempt} tr` : 'is locked until' }).waitFor();
+      await form
+        .getByRole('alert')
+        .filter({ hasText: attempt < 5 ? `${5 - attempt} tr` : 'is locked until' })
+        .waitFor();
     }
     expect(await form.getByLabel('Reject to vendor').isChecked()).toBe(true);
     expect(await form.getByLabel('Note (optional)').inputValue()).toBe('Two plates out of tolerance at 632.8 nm');
     // Even the right password is refused while locked, with the same message and nothing signed.
     await form.getByLabel(/Your password/).fill(manager.password);
     await form.getByRole('button', { name: 'Sign: Reject to vendor' }).click();
-    await form.getByRole('alert').filter({ hasText: /^Signing is locked until/ }).waitFor();
+    await form
+      .getByRole('alert')
+      .filter({ hasText: /^Signing is locked until/ })
+      .waitFor();
     expect(await currentDecision(lot.lotId)).toBeNull();
     expect(new URL(page.url()).pathname).toBe(`/inspection/lots/${lot.lotId}`);
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Lots' }).click();
@@ -154,7 +168,13 @@ describe('signing a lot disposition in the browser', () => {
     const quality = await as('quality');
     await quality
       .post(`/api/inspection/lots/${lot.lotId}/dispositions`)
-      .send({ decision: 'sort', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: null, justification: 'Sort at our bench; supplier informed' })
+      .send({
+        decision: 'sort',
+        password: 'phaselot-demo',
+        meaningAcknowledged: true,
+        expectedDispositionId: null,
+        justification: 'Sort at our bench; supplier informed',
+      })
       .expect(201);
     const view = (await quality.get(`/api/inspection/lots/${lot.lotId}`).expect(200)).body;
     const unmeasured: string[] = view.pieces.filter((p: { results: unknown[] }) => p.results.length === 0).map((p: { serial: string }) => p.serial);
@@ -183,7 +203,11 @@ describe('signing a lot disposition in the browser', () => {
     await page.goto(`${rig.baseUrl}/inspection/lots/${lot.lotId}`);
     await page.locator('[data-state="sorted"]').waitFor();
     expect(await decision.getByText('100 % sort under way').count()).toBe(0);
-    const documents = (await quality.get(`/api/inspection/lots/${lot.lotId}`).expect(200)).body.documents as { number: string; kind: string; revokedAt: string | null }[];
+    const documents = (await quality.get(`/api/inspection/lots/${lot.lotId}`).expect(200)).body.documents as {
+      number: string;
+      kind: string;
+      revokedAt: string | null;
+    }[];
     const certificate = documents.find((d) => d.kind === 'certificate' && !d.revokedAt);
     expect(certificate).toBeDefined();
     await decision.getByRole('link', { name: certificate!.number }).waitFor();
@@ -199,7 +223,11 @@ describe('signing a lot disposition in the browser', () => {
       .expect(201);
     // A plain rejection sends every piece back; the two measured out of tolerance are the nonconforming ones.
     const figures = (await quality.get(`/api/lots/${lot.lotId}`).expect(200)).body;
-    expect({ accepted: figures.accepted, nonconforming: figures.nonconforming, returned: figures.returned }).toEqual({ accepted: 0, nonconforming: 2, returned: 20 });
+    expect({ accepted: figures.accepted, nonconforming: figures.nonconforming, returned: figures.returned }).toEqual({
+      accepted: 0,
+      nonconforming: 2,
+      returned: 20,
+    });
     const shown = '0 accepted2 nonconforming20 returned';
 
     const page = await signedInPage(rig, 'buyer');
@@ -213,7 +241,12 @@ describe('signing a lot disposition in the browser', () => {
     await row.waitFor();
     const headers = (await page.getByRole('columnheader').allTextContents()).map((h) => h.trim());
     const cells = (await row.getByRole('cell').allTextContents()).map((c) => c.trim());
-    for (const [header, value] of [['Accepted', '0'], ['Nonconforming', '2'], ['Returned', '20']]) expect(cells[headers.indexOf(header)]).toBe(value);
+    for (const [header, value] of [
+      ['Accepted', '0'],
+      ['Nonconforming', '2'],
+      ['Returned', '20'],
+    ])
+      expect(cells[headers.indexOf(header)]).toBe(value);
     await page.screenshot({ path: join(shots, 'lots-desktop.png'), fullPage: true });
 
     const po = (await quality.get('/api/purchase-orders').query({ q: lot.poNumber }).expect(200)).body.data[0];

@@ -26,7 +26,8 @@ describe('supplier performance in the browser', () => {
 
     await page.getByRole('heading', { name: 'Corvane Polarisation Works' }).waitFor();
     const scorecard = page.getByLabel('Scorecard');
-    for (const label of ['Lots received', 'Lot acceptance', 'Nonconforming', 'On time', 'Open NCRs', 'Open corrective actions']) await scorecard.getByText(label, { exact: true }).waitFor();
+    for (const label of ['Lots received', 'Lot acceptance', 'Nonconforming', 'On time', 'Open NCRs', 'Open corrective actions'])
+      await scorecard.getByText(label, { exact: true }).waitFor();
     const parts = page.getByRole('region', { name: 'Parts' });
     await parts.getByRole('row').filter({ hasText: 'VW-QWP-1064' }).waitFor();
 

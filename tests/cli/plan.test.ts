@@ -29,9 +29,19 @@ describe('npm run -s plan -- --lot-size N --level L --aql A --severity S', () =>
     // 10 pieces at level II: code letter B; reduced at AQL 10: C's 0/2 plan, n = 2 (reduced c16 row B:
     // Ac 0, Re 2; ss 2). Normal at AQL 1.0: E, n = 13 ≥ 10 (normal ss row B col 1.0 = 13).
     expect(JSON.parse(plan(['--lot-size', '10', '--level', 'II', '--aql', '10', '--severity', 'reduced']).stdout)).toEqual({
-      codeLetter: 'B', planLetter: 'C', sampleSize: 2, accept: 0, reject: 2, severity: 'reduced', hundredPercent: false,
+      codeLetter: 'B',
+      planLetter: 'C',
+      sampleSize: 2,
+      accept: 0,
+      reject: 2,
+      severity: 'reduced',
+      hundredPercent: false,
     });
-    expect(JSON.parse(plan(['--lot-size', '10', '--level', 'II', '--aql', '1', '--severity', 'normal']).stdout)).toMatchObject({ planLetter: 'E', sampleSize: 13, hundredPercent: true });
+    expect(JSON.parse(plan(['--lot-size', '10', '--level', 'II', '--aql', '1', '--severity', 'normal']).stdout)).toMatchObject({
+      planLetter: 'E',
+      sampleSize: 13,
+      hundredPercent: true,
+    });
   });
 
   it('exits 2 with the reason on standard error for missing, unknown or invalid arguments', () => {
@@ -43,7 +53,9 @@ describe('npm run -s plan -- --lot-size N --level L --aql A --severity S', () =>
     expect(unknown.stderr).toMatch(/Unknown option '--lvl'/);
     const invalid = plan(['--lot-size', '12.5', '--level', 'IV', '--aql', '0.3', '--severity', 'normal']);
     expect(invalid.status).toBe(2);
-    expect(invalid.stderr).toBe('plan: lot size must be a whole number of pieces; inspection level must be one of S-1, S-2, S-3, S-4, I, II, III; AQL must be one of 0.065, 0.1, 0.15, 0.25, 0.4, 0.65, 1, 1.5, 2.5, 4, 6.5, 10 (percent nonconforming)\n');
+    expect(invalid.stderr).toBe(
+      'plan: lot size must be a whole number of pieces; inspection level must be one of S-1, S-2, S-3, S-4, I, II, III; AQL must be one of 0.065, 0.1, 0.15, 0.25, 0.4, 0.65, 1, 1.5, 2.5, 4, 6.5, 10 (percent nonconforming)\n',
+    );
     expect(plan(['--batch', '--aql', '1']).status).toBe(2);
   });
 });
@@ -61,7 +73,15 @@ describe('npm run -s plan -- --batch', () => {
     // 1500 pieces at level III: code letter L (Table 1, row 1201-3200); reduced at AQL 2.5: L, n = 80,
     // Ac 5 / Re 8 (reduced ss row L col 2.5 = 80, c13 = 5, re c13 = 8).
     const index = queries.findIndex((q) => q.level === 'III' && q.aql === 2.5 && q.severity === 'reduced');
-    expect(JSON.parse(lines[index])).toEqual({ codeLetter: 'L', planLetter: 'L', sampleSize: 80, accept: 5, reject: 8, severity: 'reduced', hundredPercent: false });
+    expect(JSON.parse(lines[index])).toEqual({
+      codeLetter: 'L',
+      planLetter: 'L',
+      sampleSize: 80,
+      accept: 5,
+      reject: 8,
+      severity: 'reduced',
+      hundredPercent: false,
+    });
   });
 
   it('answers a bad line with an error on that line and goes on', () => {
@@ -76,7 +96,10 @@ describe('npm run -s plan -- --batch', () => {
     ].join('\r\n');
     const run = plan(['--batch'], input);
     expect(run.status).toBe(0);
-    const lines = run.stdout.trimEnd().split('\n').map((line) => JSON.parse(line));
+    const lines = run.stdout
+      .trimEnd()
+      .split('\n')
+      .map((line) => JSON.parse(line));
     expect(lines).toHaveLength(7);
     // 400 at II: H, n = 50, Ac 1 / Re 2 (normal ss row H col 1.0 = 50, c11 = 1).
     expect(lines[0]).toMatchObject({ codeLetter: 'H', planLetter: 'H', sampleSize: 50, accept: 1, reject: 2 });

@@ -31,7 +31,18 @@ async function census(url: string) {
   const client = new pg.Client({ connectionString: url });
   await client.connect();
   try {
-    const tables = ['users', 'lots', 'pieces', 'measurement_files', 'readings', 'piece_results', 'dispositions', 'lot_documents', 'audit_events', 'stock_moves'];
+    const tables = [
+      'users',
+      'lots',
+      'pieces',
+      'measurement_files',
+      'readings',
+      'piece_results',
+      'dispositions',
+      'lot_documents',
+      'audit_events',
+      'stock_moves',
+    ];
     const counts: Record<string, number> = {};
     for (const table of tables) counts[table] = Number((await client.query(`SELECT count(*) FROM ${table}`)).rows[0].count);
     const head = (await client.query('SELECT seq, hash FROM audit_chain_head')).rows[0];
@@ -93,7 +104,11 @@ describe('backup and restore', () => {
       UPLOAD_DIR: restoredFiles,
       JWT_SECRET: randomBytes(32).toString('base64url'),
     };
-    const { stdout } = await run(join(import.meta.dirname, '../../node_modules/.bin/tsx'), [join(import.meta.dirname, 'check-restored.ts'), lot.certificate.number, lot.certificate.dataHash], { env });
+    const { stdout } = await run(
+      join(import.meta.dirname, '../../node_modules/.bin/tsx'),
+      [join(import.meta.dirname, 'check-restored.ts'), lot.certificate.number, lot.certificate.dataHash],
+      { env },
+    );
     const check = JSON.parse(stdout.trim().split('\n').pop()!);
     expect(check.chain).toMatchObject({ status: 200, intact: true, problems: [] });
     expect(check.chain.checked).toBeGreaterThan(Number(before.head.seq));

@@ -15,7 +15,15 @@ process.stdout.write(
   `${JSON.stringify({
     chain: { status: chain.status, ...chain.body },
     certificate: { status: certificate.status, ...certificate.body },
-    pdf: { status: pdf.status, sha256: pdf.status === 200 ? createHash('sha256').update(pdf.body as Buffer).digest('hex') : null },
+    pdf: {
+      status: pdf.status,
+      sha256:
+        pdf.status === 200
+          ? createHash('sha256')
+              .update(pdf.body as Buffer)
+              .digest('hex')
+          : null,
+    },
   })}\n`,
 );
 process.exit(0);

@@ -62,7 +62,9 @@ describe('a database from before the roles', () => {
 
     await withClient(databaseUrl(port, legacy, 'owner'), async (client) => {
       expect(await count(client, FOREIGN_OWNED)).toBe(0);
-      expect((await client.query('SELECT pg_catalog.pg_get_userbyid(datdba) AS owner FROM pg_database WHERE datname = current_database()')).rows[0].owner).toBe(ROLES.owner);
+      expect((await client.query('SELECT pg_catalog.pg_get_userbyid(datdba) AS owner FROM pg_database WHERE datname = current_database()')).rows[0].owner).toBe(
+        ROLES.owner,
+      );
       expect(await count(client, 'SELECT count(*) FROM audit_events')).toBe(written.events);
     });
     await withClient(databaseUrl(port, legacy, 'app'), async (client) => {

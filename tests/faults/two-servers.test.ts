@@ -98,7 +98,13 @@ async function startPhaselot(name: string, env: Record<string, string>): Promise
   const url = `http://127.0.0.1:${port}`;
   await until(`${name} to answer`, async () => {
     if (child.exitCode !== null) throw new Error(`${name} exited: ${logs.map((l) => l.msg).join('\n')}`);
-    return (await request(url).get('/api/health').catch(() => null))?.status === 200;
+    return (
+      (
+        await request(url)
+          .get('/api/health')
+          .catch(() => null)
+      )?.status === 200
+    );
   });
   await until(`${name} to work jobs`, async () => logs.some((l) => l.msg.startsWith('Phaselot listening')));
   return { name, url, child, logs, exited };
@@ -164,9 +170,15 @@ async function signIn(server: Phaselot, role: Role) {
 }
 
 function benchOf(serials: string[], retardanceWaves: number) {
-  return stokesBenchFile(serials.map((serial) => ({ serial, wavelengthNm: 632.8, retardanceWaves, fastAxisDeg: 0.05 })), {
-    instrument: 'BENCH-2', date: TODAY, noise: 0.0004, seed: serials.length,
-  });
+  return stokesBenchFile(
+    serials.map((serial) => ({ serial, wavelengthNm: 632.8, retardanceWaves, fastAxisDeg: 0.05 })),
+    {
+      instrument: 'BENCH-2',
+      date: TODAY,
+      noise: 0.0004,
+      seed: serials.length,
+    },
+  );
 }
 
 describe('two server processes', () => {
@@ -181,34 +193,57 @@ describe('two server processes', () => {
     const rejectedView = await request(two.url).get(`/api/inspection/lots/${rejected.lotId}`).set('Authorization', inspector).expect(200);
     const rejectedSample = (rejectedView.body.pieces as { serial: string; inSample: boolean }[]).filter((p) => p.inSample).map((p) => p.serial);
     const badFile = benchOf(rejectedSample, 0.256);
-    await request(two.url).post(`/api/inspection/lots/${rejected.lotId}/measurements`).set('Authorization', inspector)
-      .attach('files', Buffer.from(badFile), { filename: 'bench.csv', contentType: 'text/csv' }).expect(201);
-    await request(one.url).post(`/api/inspection/lots/${rejected.lotId}/dispositions`).set('Authorization', quality)
-      .send({ decision: 'reject', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: null, justification: 'Retardance far out of tolerance' })
+    await request(two.url)
+      .post(`/api/inspection/lots/${rejected.lotId}/measurements`)
+      .set('Authorization', inspector)
+      .attach('files', Buffer.from(badFile), { filename: 'bench.csv', contentType: 'text/csv' })
+      .expect(201);
+    await request(one.url)
+      .post(`/api/inspection/lots/${rejected.lotId}/dispositions`)
+      .set('Authorization', quality)
+      .send({
+        decision: 'reject',
+        password: 'phaselot-demo',
+        meaningAcknowledged: true,
+        expectedDispositionId: null,
+        justification: 'Retardance far out of tolerance',
+      })
       .expect(201);
 
     // A lot within tolerance: measured through one, accepted through two, its certificate served by both.
     const accepted = await receivedLot({ quantity: 8 });
     const acceptedView = await request(one.url).get(`/api/inspection/lots/${accepted.lotId}`).set('Authorization', inspector).expect(200);
     const acceptedSample = (acceptedView.body.pieces as { serial: string; inSample: boolean }[]).filter((p) => p.inSample).map((p) => p.serial);
-    await request(one.url).post(`/api/inspection/lots/${accepted.lotId}/measurements`).set('Authorization', inspector)
-      .attach('files', Buffer.from(benchOf(acceptedSample, 0.2501)), { filename: 'bench.csv', contentType: 'text/csv' }).expect(201);
-    const signed = await request(two.url).post(`/api/inspection/lots/${accepted.lotId}/dispositions`).set('Authorization', quality)
-      .send({ decision: 'accept', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: null }).expect(201);
+    await request(one.url)
+      .post(`/api/inspection/lots/${accepted.lotId}/measurements`)
+      .set('Authorization', inspector)
+      .attach('files', Buffer.from(benchOf(acceptedSample, 0.2501)), { filename: 'bench.csv', contentType: 'text/csv' })
+      .expect(201);
+    const signed = await request(two.url)
+      .post(`/api/inspection/lots/${accepted.lotId}/dispositions`)
+      .set('Authorization', quality)
+      .send({ decision: 'accept', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: null })
+      .expect(201);
     const certificate = (signed.body.documents as { number: string; kind: string }[]).find((d) => d.kind === 'certificate')!;
     const [{ pdf_sha256: pdfSha256 }] = await sequelize.query<{ pdf_sha256: string }>('SELECT pdf_sha256 FROM lot_documents WHERE number = :number', {
-      type: QueryTypes.SELECT, replacements: { number: certificate.number },
+      type: QueryTypes.SELECT,
+      replacements: { number: certificate.number },
     });
-    const served = await Promise.all([one, two].map(async (server) => {
-      const response = await request(server.url).get(`/api/documents/${certificate.number}.pdf`).set('Authorization', auditor).buffer(true)
-        .parse((res, done) => {
-          const chunks: Buffer[] = [];
-          res.on('data', (chunk: Buffer) => chunks.push(chunk));
-          res.on('end', () => done(null, Buffer.concat(chunks)));
-        })
-        .expect(200);
-      return response.body as Buffer;
-    }));
+    const served = await Promise.all(
+      [one, two].map(async (server) => {
+        const response = await request(server.url)
+          .get(`/api/documents/${certificate.number}.pdf`)
+          .set('Authorization', auditor)
+          .buffer(true)
+          .parse((res, done) => {
+            const chunks: Buffer[] = [];
+            res.on('data', (chunk: Buffer) => chunks.push(chunk));
+            res.on('end', () => done(null, Buffer.concat(chunks)));
+          })
+          .expect(200);
+        return response.body as Buffer;
+      }),
+    );
     expect(sha256(served[0])).toBe(pdfSha256);
     expect(served[1].equals(served[0])).toBe(true);
 
@@ -225,27 +260,40 @@ describe('two server processes', () => {
 
     // An export caught in the middle: its PDF reads are held back, the process building it killed.
     proxy.hold();
-    const started = await request(one.url).post('/api/exports').set('Authorization', auditor).send({ from: TODAY, to: TODAY, supplierId: accepted.supplierId }).expect(202);
+    const started = await request(one.url)
+      .post('/api/exports')
+      .set('Authorization', auditor)
+      .send({ from: TODAY, to: TODAY, supplierId: accepted.supplierId })
+      .expect(202);
     const exportId = started.body.id as number;
     const builder = await until('a process to start the export', async () =>
-      [one, two].find((server) => server.logs.some((l) => l.msg === 'export build started' && l.exportJob === exportId)));
+      [one, two].find((server) => server.logs.some((l) => l.msg === 'export build started' && l.exportJob === exportId)),
+    );
     await until('the export to wait for a PDF', async () => proxy.held() > 0);
     builder.child.kill('SIGKILL');
     await builder.exited;
     proxy.release();
     const survivor = builder === one ? two : one;
 
-    const finished = await until('the export to be finished by the other process', async () => {
-      const job = (await request(survivor.url).get(`/api/exports/${exportId}`).set('Authorization', auditor).expect(200)).body;
-      return job.status === 'done' || job.status === 'failed' ? job : null;
-    }, 900);
+    const finished = await until(
+      'the export to be finished by the other process',
+      async () => {
+        const job = (await request(survivor.url).get(`/api/exports/${exportId}`).set('Authorization', auditor).expect(200)).body;
+        return job.status === 'done' || job.status === 'failed' ? job : null;
+      },
+      900,
+    );
     expect(finished).toMatchObject({ status: 'done', error: null });
     expect(survivor.logs.some((l) => l.msg === 'export build started' && l.exportJob === exportId && l.attempt === 1)).toBe(true);
 
     // The queue's own record: completed on the second try (one retry after the killed one).
-    const [{ queue_job_id: queueJobId, attempt }] = await sequelize.query<{ queue_job_id: string; attempt: number }>('SELECT queue_job_id, attempt FROM export_jobs WHERE id = :id', {
-      type: QueryTypes.SELECT, replacements: { id: exportId },
-    });
+    const [{ queue_job_id: queueJobId, attempt }] = await sequelize.query<{ queue_job_id: string; attempt: number }>(
+      'SELECT queue_job_id, attempt FROM export_jobs WHERE id = :id',
+      {
+        type: QueryTypes.SELECT,
+        replacements: { id: exportId },
+      },
+    );
     expect(attempt).toBe(1);
     const [queued] = await sequelize.query<{ state: string; retry_count: number }>(
       `SELECT state, retry_count FROM pgboss.job WHERE id = :id UNION ALL SELECT state, retry_count FROM pgboss.archive WHERE id = :id`,
@@ -254,7 +302,10 @@ describe('two server processes', () => {
     expect(queued).toEqual({ state: 'completed', retry_count: 1 });
 
     // One export file for the job in the bucket: the ZIP the job records, and no other.
-    const download = await request(survivor.url).get(`/api/exports/${exportId}/download`).set('Authorization', auditor).buffer(true)
+    const download = await request(survivor.url)
+      .get(`/api/exports/${exportId}/download`)
+      .set('Authorization', auditor)
+      .buffer(true)
       .parse((res, done) => {
         const chunks: Buffer[] = [];
         res.on('data', (chunk: Buffer) => chunks.push(chunk));

@@ -19,7 +19,9 @@ export async function acceptedLot(quantity = 20) {
     .post(`/api/inspection/lots/${lot.lotId}/measurements`)
     .attach('files', Buffer.from(file), { filename: 'bench.csv', contentType: 'text/csv' })
     .expect(201);
-  const signed = await (await as('quality'))
+  const signed = await (
+    await as('quality')
+  )
     .post(`/api/inspection/lots/${lot.lotId}/dispositions`)
     .send({ decision: 'accept', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: null })
     .expect(201);
@@ -31,9 +33,17 @@ export async function acceptedLot(quantity = 20) {
 
 /** Reverses an acceptance: the rejection supersedes it, revokes its documents and issues a report. */
 export async function rejectAfterAcceptance(lot: Awaited<ReturnType<typeof acceptedLot>>) {
-  const rejected = await (await as('quality'))
+  const rejected = await (
+    await as('quality')
+  )
     .post(`/api/inspection/lots/${lot.lotId}/dispositions`)
-    .send({ decision: 'reject', password: 'phaselot-demo', meaningAcknowledged: true, expectedDispositionId: lot.dispositionId, justification: 'Chipped edges found at kitting' })
+    .send({
+      decision: 'reject',
+      password: 'phaselot-demo',
+      meaningAcknowledged: true,
+      expectedDispositionId: lot.dispositionId,
+      justification: 'Chipped edges found at kitting',
+    })
     .expect(201);
   return rejected.body.documents as IssuedDocument[];
 }

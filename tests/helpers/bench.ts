@@ -9,7 +9,12 @@ const TODAY = new Date().toISOString().slice(0, 10);
 /** Quarter-wave plates at 632.8 nm; `bad` ones are 0.006 λ long, twice the ±0.003 λ tolerance. */
 export function benchFile(serials: string[], bad: string[] = [], instrument = 'BENCH-2') {
   return stokesBenchFile(
-    serials.map((serial, i) => ({ serial, wavelengthNm: 632.8, retardanceWaves: bad.includes(serial) ? 0.256 : 0.25 + ((i % 5) - 2) * 0.0003, fastAxisDeg: 0.1 })),
+    serials.map((serial, i) => ({
+      serial,
+      wavelengthNm: 632.8,
+      retardanceWaves: bad.includes(serial) ? 0.256 : 0.25 + ((i % 5) - 2) * 0.0003,
+      fastAxisDeg: 0.1,
+    })),
     { instrument, date: TODAY, noise: 0.0005, seed: serials.length },
   );
 }
@@ -41,7 +46,9 @@ export async function signDecision(lotId: number, decision: string, expectedDisp
 
 /** The text of an issued document (certificate or report), read back from its PDF. */
 export async function documentText(number: string) {
-  const pdf = await (await as('auditor'))
+  const pdf = await (
+    await as('auditor')
+  )
     .get(`/api/documents/${number}.pdf`)
     .buffer(true)
     .parse((res, done) => {

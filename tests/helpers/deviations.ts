@@ -44,13 +44,11 @@ export async function rejectedSample(pair: Awaited<ReturnType<typeof supplierPar
 
 /** Signs a use-as-is decision of the lot under the deviation, as the demo quality manager. */
 export const useAsIs = async (lotId: number, deviationId: number, expectedDispositionId: number | null = null) =>
-  (await as('quality'))
-    .post(`/api/inspection/lots/${lotId}/dispositions`)
-    .send({
-      decision: 'use-as-is',
-      password: DEMO_PASSWORD,
-      meaningAcknowledged: true,
-      expectedDispositionId,
-      deviationId,
-      justification: 'Harmless in the alignment jig build',
-    });
+  (await as('quality')).post(`/api/inspection/lots/${lotId}/dispositions`).send({
+    decision: 'use-as-is',
+    password: DEMO_PASSWORD,
+    meaningAcknowledged: true,
+    expectedDispositionId,
+    deviationId,
+    justification: 'Harmless in the alignment jig build',
+  });

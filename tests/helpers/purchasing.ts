@@ -15,8 +15,14 @@ export const uniqueTag = () => faker.string.alphanumeric(8).toUpperCase();
 export async function orderedLine(quantity: number, spec: PartSpecInput = QUARTER_WAVE_633) {
   const buyer = await as('buyer');
   const tag = uniqueTag();
-  const supplier = await buyer.post('/api/suppliers').send({ name: `Test supplier ${tag}`, contactEmail: `orders-${tag.toLowerCase()}@example.test` }).expect(201);
-  const part = await buyer.post('/api/parts').send({ number: `T-${tag}`, description: 'Test quarter-wave plate', spec }).expect(201);
+  const supplier = await buyer
+    .post('/api/suppliers')
+    .send({ name: `Test supplier ${tag}`, contactEmail: `orders-${tag.toLowerCase()}@example.test` })
+    .expect(201);
+  const part = await buyer
+    .post('/api/parts')
+    .send({ number: `T-${tag}`, description: 'Test quarter-wave plate', spec })
+    .expect(201);
   const order = await buyer
     .post('/api/purchase-orders')
     .send({
@@ -30,7 +36,14 @@ export async function orderedLine(quantity: number, spec: PartSpecInput = QUARTE
   return { tag, supplierId: supplier.body.id as number, partId: part.body.id as number, order: order.body, lineId: order.body.lines[0].id as number };
 }
 
-type ReceiptFields = { quantity: number; serials?: string; supplierLot?: string; overReceiptReason?: string; packingSlipNumber?: string; replacementForNcrId?: number };
+type ReceiptFields = {
+  quantity: number;
+  serials?: string;
+  supplierLot?: string;
+  overReceiptReason?: string;
+  packingSlipNumber?: string;
+  replacementForNcrId?: number;
+};
 
 /** Posts a receipt as the demo clerk; files are [field, content, name]. */
 export async function postReceipt(lineId: number, fields: ReceiptFields, files: [string, Buffer, string][] = [['packingSlip', TINY_PDF, 'slip.pdf']]) {

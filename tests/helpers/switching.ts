@@ -42,7 +42,9 @@ export async function sign(lotId: number, decision: string, expectedDispositionI
 export async function decide(lotId: number, decision: 'accept' | 'reject') {
   const { view, sample } = await inspectionOf(lotId);
   const measured = decision === 'accept' ? sample : sample.slice(0, view.plan.reject);
-  await (await as('inspector'))
+  await (
+    await as('inspector')
+  )
     .post(`/api/inspection/lots/${lotId}/measurements`)
     .attach('files', Buffer.from(benchFile(measured, decision === 'accept' ? [] : measured)), { filename: 'bench.csv', contentType: 'text/csv' })
     .expect(201);

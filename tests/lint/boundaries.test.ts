@@ -38,7 +38,10 @@ describe('layer rules', () => {
   });
 
   it('refuses shared/ importing the server or a Node built-in', async () => {
-    const errors = await boundaryErrors('shared/probe.ts', "import { config } from '../server/config';\nimport { readFileSync } from 'node:fs';\nexport const probe = [config, readFileSync];\n");
+    const errors = await boundaryErrors(
+      'shared/probe.ts',
+      "import { config } from '../server/config';\nimport { readFileSync } from 'node:fs';\nexport const probe = [config, readFileSync];\n",
+    );
     expect(errors.map((e) => e.ruleId).sort()).toEqual(['boundaries/dependencies', 'no-restricted-imports']);
   });
 
@@ -50,7 +53,9 @@ describe('layer rules', () => {
 
   it('allows the directions the layers are meant to have', async () => {
     expect(await boundaryErrors('server/routes/probe.ts', "import * as ledger from '../stock/ledger';\nexport const probe = ledger;\n")).toEqual([]);
-    expect(await boundaryErrors('db/seeders/probe.ts', "import * as receipts from '../../server/receiving/receipts';\nexport const probe = receipts;\n")).toEqual([]);
+    expect(
+      await boundaryErrors('db/seeders/probe.ts', "import * as receipts from '../../server/receiving/receipts';\nexport const probe = receipts;\n"),
+    ).toEqual([]);
     expect(await boundaryErrors('src/features/stock/probe.ts', "import * as api from '../../lib/api';\nexport const probe = api;\n")).toEqual([]);
   });
 });

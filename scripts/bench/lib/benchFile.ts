@@ -7,7 +7,9 @@ export function stokesFile(serials: string[], seed: number) {
   const noise = gaussian(seededUniform(seed));
   const lines = ['# instrument: BENCH-2', '# operator: QC-07', `# date: ${new Date().toISOString().slice(0, 10)}`, STOKES_HEADER];
   for (const serial of serials) {
-    lines.push(...stokesRows({ serial, wavelengthNm: 632.8, retardanceWaves: 0.25 + 0.0005 * noise(), fastAxisDeg: 0.1 * noise() }, undefined, () => 0.0008 * noise()));
+    lines.push(
+      ...stokesRows({ serial, wavelengthNm: 632.8, retardanceWaves: 0.25 + 0.0005 * noise(), fastAxisDeg: 0.1 * noise() }, undefined, () => 0.0008 * noise()),
+    );
   }
   return `${lines.join('\n')}\n`;
 }

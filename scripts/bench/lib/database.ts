@@ -58,7 +58,9 @@ export async function fillRecord(): Promise<string | null> {
   const client = new pg.Client({ connectionString: databaseUrl(BENCH_PORT, 'postgres', 'admin') });
   await client.connect();
   try {
-    const { rows } = await client.query<{ note: string | null }>("SELECT shobj_description(oid, 'pg_database') AS note FROM pg_database WHERE datname = $1", [BENCH_DATABASE]);
+    const { rows } = await client.query<{ note: string | null }>("SELECT shobj_description(oid, 'pg_database') AS note FROM pg_database WHERE datname = $1", [
+      BENCH_DATABASE,
+    ]);
     return rows[0]?.note?.startsWith('phaselot bench fill') ? rows[0].note : null;
   } finally {
     await client.end();

@@ -96,7 +96,12 @@ export type Measured = { figures: Figure[]; load: Load; tries: number };
  * exceeded the core count, says so and measures again, `tries` times at most. Answers the last run.
  * Figures that are no times (sizes) are printed with the load but never marked or measured again.
  */
-export async function measured(benchmark: string, measure: () => Promise<Figure[]>, tries: number, options: { timed: boolean } = { timed: true }): Promise<Measured> {
+export async function measured(
+  benchmark: string,
+  measure: () => Promise<Figure[]>,
+  tries: number,
+  options: { timed: boolean } = { timed: true },
+): Promise<Measured> {
   for (let attempt = 1; ; attempt++) {
     const before = loadavg()[0];
     const figures = await measure();
@@ -108,7 +113,8 @@ export async function measured(benchmark: string, measure: () => Promise<Figure[
     }
     if (!options.timed) return { figures, load, tries: attempt };
     if (!underLoad(load) || attempt >= tries) {
-      if (underLoad(load)) console.log(`${benchmark} | taken under load in all ${attempt} tries: compare ratios, not times, and run again when the machine is quieter`);
+      if (underLoad(load))
+        console.log(`${benchmark} | taken under load in all ${attempt} tries: compare ratios, not times, and run again when the machine is quieter`);
       return { figures, load, tries: attempt };
     }
     console.log(`${benchmark} | taken under load (1-min load ${load[0].toFixed(2)} > ${CORES} cores): measuring again`);
@@ -117,7 +123,16 @@ export async function measured(benchmark: string, measure: () => Promise<Figure[
 
 function record(benchmark: string, figure: Figure, load: Load, attempt: number, timed: boolean) {
   mkdirSync(benchDir, { recursive: true });
-  const entry = { at: new Date().toISOString(), benchmark, ...figure, ratio: ratioOf(figure), met: isMet(figure), load, underLoad: timed && underLoad(load), try: attempt };
+  const entry = {
+    at: new Date().toISOString(),
+    benchmark,
+    ...figure,
+    ratio: ratioOf(figure),
+    met: isMet(figure),
+    load,
+    underLoad: timed && underLoad(load),
+    try: attempt,
+  };
   appendFileSync(join(benchDir, 'results.jsonl'), `${JSON.stringify(entry, (_k, v) => (v === Infinity ? 'Infinity' : v))}\n`);
 }
 

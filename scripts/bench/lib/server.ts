@@ -30,7 +30,11 @@ function logTail() {
 
 /** Brings a database filled by an older checkout up to this one's schema, as `npm run migrate` would. */
 function migrateBenchDatabase() {
-  const migrated = spawnSync(process.execPath, ['--import', 'tsx', join(repoRoot, 'scripts/migrate.ts')], { cwd: repoRoot, env: { ...process.env, ...benchEnvironment() }, encoding: 'utf8' });
+  const migrated = spawnSync(process.execPath, ['--import', 'tsx', join(repoRoot, 'scripts/migrate.ts')], {
+    cwd: repoRoot,
+    env: { ...process.env, ...benchEnvironment() },
+    encoding: 'utf8',
+  });
   if (migrated.status !== 0) throw new Error(`Migrating the bench database failed:\n${migrated.stdout}${migrated.stderr}`);
   console.log(`bench: ${migrated.stdout.trim()}`);
 }
@@ -38,7 +42,13 @@ function migrateBenchDatabase() {
 export async function startBenchServer(): Promise<BenchServer> {
   migrateBenchDatabase();
   const baseUrl = `http://127.0.0.1:${BENCH_SERVER_PORT}`;
-  if (await fetch(`${baseUrl}/api/health`).then(() => true, () => false)) throw new Error(`Something already answers on ${baseUrl}: stop it first (a bench server left running?)`);
+  if (
+    await fetch(`${baseUrl}/api/health`).then(
+      () => true,
+      () => false,
+    )
+  )
+    throw new Error(`Something already answers on ${baseUrl}: stop it first (a bench server left running?)`);
   appendFileSync(logPath, `\n--- bench server started ${new Date().toISOString()}\n`);
   const log = openSync(logPath, 'a');
   const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', join(repoRoot, 'server/main.ts')], {
@@ -53,7 +63,10 @@ export async function startBenchServer(): Promise<BenchServer> {
   const deadline = Date.now() + READY_WITHIN_MS;
   for (;;) {
     if (exited !== null) throw new Error(`The bench server stopped (status ${exited}) before answering:\n${logTail()}`);
-    const up = await fetch(`${baseUrl}/api/health`).then((r) => r.ok, () => false);
+    const up = await fetch(`${baseUrl}/api/health`).then(
+      (r) => r.ok,
+      () => false,
+    );
     // Only once this child is still there: the answer could have come from a server on its way out.
     if (up && exited === null) break;
     if (Date.now() > deadline) {
@@ -64,14 +77,17 @@ export async function startBenchServer(): Promise<BenchServer> {
   }
 
   const pid = child.pid!;
-  const statusKb = (field: 'VmRSS' | 'VmHWM') => Number(new RegExp(`^${field}:\\s+(\\d+) kB`, 'm').exec(readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? NaN);
+  const statusKb = (field: 'VmRSS' | 'VmHWM') =>
+    Number(new RegExp(`^${field}:\\s+(\\d+) kB`, 'm').exec(readFileSync(`/proc/${pid}/status`, 'utf8'))?.[1] ?? NaN);
   return {
     baseUrl,
     pid,
     memory: () => ({ rssMb: statusKb('VmRSS') / 1024, peakMb: statusKb('VmHWM') / 1024 }),
     // utime and stime, the 14th and 15th fields of /proc/<pid>/stat, in clock ticks of 1/100 s.
     cpuSeconds: () => {
-      const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').replace(/^.*\) /, '').split(' ');
+      const fields = readFileSync(`/proc/${pid}/stat`, 'utf8')
+        .replace(/^.*\) /, '')
+        .split(' ');
       return (Number(fields[11]) + Number(fields[12])) / 100;
     },
     // Writing 5 to clear_refs resets the kernel's peak resident size (VmHWM) to the current one.
@@ -94,7 +110,11 @@ export async function api<T = unknown>(server: Pick<BenchServer, 'baseUrl'>, pat
   if (call.token) headers.authorization = `Bearer ${call.token}`;
   if (call.json !== undefined) headers['content-type'] = 'application/json';
   const method = call.method ?? (call.json !== undefined || call.form ? 'POST' : 'GET');
-  const response = await fetch(`${server.baseUrl}${path}`, { method, headers, body: call.form ?? (call.json !== undefined ? JSON.stringify(call.json) : undefined) }).catch((error: Error) => {
+  const response = await fetch(`${server.baseUrl}${path}`, {
+    method,
+    headers,
+    body: call.form ?? (call.json !== undefined ? JSON.stringify(call.json) : undefined),
+  }).catch((error: Error) => {
     throw new Error(`${method} ${path} got no answer: ${error.message} (${String((error.cause as Error | undefined)?.message ?? error.cause)})`);
   });
   const text = await response.text();

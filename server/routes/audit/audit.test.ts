@@ -45,7 +45,10 @@ describe('audit trail', () => {
   it('refuses UPDATE, DELETE and TRUNCATE at the database level', async () => {
     const { id } = await lastEvent('auth.sign-in');
     // The application's role is refused by its grants or, failing those, by the triggers; the owner by the triggers.
-    for (const [who, refusal] of [[sequelize, /append-only|permission denied/], [owner, /append-only/]] as const) {
+    for (const [who, refusal] of [
+      [sequelize, /append-only|permission denied/],
+      [owner, /append-only/],
+    ] as const) {
       await expect(who.query(`UPDATE audit_events SET action = 'x' WHERE id = ${id}`)).rejects.toThrow(refusal);
       await expect(who.query(`DELETE FROM audit_events WHERE id = ${id}`)).rejects.toThrow(refusal);
       await expect(who.query('TRUNCATE audit_events')).rejects.toThrow(refusal);
@@ -63,7 +66,10 @@ describe('audit trail', () => {
     const rewrite = async (value: unknown) =>
       owner.transaction(async (transaction) => {
         await owner.query('ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_rewrite', { transaction });
-        await owner.query('UPDATE audit_events SET after = :after::jsonb WHERE id = :id', { transaction, replacements: { id, after: value === null ? null : JSON.stringify(value) } });
+        await owner.query('UPDATE audit_events SET after = :after::jsonb WHERE id = :id', {
+          transaction,
+          replacements: { id, after: value === null ? null : JSON.stringify(value) },
+        });
         await owner.query('ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_rewrite', { transaction });
       });
     await rewrite({ forged: true });

@@ -45,7 +45,12 @@ describe('audit chain under concurrency', () => {
 
     const [{ after }] = await sequelize.query<{ after: string }>('SELECT count(*) AS after FROM audit_events', { type: QueryTypes.SELECT });
     expect(Number(after) - Number(before)).toBe(TRANSACTIONS * ROWS_PER_TRANSACTION + SIGN_INS);
-    expect(await sequelize.query('SELECT 1 FROM audit_events WHERE action = :action', { type: QueryTypes.SELECT, replacements: { action: 'test.chain-rolled-back' } })).toEqual([]);
+    expect(
+      await sequelize.query('SELECT 1 FROM audit_events WHERE action = :action', {
+        type: QueryTypes.SELECT,
+        replacements: { action: 'test.chain-rolled-back' },
+      }),
+    ).toEqual([]);
 
     const report = await auditor.get('/api/audit/verify').expect(200);
     expect(report.body).toMatchObject({ intact: true, problems: [] });
@@ -111,7 +116,9 @@ describe('audit chain tampering', () => {
   });
 
   it('refuses to move the chain head except by inserting an event', async () => {
-    await expect(sequelize.query("UPDATE audit_chain_head SET seq = 1, hash = repeat('0', 64)")).rejects.toThrow(/moved only by inserting audit events: UPDATE refused/);
+    await expect(sequelize.query("UPDATE audit_chain_head SET seq = 1, hash = repeat('0', 64)")).rejects.toThrow(
+      /moved only by inserting audit events: UPDATE refused/,
+    );
     await expect(sequelize.query('DELETE FROM audit_chain_head')).rejects.toThrow(/DELETE refused/);
     // The application's role may not truncate at all; the owner meets the trigger.
     await expect(sequelize.query('TRUNCATE audit_chain_head')).rejects.toThrow(/TRUNCATE refused|permission denied/);
@@ -121,7 +128,9 @@ describe('audit chain tampering', () => {
 
   it('serves the head to auditors and quality managers, matching the last row', async () => {
     const head = await (await as('quality')).get('/api/audit/head').expect(200);
-    const [last] = await sequelize.query<{ seq: string; hash: string }>('SELECT seq, hash FROM audit_events ORDER BY seq DESC LIMIT 1', { type: QueryTypes.SELECT });
+    const [last] = await sequelize.query<{ seq: string; hash: string }>('SELECT seq, hash FROM audit_events ORDER BY seq DESC LIMIT 1', {
+      type: QueryTypes.SELECT,
+    });
     expect(head.body).toMatchObject({ seq: last.seq, hash: last.hash });
     expect(new Date(head.body.occurredAt).getTime()).not.toBeNaN();
     await (await as('buyer')).get('/api/audit/head').expect(403);
@@ -132,9 +141,17 @@ describe('audit chain tampering', () => {
     const head = (await auditor.get('/api/audit/head').expect(200)).body;
     const anchor = (query: Record<string, string>) => auditor.get('/api/audit/anchor').query(query);
     expect((await anchor({ seq: head.seq, hash: head.hash.toUpperCase() }).expect(200)).body).toMatchObject({ seq: head.seq, matches: true });
-    expect((await anchor({ seq: head.seq, hash: '0'.repeat(64) }).expect(200)).body).toMatchObject({ matches: false, message: expect.stringMatching(/carries another hash/) });
-    expect((await anchor({ seq: '999999999', hash: head.hash }).expect(200)).body).toMatchObject({ matches: false, message: expect.stringMatching(/no event at position 999999999/) });
-    expect((await anchor({ seq: '1', hash: 'abc' }).expect(400)).body.error.details).toEqual([{ path: 'hash', message: expect.stringMatching(/64-character SHA-256/) }]);
+    expect((await anchor({ seq: head.seq, hash: '0'.repeat(64) }).expect(200)).body).toMatchObject({
+      matches: false,
+      message: expect.stringMatching(/carries another hash/),
+    });
+    expect((await anchor({ seq: '999999999', hash: head.hash }).expect(200)).body).toMatchObject({
+      matches: false,
+      message: expect.stringMatching(/no event at position 999999999/),
+    });
+    expect((await anchor({ seq: '1', hash: 'abc' }).expect(400)).body.error.details).toEqual([
+      { path: 'hash', message: expect.stringMatching(/64-character SHA-256/) },
+    ]);
   });
 });
 
@@ -144,19 +161,26 @@ describe('the migration to chain positions', () => {
   const migrateFromLegacy = (legacyWrites: (transaction: Transaction) => Promise<void>) =>
     inRolledBackTransaction(async (transaction) => {
       await owner.query(chainMigration.DOWN, { transaction });
-      await owner.query('ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_rewrite; DELETE FROM audit_events; ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_rewrite', { transaction });
+      await owner.query(
+        'ALTER TABLE audit_events DISABLE TRIGGER audit_events_no_rewrite; DELETE FROM audit_events; ALTER TABLE audit_events ENABLE TRIGGER audit_events_no_rewrite',
+        { transaction },
+      );
       for (const n of [1, 2, 3]) await recordAudit(SYSTEM_ACTOR, { action: 'test.legacy', entityType: 'test', entityId: `before ${n}` }, transaction);
       await legacyWrites(transaction);
       const before = await query<{ id: string; hash: string }>(transaction, 'SELECT id, hash FROM audit_events ORDER BY id');
       await owner.query(chainMigration.UP, { transaction });
       const after = await query<{ id: string; seq: string; hash: string; action: string; before: unknown; after: unknown }>(
-        transaction, 'SELECT id, seq, hash, action, before, after FROM audit_events ORDER BY seq',
+        transaction,
+        'SELECT id, seq, hash, action, before, after FROM audit_events ORDER BY seq',
       );
       return { before, after, report: await verifyAuditChain(transaction) };
     });
 
   const legacyInsert = (transaction: Transaction, id: string, entityId: string) =>
-    owner.query("INSERT INTO audit_events (id, action, entity_type, entity_id) VALUES (:id, 'test.legacy', 'test', :entityId)", { transaction, replacements: { id, entityId } });
+    owner.query("INSERT INTO audit_events (id, action, entity_type, entity_id) VALUES (:id, 'test.legacy', 'test', :entityId)", {
+      transaction,
+      replacements: { id, entityId },
+    });
 
   /** The old trigger linked a row to the highest id so far; an id drawn earlier but written later forks the chain. */
   const forkedWrites = async (transaction: Transaction) => {

@@ -9,9 +9,14 @@ import { validated } from '../../http/validate';
 
 export const auditRouter = Router();
 
-auditRouter.get('/', authenticate, allow('audit.read'), validated({ query: auditQuerySchema }, async ({ query }, _req, res) => {
-  res.json(await listAuditEvents(query));
-}));
+auditRouter.get(
+  '/',
+  authenticate,
+  allow('audit.read'),
+  validated({ query: auditQuerySchema }, async ({ query }, _req, res) => {
+    res.json(await listAuditEvents(query));
+  }),
+);
 
 auditRouter.get('/verify', authenticate, allow('audit.read'), async (_req, res) => {
   res.json(await verifyAuditChain());
@@ -21,11 +26,21 @@ auditRouter.get('/head', authenticate, allow('audit.read'), async (_req, res) =>
   res.json(await chainHead());
 });
 
-auditRouter.get('/anchor', authenticate, allow('audit.read'), validated({ query: auditAnchorSchema }, async ({ query }, _req, res) => {
-  res.json(await checkAnchor(query));
-}));
+auditRouter.get(
+  '/anchor',
+  authenticate,
+  allow('audit.read'),
+  validated({ query: auditAnchorSchema }, async ({ query }, _req, res) => {
+    res.json(await checkAnchor(query));
+  }),
+);
 
-auditRouter.get('/export.csv', authenticate, allow('audit.read'), validated({ query: auditQuerySchema }, async ({ query }, req, res) => {
-  await recordAudit(actorOf(req), { action: 'audit.export', entityType: 'audit', after: { filter: query } });
-  await sendCsv(res, `audit-trail-${new Date().toISOString().slice(0, 10)}.csv`, AUDIT_CSV_COLUMNS, streamAuditEvents(query));
-}));
+auditRouter.get(
+  '/export.csv',
+  authenticate,
+  allow('audit.read'),
+  validated({ query: auditQuerySchema }, async ({ query }, req, res) => {
+    await recordAudit(actorOf(req), { action: 'audit.export', entityType: 'audit', after: { filter: query } });
+    await sendCsv(res, `audit-trail-${new Date().toISOString().slice(0, 10)}.csv`, AUDIT_CSV_COLUMNS, streamAuditEvents(query));
+  }),
+);

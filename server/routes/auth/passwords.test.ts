@@ -8,7 +8,8 @@ import { passwordWeakness } from '../../../shared/schemas/password';
 
 afterAll(() => sequelize.query('DELETE FROM refused_sign_ins'));
 
-const signIn = async (email: string, password: string, status = 200) => (await request(app).post('/api/auth/login').send({ email, password }).expect(status)).body;
+const signIn = async (email: string, password: string, status = 200) =>
+  (await request(app).post('/api/auth/login').send({ email, password }).expect(status)).body;
 const me = (token: string) => request(app).get('/api/auth/me').set('Authorization', `Bearer ${token}`);
 
 /** The reset link in the latest mail to an address, and how many mails went there. */
@@ -36,8 +37,13 @@ describe('the password policy', () => {
 
   it('refuses aaaaaaaaaa when an admin creates a user or sets a password, with the reason on the field', async () => {
     const admin = await as('admin');
-    const created = await admin.post('/api/users').send({ email: 'weak@example.test', name: 'Weak Password', password: 'aaaaaaaaaa', roles: ['clerk'] }).expect(400);
-    expect(created.body.error.details).toEqual([{ path: 'password', message: expect.stringMatching(/^This password is too easy to guess\. Repeated characters like "aaa"/) }]);
+    const created = await admin
+      .post('/api/users')
+      .send({ email: 'weak@example.test', name: 'Weak Password', password: 'aaaaaaaaaa', roles: ['clerk'] })
+      .expect(400);
+    expect(created.body.error.details).toEqual([
+      { path: 'password', message: expect.stringMatching(/^This password is too easy to guess\. Repeated characters like "aaa"/) },
+    ]);
     const { user } = await freshUser(['clerk']);
     const set = await admin.patch(`/api/users/${user.id}`).send({ password: 'aaaaaaaaaa' }).expect(400);
     expect(set.body.error.details[0]).toMatchObject({ path: 'password', message: expect.stringMatching(/too easy to guess/) });
@@ -50,11 +56,19 @@ describe('POST /api/auth/password (own change)', () => {
     const here = (await signIn(email, password)).token;
     const elsewhere = (await signIn(email, password)).token;
 
-    const wrong = await request(app).post('/api/auth/password').set('Authorization', `Bearer ${here}`).send({ currentPassword: 'not-the-password', newPassword: 'kettle-orbit-47-plum' }).expect(400);
+    const wrong = await request(app)
+      .post('/api/auth/password')
+      .set('Authorization', `Bearer ${here}`)
+      .send({ currentPassword: 'not-the-password', newPassword: 'kettle-orbit-47-plum' })
+      .expect(400);
     expect(wrong.body.error.details).toEqual([{ path: 'currentPassword', message: 'This is not your current password' }]);
     await me(elsewhere).expect(200);
 
-    await request(app).post('/api/auth/password').set('Authorization', `Bearer ${here}`).send({ currentPassword: password, newPassword: 'kettle-orbit-47-plum' }).expect(204);
+    await request(app)
+      .post('/api/auth/password')
+      .set('Authorization', `Bearer ${here}`)
+      .send({ currentPassword: password, newPassword: 'kettle-orbit-47-plum' })
+      .expect(204);
     await me(here).expect(200);
     await me(elsewhere).expect(401);
     await signIn(email, password, 401);
@@ -64,9 +78,17 @@ describe('POST /api/auth/password (own change)', () => {
   it('refuses a weak new password and the current one again', async () => {
     const { email, password } = await freshUser(['buyer']);
     const token = (await signIn(email, password)).token;
-    const weak = await request(app).post('/api/auth/password').set('Authorization', `Bearer ${token}`).send({ currentPassword: password, newPassword: 'aaaaaaaaaa' }).expect(400);
+    const weak = await request(app)
+      .post('/api/auth/password')
+      .set('Authorization', `Bearer ${token}`)
+      .send({ currentPassword: password, newPassword: 'aaaaaaaaaa' })
+      .expect(400);
     expect(weak.body.error.details[0]).toMatchObject({ path: 'newPassword', message: expect.stringMatching(/too easy to guess/) });
-    const same = await request(app).post('/api/auth/password').set('Authorization', `Bearer ${token}`).send({ currentPassword: password, newPassword: password }).expect(400);
+    const same = await request(app)
+      .post('/api/auth/password')
+      .set('Authorization', `Bearer ${token}`)
+      .send({ currentPassword: password, newPassword: password })
+      .expect(400);
     expect(same.body.error.details[0]).toEqual({ path: 'newPassword', message: 'Choose a password different from the current one' });
   });
 
@@ -110,7 +132,10 @@ describe('password reset by a mailed link', () => {
     await PasswordResetToken.update({ expiresAt: new Date(Date.now() - 1000) }, { where: { userId: user.id } });
     const expired = await request(app).post('/api/auth/password-reset').send({ token, newPassword: 'lantern-basalt-93-fig' }).expect(400);
     expect(expired.body.error).toMatchObject({ code: 'reset_link_expired', message: expect.stringMatching(/has expired/) });
-    const madeUp = await request(app).post('/api/auth/password-reset').send({ token: 'x'.repeat(43), newPassword: 'lantern-basalt-93-fig' }).expect(400);
+    const madeUp = await request(app)
+      .post('/api/auth/password-reset')
+      .send({ token: 'x'.repeat(43), newPassword: 'lantern-basalt-93-fig' })
+      .expect(400);
     expect(madeUp.body.error.code).toBe('reset_link_invalid');
   });
 

@@ -10,10 +10,16 @@ import { SIGN_IN_LIMITS } from '../../auth/signIn';
 const limit = (scope: string) => SIGN_IN_LIMITS.find((l) => l.scope === scope)!.limit;
 const clear = () => sequelize.query('DELETE FROM refused_sign_ins');
 const throttleAudits = async (key: string) =>
-  (await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM audit_events WHERE action = 'auth.sign-in-throttled' AND entity_id = :key`, { type: QueryTypes.SELECT, replacements: { key } }))[0].n;
+  (
+    await sequelize.query<{ n: number }>(`SELECT count(*)::int AS n FROM audit_events WHERE action = 'auth.sign-in-throttled' AND entity_id = :key`, {
+      type: QueryTypes.SELECT,
+      replacements: { key },
+    })
+  )[0].n;
 
 /** A refused sign-in from its own address (the app trusts X-Forwarded-For from the loopback proxy). */
-const refusedFrom = (address: string, email: string) => request(app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email, password: 'wrong-password' });
+const refusedFrom = (address: string, email: string) =>
+  request(app).post('/api/auth/login').set('X-Forwarded-For', address).send({ email, password: 'wrong-password' });
 
 beforeEach(clear);
 afterEach(async () => {
@@ -41,7 +47,11 @@ describe('the sign-in throttle (in PostgreSQL)', () => {
 
   it('keeps its count in the database: a second app (another process) sees the same limit', async () => {
     for (let i = 0; i < limit('site'); i++) await refusedFrom(`198.51.100.${i + 1}`, `spread-${i}@example.test`).expect(401);
-    await request(createApp()).post('/api/auth/login').set('X-Forwarded-For', '192.0.2.1').send({ email: 'x@example.test', password: 'whatever-it-is' }).expect(429);
+    await request(createApp())
+      .post('/api/auth/login')
+      .set('X-Forwarded-For', '192.0.2.1')
+      .send({ email: 'x@example.test', password: 'whatever-it-is' })
+      .expect(429);
   });
 
   it('throttles one account attacked from many addresses', async () => {

@@ -8,13 +8,21 @@ import { openBlob } from '../../storage/blobs';
 export const certificatesRouter = Router();
 
 /** Public: anyone holding a document can check it, and learns only what is printed on it. */
-certificatesRouter.get('/verify', validated({ query: verifyQuerySchema }, async ({ query }, _req, res) => {
-  res.json(await verifyDocument(query.number, query.hash));
-}));
+certificatesRouter.get(
+  '/verify',
+  validated({ query: verifyQuerySchema }, async ({ query }, _req, res) => {
+    res.json(await verifyDocument(query.number, query.hash));
+  }),
+);
 
-certificatesRouter.get('/', authenticate, allow('certificates.read'), validated({ query: certificateListSchema }, async ({ query }, _req, res) => {
-  res.json(await listDocuments(query));
-}));
+certificatesRouter.get(
+  '/',
+  authenticate,
+  allow('certificates.read'),
+  validated({ query: certificateListSchema }, async ({ query }, _req, res) => {
+    res.json(await listDocuments(query));
+  }),
+);
 
 export const documentsRouter = Router();
 

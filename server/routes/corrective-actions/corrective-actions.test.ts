@@ -87,15 +87,11 @@ describe('/api/corrective-actions', () => {
     expect(again.status).toBe(409);
     expect(again.body.error.message).toBe(`Already under an open corrective-action request: ${first.number} (${car.number})`);
     const other = await supplierWithQualityContact();
-    const mixed = await (
-      await as('buyer')
-    )
-      .post('/api/corrective-actions')
-      .send({
-        nonconformanceIds: [(await ncrOf(other)).id, (await ncrOf(pair)).id],
-        problem: 'Two suppliers in one request is refused',
-        responseDueOn: seen.responseDueOn,
-      });
+    const mixed = await (await as('buyer')).post('/api/corrective-actions').send({
+      nonconformanceIds: [(await ncrOf(other)).id, (await ncrOf(pair)).id],
+      problem: 'Two suppliers in one request is refused',
+      responseDueOn: seen.responseDueOn,
+    });
     expect(mixed.status).toBe(400);
     expect(mixed.body.error.message).toMatch(/covers one supplier's part/);
   });
@@ -103,15 +99,11 @@ describe('/api/corrective-actions', () => {
   it('refuses a supplier without a quality contact', async () => {
     const pair = await supplierPart();
     const ncr = await ncrOf(pair);
-    const refused = await (
-      await as('buyer')
-    )
-      .post('/api/corrective-actions')
-      .send({
-        nonconformanceIds: [ncr.id],
-        problem: 'Retardance runs long on every lot',
-        responseDueOn: new Date(Date.now() + 5 * 86_400_000).toISOString().slice(0, 10),
-      });
+    const refused = await (await as('buyer')).post('/api/corrective-actions').send({
+      nonconformanceIds: [ncr.id],
+      problem: 'Retardance runs long on every lot',
+      responseDueOn: new Date(Date.now() + 5 * 86_400_000).toISOString().slice(0, 10),
+    });
     expect(refused.status).toBe(409);
     expect(refused.body.error.message).toBe(`Test supplier ${pair.tag} has no quality contact: add the address on the supplier's page first`);
   });
@@ -319,14 +311,12 @@ describe('/api/corrective-actions', () => {
     const elsewhere = await requestWithLink();
 
     const resume = (correctiveActionId: number) =>
-      quality
-        .post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`)
-        .send({
-          correctiveAction: 'Polishing pitch replaced; retardance of every plate measured before packing.',
-          correctiveActionId,
-          password: DEMO_PASSWORD,
-          meaningAcknowledged: true,
-        });
+      quality.post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`).send({
+        correctiveAction: 'Polishing pitch replaced; retardance of every plate measured before packing.',
+        correctiveActionId,
+        password: DEMO_PASSWORD,
+        meaningAcknowledged: true,
+      });
     expect((await resume(elsewhere.car.id).expect(400)).body.error.details).toEqual([
       { path: 'correctiveActionId', message: 'Not a request of this supplier and part' },
     ]);

@@ -70,28 +70,46 @@ describe('export bundle', () => {
     const manifestLines = entries.get('manifest.sha256')!.toString('utf8').trim().split('\n');
     // The audit chain head, as a comment line (sha256sum -c skips it): the hash of the event at that position.
     const [, headSeq, headHash] = manifestLines[0].match(/^# audit chain head: position (\d+), sha256 ([0-9a-f]{64}), recorded \S+$/)!;
-    const [headRow] = await sequelize.query<{ hash: string }>('SELECT hash FROM audit_events WHERE seq = :seq', { type: QueryTypes.SELECT, replacements: { seq: headSeq } });
+    const [headRow] = await sequelize.query<{ hash: string }>('SELECT hash FROM audit_events WHERE seq = :seq', {
+      type: QueryTypes.SELECT,
+      replacements: { seq: headSeq },
+    });
     expect(headRow.hash).toBe(headHash);
     const manifest = manifestLines.slice(1).map((line) => line.match(/^([0-9a-f]{64}) {2}(.+)$/)!.slice(1));
     expect(manifest.map(([, path]) => path).sort()).toEqual([...entries.keys()].filter((path) => path !== 'manifest.sha256').sort());
     for (const [sum, path] of manifest) expect(sha256(entries.get(path)!), path).toBe(sum);
 
-    const listed = (await auditor.get('/api/certificates').query(filter).expect(200)).body.data as { number: string; pdfSha256: string; dataHash: string; revokedAt: string | null }[];
+    const listed = (await auditor.get('/api/certificates').query(filter).expect(200)).body.data as {
+      number: string;
+      pdfSha256: string;
+      dataHash: string;
+      revokedAt: string | null;
+    }[];
     const index = parse(entries.get('index.csv')!, { columns: true, bom: true }) as Record<string, string>[];
     expect(index.map((row) => row.number).sort()).toEqual(listed.map((d) => d.number).sort());
     expect(index.map((row) => row.number).sort()).toEqual([...issuedNumbers].sort());
     for (const document of listed) {
       const row = index.find((r) => r.number === document.number)!;
-      expect(row).toMatchObject({ lot: String(revokedLot.lotId), pdf_sha256: document.pdfSha256, data_sha256: document.dataHash, revoked_at: document.revokedAt ?? '' });
+      expect(row).toMatchObject({
+        lot: String(revokedLot.lotId),
+        pdf_sha256: document.pdfSha256,
+        data_sha256: document.dataHash,
+        revoked_at: document.revokedAt ?? '',
+      });
       expect(sha256(entries.get(`pdf/${document.number}.pdf`)!)).toBe(document.pdfSha256);
     }
-    expect(index.find((r) => r.number === certificateNumber)).toMatchObject({ kind: 'certificate', decision: 'Accept', revoked_at: expect.stringMatching(/^\d{4}-/) });
+    expect(index.find((r) => r.number === certificateNumber)).toMatchObject({
+      kind: 'certificate',
+      decision: 'Accept',
+      revoked_at: expect.stringMatching(/^\d{4}-/),
+    });
 
     const auditLog = parse(entries.get('audit-log.csv')!, { columns: true, bom: true }) as Record<string, string>[];
     expect(auditLog.every((row) => BigInt(row.seq) <= BigInt(headSeq))).toBe(true);
     expect(auditLog.every((row) => row.entity_type === 'lot' && row.entity_id === String(revokedLot.lotId))).toBe(true);
     const [{ count }] = await sequelize.query<{ count: string }>("SELECT count(*) FROM audit_events WHERE entity_type = 'lot' AND entity_id = :id", {
-      type: QueryTypes.SELECT, replacements: { id: String(revokedLot.lotId) },
+      type: QueryTypes.SELECT,
+      replacements: { id: String(revokedLot.lotId) },
     });
     expect(auditLog).toHaveLength(Number(count));
     expect(auditLog.map((row) => row.action)).toContain('measurement.upload');
@@ -105,7 +123,8 @@ describe('export bundle', () => {
   it('says why a job failed when a stored PDF is missing', async () => {
     const lot = await acceptedLot(10);
     const [{ storage_key: key }] = await sequelize.query<{ storage_key: string }>('SELECT storage_key FROM lot_documents WHERE number = :number', {
-      type: QueryTypes.SELECT, replacements: { number: lot.certificate.number },
+      type: QueryTypes.SELECT,
+      replacements: { number: lot.certificate.number },
     });
     const stored = join(process.env.UPLOAD_DIR!, key.slice(0, 2), key);
     renameSync(stored, `${stored}.away`);

@@ -30,7 +30,8 @@ describe('an interrupted export', () => {
     // Requested while no process works the queue.
     const requested = (await auditor.post('/api/exports').send({ from: TODAY, to: TODAY, supplierId }).expect(202)).body as ExportJobView;
     const [{ queue_job_id: queueJobId }] = await sequelize.query<{ queue_job_id: string }>('SELECT queue_job_id FROM export_jobs WHERE id = :id', {
-      type: QueryTypes.SELECT, replacements: { id: requested.id },
+      type: QueryTypes.SELECT,
+      replacements: { id: requested.id },
     });
     // As a process leaves it that was killed during the last try the queue allows: the try is
     // still "active", started long ago, and the export shows it running.

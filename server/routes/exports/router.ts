@@ -10,26 +10,41 @@ import { bundleFileName, presentExportJob } from './presenter';
 
 export const exportsRouter = Router();
 
-exportsRouter.post('/', authenticate, allow('exports.create'), validated({ body: exportFilterSchema }, async ({ body }, req, res) => {
-  const job = await requestExport({ ...actorOf(req), id: req.user!.id }, body);
-  res.status(202).location(`/api/exports/${job.id}`).json(presentExportJob(job));
-}));
+exportsRouter.post(
+  '/',
+  authenticate,
+  allow('exports.create'),
+  validated({ body: exportFilterSchema }, async ({ body }, req, res) => {
+    const job = await requestExport({ ...actorOf(req), id: req.user!.id }, body);
+    res.status(202).location(`/api/exports/${job.id}`).json(presentExportJob(job));
+  }),
+);
 
 exportsRouter.get('/', authenticate, allow('exports.create'), async (req, res) => {
   const jobs = await recentExports(req.user!.id);
   res.json({ data: jobs.map(presentExportJob), total: jobs.length });
 });
 
-exportsRouter.get('/:id', authenticate, allow('exports.create'), validated({ params: idParams }, async ({ params }, _req, res) => {
-  res.json(presentExportJob(await findExportJob(params.id)));
-}));
+exportsRouter.get(
+  '/:id',
+  authenticate,
+  allow('exports.create'),
+  validated({ params: idParams }, async ({ params }, _req, res) => {
+    res.json(presentExportJob(await findExportJob(params.id)));
+  }),
+);
 
-exportsRouter.get('/:id/download', authenticate, allow('exports.create'), validated({ params: idParams }, async ({ params }, req, res) => {
-  const job = await exportForDownload(actorOf(req), params.id);
-  const stored = await openBlob(job.storageKey!);
-  res.setHeader('Content-Type', 'application/zip');
-  res.setHeader('Content-Length', String(job.size));
-  res.setHeader('Content-Disposition', `attachment; filename="${bundleFileName(job)}"`);
-  res.setHeader('X-Content-SHA256', job.sha256!);
-  stored.on('error', () => res.destroy()).pipe(res);
-}));
+exportsRouter.get(
+  '/:id/download',
+  authenticate,
+  allow('exports.create'),
+  validated({ params: idParams }, async ({ params }, req, res) => {
+    const job = await exportForDownload(actorOf(req), params.id);
+    const stored = await openBlob(job.storageKey!);
+    res.setHeader('Content-Type', 'application/zip');
+    res.setHeader('Content-Length', String(job.size));
+    res.setHeader('Content-Disposition', `attachment; filename="${bundleFileName(job)}"`);
+    res.setHeader('X-Content-SHA256', job.sha256!);
+    stored.on('error', () => res.destroy()).pipe(res);
+  }),
+);

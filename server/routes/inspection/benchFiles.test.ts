@@ -14,7 +14,8 @@ afterEach(() => {
   vi.useRealTimers();
 });
 
-const upload = (path: string, name: string, content: string) => inspector.post(path).attach('files', Buffer.from(content), { filename: name, contentType: 'text/csv' });
+const upload = (path: string, name: string, content: string) =>
+  inspector.post(path).attach('files', Buffer.from(content), { filename: name, contentType: 'text/csv' });
 const previewOf = (lotId: number, name: string, content: string) => upload(`/api/inspection/lots/${lotId}/measurements/preview`, name, content).expect(200);
 const page = (lotId: number, sha256: string, list: string, query: Record<string, string | number> = {}) =>
   inspector.get(`/api/inspection/lots/${lotId}/measurements/preview/${sha256}/${list}`).query(query);

@@ -35,7 +35,11 @@ async function quantitiesOf(lotId: number) {
   const listed = (await auditor.get(`/api/lots?purchaseOrderId=${lot.purchaseOrder.id}`).expect(200)).body;
   const order = (await auditor.get(`/api/purchase-orders/${lot.purchaseOrder.id}`).expect(200)).body;
   const orders = (await auditor.get(`/api/purchase-orders?q=${encodeURIComponent(lot.purchaseOrder.number)}`).expect(200)).body;
-  const pick = (r: { accepted: number; nonconforming: number; returned: number }) => ({ accepted: r.accepted, nonconforming: r.nonconforming, returned: r.returned });
+  const pick = (r: { accepted: number; nonconforming: number; returned: number }) => ({
+    accepted: r.accepted,
+    nonconforming: r.nonconforming,
+    returned: r.returned,
+  });
   return { lot: pick(lot), listed: pick(listed.data[0]), line: pick(order.lines[0]), order: pick(orders.data[0]) };
 }
 
@@ -62,13 +66,25 @@ describe('pieces follow their verdict', () => {
     // The ledger refuses the failed piece everywhere it could reach stock or a work order.
     const clerk = await as('clerk');
     const issued = await clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: failed, workOrder: 'WO-NC-1' }).expect(409);
-    expect(issued.body.error).toMatchObject({ message: `Nonconforming pieces cannot be issued: ${failed} (failed inspection)`, details: { serials: [failed] } });
-    const moved = await clerk.post('/api/stock/transfer').send({ partId: lot.partId, serials: failed, toLocationId: await locationId('BIN-B1') }).expect(409);
+    expect(issued.body.error).toMatchObject({
+      message: `Nonconforming pieces cannot be issued: ${failed} (failed inspection)`,
+      details: { serials: [failed] },
+    });
+    const moved = await clerk
+      .post('/api/stock/transfer')
+      .send({ partId: lot.partId, serials: failed, toLocationId: await locationId('BIN-B1') })
+      .expect(409);
     expect(moved.body.error.message).toBe(`Nonconforming pieces cannot go to stock: ${failed} (failed inspection)`);
-    const putAway = await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-B1'), serials: failed }).expect(409);
+    const putAway = await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('BIN-B1'), serials: failed })
+      .expect(409);
     expect(putAway.body.error.message).toBe(`Nonconforming pieces cannot go to stock: ${failed} (failed inspection)`);
     // Putting away "whatever is waiting" leaves the piece under review where it is.
-    const nothing = await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-B1') }).expect(400);
+    const nothing = await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('BIN-B1') })
+      .expect(400);
     expect(nothing.body.error.message).toBe(`Lot L-${lot.lotId} has no pieces waiting to be put away`);
     const good = sample[1];
     await clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: good, workOrder: 'WO-NC-1' }).expect(201);
@@ -115,9 +131,21 @@ describe('pieces follow their verdict', () => {
     expect(sorting.pieces.every((p) => p.toMeasure)).toBe(true);
     const rest = sorting.pieces.filter((p) => !p.inSample).map((p) => p.serial);
     expect(sorting.view.sort).toEqual({ remaining: rest.length });
-    const queued = (await (await as('inspector')).get('/api/inspection/queue').query({ q: `L-${lot.lotId}` }).expect(200)).body.data.find((r: { lotId: number }) => r.lotId === lot.lotId);
+    const queued = (
+      await (
+        await as('inspector')
+      )
+        .get('/api/inspection/queue')
+        .query({ q: `L-${lot.lotId}` })
+        .expect(200)
+    ).body.data.find((r: { lotId: number }) => r.lotId === lot.lotId);
     expect(queued).toMatchObject({ state: 'sorting', sortRemaining: rest.length });
-    const early = await (await as('clerk')).post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') }).expect(409);
+    const early = await (
+      await as('clerk')
+    )
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') })
+      .expect(409);
     expect(early.body.error.message).toMatch(`Only pieces of accepted lots go to stock; lot L-${lot.lotId} is sorting 100 %`);
 
     const firstHalf = rest.slice(0, 8);
@@ -181,7 +209,9 @@ describe('pieces follow their verdict', () => {
     await (await as('clerk')).post('/api/stock/issue').send({ partId: lot.partId, serials: failed, workOrder: 'WO-DEV-9' }).expect(201);
     const history = (await (await as('auditor')).get(`/api/pieces/${failed}`).expect(200)).body.data[0];
     expect(history.releasedAsIs).toMatchObject({ deviationNumber: deviation.number, justification });
-    expect(history.moves.map((m: { note: string | null }) => m.note)).toContain(`Released as is under deviation ${deviation.number} (lot L-${lot.lotId}): this piece failed inspection`);
+    expect(history.moves.map((m: { note: string | null }) => m.note)).toContain(
+      `Released as is under deviation ${deviation.number} (lot L-${lot.lotId}): this piece failed inspection`,
+    );
     const conforming = (await (await as('auditor')).get(`/api/pieces/${sample[1]}`).expect(200)).body.data[0];
     expect(conforming.releasedAsIs).toBeNull();
 

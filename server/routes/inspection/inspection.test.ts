@@ -24,7 +24,8 @@ beforeAll(async () => {
   quality = await as('quality');
 });
 
-const upload = (path: string, name: string, content: string) => inspector.post(path).attach('files', Buffer.from(content), { filename: name, contentType: 'text/csv' });
+const upload = (path: string, name: string, content: string) =>
+  inspector.post(path).attach('files', Buffer.from(content), { filename: name, contentType: 'text/csv' });
 
 function sign(lotId: number, decision: string, expectedDispositionId: number | null, extra: Record<string, unknown> = {}) {
   return quality
@@ -56,7 +57,9 @@ describe('inspection of a lot through the API', () => {
 
     const preview = await upload(`/api/inspection/lots/${lot.lotId}/measurements/preview`, 'bench.csv', broken).expect(200);
     const [file] = preview.body.files;
-    expect(file.errors).toEqual(expect.arrayContaining([expect.objectContaining({ line: 7 }), { line: lines.length, message: `Serial ZZ-9999 is not in lot L-${lot.lotId}` }]));
+    expect(file.errors).toEqual(
+      expect.arrayContaining([expect.objectContaining({ line: 7 }), { line: lines.length, message: `Serial ZZ-9999 is not in lot L-${lot.lotId}` }]),
+    );
     expect(file.pieces.length).toBeGreaterThan(0);
 
     const refused = await upload(`/api/inspection/lots/${lot.lotId}/measurements`, 'bench.csv', broken).expect(422);
@@ -96,17 +99,33 @@ describe('inspection of a lot through the API', () => {
       const { sample } = await sampleOf(lot.lotId);
       const lf = benchFile(sample);
       const stored = [];
-      for (const [name, text] of [['lf.csv', lf], ['crlf.csv', `\uFEFF${lf.replaceAll('\n', '\r\n')}`], ['cr.csv', `\uFEFF${lf.replaceAll('\n', '\r')}`]]) {
+      for (const [name, text] of [
+        ['lf.csv', lf],
+        ['crlf.csv', `\uFEFF${lf.replaceAll('\n', '\r\n')}`],
+        ['cr.csv', `\uFEFF${lf.replaceAll('\n', '\r')}`],
+      ]) {
         const committed = await upload(`/api/inspection/lots/${lot.lotId}/measurements`, name, text).expect(201);
         const { fileId, rows } = committed.body.files[0];
         expect(rows).toBe(sample.length * 6);
         const file = await MeasurementFile.findByPk(fileId);
         expect(file!.metadata).toMatchObject({ instrument: 'BENCH-2', date: TODAY });
         expect(file!.rowCount).toBe(rows);
-        stored.push((await Reading.findAll({ where: { fileId }, order: [['line', 'ASC']] })).map((r) => ({ line: r.line, serial: r.serial, wavelengthNm: r.wavelengthNm, fields: r.fields })));
+        stored.push(
+          (await Reading.findAll({ where: { fileId }, order: [['line', 'ASC']] })).map((r) => ({
+            line: r.line,
+            serial: r.serial,
+            wavelengthNm: r.wavelengthNm,
+            fields: r.fields,
+          })),
+        );
       }
       // The header is line 5 of these files (four # lines before it).
-      expect(stored[0][0]).toMatchObject({ line: 6, serial: sample[0], wavelengthNm: 632.8, fields: { serial: sample[0], wavelength_nm: '632.8', input: 'H' } });
+      expect(stored[0][0]).toMatchObject({
+        line: 6,
+        serial: sample[0],
+        wavelengthNm: 632.8,
+        fields: { serial: sample[0], wavelength_nm: '632.8', input: 'H' },
+      });
       expect(stored[0].every((r) => r.serial !== '')).toBe(true);
       expect(stored[1]).toEqual(stored[0]);
       expect(stored[2]).toEqual(stored[0]);
@@ -143,7 +162,11 @@ describe('inspection of a lot through the API', () => {
         ['2026/11/30', 'line 4: the date "2026/11/30" is not a date (expected YYYY-MM-DD)'],
         ['2999-01-01', 'line 4: the date 2999-01-01 is in the future'],
       ]) {
-        const preview = await upload(`/api/inspection/lots/${lot.lotId}/measurements/preview`, 'dated.csv', benchFile(sample).replace(`# date: ${TODAY}`, `# date: ${date}`)).expect(200);
+        const preview = await upload(
+          `/api/inspection/lots/${lot.lotId}/measurements/preview`,
+          'dated.csv',
+          benchFile(sample).replace(`# date: ${TODAY}`, `# date: ${date}`),
+        ).expect(200);
         expect(preview.body.files[0].fatal).toBe(message);
       }
     });
@@ -191,7 +214,10 @@ describe('inspection of a lot through the API', () => {
     // Genuine and current; a forged hash is not.
     const genuine = await request(app).get('/api/certificates/verify').query({ number: certificate.number, hash: certificate.dataHash }).expect(200);
     expect(genuine.body).toMatchObject({ genuine: true, current: true, document: { number: certificate.number, decision: 'Accept' } });
-    const forged = await request(app).get('/api/certificates/verify').query({ number: certificate.number, hash: 'f'.repeat(64) }).expect(200);
+    const forged = await request(app)
+      .get('/api/certificates/verify')
+      .query({ number: certificate.number, hash: 'f'.repeat(64) })
+      .expect(200);
     expect(forged.body.genuine).toBe(false);
 
     // A rejection supersedes the acceptance, revokes the certificate and queues the buyer's mail.
@@ -213,7 +239,10 @@ describe('inspection of a lot through the API', () => {
     } finally {
       await catcher.close();
     }
-    const [{ returned }] = await sequelize.query<{ returned: string }>(`SELECT count(*) AS returned FROM pieces WHERE lot_id = :lot AND state = 'returned'`, { type: QueryTypes.SELECT, replacements: { lot: lot.lotId } });
+    const [{ returned }] = await sequelize.query<{ returned: string }>(`SELECT count(*) AS returned FROM pieces WHERE lot_id = :lot AND state = 'returned'`, {
+      type: QueryTypes.SELECT,
+      replacements: { lot: lot.lotId },
+    });
     expect(Number(returned)).toBe(60);
   });
 
@@ -225,7 +254,10 @@ describe('inspection of a lot through the API', () => {
     expect(view.verdict.proposal).toBe('reject');
     await sign(lot.lotId, 'accept', null).expect(409);
     const deviation = await approvedDeviation(lot.supplierId, lot.partId);
-    const [first, second] = await Promise.all([sign(lot.lotId, 'reject', null), sign(lot.lotId, 'use-as-is', null, { deviationId: deviation.id, justification: 'Test fixture only, not for product' })]);
+    const [first, second] = await Promise.all([
+      sign(lot.lotId, 'reject', null),
+      sign(lot.lotId, 'use-as-is', null, { deviationId: deviation.id, justification: 'Test fixture only, not for product' }),
+    ]);
     expect([first.status, second.status].sort()).toEqual([201, 409]);
   });
 
@@ -236,7 +268,10 @@ describe('inspection of a lot through the API', () => {
     await upload(`/api/inspection/lots/${lot.lotId}/measurements`, 'second.csv', benchFile([sample[0]])).expect(201);
     const pieceId = (await sampleOf(lot.lotId)).view.pieces.find((p: { serial: string }) => p.serial === sample[0]).id;
     const history = await PieceResult.findAll({ where: { pieceId }, order: [['id', 'ASC']] });
-    expect(history.map((h) => [h.verdict, h.supersededByFileId !== null])).toEqual([['fail', true], ['pass', false]]);
+    expect(history.map((h) => [h.verdict, h.supersededByFileId !== null])).toEqual([
+      ['fail', true],
+      ['pass', false],
+    ]);
   });
 
   it('keeps each step to its role', async () => {

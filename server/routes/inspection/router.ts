@@ -36,17 +36,26 @@ export const inspectionRouter = Router();
 
 mountList(inspectionRouter, '/queue', 'lots.read', listQuerySchema, inspectionQueue);
 
-inspectionRouter.get('/lots/:id', authenticate, allow('lots.read'), validated({ params: idParams }, async ({ params }, _req, res) => {
-  res.json(presentLotInspection(await findLotInspection(params.id)));
-}));
+inspectionRouter.get(
+  '/lots/:id',
+  authenticate,
+  allow('lots.read'),
+  validated({ params: idParams }, async ({ params }, _req, res) => {
+    res.json(presentLotInspection(await findLotInspection(params.id)));
+  }),
+);
 
 /** What both measurement routes share: inspectors only, the files, then the lot and the instrument. */
 const measurementUpload = [authenticate, allow('inspection.perform'), upload.array('files')];
 const measurementInput = { params: idParams, body: measurementUploadSchema };
 
-inspectionRouter.post('/lots/:id/measurements/preview', ...measurementUpload, validated(measurementInput, async ({ params, body }, req, res) => {
-  res.json(await previewMeasurements(params.id, csvFiles(req.files), body.instrumentId));
-}));
+inspectionRouter.post(
+  '/lots/:id/measurements/preview',
+  ...measurementUpload,
+  validated(measurementInput, async ({ params, body }, req, res) => {
+    res.json(await previewMeasurements(params.id, csvFiles(req.files), body.instrumentId));
+  }),
+);
 
 /** A page of a checked file's pieces, errors or warnings. */
 inspectionRouter.get(
@@ -58,9 +67,13 @@ inspectionRouter.get(
   }),
 );
 
-inspectionRouter.post('/lots/:id/measurements', ...measurementUpload, validated(measurementInput, async ({ params, body }, req, res) => {
-  res.status(201).json(await commitMeasurements({ ...actorOf(req), id: req.user!.id }, params.id, csvFiles(req.files), body.instrumentId));
-}));
+inspectionRouter.post(
+  '/lots/:id/measurements',
+  ...measurementUpload,
+  validated(measurementInput, async ({ params, body }, req, res) => {
+    res.status(201).json(await commitMeasurements({ ...actorOf(req), id: req.user!.id }, params.id, csvFiles(req.files), body.instrumentId));
+  }),
+);
 
 inspectionRouter.post(
   '/lots/:id/dispositions',

@@ -14,7 +14,10 @@ const bench = (code: string) => ({
 describe('/api/instruments', () => {
   it('lets the quality manager register and recalibrate an instrument', async () => {
     const quality = await as('quality');
-    const created = await quality.post('/api/instruments').send(bench(`T-BENCH-${Date.now()}`)).expect(201);
+    const created = await quality
+      .post('/api/instruments')
+      .send(bench(`T-BENCH-${Date.now()}`))
+      .expect(201);
     expect(created.body).toMatchObject({ s3Sign: 1, angleSign: 1, uncertaintyWaves: 0.0008, calibrationCurrent: true });
     const expired = await quality
       .put(`/api/instruments/${created.body.id}`)
@@ -27,9 +30,15 @@ describe('/api/instruments', () => {
 
   it('refuses a due date before the calibration date and an unknown kind', async () => {
     const quality = await as('quality');
-    const response = await quality.post('/api/instruments').send({ ...bench('T-BAD'), kind: 'oscilloscope', calibrationDueOn: '2026-01-01' }).expect(400);
+    const response = await quality
+      .post('/api/instruments')
+      .send({ ...bench('T-BAD'), kind: 'oscilloscope', calibrationDueOn: '2026-01-01' })
+      .expect(400);
     expect(response.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(['kind']);
-    const dates = await quality.post('/api/instruments').send({ ...bench('T-BAD'), calibrationDueOn: '2026-01-01' }).expect(400);
+    const dates = await quality
+      .post('/api/instruments')
+      .send({ ...bench('T-BAD'), calibrationDueOn: '2026-01-01' })
+      .expect(400);
     expect(dates.body.error.details).toEqual([{ path: 'calibrationDueOn', message: 'The due date must come after the calibration date' }]);
   });
 

@@ -14,10 +14,20 @@ instrumentsRouter.get('/', authenticate, allow('instruments.read'), async (_req,
   res.json({ data: instruments.map(presentInstrument), total: instruments.length });
 });
 
-instrumentsRouter.post('/', authenticate, allow('instruments.manage'), validated({ body: instrumentInputSchema }, async ({ body }, req, res) => {
-  res.status(201).json(presentInstrument(await registerInstrument(actorOf(req), body)));
-}));
+instrumentsRouter.post(
+  '/',
+  authenticate,
+  allow('instruments.manage'),
+  validated({ body: instrumentInputSchema }, async ({ body }, req, res) => {
+    res.status(201).json(presentInstrument(await registerInstrument(actorOf(req), body)));
+  }),
+);
 
-instrumentsRouter.put('/:id', authenticate, allow('instruments.manage'), validated({ params: idParams, body: instrumentInputSchema }, async ({ params, body }, req, res) => {
-  res.json(presentInstrument(await updateInstrument(actorOf(req), params.id, body)));
-}));
+instrumentsRouter.put(
+  '/:id',
+  authenticate,
+  allow('instruments.manage'),
+  validated({ params: idParams, body: instrumentInputSchema }, async ({ params, body }, req, res) => {
+    res.json(presentInstrument(await updateInstrument(actorOf(req), params.id, body)));
+  }),
+);

@@ -24,7 +24,12 @@ describe('/api/lots', () => {
     const auditor = await as('auditor');
     await receiveThroughApi(3);
     type Listed = { id: number; accepted: number; receivedAt: string };
-    const orders: [string, (l: Listed) => number | string][] = [['-accepted', (l) => l.accepted], ['accepted', (l) => l.accepted], ['-receivedAt', (l) => l.receivedAt], ['receivedAt', (l) => l.receivedAt]];
+    const orders: [string, (l: Listed) => number | string][] = [
+      ['-accepted', (l) => l.accepted],
+      ['accepted', (l) => l.accepted],
+      ['-receivedAt', (l) => l.receivedAt],
+      ['receivedAt', (l) => l.receivedAt],
+    ];
     for (const [sort, value] of orders) {
       const page = async (n: number) => (await auditor.get('/api/lots').query({ sort, pageSize: 3, page: n }).expect(200)).body.data as Listed[];
       const lots = [...(await page(1)), ...(await page(2))];
@@ -44,13 +49,25 @@ describe('/api/lots', () => {
       line: { lineNumber: 1, quantity: 2, inspectionLevel: 'II', aql: 1, spec: { nominalWaves: 0.25, designWavelengthNm: 632.8 } },
       part: { id: lot.partId },
     });
-    expect(view.attachments).toEqual([expect.objectContaining({ kind: 'packing-slip', mediaType: 'application/pdf', sha256: expect.stringMatching(/^[0-9a-f]{64}$/) })]);
+    expect(view.attachments).toEqual([
+      expect.objectContaining({ kind: 'packing-slip', mediaType: 'application/pdf', sha256: expect.stringMatching(/^[0-9a-f]{64}$/) }),
+    ]);
     await (await as('inspector')).get('/api/lots/999999').expect(404);
   });
 });
 
 describe('who may do what in purchasing, receiving and stock', () => {
-  const reads = ['/api/suppliers', '/api/parts', '/api/purchase-orders', '/api/purchase-orders/open-lines', '/api/shipments', '/api/lots', '/api/stock', '/api/stock/moves', '/api/stock/locations'];
+  const reads = [
+    '/api/suppliers',
+    '/api/parts',
+    '/api/purchase-orders',
+    '/api/purchase-orders/open-lines',
+    '/api/shipments',
+    '/api/lots',
+    '/api/stock',
+    '/api/stock/moves',
+    '/api/stock/locations',
+  ];
 
   it('lets the auditor read everything and change nothing', async () => {
     const auditor = await as('auditor');

@@ -12,6 +12,11 @@ export const lotsRouter = Router();
 
 mountList(lotsRouter, '/', 'lots.read', lotListQuerySchema, lotList);
 
-lotsRouter.get('/:id', authenticate, allow('lots.read'), validated({ params: idParams }, async ({ params }, _req, res) => {
-  res.json(presentLot(await findLot(params.id)));
-}));
+lotsRouter.get(
+  '/:id',
+  authenticate,
+  allow('lots.read'),
+  validated({ params: idParams }, async ({ params }, _req, res) => {
+    res.json(presentLot(await findLot(params.id)));
+  }),
+);

@@ -8,7 +8,10 @@ describe('/api/parts', () => {
     const buyer = await as('buyer');
     const { partId, order } = await orderedLine(10);
     const part = await buyer.get(`/api/parts/${partId}`).expect(200);
-    await buyer.put(`/api/parts/${partId}`).send({ ...part.body, spec: { ...QUARTER_WAVE_633, retardanceTolWaves: 0.01 } }).expect(200);
+    await buyer
+      .put(`/api/parts/${partId}`)
+      .send({ ...part.body, spec: { ...QUARTER_WAVE_633, retardanceTolWaves: 0.01 } })
+      .expect(200);
 
     const edited = await buyer.get(`/api/parts/${partId}`).expect(200);
     expect(edited.body.spec.retardanceTolWaves).toBe(0.01);
@@ -18,12 +21,19 @@ describe('/api/parts', () => {
 
   it('checks the specification field by field and drops what the construction does not use', async () => {
     const buyer = await as('buyer');
-    const multi = await buyer.post('/api/parts').send({ number: `MO-${uniqueTag()}`, description: 'Multi-order', spec: { ...QUARTER_WAVE_633, construction: 'multi-order' } }).expect(400);
+    const multi = await buyer
+      .post('/api/parts')
+      .send({ number: `MO-${uniqueTag()}`, description: 'Multi-order', spec: { ...QUARTER_WAVE_633, construction: 'multi-order' } })
+      .expect(400);
     expect(multi.body.error.details).toEqual([{ path: 'spec.multiOrder', message: 'A multi-order plate needs its order' }]);
 
     const achromatic = await buyer
       .post('/api/parts')
-      .send({ number: `ACH-${uniqueTag()}`, description: 'Achromatic', spec: { ...QUARTER_WAVE_633, construction: 'achromatic', bandNm: [900, 500], clearApertureMm: 30 } })
+      .send({
+        number: `ACH-${uniqueTag()}`,
+        description: 'Achromatic',
+        spec: { ...QUARTER_WAVE_633, construction: 'achromatic', bandNm: [900, 500], clearApertureMm: 30 },
+      })
       .expect(400);
     expect(achromatic.body.error.details.map((d: { path: string }) => d.path).sort()).toEqual(['spec.bandNm.1', 'spec.clearApertureMm']);
 
@@ -40,8 +50,14 @@ describe('/api/parts', () => {
     const clerk = await as('clerk');
     const { partId } = await orderedLine(5);
     const part = (await clerk.get(`/api/parts/${partId}`).expect(200)).body;
-    await clerk.put(`/api/parts/${partId}`).send({ ...part, description: 'Changed by the dock' }).expect(403);
-    await clerk.post('/api/parts').send({ ...part, number: `C-${uniqueTag()}` }).expect(403);
+    await clerk
+      .put(`/api/parts/${partId}`)
+      .send({ ...part, description: 'Changed by the dock' })
+      .expect(403);
+    await clerk
+      .post('/api/parts')
+      .send({ ...part, number: `C-${uniqueTag()}` })
+      .expect(403);
     expect((await clerk.get(`/api/parts/${partId}`).expect(200)).body.description).toBe(part.description);
   });
 

@@ -10,7 +10,12 @@ const serialParams = z.object({ serial: z.string().regex(SERIAL_PATTERN, 'Not a 
 
 export const piecesRouter = Router();
 
-piecesRouter.get('/:serial', authenticate, allow('lots.read'), validated({ params: serialParams }, async ({ params }, _req, res) => {
-  const pieces = (await findPieceHistories(params.serial)).map(presentPieceHistory);
-  res.json({ data: pieces, total: pieces.length });
-}));
+piecesRouter.get(
+  '/:serial',
+  authenticate,
+  allow('lots.read'),
+  validated({ params: serialParams }, async ({ params }, _req, res) => {
+    const pieces = (await findPieceHistories(params.serial)).map(presentPieceHistory);
+    res.json({ data: pieces, total: pieces.length });
+  }),
+);

@@ -12,10 +12,15 @@ export const purchaseOrdersRouter = Router();
 
 mountList(purchaseOrdersRouter, '/', 'catalog.read', poListQuerySchema, purchaseOrderList);
 
-purchaseOrdersRouter.get('/open-lines', authenticate, allow('catalog.read'), validated({ query: openLinesQuerySchema }, async ({ query }, _req, res) => {
-  const rows = (await openLines(query.q)).map(presentOpenLine);
-  res.json({ data: rows, total: rows.length });
-}));
+purchaseOrdersRouter.get(
+  '/open-lines',
+  authenticate,
+  allow('catalog.read'),
+  validated({ query: openLinesQuerySchema }, async ({ query }, _req, res) => {
+    const rows = (await openLines(query.q)).map(presentOpenLine);
+    res.json({ data: rows, total: rows.length });
+  }),
+);
 
 mountRecord(purchaseOrdersRouter, {
   read: 'catalog.read',

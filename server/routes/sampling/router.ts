@@ -8,6 +8,11 @@ import { validated } from '../../http/validate';
 
 export const samplingRouter = Router();
 
-samplingRouter.get('/plan', authenticate, allow('sampling.read'), validated({ query: planQuerySchema }, ({ query }, _req, res) => {
-  res.json(lookUpPlan(query));
-}));
+samplingRouter.get(
+  '/plan',
+  authenticate,
+  allow('sampling.read'),
+  validated({ query: planQuerySchema }, ({ query }, _req, res) => {
+    res.json(lookUpPlan(query));
+  }),
+);

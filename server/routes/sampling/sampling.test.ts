@@ -12,7 +12,15 @@ describe('GET /api/sampling/plan', () => {
     // K, n = 125, Ac 1 / Re 2 (tightened ss row H col 0.65 = 125, c10 = 1, re c10 = 2).
     for (const role of ROLES) {
       const response = await (await as(role)).get('/api/sampling/plan?lotSize=400&level=II&aql=0.65&severity=tightened').expect(200);
-      expect(response.body, role).toEqual({ codeLetter: 'H', planLetter: 'K', sampleSize: 125, accept: 1, reject: 2, severity: 'tightened', hundredPercent: false });
+      expect(response.body, role).toEqual({
+        codeLetter: 'H',
+        planLetter: 'K',
+        sampleSize: 125,
+        accept: 1,
+        reject: 2,
+        severity: 'tightened',
+        hundredPercent: false,
+      });
     }
   });
 
@@ -20,11 +28,18 @@ describe('GET /api/sampling/plan', () => {
     const inspector = await as('inspector');
     // 2000 at II: K; reduced at AQL 1.0: n = 50, Ac 1 / Re 4 (reduced ss row K col 1.0 = 50, c11 = 1, re c11 = 4).
     expect((await inspector.get('/api/sampling/plan?lotSize=2000&level=II&aql=1&severity=reduced').expect(200)).body).toMatchObject({
-      codeLetter: 'K', planLetter: 'K', sampleSize: 50, accept: 1, reject: 4,
+      codeLetter: 'K',
+      planLetter: 'K',
+      sampleSize: 50,
+      accept: 1,
+      reject: 4,
     });
     // 10 at II: B; normal at AQL 1.0: ↓ to E, n = 13 ≥ 10 (normal ss row B col 1.0 = 13).
     expect((await inspector.get('/api/sampling/plan?lotSize=10&level=II&aql=1.0&severity=normal').expect(200)).body).toMatchObject({
-      codeLetter: 'B', planLetter: 'E', sampleSize: 13, hundredPercent: true,
+      codeLetter: 'B',
+      planLetter: 'E',
+      sampleSize: 13,
+      hundredPercent: true,
     });
   });
 

@@ -11,6 +11,11 @@ settingsRouter.get('/', authenticate, async (_req, res) => {
   res.json(await readSiteSettings());
 });
 
-settingsRouter.put('/', authenticate, allow('settings.manage'), validated({ body: siteSettingsSchema }, async ({ body }, req, res) => {
-  res.json(await saveSiteSettings(actorOf(req), body));
-}));
+settingsRouter.put(
+  '/',
+  authenticate,
+  allow('settings.manage'),
+  validated({ body: siteSettingsSchema }, async ({ body }, req, res) => {
+    res.json(await saveSiteSettings(actorOf(req), body));
+  }),
+);

@@ -5,7 +5,10 @@ describe('/api/settings', () => {
   it('lets the admin change the site settings and everyone read them', async () => {
     const admin = await as('admin');
     const before = (await admin.get('/api/settings').expect(200)).body;
-    const saved = await admin.put('/api/settings').send({ ...before, reducedInspectionEnabled: !before.reducedInspectionEnabled }).expect(200);
+    const saved = await admin
+      .put('/api/settings')
+      .send({ ...before, reducedInspectionEnabled: !before.reducedInspectionEnabled })
+      .expect(200);
     expect(saved.body.reducedInspectionEnabled).toBe(!before.reducedInspectionEnabled);
     expect((await (await as('inspector')).get('/api/settings').expect(200)).body).toEqual(saved.body);
     await admin.put('/api/settings').send(before).expect(200);

@@ -10,7 +10,11 @@ import { shipmentList } from '../../receiving/lists';
 import { receiveShipment } from '../../receiving/receipts';
 import { presentReceipt } from './presenter';
 
-const FILE_LABELS: Record<string, string> = { packingSlip: ATTACHMENT_KIND_LABELS['packing-slip'], certificate: ATTACHMENT_KIND_LABELS.certificate, serialsFile: 'Serial file' };
+const FILE_LABELS: Record<string, string> = {
+  packingSlip: ATTACHMENT_KIND_LABELS['packing-slip'],
+  certificate: ATTACHMENT_KIND_LABELS.certificate,
+  serialsFile: 'Serial file',
+};
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_ATTACHMENT_BYTES, files: 7, fields: 20 } }).fields([
   { name: 'packingSlip', maxCount: 2 },
@@ -30,8 +34,14 @@ export const shipmentsRouter = Router();
 
 mountList(shipmentsRouter, '/', 'lots.read', shipmentListQuerySchema, shipmentList);
 
-shipmentsRouter.post('/', authenticate, allow('shipments.receive'), receiptUpload, validated({ body: shipmentReceiveSchema }, async ({ body }, req, res) => {
-  // `.fields()` gives the files by field (a list comes from `.array()` only).
-  const files = Array.isArray(req.files) ? {} : (req.files ?? {});
-  res.status(201).json(presentReceipt(await receiveShipment(actorOf(req), body, files)));
-}));
+shipmentsRouter.post(
+  '/',
+  authenticate,
+  allow('shipments.receive'),
+  receiptUpload,
+  validated({ body: shipmentReceiveSchema }, async ({ body }, req, res) => {
+    // `.fields()` gives the files by field (a list comes from `.array()` only).
+    const files = Array.isArray(req.files) ? {} : (req.files ?? {});
+    res.status(201).json(presentReceipt(await receiveShipment(actorOf(req), body, files)));
+  }),
+);

@@ -88,7 +88,11 @@ describe('POST /api/shipments (receiving)', () => {
     const error = await expectRefused(() => postReceipt(lineId, { quantity: 3, serials: `M${tag}-4..M${tag}-6` }), 400);
     expect(error.message).toBe(`Line 1 of PO ${order.number} still expects 2; receiving 3 needs a stated reason for the extra pieces`);
 
-    const accepted = await receiveOk(lineId, { quantity: 3, serials: `M${tag}-4..M${tag}-6`, overReceiptReason: 'Supplier sent a spare; buyer agreed by phone' });
+    const accepted = await receiveOk(lineId, {
+      quantity: 3,
+      serials: `M${tag}-4..M${tag}-6`,
+      overReceiptReason: 'Supplier sent a spare; buyer agreed by phone',
+    });
     const lot = (await (await as('clerk')).get(`/api/lots/${accepted.lotId}`).expect(200)).body;
     expect(lot.overReceiptReason).toBe('Supplier sent a spare; buyer agreed by phone');
   });
@@ -96,9 +100,18 @@ describe('POST /api/shipments (receiving)', () => {
   it('refuses a closed PO', async () => {
     const { lineId, tag, order } = await orderedLine(5);
     const line = order.lines[0];
-    await (await as('buyer'))
+    await (
+      await as('buyer')
+    )
       .put(`/api/purchase-orders/${order.id}`)
-      .send({ number: order.number, supplierId: order.supplier.id, orderedOn: order.orderedOn, currency: 'EUR', status: 'closed', lines: [{ id: line.id, partId: line.part.id, quantity: 5, unitPrice: 90, inspectionLevel: 'II', aql: 1 }] })
+      .send({
+        number: order.number,
+        supplierId: order.supplier.id,
+        orderedOn: order.orderedOn,
+        currency: 'EUR',
+        status: 'closed',
+        lines: [{ id: line.id, partId: line.part.id, quantity: 5, unitPrice: 90, inspectionLevel: 'II', aql: 1 }],
+      })
       .expect(200);
     const error = await expectRefused(() => postReceipt(lineId, { quantity: 1, serials: `X${tag}-1` }), 409);
     expect(error.message).toBe(`PO ${order.number} is closed; nothing more can be received against it`);
@@ -106,7 +119,10 @@ describe('POST /api/shipments (receiving)', () => {
 
   it('sniffs the documents: a text file named .pdf is refused, whatever its name', async () => {
     const { lineId, tag } = await orderedLine(5);
-    const error = await expectRefused(() => postReceipt(lineId, { quantity: 1, serials: `P${tag}-1` }, [['certificate', Buffer.from('just text, not a certificate'), 'certificate.pdf']]), 415);
+    const error = await expectRefused(
+      () => postReceipt(lineId, { quantity: 1, serials: `P${tag}-1` }, [['certificate', Buffer.from('just text, not a certificate'), 'certificate.pdf']]),
+      415,
+    );
     expect(error.message).toBe("Supplier's certificate certificate.pdf is not a PDF, PNG or JPEG");
   });
 

@@ -18,16 +18,31 @@ stockRouter.get('/locations', authenticate, allow('stock.read'), async (_req, re
   res.json({ data: locations.map(presentLocation), total: locations.length });
 });
 
-stockRouter.post('/issue', authenticate, allow('stock.move'), validated({ body: issueInputSchema }, async ({ body }, req, res) => {
-  res.status(201).json(presentMoves(await issueToWorkOrder(actorOf(req), body)));
-}));
+stockRouter.post(
+  '/issue',
+  authenticate,
+  allow('stock.move'),
+  validated({ body: issueInputSchema }, async ({ body }, req, res) => {
+    res.status(201).json(presentMoves(await issueToWorkOrder(actorOf(req), body)));
+  }),
+);
 
-stockRouter.post('/transfer', authenticate, allow('stock.move'), validated({ body: transferInputSchema }, async ({ body }, req, res) => {
-  res.status(201).json(presentMoves(await transferBetweenBins(actorOf(req), body)));
-}));
+stockRouter.post(
+  '/transfer',
+  authenticate,
+  allow('stock.move'),
+  validated({ body: transferInputSchema }, async ({ body }, req, res) => {
+    res.status(201).json(presentMoves(await transferBetweenBins(actorOf(req), body)));
+  }),
+);
 
-stockRouter.post('/release', authenticate, allow('stock.move'), validated({ body: releaseInputSchema }, async ({ body }, req, res) => {
-  res.status(201).json(presentMoves(await putAwayLot(actorOf(req), body)));
-}));
+stockRouter.post(
+  '/release',
+  authenticate,
+  allow('stock.move'),
+  validated({ body: releaseInputSchema }, async ({ body }, req, res) => {
+    res.status(201).json(presentMoves(await putAwayLot(actorOf(req), body)));
+  }),
+);
 
 mountList(stockRouter, '/', 'stock.read', stockQuerySchema, stockList);

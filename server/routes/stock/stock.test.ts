@@ -17,7 +17,10 @@ const acceptLot = (lotId: number) => sequelize.query(`UPDATE lots SET state = 'a
 
 async function onHand(partId: number) {
   const stock = await (await as('auditor')).get(`/api/stock?partId=${partId}&pageSize=50`).expect(200);
-  return { rows: Object.fromEntries(stock.body.data.map((r: { locationCode: string; onHand: number }) => [r.locationCode, r.onHand])), total: stock.body.totals.onHand };
+  return {
+    rows: Object.fromEntries(stock.body.data.map((r: { locationCode: string; onHand: number }) => [r.locationCode, r.onHand])),
+    total: stock.body.totals.onHand,
+  };
 }
 
 describe('/api/stock', () => {
@@ -29,11 +32,20 @@ describe('/api/stock', () => {
     expect(early.body.error.message).toMatch(`Only pieces of accepted lots go to stock; lot L-${lot.lotId} is quarantine`);
 
     await acceptLot(lot.lotId);
-    const toRtv = await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('RTV') }).expect(400);
+    const toRtv = await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('RTV') })
+      .expect(400);
     expect(toRtv.body.error.message).toBe('RTV is a return to vendor location, not a stock bin');
 
-    await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: binA1, serials: lot.serials.slice(0, 4).join(',') }).expect(201);
-    await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A2') }).expect(201);
+    await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: binA1, serials: lot.serials.slice(0, 4).join(',') })
+      .expect(201);
+    await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A2') })
+      .expect(201);
     expect(await onHand(lot.partId)).toEqual({ rows: { 'BIN-A1': 4, 'BIN-A2': 6 }, total: 10 });
     const again = await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: binA1 }).expect(400);
     expect(again.body.error.message).toBe(`Lot L-${lot.lotId} has no pieces waiting to be put away`);
@@ -43,15 +55,30 @@ describe('/api/stock', () => {
     const clerk = await as('clerk');
     const lot = await receiveThroughApi(6);
     await acceptLot(lot.lotId);
-    await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') }).expect(201);
+    await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') })
+      .expect(201);
 
-    await clerk.post('/api/stock/transfer').send({ partId: lot.partId, serials: lot.serials.slice(0, 2).join('\n'), toLocationId: await locationId('BIN-B1') }).expect(201);
-    const toQuarantine = await clerk.post('/api/stock/transfer').send({ partId: lot.partId, serials: lot.serials[2], toLocationId: await locationId('QUARANTINE') }).expect(400);
+    await clerk
+      .post('/api/stock/transfer')
+      .send({ partId: lot.partId, serials: lot.serials.slice(0, 2).join('\n'), toLocationId: await locationId('BIN-B1') })
+      .expect(201);
+    const toQuarantine = await clerk
+      .post('/api/stock/transfer')
+      .send({ partId: lot.partId, serials: lot.serials[2], toLocationId: await locationId('QUARANTINE') })
+      .expect(400);
     expect(toQuarantine.body.error.message).toBe('Transfers go between stock bins; QUARANTINE is not one');
-    const same = await clerk.post('/api/stock/transfer').send({ partId: lot.partId, serials: lot.serials[0], toLocationId: await locationId('BIN-B1') }).expect(409);
+    const same = await clerk
+      .post('/api/stock/transfer')
+      .send({ partId: lot.partId, serials: lot.serials[0], toLocationId: await locationId('BIN-B1') })
+      .expect(409);
     expect(same.body.error.message).toBe(`Already in BIN-B1: ${lot.serials[0]}`);
 
-    await clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: `${lot.serials[0]}, ${lot.serials[3]}`, workOrder: 'WO-T-77' }).expect(201);
+    await clerk
+      .post('/api/stock/issue')
+      .send({ partId: lot.partId, serials: `${lot.serials[0]}, ${lot.serials[3]}`, workOrder: 'WO-T-77' })
+      .expect(201);
     expect(await onHand(lot.partId)).toEqual({ rows: { 'BIN-A1': 3, 'BIN-B1': 1 }, total: 4 });
 
     const twice = await clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: lot.serials[0], workOrder: 'WO-T-78' }).expect(409);
@@ -59,7 +86,10 @@ describe('/api/stock', () => {
     const unknown = await clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: 'NEVER-RECEIVED-1', workOrder: 'WO-T-78' }).expect(400);
     expect(unknown.body.error.message).toMatch(/^Never received for part T-\w+: NEVER-RECEIVED-1$/);
     const quarantined = await receiveThroughApi(1);
-    const notReleased = await clerk.post('/api/stock/issue').send({ partId: quarantined.partId, serials: quarantined.serials[0], workOrder: 'WO-T-79' }).expect(409);
+    const notReleased = await clerk
+      .post('/api/stock/issue')
+      .send({ partId: quarantined.partId, serials: quarantined.serials[0], workOrder: 'WO-T-79' })
+      .expect(409);
     expect(notReleased.body.error.message).toBe(`Not available: ${quarantined.serials[0]} (quarantine)`);
 
     const moves = await (await as('auditor')).get('/api/stock/moves?workOrder=WO-T-77').expect(200);
@@ -75,14 +105,20 @@ describe('/api/stock', () => {
     const clerk = await as('clerk');
     const lot = await receiveThroughApi(3);
     await acceptLot(lot.lotId);
-    await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') }).expect(201);
+    await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') })
+      .expect(201);
     const [mrb, rtv] = lot.serials;
     const pieces = await Piece.findAll({ where: { lotId: lot.lotId }, order: [['serial', 'ASC']] });
     await inTransaction(async (t) => {
       await movePieces({ pieceIds: [pieces[0].id], toLocationId: await locationId('MRB'), reason: 'hold' }, SYSTEM_ACTOR, t);
       await movePieces({ pieceIds: [pieces[1].id], toLocationId: await locationId('RTV'), reason: 'return-to-vendor' }, SYSTEM_ACTOR, t);
     });
-    const back = await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A2'), serials: `${mrb}, ${rtv}` }).expect(409);
+    const back = await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A2'), serials: `${mrb}, ${rtv}` })
+      .expect(409);
     expect(back.body.error).toMatchObject({
       message: `Nonconforming pieces cannot go to stock: ${mrb} (in material review at MRB), ${rtv} (in return to vendor at RTV)`,
       details: { serials: [mrb, rtv] },
@@ -95,7 +131,10 @@ describe('/api/stock', () => {
     const clerk = await as('clerk');
     const lot = await receiveThroughApi(3);
     await acceptLot(lot.lotId);
-    await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') }).expect(201);
+    await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A1') })
+      .expect(201);
 
     const [first, second] = await Promise.all([
       clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: lot.serials[1], workOrder: 'WO-RACE-1' }),
@@ -117,7 +156,10 @@ describe('/api/stock', () => {
     await expect(move!.destroy()).rejects.toThrow('The stock ledger is append-only');
     await expect(sequelize.query(`UPDATE stock_moves SET note = 'rewritten' WHERE id = ${move!.id}`)).rejects.toThrow(/append-only: UPDATE refused/);
     await expect(sequelize.query(`DELETE FROM stock_moves WHERE id = ${move!.id}`)).rejects.toThrow(/append-only: DELETE refused/);
-    const [piece] = await sequelize.query<{ id: number }>(`SELECT id FROM pieces WHERE lot_id = :lotId`, { type: QueryTypes.SELECT, replacements: { lotId: lot.lotId } });
+    const [piece] = await sequelize.query<{ id: number }>(`SELECT id FROM pieces WHERE lot_id = :lotId`, {
+      type: QueryTypes.SELECT,
+      replacements: { lotId: lot.lotId },
+    });
     await expect(
       sequelize.query(`INSERT INTO stock_moves (piece_id, from_location_id, to_location_id, reason) VALUES (:piece, :from, :to, 'transfer')`, {
         replacements: { piece: piece.id, from: await locationId('BIN-A1'), to: await locationId('BIN-A2') },
@@ -129,14 +171,25 @@ describe('/api/stock', () => {
     const clerk = await as('clerk');
     const lot = await receiveThroughApi(2);
     await acceptLot(lot.lotId);
-    await clerk.post('/api/stock/release').send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A2') }).expect(201);
+    await clerk
+      .post('/api/stock/release')
+      .send({ lotId: lot.lotId, toLocationId: await locationId('BIN-A2') })
+      .expect(201);
     await clerk.post('/api/stock/issue').send({ partId: lot.partId, serials: lot.serials[0], workOrder: 'WO-HIST-5' }).expect(201);
 
     const history = await (await as('auditor')).get(`/api/pieces/${lot.serials[0]}`).expect(200);
     expect(history.body.total).toBe(1);
     const piece = history.body.data[0];
-    expect(piece).toMatchObject({ serial: lot.serials[0], state: 'issued', location: null, lot: { id: lot.lotId, state: 'accepted' }, purchaseOrder: { number: lot.order.number, lineNumber: 1 } });
-    expect(piece.moves.map((m: { reason: string; from: string | null; to: string | null; workOrder: string | null }) => [m.reason, m.from, m.to, m.workOrder])).toEqual([
+    expect(piece).toMatchObject({
+      serial: lot.serials[0],
+      state: 'issued',
+      location: null,
+      lot: { id: lot.lotId, state: 'accepted' },
+      purchaseOrder: { number: lot.order.number, lineNumber: 1 },
+    });
+    expect(
+      piece.moves.map((m: { reason: string; from: string | null; to: string | null; workOrder: string | null }) => [m.reason, m.from, m.to, m.workOrder]),
+    ).toEqual([
       ['receipt', null, 'QUARANTINE', null],
       ['release', 'QUARANTINE', 'BIN-A2', null],
       ['issue', 'BIN-A2', null, 'WO-HIST-5'],
@@ -162,7 +215,11 @@ describe('/api/stock', () => {
     // A page past the end (a stale bookmark) is counted, so the pager can find its way back.
     expect((await page(9)).body).toMatchObject({ data: [], total: 7, totalExact: true });
     await auditor.get(`/api/stock/moves?lotId=${lot.lotId}&count=maybe`).expect(400);
-    expect((await auditor.get(`/api/stock?partId=${lot.partId}&page=2&count=true`).expect(200)).body).toMatchObject({ data: [], total: 1, totals: { onHand: 7 } });
+    expect((await auditor.get(`/api/stock?partId=${lot.partId}&page=2&count=true`).expect(200)).body).toMatchObject({
+      data: [],
+      total: 1,
+      totals: { onHand: 7 },
+    });
   });
 
   it('reads for everyone and moves only for the clerk', async () => {

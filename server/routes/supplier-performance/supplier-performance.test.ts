@@ -20,7 +20,13 @@ async function lotsOf(people: HistoryPeople, supplierId: number, partId: number,
   for (const [i, plan] of plans.entries()) {
     ids.push(
       await recordHistoryLot(people, {
-        supplierId, partId, poNumber: `PO-${tag}-${i + 1}`, orderedOn: '2026-05-01', quantity: 5, serialPrefix: `${tag}-${i + 1}-`, supplierLot: `SL-${tag}-${i + 1}`,
+        supplierId,
+        partId,
+        poNumber: `PO-${tag}-${i + 1}`,
+        orderedOn: '2026-05-01',
+        quantity: 5,
+        serialPrefix: `${tag}-${i + 1}-`,
+        supplierLot: `SL-${tag}-${i + 1}`,
         errors: (index) => (index < (plan.failing ?? 0) ? FAILING : PASSING),
         ...plan,
       }),
@@ -28,7 +34,6 @@ async function lotsOf(people: HistoryPeople, supplierId: number, partId: number,
   }
   return ids;
 }
-
 
 describe('the scorecard of a supplier', () => {
   let people: HistoryPeople;
@@ -57,9 +62,14 @@ describe('the scorecard of a supplier', () => {
     expect(failed).toHaveLength(2);
     await inspector
       .post(`/api/inspection/lots/${lotB}/measurements`)
-      .attach('files', await meterFile([{ serial: failed[0], wavelengthNm: 632.8, retardanceWaves: 0.2502, fastAxisDeg: 0.05 }]), { filename: 'again.csv', contentType: 'text/csv' })
+      .attach('files', await meterFile([{ serial: failed[0], wavelengthNm: 632.8, retardanceWaves: 0.2502, fastAxisDeg: 0.05 }]), {
+        filename: 'again.csv',
+        contentType: 'text/csv',
+      })
       .expect(201);
-    await (await as('quality'))
+    await (
+      await as('quality')
+    )
       .post(`/api/inspection/lots/${lotB}/dispositions`)
       .send({ decision: 'reject', password: people.password, meaningAcknowledged: true, expectedDispositionId: null, justification: 'One plate long.' })
       .expect(201);
@@ -98,7 +108,10 @@ describe('the scorecard of a supplier', () => {
     expect(one.body.figures.lotsReceived).toBe(6);
     const csv = await buyer.get(`/api/suppliers/${supplier.supplierId}/scorecard?${PERIOD}&format=csv`).expect(200);
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
-    const lines = csv.text.replace(/^\uFEFF/, '').trim().split('\n');
+    const lines = csv.text
+      .replace(/^\uFEFF/, '')
+      .trim()
+      .split('\n');
     expect(lines[0]).toContain('lot_acceptance_rate');
     expect(lines).toHaveLength(3);
     expect(lines[2]).toContain('all parts,2026-06-01,2026-07-31,6,4,2,0.5,28,2,71429,4,2,0.5');
@@ -128,8 +141,13 @@ describe('the scorecard of a supplier', () => {
     expect(third).toMatchObject({ rank: null, acceptanceRate: null });
 
     const csv = await (await as('auditor')).get(`/api/supplier-scorecards/export.csv?${PERIOD}&q=${supplier.tag}`).expect(200);
-    const lines = csv.text.replace(/^\uFEFF/, '').trim().split('\n');
-    expect(lines[0]).toBe('rank,supplier,period_from,period_to,lots_received,lots_decided,lot_acceptance_rate,nonconforming_ppm,on_time_rate,open_ncrs,open_corrective_actions,drift_alarms');
+    const lines = csv.text
+      .replace(/^\uFEFF/, '')
+      .trim()
+      .split('\n');
+    expect(lines[0]).toBe(
+      'rank,supplier,period_from,period_to,lots_received,lots_decided,lot_acceptance_rate,nonconforming_ppm,on_time_rate,open_ncrs,open_corrective_actions,drift_alarms',
+    );
     expect(lines).toHaveLength(4);
     await (await as('buyer')).get('/api/supplier-scorecards?sort=secret').expect(400);
   });
@@ -139,9 +157,17 @@ describe('NCRs and corrective actions on the scorecard', () => {
   it('counts those open now with their age in whole days, and those raised in the period', async () => {
     const { supplierId, partId, tag } = await freshSupplierPart();
     // The part is on a PO of the supplier (so it has a row), with no lot.
-    await (await as('buyer'))
+    await (
+      await as('buyer')
+    )
       .post('/api/purchase-orders')
-      .send({ number: `PO-${tag}`, supplierId, orderedOn: '2026-05-01', currency: 'EUR', lines: [{ partId, quantity: 5, unitPrice: 1, inspectionLevel: 'II', aql: 1 }] })
+      .send({
+        number: `PO-${tag}`,
+        supplierId,
+        orderedOn: '2026-05-01',
+        currency: 'EUR',
+        lines: [{ partId, quantity: 5, unitPrice: 1, inspectionLevel: 'II', aql: 1 }],
+      })
       .expect(201);
     const [{ id: buyerId }] = await sequelize.query<{ id: number }>(`SELECT id FROM users WHERE email = 'buyer@phaselot.test'`, { type: QueryTypes.SELECT });
     const at = (daysAgo: number, hours = 2) => new Date(Date.now() - daysAgo * 86_400_000 - hours * 3_600_000).toISOString();
@@ -153,7 +179,19 @@ describe('NCRs and corrective actions on the scorecard', () => {
          (:n1, 'found-later', :supplierId, :partId, 'Chipped edge at kitting', 'open', :open10, NULL),
          (:n2, 'found-later', :supplierId, :partId, 'Mark off by a degree', 'dispositioned', :open4, NULL),
          (:n3, 'found-later', :supplierId, :partId, 'Coating stain', 'closed', :inPeriod, :closedAt)`,
-      { replacements: { n1: `NCR-T-${tag}-1`, n2: `NCR-T-${tag}-2`, n3: `NCR-T-${tag}-3`, supplierId, partId, open10: at(10), open4: at(4), inPeriod: at(300), closedAt: at(290) } },
+      {
+        replacements: {
+          n1: `NCR-T-${tag}-1`,
+          n2: `NCR-T-${tag}-2`,
+          n3: `NCR-T-${tag}-3`,
+          supplierId,
+          partId,
+          open10: at(10),
+          open4: at(4),
+          inPeriod: at(300),
+          closedAt: at(290),
+        },
+      },
     );
     await sequelize.query(
       `INSERT INTO corrective_actions (number, supplier_id, part_id, problem, response_due_on, status, sent_to, requested_by, requested_at, accepted_at, closed_at) VALUES
@@ -162,8 +200,20 @@ describe('NCRs and corrective actions on the scorecard', () => {
          (:c3, :supplierId, :partId, 'Coating', :inPeriodDue, 'closed', 'q@example.test', :buyerId, :inPeriod, :acceptedAt, :closedAt)`,
       {
         replacements: {
-          c1: `CAR-T-${tag}-1`, c2: `CAR-T-${tag}-2`, c3: `CAR-T-${tag}-3`, supplierId, partId, buyerId,
-          pastDue: day(5), due: day(-5), inPeriodDue: day(280), open20: at(20, 1), open6: at(6, 1), inPeriod: at(300), acceptedAt: at(295), closedAt: at(250),
+          c1: `CAR-T-${tag}-1`,
+          c2: `CAR-T-${tag}-2`,
+          c3: `CAR-T-${tag}-3`,
+          supplierId,
+          partId,
+          buyerId,
+          pastDue: day(5),
+          due: day(-5),
+          inPeriodDue: day(280),
+          open20: at(20, 1),
+          open6: at(6, 1),
+          inPeriod: at(300),
+          acceptedAt: at(295),
+          closedAt: at(250),
         },
       },
     );
@@ -190,16 +240,28 @@ describe('capability and drift of a supplier-part', () => {
     ];
     const lotIds: number[] = [];
     for (const [i, lot] of errors.entries()) {
-      lotIds.push(await recordHistoryLot(people, {
-        supplierId, partId, poNumber: `PO-${tag}-${i}`, orderedOn: '2026-05-01', quantity: 5, serialPrefix: `${tag}-${i}-`, supplierLot: `SL-${tag}-${i}`,
-        receivedAt: `2026-06-0${i + 1}T10:00:00Z`, errors: (index) => ({ retardanceWaves: lot[index], axisDeg: 0.05 }),
-      }));
+      lotIds.push(
+        await recordHistoryLot(people, {
+          supplierId,
+          partId,
+          poNumber: `PO-${tag}-${i}`,
+          orderedOn: '2026-05-01',
+          quantity: 5,
+          serialPrefix: `${tag}-${i}-`,
+          supplierLot: `SL-${tag}-${i}`,
+          receivedAt: `2026-06-0${i + 1}T10:00:00Z`,
+          errors: (index) => ({ retardanceWaves: lot[index], axisDeg: 0.05 }),
+        }),
+      );
     }
     // Each bench-file commit queued the drift check in its own transaction.
-    const [queued] = await sequelize.query<{ n: string }>(`SELECT count(*) AS n FROM pgboss.job WHERE name = 'supplier-drift-check' AND (data->>'lotId')::int IN (:lotIds)`, {
-      type: QueryTypes.SELECT,
-      replacements: { lotIds },
-    });
+    const [queued] = await sequelize.query<{ n: string }>(
+      `SELECT count(*) AS n FROM pgboss.job WHERE name = 'supplier-drift-check' AND (data->>'lotId')::int IN (:lotIds)`,
+      {
+        type: QueryTypes.SELECT,
+        replacements: { lotIds },
+      },
+    );
     expect(Number(queued.n)).toBe(2);
     const buyer = await as('buyer');
     const { body } = await buyer.get(`/api/suppliers/${supplierId}/capability?partId=${partId}&${PERIOD}`).expect(200);
@@ -274,9 +336,15 @@ describe('due dates of PO lines', () => {
     const buyer = await as('buyer');
     const line = { partId, quantity: 5, unitPrice: 1, inspectionLevel: 'II', aql: 1 };
     const order = { number: `PO-${uniqueTag()}`, supplierId, orderedOn: '2026-05-01', currency: 'EUR' };
-    const created = await buyer.post('/api/purchase-orders').send({ ...order, lines: [{ ...line, dueOn: '2026-05-20' }, line] }).expect(201);
+    const created = await buyer
+      .post('/api/purchase-orders')
+      .send({ ...order, lines: [{ ...line, dueOn: '2026-05-20' }, line] })
+      .expect(201);
     expect(created.body.lines.map((l: { dueOn: string | null }) => l.dueOn)).toEqual(['2026-05-20', null]);
-    const early = await buyer.post('/api/purchase-orders').send({ ...order, number: `PO-${uniqueTag()}`, lines: [{ ...line, dueOn: '2026-04-30' }] }).expect(400);
+    const early = await buyer
+      .post('/api/purchase-orders')
+      .send({ ...order, number: `PO-${uniqueTag()}`, lines: [{ ...line, dueOn: '2026-04-30' }] })
+      .expect(400);
     expect(early.body.error.details).toEqual([{ path: 'lines.0.dueOn', message: 'Due on or after the order date' }]);
   });
 });

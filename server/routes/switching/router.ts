@@ -12,9 +12,14 @@ export const switchingRouter = Router();
 
 mountList(switchingRouter, '/', 'switching.read', switchingListQuerySchema, switchingList);
 
-switchingRouter.get('/:supplierId/:partId', authenticate, allow('switching.read'), validated({ params: switchingParams }, async ({ params }, _req, res) => {
-  res.json(presentSwitchingPair(await findSwitchingPair(params.supplierId, params.partId)));
-}));
+switchingRouter.get(
+  '/:supplierId/:partId',
+  authenticate,
+  allow('switching.read'),
+  validated({ params: switchingParams }, async ({ params }, _req, res) => {
+    res.json(presentSwitchingPair(await findSwitchingPair(params.supplierId, params.partId)));
+  }),
+);
 
 switchingRouter.post(
   '/:supplierId/:partId/resume',

@@ -17,7 +17,8 @@ beforeAll(async () => {
   quality = await as('quality');
 });
 
-const switchingOf = async (pair: { supplierId: number; partId: number }) => (await quality.get(`/api/switching/${pair.supplierId}/${pair.partId}`).expect(200)).body;
+const switchingOf = async (pair: { supplierId: number; partId: number }) =>
+  (await quality.get(`/api/switching/${pair.supplierId}/${pair.partId}`).expect(200)).body;
 
 describe('a lot keeps the plan it was sampled under', () => {
   it('decides the third lot sampled on normal after two rejections switched its supplier and part to tightened', async () => {
@@ -51,7 +52,12 @@ describe('a lot keeps the plan it was sampled under', () => {
     // The next receipt is sampled on tightened (its cells are checked in shared/sampling/tables.test.ts).
     const fourth = await pair.receive();
     const tightened = planFor({ lotSize: 60, level: 'II', aql: 1, severity: 'tightened' });
-    expect((await inspectionOf(fourth.lotId)).view.plan).toMatchObject({ severity: 'tightened', sampleSize: tightened.sampleSize, accept: tightened.accept, reject: tightened.reject });
+    expect((await inspectionOf(fourth.lotId)).view.plan).toMatchObject({
+      severity: 'tightened',
+      sampleSize: tightened.sampleSize,
+      accept: tightened.accept,
+      reject: tightened.reject,
+    });
   });
 });
 
@@ -67,13 +73,22 @@ describe('discontinuation and resumption', () => {
 
     const waiting = await pair.receive(30);
     expect(waiting.state).toBe('quarantine');
-    const [{ plans }] = await sequelize.query<{ plans: string }>('SELECT count(*) AS plans FROM lot_inspections WHERE lot_id = :id', { type: QueryTypes.SELECT, replacements: { id: waiting.lotId } });
+    const [{ plans }] = await sequelize.query<{ plans: string }>('SELECT count(*) AS plans FROM lot_inspections WHERE lot_id = :id', {
+      type: QueryTypes.SELECT,
+      replacements: { id: waiting.lotId },
+    });
     expect(Number(plans)).toBe(0);
     // Marked on the lot list, the lot page and the inspection queue; its inspection record says why.
-    const listed = await quality.get('/api/lots').query({ q: `L-${waiting.lotId}` }).expect(200);
+    const listed = await quality
+      .get('/api/lots')
+      .query({ q: `L-${waiting.lotId}` })
+      .expect(200);
     expect(listed.body.data.find((l: { id: number }) => l.id === waiting.lotId)).toMatchObject({ acceptanceDiscontinued: true });
     expect((await quality.get(`/api/lots/${waiting.lotId}`).expect(200)).body.acceptanceDiscontinued).toBe(true);
-    const queue = await inspector.get('/api/inspection/queue').query({ q: `L-${waiting.lotId}` }).expect(200);
+    const queue = await inspector
+      .get('/api/inspection/queue')
+      .query({ q: `L-${waiting.lotId}` })
+      .expect(200);
     expect(queue.body.data.find((r: { lotId: number }) => r.lotId === waiting.lotId)).toMatchObject({ acceptanceDiscontinued: true, plan: null });
     const refused = await inspector.get(`/api/inspection/lots/${waiting.lotId}`).expect(409);
     expect(refused.body.error).toMatchObject({ code: 'acceptance_discontinued', details: { supplierId: pair.supplierId, partId: pair.partId } });
@@ -82,12 +97,24 @@ describe('discontinuation and resumption', () => {
 
     // An override does not lift a discontinuation; nor does a refused signature or a missing action.
     const resume = (body: Record<string, unknown>) => quality.post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`).send(body);
-    const action = { correctiveAction: 'Supplier replaced the worn polishing pitch and added a final retardance check on every plate.', reference: 'SCAR-2026-031', meaningAcknowledged: true };
-    const override = await quality.post(`/api/switching/${pair.supplierId}/${pair.partId}/override`).send({ severity: 'normal', reason: 'Trying to skip the resumption', password: PASSWORD, meaningAcknowledged: true }).expect(409);
+    const action = {
+      correctiveAction: 'Supplier replaced the worn polishing pitch and added a final retardance check on every plate.',
+      reference: 'SCAR-2026-031',
+      meaningAcknowledged: true,
+    };
+    const override = await quality
+      .post(`/api/switching/${pair.supplierId}/${pair.partId}/override`)
+      .send({ severity: 'normal', reason: 'Trying to skip the resumption', password: PASSWORD, meaningAcknowledged: true })
+      .expect(409);
     expect(override.body.error.message).toMatch(/discontinued: resume it/);
     expect((await resume({ ...action, password: 'not-my-password' }).expect(401)).body.error.code).toBe('signature_refused');
     await resume({ password: PASSWORD, reference: 'X', meaningAcknowledged: true }).expect(400);
-    await (await as('inspector')).post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`).send({ ...action, password: PASSWORD }).expect(403);
+    await (
+      await as('inspector')
+    )
+      .post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`)
+      .send({ ...action, password: PASSWORD })
+      .expect(403);
     expect((await switchingOf(pair)).phase).toBe('stopped');
 
     const resumed = await resume({ ...action, password: PASSWORD }).expect(201);
@@ -100,8 +127,18 @@ describe('discontinuation and resumption', () => {
     expect((await quality.get(`/api/lots/${waiting.lotId}`).expect(200)).body.acceptanceDiscontinued).toBe(false);
 
     view = await switchingOf(pair);
-    expect(view.history[0]).toMatchObject({ kind: 'resume', from: 'stopped', to: 'tightened', reason: action.correctiveAction, reference: action.reference, by: expect.any(String) });
-    await quality.post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`).send({ ...action, password: PASSWORD }).expect(409);
+    expect(view.history[0]).toMatchObject({
+      kind: 'resume',
+      from: 'stopped',
+      to: 'tightened',
+      reason: action.correctiveAction,
+      reference: action.reference,
+      by: expect.any(String),
+    });
+    await quality
+      .post(`/api/switching/${pair.supplierId}/${pair.partId}/resume`)
+      .send({ ...action, password: PASSWORD })
+      .expect(409);
 
     const [audit] = await sequelize.query<{ after: { reference: string; plansDrawnFor: number[] } }>(
       `SELECT after FROM audit_events WHERE action = 'switching.resume' AND entity_id = :id ORDER BY id DESC LIMIT 1`,
@@ -119,7 +156,12 @@ describe('severity override', () => {
     const url = `/api/switching/${pair.supplierId}/${pair.partId}/override`;
     await quality.post(url).send({ severity: 'tightened', password: PASSWORD, meaningAcknowledged: true }).expect(400);
     await quality.post(url).send({ severity: 'normal', reason: 'Already there, nothing to change', password: PASSWORD, meaningAcknowledged: true }).expect(409);
-    await (await as('buyer')).post(url).send({ severity: 'tightened', reason: 'Field returns from two customers', password: PASSWORD, meaningAcknowledged: true }).expect(403);
+    await (
+      await as('buyer')
+    )
+      .post(url)
+      .send({ severity: 'tightened', reason: 'Field returns from two customers', password: PASSWORD, meaningAcknowledged: true })
+      .expect(403);
     const reason = 'Field returns from two customers show axis marks off by 2 degrees';
     const overridden = await quality.post(url).send({ severity: 'tightened', reason, password: PASSWORD, meaningAcknowledged: true }).expect(201);
     expect(overridden.body.state).toMatchObject({ severity: 'tightened', stopped: false });
@@ -128,10 +170,13 @@ describe('severity override', () => {
     expect(view.history).toEqual([expect.objectContaining({ kind: 'override', severity: 'tightened', reason, from: 'normal', to: 'tightened', lotId: null })]);
     const lot = await pair.receive();
     expect((await inspectionOf(lot.lotId)).view.plan.severity).toBe('tightened');
-    const [audit] = await sequelize.query<{ after: { reason: string; severity: string } }>(`SELECT after FROM audit_events WHERE action = 'switching.override' AND entity_id = :id`, {
-      type: QueryTypes.SELECT,
-      replacements: { id: `${pair.supplierId}/${pair.partId}` },
-    });
+    const [audit] = await sequelize.query<{ after: { reason: string; severity: string } }>(
+      `SELECT after FROM audit_events WHERE action = 'switching.override' AND entity_id = :id`,
+      {
+        type: QueryTypes.SELECT,
+        replacements: { id: `${pair.supplierId}/${pair.partId}` },
+      },
+    );
     expect(audit.after).toMatchObject({ reason, severity: 'tightened' });
     // Buyers, inspectors and auditors read the switching state.
     for (const role of ['buyer', 'inspector', 'auditor'] as const) await (await as(role)).get(`/api/switching/${pair.supplierId}/${pair.partId}`).expect(200);
@@ -154,9 +199,20 @@ describe('a superseding decision', () => {
     expect((await sign(first.lotId, 'reject', accepted.dispositionId, { justification: 'Chipped edges found at kitting' })).status).toBe(201);
     const view = await switchingOf(pair);
     expect(view.phase).toBe('tightened');
-    expect(view.history[0]).toMatchObject({ lotId: first.lotId, position: 1, accepted: false, decision: 'reject', from: 'normal', to: 'tightened', superseded: false });
+    expect(view.history[0]).toMatchObject({
+      lotId: first.lotId,
+      position: 1,
+      accepted: false,
+      decision: 'reject',
+      from: 'normal',
+      to: 'tightened',
+      superseded: false,
+    });
     expect(view.history[0].explanation).toMatch(/result was replaced by a new decision \(accepted, 0 defectives → not accepted, 0 defectives\)/);
-    expect(view.history.find((h: { lotId: number; superseded: boolean }) => h.lotId === first.lotId && h.superseded)).toMatchObject({ accepted: true, position: 1 });
+    expect(view.history.find((h: { lotId: number; superseded: boolean }) => h.lotId === first.lotId && h.superseded)).toMatchObject({
+      accepted: true,
+      position: 1,
+    });
   });
 });
 

@@ -5,7 +5,6 @@ import type { SiteSettings } from '@shared/schemas/settings';
 import type { CaughtMessage } from '@shared/schemas/mail';
 import { api } from '@/lib/api';
 
-
 type OutboxEntry = {
   id: number;
   recipients: string[];
@@ -61,8 +60,7 @@ export const useCaughtMail = () =>
     refetchInterval: 10_000,
   });
 
-export const useOutbox = () =>
-  useQuery({ queryKey: adminKeys.outbox, queryFn: () => api<ListResponse<OutboxEntry>>('/mail/outbox'), refetchInterval: 10_000 });
+export const useOutbox = () => useQuery({ queryKey: adminKeys.outbox, queryFn: () => api<ListResponse<OutboxEntry>>('/mail/outbox'), refetchInterval: 10_000 });
 
 export const settingsKeys = { site: ['settings', 'site'] as const };
 

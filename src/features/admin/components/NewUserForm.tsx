@@ -28,11 +28,19 @@ export function NewUserForm({ onDone }: { onDone: () => void }) {
         </Field>
       </div>
       <Field label="Roles" error={errors.roles?.message}>
-        <Controller control={form.control} name="roles" render={({ field }) => <RolePicker idPrefix="new-role" value={field.value} onChange={field.onChange} />} />
+        <Controller
+          control={form.control}
+          name="roles"
+          render={({ field }) => <RolePicker idPrefix="new-role" value={field.value} onChange={field.onChange} />}
+        />
       </Field>
       <div className="flex gap-2">
-        <Button type="submit" disabled={create.isPending}>Create user</Button>
-        <Button look="secondary" onClick={onDone}>Cancel</Button>
+        <Button type="submit" disabled={create.isPending}>
+          Create user
+        </Button>
+        <Button look="secondary" onClick={onDone}>
+          Cancel
+        </Button>
       </div>
     </form>
   );

@@ -26,7 +26,8 @@ export function OutboxTable() {
                 <span className="text-state-pass">Delivered {new Date(m.sentAt!).toLocaleString()}</span>
               ) : (
                 <span className="text-state-quarantine" title={m.lastError ?? undefined}>
-                  Waiting{m.attempts > 0 ? ` — ${m.attempts} failed tr${m.attempts === 1 ? 'y' : 'ies'}, next ${new Date(m.nextAttemptAt!).toLocaleTimeString()}` : ''}
+                  Waiting
+                  {m.attempts > 0 ? ` — ${m.attempts} failed tr${m.attempts === 1 ? 'y' : 'ies'}, next ${new Date(m.nextAttemptAt!).toLocaleTimeString()}` : ''}
                 </span>
               )}
             </td>
@@ -34,7 +35,9 @@ export function OutboxTable() {
         ))}
         {rows.length === 0 && (
           <tr>
-            <td colSpan={4} className="px-2.5 py-4 text-center text-ink-faint">Phaselot has not queued any mail yet.</td>
+            <td colSpan={4} className="px-2.5 py-4 text-center text-ink-faint">
+              Phaselot has not queued any mail yet.
+            </td>
           </tr>
         )}
       </tbody>

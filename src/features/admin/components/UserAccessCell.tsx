@@ -16,7 +16,9 @@ type SetPasswordInput = { password: string };
 function SetPasswordForm({ user, onDone }: { user: UserView; onDone: (saved: boolean) => void }) {
   const update = useUpdateUser();
   const form = useForm<SetPasswordInput>({ resolver: zodResolver(setPasswordSchema), defaultValues: { password: '' } });
-  const submit = form.handleSubmit((values) => update.mutate({ id: user.id, ...values }, { onSuccess: () => onDone(true), onError: (error) => showServerFieldErrors(error, form.setError) }));
+  const submit = form.handleSubmit((values) =>
+    update.mutate({ id: user.id, ...values }, { onSuccess: () => onDone(true), onError: (error) => showServerFieldErrors(error, form.setError) }),
+  );
   const error = form.formState.errors.password?.message ?? (update.error && !form.formState.errors.password ? update.error.message : undefined);
   return (
     <form onSubmit={submit} noValidate aria-label={`New password for ${user.name}`} className="w-64 space-y-1.5">
@@ -24,8 +26,12 @@ function SetPasswordForm({ user, onDone }: { user: UserView; onDone: (saved: boo
         <PasswordInput id={`set-password-${user.id}`} autoComplete="new-password" {...form.register('password')} />
       </Field>
       <div className="flex gap-1">
-        <Button type="submit" className="!py-0.5" disabled={update.isPending || form.formState.isSubmitting}>Set password</Button>
-        <Button look="quiet" className="!py-0.5" onClick={() => onDone(false)}>Cancel</Button>
+        <Button type="submit" className="!py-0.5" disabled={update.isPending || form.formState.isSubmitting}>
+          Set password
+        </Button>
+        <Button look="quiet" className="!py-0.5" onClick={() => onDone(false)}>
+          Cancel
+        </Button>
       </div>
     </form>
   );
@@ -53,7 +59,8 @@ export function UserAccessCell({ user }: { user: UserView }) {
       {user.signingLockedUntil && (
         <div className="flex flex-wrap items-center gap-2">
           <span className="inline-flex items-center gap-1 text-state-fail">
-            <Lock className="h-3.5 w-3.5" aria-hidden /> Signing locked until {new Date(user.signingLockedUntil).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}
+            <Lock className="h-3.5 w-3.5" aria-hidden /> Signing locked until{' '}
+            {new Date(user.signingLockedUntil).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}
           </span>
           <Button look="quiet" className="!px-1.5 !py-0 text-xs" disabled={unlock.isPending} onClick={() => unlock.mutate(user.id)}>
             Unlock signing
@@ -68,8 +75,16 @@ export function UserAccessCell({ user }: { user: UserView }) {
           Set password
         </Button>
       </div>
-      {sendLink.data && <p className="text-xs text-ink-muted" role="status">{sendLink.data.message}</p>}
-      {passwordSet && <p className="text-xs text-ink-muted" role="status">Password set. The user's sessions have ended.</p>}
+      {sendLink.data && (
+        <p className="text-xs text-ink-muted" role="status">
+          {sendLink.data.message}
+        </p>
+      )}
+      {passwordSet && (
+        <p className="text-xs text-ink-muted" role="status">
+          Password set. The user's sessions have ended.
+        </p>
+      )}
       {(sendLink.error ?? unlock.error) && <p className="text-xs text-state-fail">{(sendLink.error ?? unlock.error)!.message}</p>}
     </div>
   );

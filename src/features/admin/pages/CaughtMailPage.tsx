@@ -21,7 +21,11 @@ export function CaughtMailPage() {
       <ul className="divide-y divide-paper-line rounded border border-paper-line bg-paper-card">
         {messages.map((m) => (
           <li key={m.id}>
-            <button type="button" className="flex w-full items-baseline gap-3 px-3 py-2 text-left hover:bg-paper" onClick={() => setOpenId(openId === m.id ? null : m.id)}>
+            <button
+              type="button"
+              className="flex w-full items-baseline gap-3 px-3 py-2 text-left hover:bg-paper"
+              onClick={() => setOpenId(openId === m.id ? null : m.id)}
+            >
               <span className="w-40 shrink-0 text-xs text-ink-muted">{new Date(m.receivedAt).toLocaleString()}</span>
               <span className="w-56 shrink-0 truncate text-xs">{m.to}</span>
               <span className="flex-1 font-medium">{m.subject}</span>
@@ -34,7 +38,9 @@ export function CaughtMailPage() {
                 {m.attachments.length > 0 && (
                   <ul className="mt-2 text-xs text-ink-muted">
                     {m.attachments.map((a) => (
-                      <li key={a.filename}>{a.filename} ({a.contentType}, {(a.size / 1024).toFixed(1)} KiB)</li>
+                      <li key={a.filename}>
+                        {a.filename} ({a.contentType}, {(a.size / 1024).toFixed(1)} KiB)
+                      </li>
                     ))}
                   </ul>
                 )}

@@ -34,7 +34,9 @@ export function SiteSettingsPage() {
             </span>
           </span>
         </label>
-        <Button type="submit" disabled={save.isPending}>Save settings</Button>
+        <Button type="submit" disabled={save.isPending}>
+          Save settings
+        </Button>
       </form>
     </div>
   );

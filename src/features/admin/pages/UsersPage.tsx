@@ -29,10 +29,16 @@ function RolesCell({ user }: { user: UserView }) {
       <RolePicker idPrefix={`roles-${user.id}`} value={editing} onChange={setEditing} />
       {update.error && <p className="text-xs text-state-fail">{update.error.message}</p>}
       <div className="flex gap-1">
-        <Button className="!py-0.5" disabled={editing.length === 0} onClick={() => update.mutate({ id: user.id, roles: editing }, { onSuccess: () => setEditing(null) })}>
+        <Button
+          className="!py-0.5"
+          disabled={editing.length === 0}
+          onClick={() => update.mutate({ id: user.id, roles: editing }, { onSuccess: () => setEditing(null) })}
+        >
           Save roles
         </Button>
-        <Button look="quiet" className="!py-0.5" onClick={() => setEditing(null)}>Cancel</Button>
+        <Button look="quiet" className="!py-0.5" onClick={() => setEditing(null)}>
+          Cancel
+        </Button>
       </div>
     </div>
   );
@@ -78,7 +84,13 @@ export function UsersPage() {
       <PageHeader
         title="Users"
         subtitle="Accounts and their roles. A user can hold several roles."
-        actions={!creating && <Button onClick={() => setCreating(true)}><UserPlus className="h-4 w-4" aria-hidden /> New user</Button>}
+        actions={
+          !creating && (
+            <Button onClick={() => setCreating(true)}>
+              <UserPlus className="h-4 w-4" aria-hidden /> New user
+            </Button>
+          )
+        }
       />
       {creating && <NewUserForm onDone={() => setCreating(false)} />}
       {users.error && <Notice tone="error">{users.error.message}</Notice>}

@@ -23,7 +23,6 @@ export type IssuedDocument = {
   signer: string;
 };
 
-
 type SupplierOption = { id: number; name: string };
 type PartOption = { id: number; number: string; description: string };
 
@@ -40,7 +39,11 @@ export const auditKeys = {
 };
 
 export const useDocuments = (query: Query) =>
-  useQuery({ queryKey: auditKeys.documents(query), queryFn: () => api<ListResponse<IssuedDocument>>('/certificates', { query }), placeholderData: keepPreviousData });
+  useQuery({
+    queryKey: auditKeys.documents(query),
+    queryFn: () => api<ListResponse<IssuedDocument>>('/certificates', { query }),
+    placeholderData: keepPreviousData,
+  });
 
 export const useAuditEvents = (query: Query) =>
   useQuery({ queryKey: auditKeys.events(query), queryFn: listPage<AuditEventView>('/audit', query), placeholderData: keepPreviousData });

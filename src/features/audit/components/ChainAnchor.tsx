@@ -23,19 +23,27 @@ export function ChainAnchor() {
     <Panel title="Chain head">
       <div className="space-y-3">
         <p className="text-xs text-ink-muted">
-          Keep the position and hash below outside Phaselot. If the event at that position still carries that hash and the chain verifies, nothing recorded up to then has changed.
+          Keep the position and hash below outside Phaselot. If the event at that position still carries that hash and the chain verifies, nothing recorded up
+          to then has changed.
         </p>
         {head.error && <Notice tone="error">{head.error.message}</Notice>}
         {current && (
           <Details
             columns={3}
             items={[
-              ['Position', <span className="font-mono" data-testid="chain-head-seq">{current.seq}</span>],
+              [
+                'Position',
+                <span className="font-mono" data-testid="chain-head-seq">
+                  {current.seq}
+                </span>,
+              ],
               [
                 'Hash',
                 current.hash ? (
                   <span className="inline-flex items-start gap-1">
-                    <span className="font-mono text-2xs break-all" data-testid="chain-head-hash">{current.hash}</span>
+                    <span className="font-mono text-2xs break-all" data-testid="chain-head-hash">
+                      {current.hash}
+                    </span>
                     <CopyButton value={`${current.seq} ${current.hash}`} label="Copy position and hash" />
                   </span>
                 ) : (

@@ -20,11 +20,14 @@ export function ChainCheck() {
       )}
       {report && !report.intact && (
         <Notice tone="error" title="Chain broken">
-          <p>{report.checked} events checked; these rows no longer match the chain{report.problems.length === 50 ? ' (first 50 shown)' : ''}:</p>
+          <p>
+            {report.checked} events checked; these rows no longer match the chain{report.problems.length === 50 ? ' (first 50 shown)' : ''}:
+          </p>
           <ul className="mt-1 font-mono text-xs">
             {report.problems.map((p) => (
               <li key={`${p.seq}-${p.problem}`}>
-                position {p.seq}{p.id ? ` (event ${p.id})` : ''}: {p.problem}
+                position {p.seq}
+                {p.id ? ` (event ${p.id})` : ''}: {p.problem}
               </li>
             ))}
           </ul>

@@ -14,9 +14,19 @@ export function CopyButton({ value, label }: { value: string; label: string }) {
     setTimeout(() => setState('idle'), 1500);
   };
   return (
-    <button type="button" onClick={copy} aria-label={label} title={state === 'failed' ? 'The browser refused to copy' : label} className="inline-flex items-center rounded p-0.5 text-ink-faint hover:bg-paper-sunk hover:text-ink">
+    <button
+      type="button"
+      onClick={copy}
+      aria-label={label}
+      title={state === 'failed' ? 'The browser refused to copy' : label}
+      className="inline-flex items-center rounded p-0.5 text-ink-faint hover:bg-paper-sunk hover:text-ink"
+    >
       {state === 'copied' ? <Check className="h-3.5 w-3.5 text-state-pass" aria-hidden /> : <Copy className="h-3.5 w-3.5" aria-hidden />}
-      {state !== 'idle' && <span className="sr-only" role="status">{state === 'copied' ? 'Copied' : 'Copy refused'}</span>}
+      {state !== 'idle' && (
+        <span className="sr-only" role="status">
+          {state === 'copied' ? 'Copied' : 'Copy refused'}
+        </span>
+      )}
     </button>
   );
 }

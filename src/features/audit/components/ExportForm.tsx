@@ -39,8 +39,12 @@ export function ExportForm() {
           <input id="export-to" type="date" className={inputClass} {...form.register('to')} />
         </Field>
         <div className="flex gap-1 pb-0.5">
-          <Button look="secondary" onClick={() => pick(month(0))}>This month</Button>
-          <Button look="secondary" onClick={() => pick(month(-1))}>Last month</Button>
+          <Button look="secondary" onClick={() => pick(month(0))}>
+            This month
+          </Button>
+          <Button look="secondary" onClick={() => pick(month(-1))}>
+            Last month
+          </Button>
         </div>
       </div>
       <div className="flex flex-wrap items-end gap-3">
@@ -48,7 +52,9 @@ export function ExportForm() {
           <select id="export-supplier" className={`${inputClass} w-64`} disabled={!suppliers.data} {...form.register('supplierId', optionalId)}>
             <option value="">All suppliers</option>
             {suppliers.data?.data.map((s) => (
-              <option key={s.id} value={s.id}>{s.name}</option>
+              <option key={s.id} value={s.id}>
+                {s.name}
+              </option>
             ))}
           </select>
         </Field>
@@ -56,11 +62,15 @@ export function ExportForm() {
           <select id="export-part" className={`${inputClass} w-72`} disabled={!parts.data} {...form.register('partId', optionalId)}>
             <option value="">All parts</option>
             {parts.data?.data.map((p) => (
-              <option key={p.id} value={p.id}>{p.number} — {p.description}</option>
+              <option key={p.id} value={p.id}>
+                {p.number} — {p.description}
+              </option>
             ))}
           </select>
         </Field>
-        <Button type="submit" disabled={start.isPending}>{start.isPending ? 'Starting…' : 'Start export'}</Button>
+        <Button type="submit" disabled={start.isPending}>
+          {start.isPending ? 'Starting…' : 'Start export'}
+        </Button>
       </div>
       {start.error && <Notice tone="error">{start.error.message}</Notice>}
     </form>

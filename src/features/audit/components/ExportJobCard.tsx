@@ -28,8 +28,18 @@ export function ExportJobCard({ job: initial, names }: { job: ExportJobView; nam
         </p>
       </div>
       <div className="mt-2 flex items-center gap-3">
-        <div role="progressbar" aria-label={`Progress of export ${job.id}`} aria-valuemin={0} aria-valuemax={job.total} aria-valuenow={job.done} className="h-2 flex-1 overflow-hidden rounded bg-paper-sunk">
-          <div className={`h-full transition-[width] ${job.status === 'failed' ? 'bg-state-fail' : job.status === 'done' ? 'bg-state-pass' : 'bg-frame'}`} style={{ width: `${job.status === 'done' ? 100 : percent}%` }} />
+        <div
+          role="progressbar"
+          aria-label={`Progress of export ${job.id}`}
+          aria-valuemin={0}
+          aria-valuemax={job.total}
+          aria-valuenow={job.done}
+          className="h-2 flex-1 overflow-hidden rounded bg-paper-sunk"
+        >
+          <div
+            className={`h-full transition-[width] ${job.status === 'failed' ? 'bg-state-fail' : job.status === 'done' ? 'bg-state-pass' : 'bg-frame'}`}
+            style={{ width: `${job.status === 'done' ? 100 : percent}%` }}
+          />
         </div>
         <span className="w-48 text-right text-xs whitespace-nowrap" data-testid={`export-${job.id}-status`}>
           {STATUS_LABELS[job.status]} · {job.done} of {job.total} documents
@@ -37,7 +47,9 @@ export function ExportJobCard({ job: initial, names }: { job: ExportJobView; nam
       </div>
       {job.status === 'failed' && (
         <div className="mt-2">
-          <Notice tone="error" title="The export could not be built">{job.error}</Notice>
+          <Notice tone="error" title="The export could not be built">
+            {job.error}
+          </Notice>
         </div>
       )}
       {job.status === 'done' && (

@@ -37,7 +37,16 @@ const columns = [
     ),
   }),
   column.display({ id: 'action', header: 'Action', cell: ({ row }) => <span className="font-mono text-xs">{row.original.action}</span> }),
-  column.display({ id: 'entity', header: 'Record', cell: ({ row: { original: e } }) => <span className="whitespace-nowrap">{e.entityType}{e.entityId ? ` ${e.entityId}` : ''}</span> }),
+  column.display({
+    id: 'entity',
+    header: 'Record',
+    cell: ({ row: { original: e } }) => (
+      <span className="whitespace-nowrap">
+        {e.entityType}
+        {e.entityId ? ` ${e.entityId}` : ''}
+      </span>
+    ),
+  }),
   column.display({
     id: 'change',
     header: 'Before / after',
@@ -48,8 +57,25 @@ const columns = [
       </>
     ),
   }),
-  column.display({ id: 'origin', header: 'Request', cell: ({ row: { original: e } }) => <span className="font-mono text-2xs text-ink-muted">{e.address}<span className="block">{e.requestId}</span></span> }),
-  column.display({ id: 'hash', header: 'Digest', cell: ({ row }) => <span className="font-mono text-2xs text-ink-muted" title={row.original.hash}>#{row.original.seq} · {row.original.hash.slice(0, 10)}…</span> }),
+  column.display({
+    id: 'origin',
+    header: 'Request',
+    cell: ({ row: { original: e } }) => (
+      <span className="font-mono text-2xs text-ink-muted">
+        {e.address}
+        <span className="block">{e.requestId}</span>
+      </span>
+    ),
+  }),
+  column.display({
+    id: 'hash',
+    header: 'Digest',
+    cell: ({ row }) => (
+      <span className="font-mono text-2xs text-ink-muted" title={row.original.hash}>
+        #{row.original.seq} · {row.original.hash.slice(0, 10)}…
+      </span>
+    ),
+  }),
 ];
 
 export function AuditTrailPage() {
@@ -58,7 +84,14 @@ export function AuditTrailPage() {
   const events = useAuditEvents({ ...state, ...filter });
   const input = (name: (typeof FILTERS)[number], label: string, props: { type?: string; placeholder?: string; className?: string } = {}) => (
     <Field label={label} htmlFor={`audit-${name}`}>
-      <input id={`audit-${name}`} name={name} defaultValue={filter[name]} type={props.type ?? 'text'} placeholder={props.placeholder} className={`${inputClass} ${props.className ?? 'w-40'}`} />
+      <input
+        id={`audit-${name}`}
+        name={name}
+        defaultValue={filter[name]}
+        type={props.type ?? 'text'}
+        placeholder={props.placeholder}
+        className={`${inputClass} ${props.className ?? 'w-40'}`}
+      />
     </Field>
   );
   return (
@@ -67,7 +100,11 @@ export function AuditTrailPage() {
         title="Audit trail"
         subtitle="Every recorded change, append-only and chained by SHA-256: who, when, from where, and the record before and after."
         actions={
-          <a href={apiUrl('/audit/export.csv', filter)} download className="inline-flex items-center gap-1.5 rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-sunk">
+          <a
+            href={apiUrl('/audit/export.csv', filter)}
+            download
+            className="inline-flex items-center gap-1.5 rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-sunk"
+          >
             <FileDown className="h-4 w-4" aria-hidden /> Export CSV
           </a>
         }
@@ -76,7 +113,12 @@ export function AuditTrailPage() {
         <ChainAnchor />
         <ChainCheck />
       </div>
-      <FilterBar key={params.toString()} label="Filter events" onApply={update} onClear={() => update(Object.fromEntries(FILTERS.map((key) => [key, undefined])))}>
+      <FilterBar
+        key={params.toString()}
+        label="Filter events"
+        onApply={update}
+        onClear={() => update(Object.fromEntries(FILTERS.map((key) => [key, undefined])))}
+      >
         {input('from', 'From', { type: 'date', className: '' })}
         {input('to', 'To', { type: 'date', className: '' })}
         {input('action', 'Action starts with', { placeholder: 'disposition.' })}
@@ -86,7 +128,15 @@ export function AuditTrailPage() {
         {input('q', 'Search', { className: 'w-48' })}
       </FilterBar>
       {events.error && <Notice tone="error">{events.error.message}</Notice>}
-      <DataTable columns={columns} data={events.data?.data ?? []} total={events.data?.total ?? 0} state={state} onChange={update} isLoading={events.isPending} empty="No event matches this filter." />
+      <DataTable
+        columns={columns}
+        data={events.data?.data ?? []}
+        total={events.data?.total ?? 0}
+        state={state}
+        onChange={update}
+        isLoading={events.isPending}
+        empty="No event matches this filter."
+      />
     </div>
   );
 }

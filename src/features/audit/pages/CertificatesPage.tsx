@@ -43,7 +43,9 @@ const columns = [
     cell: ({ row: { original: d } }) => (
       <>
         {d.supplier.name}
-        <span className="block font-mono text-xs text-ink-muted">{lotName(d.lot.id)} · {d.lot.supplierLot}</span>
+        <span className="block font-mono text-xs text-ink-muted">
+          {lotName(d.lot.id)} · {d.lot.supplierLot}
+        </span>
       </>
     ),
   }),
@@ -65,7 +67,13 @@ const columns = [
     id: 'pdf',
     header: 'PDF',
     cell: ({ row: { original: d } }) => (
-      <a href={apiUrl(`/documents/${d.number}.pdf`)} target="_blank" rel="noreferrer" className="inline-flex items-center gap-1 whitespace-nowrap" aria-label={`Open PDF of ${d.number}`}>
+      <a
+        href={apiUrl(`/documents/${d.number}.pdf`)}
+        target="_blank"
+        rel="noreferrer"
+        className="inline-flex items-center gap-1 whitespace-nowrap"
+        aria-label={`Open PDF of ${d.number}`}
+      >
         <FileText className="h-3.5 w-3.5" aria-hidden /> Open
       </a>
     ),
@@ -79,7 +87,12 @@ export function CertificatesPage() {
   return (
     <div>
       <PageHeader title="Certificates" subtitle="Certificates of conformance and inspection reports issued on signed lot dispositions, newest first." />
-      <FilterBar key={params.toString()} label="Filter documents" onApply={update} onClear={() => update(Object.fromEntries(FILTERS.map((key) => [key, undefined])))}>
+      <FilterBar
+        key={params.toString()}
+        label="Filter documents"
+        onApply={update}
+        onClear={() => update(Object.fromEntries(FILTERS.map((key) => [key, undefined])))}
+      >
         <Field label="Search" htmlFor="documents-q">
           <input id="documents-q" name="q" defaultValue={filter.q} placeholder="Number, supplier lot, part, supplier" className={`${inputClass} w-64`} />
         </Field>
@@ -87,7 +100,9 @@ export function CertificatesPage() {
           <select id="documents-kind" name="kind" defaultValue={filter.kind ?? ''} className={inputClass}>
             <option value="">All documents</option>
             {Object.entries(KIND_LABELS).map(([value, label]) => (
-              <option key={value} value={value}>{label}</option>
+              <option key={value} value={value}>
+                {label}
+              </option>
             ))}
           </select>
         </Field>
@@ -99,7 +114,15 @@ export function CertificatesPage() {
         </Field>
       </FilterBar>
       {documents.error && <Notice tone="error">{documents.error.message}</Notice>}
-      <DataTable columns={columns} data={documents.data?.data ?? []} total={documents.data?.total ?? 0} state={state} onChange={update} isLoading={documents.isPending} empty="No document matches this filter." />
+      <DataTable
+        columns={columns}
+        data={documents.data?.data ?? []}
+        total={documents.data?.total ?? 0}
+        state={state}
+        onChange={update}
+        isLoading={documents.isPending}
+        empty="No document matches this filter."
+      />
     </div>
   );
 }

@@ -33,7 +33,8 @@ export function VerifyPage() {
         <div>
           <h1>Check a certificate or inspection report</h1>
           <p className="mt-1 text-sm text-ink-muted">
-            Scan the QR code on the document, or type its number and the data SHA-256 printed beside the code. The answer comes from the records of the site that issued it.
+            Scan the QR code on the document, or type its number and the data SHA-256 printed beside the code. The answer comes from the records of the site
+            that issued it.
           </p>
         </div>
         <form aria-label="Verify a document" onSubmit={submit} noValidate className="space-y-3 rounded border border-paper-line bg-paper-card px-4 py-3">

@@ -10,7 +10,9 @@ export function AuthFrame({ children }: { children: ReactNode }) {
         <BrandMark />
         <div className="max-w-md">
           <p className="text-2xl leading-snug font-semibold">Every wave plate checked against its order before it goes into an instrument.</p>
-          <p className="mt-3 text-sm text-white/70">Receiving, quarantine, polarimetric inspection, signed dispositions and serial traceability for retarder lots.</p>
+          <p className="mt-3 text-sm text-white/70">
+            Receiving, quarantine, polarimetric inspection, signed dispositions and serial traceability for retarder lots.
+          </p>
         </div>
         <p className="text-xs text-white/50">Lot decisions remain the responsibility of your site's quality system and its procedures.</p>
       </section>

@@ -34,7 +34,9 @@ export function ChangePasswordPage() {
         <Field label="New password" htmlFor="new-password" error={errors.newPassword?.message} hint={PASSWORD_HINT}>
           <PasswordInput id="new-password" autoComplete="new-password" {...form.register('newPassword')} />
         </Field>
-        <Button type="submit" disabled={busy}>{busy ? 'Checking…' : 'Change password'}</Button>
+        <Button type="submit" disabled={busy}>
+          {busy ? 'Checking…' : 'Change password'}
+        </Button>
       </form>
     </div>
   );

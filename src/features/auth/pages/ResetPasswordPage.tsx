@@ -22,7 +22,8 @@ export function ResetPasswordPage() {
   // A link that cannot be used (missing, unknown, used, expired) leaves nothing to type.
   const deadLink = !token
     ? 'This page opens from the link in the reset mail, and the link here is incomplete.'
-    : (form.formState.errors.token?.message ?? (reset.error instanceof ApiError && reset.error.code.startsWith('reset_link_') ? reset.error.message : undefined));
+    : (form.formState.errors.token?.message ??
+      (reset.error instanceof ApiError && reset.error.code.startsWith('reset_link_') ? reset.error.message : undefined));
 
   return (
     <AuthFrame>

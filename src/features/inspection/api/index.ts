@@ -4,7 +4,14 @@ import type { ListResponse } from '@shared/schemas/paging';
 import { api } from '@/lib/api';
 import { listPage } from '@/lib/lists';
 import type { LineMessage } from '@shared/optics/types';
-import { PREVIEW_PAGE_SIZE, type LotInspectionView, type MeasurementPreview, type PreviewList, type PreviewPiece, type QueueRow } from '@shared/schemas/inspection';
+import {
+  PREVIEW_PAGE_SIZE,
+  type LotInspectionView,
+  type MeasurementPreview,
+  type PreviewList,
+  type PreviewPiece,
+  type QueueRow,
+} from '@shared/schemas/inspection';
 import type { DeviationRow } from '@shared/schemas/deviations';
 import type { InstrumentOption } from './types';
 
@@ -52,7 +59,10 @@ export type PreviewPageQuery = { page: number; instrumentId?: number; verdict?: 
 export const usePreviewPage = <L extends PreviewList>(lotId: number, sha256: string, list: L, query: PreviewPageQuery, enabled: boolean) =>
   useQuery({
     queryKey: [...inspectionKeys.all, 'preview', lotId, sha256, list, query] as const,
-    queryFn: () => api<ListResponse<PreviewEntry<L>>>(`/inspection/lots/${lotId}/measurements/preview/${sha256}/${list}`, { query: { ...query, pageSize: PREVIEW_PAGE_SIZE } }),
+    queryFn: () =>
+      api<ListResponse<PreviewEntry<L>>>(`/inspection/lots/${lotId}/measurements/preview/${sha256}/${list}`, {
+        query: { ...query, pageSize: PREVIEW_PAGE_SIZE },
+      }),
     enabled,
     placeholderData: keepPreviousData,
   });
@@ -61,7 +71,9 @@ export function useCommitMeasurements(lotId: number) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: ({ files, instrumentId }: { files: File[]; instrumentId?: number }) =>
-      api<{ files: { fileId: number; name: string; sha256: string; pieces: number; rows: number }[] }>(`/inspection/lots/${lotId}/measurements`, { body: uploadForm(files, instrumentId) }),
+      api<{ files: { fileId: number; name: string; sha256: string; pieces: number; rows: number }[] }>(`/inspection/lots/${lotId}/measurements`, {
+        body: uploadForm(files, instrumentId),
+      }),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: inspectionKeys.all }),
   });
 }
@@ -69,7 +81,8 @@ export function useCommitMeasurements(lotId: number) {
 export function useSignDisposition(lotId: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: DispositionInput) => api<{ dispositionId: number; documents: { number: string; kind: string }[] }>(`/inspection/lots/${lotId}/dispositions`, { body: input }),
+    mutationFn: (input: DispositionInput) =>
+      api<{ dispositionId: number; documents: { number: string; kind: string }[] }>(`/inspection/lots/${lotId}/dispositions`, { body: input }),
     onSettled: () => queryClient.invalidateQueries({ queryKey: inspectionKeys.all }),
   });
 }

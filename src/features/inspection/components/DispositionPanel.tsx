@@ -45,7 +45,12 @@ export function DispositionPanel({ view, maySign }: { view: LotInspectionView; m
   );
   if (!current) {
     if (!maySign) return null;
-    if (!formOpen) return <Notice tone="info" title="Not ready for a decision">{view.verdict.explanation}. Every sample piece needs a complete result first.</Notice>;
+    if (!formOpen)
+      return (
+        <Notice tone="info" title="Not ready for a decision">
+          {view.verdict.explanation}. Every sample piece needs a complete result first.
+        </Notice>
+      );
     return form;
   }
   return (
@@ -54,7 +59,8 @@ export function DispositionPanel({ view, maySign }: { view: LotInspectionView; m
         disposition={current}
         documents={inForce}
         actions={
-          maySign && !formOpen && (
+          maySign &&
+          !formOpen && (
             <div className="flex flex-wrap items-center gap-3 border-t border-paper-line pt-3">
               <Button
                 look="secondary"
@@ -73,8 +79,8 @@ export function DispositionPanel({ view, maySign }: { view: LotInspectionView; m
         {!formOpen && (failure || signed)}
         {view.sort && (
           <Notice tone="info" title="100 % sort under way">
-            {view.sort.remaining} of {view.lot.quantity} pieces still need a verdict. When the last one is measured, each piece goes by its own verdict (conforming to stock,
-            nonconforming back to the vendor) and the certificate is issued for the released serials.
+            {view.sort.remaining} of {view.lot.quantity} pieces still need a verdict. When the last one is measured, each piece goes by its own verdict
+            (conforming to stock, nonconforming back to the vendor) and the certificate is issued for the released serials.
           </Notice>
         )}
       </SignedDecision>
@@ -123,11 +129,15 @@ function SignatureForm({ view, sign, replaces, inForce, onSigned, onCancel }: Fo
 
   return (
     <form onSubmit={submit} noValidate aria-label="Sign disposition" className="space-y-3 rounded border border-frame/30 bg-paper-card p-4">
-      <h2 className="flex items-center gap-2"><PenLine className="h-4 w-4" aria-hidden /> {replaces ? 'Supersede the signed decision' : 'Sign the disposition'}</h2>
+      <h2 className="flex items-center gap-2">
+        <PenLine className="h-4 w-4" aria-hidden /> {replaces ? 'Supersede the signed decision' : 'Sign the disposition'}
+      </h2>
       {replaces && (
         <Notice tone="caution" title="What superseding does">
-          The decision “{DISPOSITION_LABELS[replaces.decision]}” signed by {replaces.signer ?? 'a former user'} on {new Date(replaces.signedAt).toLocaleString()} stays on record as superseded.
-          {inForce.length > 0 && ` Its documents (${inForce.map((d) => d.number).join(', ')}) are revoked.`} Your decision is signed in its place, with its own documents, and the lot's pieces move as your decision says.
+          The decision “{DISPOSITION_LABELS[replaces.decision]}” signed by {replaces.signer ?? 'a former user'} on{' '}
+          {new Date(replaces.signedAt).toLocaleString()} stays on record as superseded.
+          {inForce.length > 0 && ` Its documents (${inForce.map((d) => d.number).join(', ')}) are revoked.`} Your decision is signed in its place, with its own
+          documents, and the lot's pieces move as your decision says.
         </Notice>
       )}
       {sign.error && <Notice tone="error">{sign.error.message}</Notice>}
@@ -138,9 +148,15 @@ function SignatureForm({ view, sign, replaces, inForce, onSigned, onCancel }: Fo
             <input type="radio" value={d} {...form.register('decision')} /> {DISPOSITION_LABELS[d]}
           </label>
         ))}
-        {errors.decision && <p role="alert" className="w-full text-xs text-state-fail">Choose a decision.</p>}
+        {errors.decision && (
+          <p role="alert" className="w-full text-xs text-state-fail">
+            Choose a decision.
+          </p>
+        )}
       </fieldset>
-      {decision === 'use-as-is' && <DeviationPicker view={view} register={form.register} error={errors.deviationId?.message} chosen={form.watch('deviationId')} />}
+      {decision === 'use-as-is' && (
+        <DeviationPicker view={view} register={form.register} error={errors.deviationId?.message} chosen={form.watch('deviationId')} />
+      )}
       <Field label={decision === 'use-as-is' ? 'Justification' : 'Note (optional)'} htmlFor="justification" error={errors.justification?.message}>
         <textarea id="justification" rows={2} className={inputClass} {...form.register('justification')} />
       </Field>
@@ -165,7 +181,10 @@ function SignatureForm({ view, sign, replaces, inForce, onSigned, onCancel }: Fo
           </Button>
         )}
       </div>
-      <p className="text-xs text-ink-muted">The decision remains the responsibility of the site's quality system and its procedures. A signed decision is never edited; a new signature supersedes it and revokes its documents.</p>
+      <p className="text-xs text-ink-muted">
+        The decision remains the responsibility of the site's quality system and its procedures. A signed decision is never edited; a new signature supersedes
+        it and revokes its documents.
+      </p>
     </form>
   );
 }
@@ -184,14 +203,22 @@ function DeviationPicker({ view, register, error, chosen }: PickerProps) {
   if (rows.length === 0) {
     return (
       <Notice tone="caution" title="No current deviation">
-        No approved, unexpired deviation of {part.number} from {supplier.name} is in the register. <Link to={newEntry} className="underline">Write one</Link>; it needs the approval of a quality manager and of a second person before this lot can be used under it.
+        No approved, unexpired deviation of {part.number} from {supplier.name} is in the register.{' '}
+        <Link to={newEntry} className="underline">
+          Write one
+        </Link>
+        ; it needs the approval of a quality manager and of a second person before this lot can be used under it.
       </Notice>
     );
   }
   return (
     <div className="space-y-2">
       <Field label="Deviation" htmlFor="deviation" hint={`Every piece of the lot (${quantity}) is released under it.`} error={error}>
-        <select id="deviation" className={`${inputClass} max-w-xl`} {...register('deviationId', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}>
+        <select
+          id="deviation"
+          className={`${inputClass} max-w-xl`}
+          {...register('deviationId', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}
+        >
           <option value="">Choose a current deviation…</option>
           {rows.map((d) => (
             <option key={d.id} value={d.id} disabled={(d.quantityLeft ?? 0) < quantity}>

@@ -6,7 +6,10 @@ const KIND_LABELS = { certificate: 'certificate of conformance', 'inspection-rep
 export function DocumentLink({ document }: { document: LotInspectionView['documents'][number] }) {
   return (
     <>
-      <a href={`/api/documents/${encodeURIComponent(document.number)}.pdf`} target="_blank" rel="noreferrer" className="font-mono">{document.number}</a> {KIND_LABELS[document.kind]}
+      <a href={`/api/documents/${encodeURIComponent(document.number)}.pdf`} target="_blank" rel="noreferrer" className="font-mono">
+        {document.number}
+      </a>{' '}
+      {KIND_LABELS[document.kind]}
       {document.revokedAt && <span className="ml-1 font-medium text-state-fail">revoked</span>}
     </>
   );

@@ -18,12 +18,28 @@ function Pager({ what, page, total, onPage }: { what: string; page: number; tota
   const first = total === 0 ? 0 : (page - 1) * PREVIEW_PAGE_SIZE + 1;
   return (
     <div className="flex items-center justify-end gap-1 border-t border-paper-line/60 px-3 py-1 text-xs text-ink-muted">
-      <span className="mr-auto">{what} {first.toLocaleString()}–{Math.min(total, page * PREVIEW_PAGE_SIZE).toLocaleString()} of {total.toLocaleString()}</span>
-      <button type="button" aria-label={`Previous ${what}`} className="rounded p-1 hover:bg-paper-sunk disabled:opacity-40" disabled={page <= 1} onClick={() => onPage(page - 1)}>
+      <span className="mr-auto">
+        {what} {first.toLocaleString()}–{Math.min(total, page * PREVIEW_PAGE_SIZE).toLocaleString()} of {total.toLocaleString()}
+      </span>
+      <button
+        type="button"
+        aria-label={`Previous ${what}`}
+        className="rounded p-1 hover:bg-paper-sunk disabled:opacity-40"
+        disabled={page <= 1}
+        onClick={() => onPage(page - 1)}
+      >
         <ChevronLeft className="h-4 w-4" />
       </button>
-      <span>page {page} / {pages}</span>
-      <button type="button" aria-label={`Next ${what}`} className="rounded p-1 hover:bg-paper-sunk disabled:opacity-40" disabled={page >= pages} onClick={() => onPage(page + 1)}>
+      <span>
+        page {page} / {pages}
+      </span>
+      <button
+        type="button"
+        aria-label={`Next ${what}`}
+        className="rounded p-1 hover:bg-paper-sunk disabled:opacity-40"
+        disabled={page >= pages}
+        onClick={() => onPage(page + 1)}
+      >
         <ChevronRight className="h-4 w-4" />
       </button>
     </div>
@@ -33,7 +49,13 @@ function Pager({ what, page, total, onPage }: { what: string; page: number; tota
 type Checked = { lotId: number; file: FilePreview; instrumentId?: number };
 
 /** One list of a checked file, a page at a time: the first page came with the check, the others are asked for. */
-function usePagedList<L extends PreviewList>({ lotId, file, instrumentId }: Checked, list: L, firstPage: PreviewEntry<L>[], total: number, verdict?: PreviewPiece['verdict']) {
+function usePagedList<L extends PreviewList>(
+  { lotId, file, instrumentId }: Checked,
+  list: L,
+  firstPage: PreviewEntry<L>[],
+  total: number,
+  verdict?: PreviewPiece['verdict'],
+) {
   const [page, setPage] = useState(1);
   const query: PreviewPageQuery = { page, instrumentId, verdict };
   const asked = page > 1 || verdict !== undefined;
@@ -54,10 +76,16 @@ function MessageList({ checked, list, label, tone, total }: { checked: Checked; 
     <div>
       <ul className={`max-h-48 overflow-y-auto px-3 py-2 ${tone}`} aria-label={label}>
         {paged.entries.map((e, i) => (
-          <li key={`${e.line}-${i}`}><span className="font-mono">line {e.line}</span>: {e.message}</li>
+          <li key={`${e.line}-${i}`}>
+            <span className="font-mono">line {e.line}</span>: {e.message}
+          </li>
         ))}
       </ul>
-      {paged.error && <div className="px-3 pb-2"><Notice tone="error">{paged.error.message}</Notice></div>}
+      {paged.error && (
+        <div className="px-3 pb-2">
+          <Notice tone="error">{paged.error.message}</Notice>
+        </div>
+      )}
       <Pager what={label.toLowerCase()} page={paged.page} total={paged.total} onPage={paged.setPage} />
     </div>
   );
@@ -88,7 +116,13 @@ function PieceList({ checked }: { checked: Checked }) {
       <div className="max-h-72 overflow-auto">
         <table className="w-full text-xs" aria-label="Checked pieces">
           <thead className="sticky top-0 bg-paper-sunk text-left text-ink-muted">
-            <tr>{['Serial', 'λ nm', 'Retardance λ', 'Error λ', 'Axis error °', 'Verdict'].map((h) => <th key={h} className="px-2.5 py-1 font-medium whitespace-nowrap">{h}</th>)}</tr>
+            <tr>
+              {['Serial', 'λ nm', 'Retardance λ', 'Error λ', 'Axis error °', 'Verdict'].map((h) => (
+                <th key={h} className="px-2.5 py-1 font-medium whitespace-nowrap">
+                  {h}
+                </th>
+              ))}
+            </tr>
           </thead>
           <tbody>
             {paged.entries.map((p) => (
@@ -98,13 +132,19 @@ function PieceList({ checked }: { checked: Checked }) {
                 <td className="px-2.5 py-0.5 text-right font-mono">{num(p.retardanceWaves, 4)}</td>
                 <td className="px-2.5 py-0.5 text-right font-mono">{num(p.retardanceErrorWaves, 4)}</td>
                 <td className="px-2.5 py-0.5 text-right font-mono">{num(p.axisErrorDeg, 2)}</td>
-                <td className="px-2.5 py-0.5"><VerdictBadge value={p.verdict} /> <span className="text-ink-muted">{p.reasons.join('; ')}</span></td>
+                <td className="px-2.5 py-0.5">
+                  <VerdictBadge value={p.verdict} /> <span className="text-ink-muted">{p.reasons.join('; ')}</span>
+                </td>
               </tr>
             ))}
           </tbody>
         </table>
       </div>
-      {paged.error && <div className="px-3 py-2"><Notice tone="error">{paged.error.message}</Notice></div>}
+      {paged.error && (
+        <div className="px-3 py-2">
+          <Notice tone="error">{paged.error.message}</Notice>
+        </div>
+      )}
       <Pager what="pieces" page={paged.page} total={paged.total} onPage={paged.setPage} />
     </div>
   );
@@ -123,9 +163,15 @@ function PreviewOfFile({ checked }: { checked: Checked }) {
           {counts.pieces > 0 && ` (${counts.pass} pass, ${counts.fail} fail, ${counts.incomplete} incomplete)`}
         </span>
         <span className="font-mono text-2xs text-ink-faint">SHA-256 {file.sha256.slice(0, 16)}…</span>
-        <span className={`ml-auto text-xs font-medium ${problems ? 'text-state-fail' : 'text-state-pass'}`}>{problems ? `${problems.toLocaleString()} problem(s)` : 'ready to save'}</span>
+        <span className={`ml-auto text-xs font-medium ${problems ? 'text-state-fail' : 'text-state-pass'}`}>
+          {problems ? `${problems.toLocaleString()} problem(s)` : 'ready to save'}
+        </span>
       </header>
-      {file.fatal && <div className="px-3 py-2"><Notice tone="error">{file.fatal}</Notice></div>}
+      {file.fatal && (
+        <div className="px-3 py-2">
+          <Notice tone="error">{file.fatal}</Notice>
+        </div>
+      )}
       <MessageList checked={checked} list="errors" label="Errors" tone="text-sm text-state-fail" total={counts.errors} />
       <MessageList checked={checked} list="warnings" label="Warnings" tone="text-xs text-ink-muted" total={counts.warnings} />
       <PieceList checked={checked} />
@@ -140,8 +186,18 @@ function PlanEffectNote({ effect }: { effect: PlanEffect }) {
   const { plan, now, afterSaving } = effect;
   const rows: [string, ReactNode][] = [
     ['Sample', `n = ${plan.sampleSize}, Ac ${plan.accept}, Re ${plan.reject}`],
-    ['Now', <>{standingText(now)} · <VerdictBadge value={now.proposal} /></>],
-    ['After saving', <>{standingText(afterSaving)} · <VerdictBadge value={afterSaving.proposal} /> <span className="text-ink-muted">{afterSaving.explanation}</span></>],
+    [
+      'Now',
+      <>
+        {standingText(now)} · <VerdictBadge value={now.proposal} />
+      </>,
+    ],
+    [
+      'After saving',
+      <>
+        {standingText(afterSaving)} · <VerdictBadge value={afterSaving.proposal} /> <span className="text-ink-muted">{afterSaving.explanation}</span>
+      </>,
+    ],
   ];
   if (effect.sortRemaining) rows.push(['Left to sort', `${effect.sortRemaining.now} now, ${effect.sortRemaining.afterSaving} after saving`]);
   return (
@@ -178,27 +234,48 @@ export function MeasurementUpload({ lotId }: { lotId: number }) {
     commit.reset();
   };
   const save = () =>
-    commit.mutate({ files, instrumentId }, {
-      onSuccess: () => {
-        setFiles([]);
-        preview.reset();
-        setInputKey((k) => k + 1);
+    commit.mutate(
+      { files, instrumentId },
+      {
+        onSuccess: () => {
+          setFiles([]);
+          preview.reset();
+          setInputKey((k) => k + 1);
+        },
       },
-    });
+    );
   const commitErrors = commit.error instanceof ApiError && Array.isArray(commit.error.details) ? commit.error.details : [];
 
   return (
     <div className="space-y-3 rounded border border-paper-line bg-paper p-3">
       <div className="flex flex-wrap items-end gap-3">
         <Field label="Bench files (CSV)" htmlFor="bench-files">
-          <input key={inputKey} id="bench-files" type="file" accept=".csv,text/csv,text/plain" multiple className="text-sm" onChange={(e) => choose(e.target.files)} />
+          <input
+            key={inputKey}
+            id="bench-files"
+            type="file"
+            accept=".csv,text/csv,text/plain"
+            multiple
+            className="text-sm"
+            onChange={(e) => choose(e.target.files)}
+          />
         </Field>
         <Field label="Instrument (when the file does not name it)" htmlFor="bench-instrument">
-          <select id="bench-instrument" className={inputClass} value={instrumentId ?? ''} onChange={(e) => setInstrumentId(e.target.value ? Number(e.target.value) : undefined)}>
+          <select
+            id="bench-instrument"
+            className={inputClass}
+            value={instrumentId ?? ''}
+            onChange={(e) => setInstrumentId(e.target.value ? Number(e.target.value) : undefined)}
+          >
             <option value="">— named in the file —</option>
-            {(instruments.data?.data ?? []).filter((i) => i.active).map((i) => (
-              <option key={i.id} value={i.id}>{i.code}{i.calibrationCurrent ? '' : ' (calibration lapsed)'}</option>
-            ))}
+            {(instruments.data?.data ?? [])
+              .filter((i) => i.active)
+              .map((i) => (
+                <option key={i.id} value={i.id}>
+                  {i.code}
+                  {i.calibrationCurrent ? '' : ' (calibration lapsed)'}
+                </option>
+              ))}
           </select>
         </Field>
         <Button look="secondary" disabled={files.length === 0 || preview.isPending} onClick={() => preview.mutate({ files, instrumentId })}>
@@ -208,18 +285,24 @@ export function MeasurementUpload({ lotId }: { lotId: number }) {
           <Upload className="h-4 w-4" aria-hidden /> {commit.isPending ? 'Saving…' : 'Save readings'}
         </Button>
       </div>
-      <p className="text-xs text-ink-muted">Checking runs every row through the analysis and saves nothing. Saving stores the raw file with its SHA-256, its readings and the results together.</p>
+      <p className="text-xs text-ink-muted">
+        Checking runs every row through the analysis and saves nothing. Saving stores the raw file with its SHA-256, its readings and the results together.
+      </p>
       {preview.error && <Notice tone="error">{preview.error.message}</Notice>}
       {commit.error && (
         <Notice tone="error" title={commit.error.message}>
           {commitErrors.map((f: { name: string; fatal?: string; errors: { line: number; message: string }[] }) => (
-            <p key={f.name}>{f.name}: {f.fatal ?? `${f.errors.length} error(s), first at line ${f.errors[0]?.line}`}</p>
+            <p key={f.name}>
+              {f.name}: {f.fatal ?? `${f.errors.length} error(s), first at line ${f.errors[0]?.line}`}
+            </p>
           ))}
         </Notice>
       )}
       {commit.isSuccess && <Notice tone="info">Saved {commit.data.files.map((f) => `${f.name} (${f.rows} rows, ${f.pieces} results)`).join(', ')}.</Notice>}
       {preview.data?.planEffect && <PlanEffectNote effect={preview.data.planEffect} />}
-      {previews.map((f) => <PreviewOfFile key={f.sha256 + f.name} checked={{ lotId, file: f, instrumentId: preview.variables?.instrumentId }} />)}
+      {previews.map((f) => (
+        <PreviewOfFile key={f.sha256 + f.name} checked={{ lotId, file: f, instrumentId: preview.variables?.instrumentId }} />
+      ))}
     </div>
   );
 }

@@ -11,7 +11,12 @@ export function OcChart({ points, aql }: { points: { percentDefective: number; p
             <CartesianGrid stroke="#eceae2" />
             <XAxis dataKey="percentDefective" type="number" tick={{ fontSize: 11 }} tickFormatter={(v: number) => `${v}%`} />
             <YAxis domain={[0, 1]} tick={{ fontSize: 11 }} width={32} />
-            <ReferenceLine x={aql} stroke="#b9821d" strokeDasharray="3 3" label={{ value: `AQL ${aql}`, fontSize: 10, fill: '#b9821d', position: 'insideTopRight' }} />
+            <ReferenceLine
+              x={aql}
+              stroke="#b9821d"
+              strokeDasharray="3 3"
+              label={{ value: `AQL ${aql}`, fontSize: 10, fill: '#b9821d', position: 'insideTopRight' }}
+            />
             <Tooltip formatter={(v) => Number(v).toFixed(3)} labelFormatter={(v) => `${v}% defective`} />
             <Line type="monotone" dataKey="pa" stroke="#234a41" dot={false} strokeWidth={2} name="Pa" />
           </LineChart>

@@ -42,7 +42,15 @@ function ByPieceChart({ title, field, limit, span, digits, pass, fail }: ByPiece
         <ScatterChart margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
           <CartesianGrid stroke="#eceae2" />
           <XAxis dataKey="index" type="number" name="piece" tick={axisStyle} allowDecimals={false} />
-          <YAxis dataKey={field} type="number" name={field} domain={[-span, span]} tick={axisStyle} tickFormatter={(v: number) => v.toFixed(digits)} width={52} />
+          <YAxis
+            dataKey={field}
+            type="number"
+            name={field}
+            domain={[-span, span]}
+            tick={axisStyle}
+            tickFormatter={(v: number) => v.toFixed(digits)}
+            width={52}
+          />
           <ReferenceArea y1={-limit} y2={limit} fill={BAND} fillOpacity={0.08} stroke={BAND} strokeOpacity={0.4} />
           {tooltip}
           <Scatter data={pass} fill={PASS} name="pass" />
@@ -61,18 +69,55 @@ export function ResultCharts({ view }: { view: LotInspectionView }) {
   const pass = points.filter((p) => p.verdict === 'pass');
   const fail = points.filter((p) => p.verdict !== 'pass');
   const span = (values: number[], limit: number) => Math.max(limit * 1.6, ...values.map((v) => Math.abs(v) * 1.15));
-  const rSpan = span(points.map((p) => p.retardanceError), tol);
-  const aSpan = span(points.map((p) => p.axisError), axisTol);
+  const rSpan = span(
+    points.map((p) => p.retardanceError),
+    tol,
+  );
+  const aSpan = span(
+    points.map((p) => p.axisError),
+    axisTol,
+  );
   return (
     <div className="grid gap-3 lg:grid-cols-3" data-testid="result-charts">
-      <ByPieceChart title={`Retardance error (λ) by piece, tolerance ±${tol} λ`} field="retardanceError" limit={tol} span={rSpan} digits={3} pass={pass} fail={fail} />
-      <ByPieceChart title={`Fast-axis error (°) by piece, tolerance ±${axisTol}°`} field="axisError" limit={axisTol} span={aSpan} digits={2} pass={pass} fail={fail} />
+      <ByPieceChart
+        title={`Retardance error (λ) by piece, tolerance ±${tol} λ`}
+        field="retardanceError"
+        limit={tol}
+        span={rSpan}
+        digits={3}
+        pass={pass}
+        fail={fail}
+      />
+      <ByPieceChart
+        title={`Fast-axis error (°) by piece, tolerance ±${axisTol}°`}
+        field="axisError"
+        limit={axisTol}
+        span={aSpan}
+        digits={2}
+        pass={pass}
+        fail={fail}
+      />
       <Panel title="Tolerance box: retardance error (λ) × axis error (°)">
         <ResponsiveContainer>
           <ScatterChart margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
             <CartesianGrid stroke="#eceae2" />
-            <XAxis dataKey="retardanceError" type="number" name="error λ" domain={[-rSpan, rSpan]} tick={axisStyle} tickFormatter={(v: number) => v.toFixed(3)} />
-            <YAxis dataKey="axisError" type="number" name="axis °" domain={[-aSpan, aSpan]} tick={axisStyle} tickFormatter={(v: number) => v.toFixed(2)} width={44} />
+            <XAxis
+              dataKey="retardanceError"
+              type="number"
+              name="error λ"
+              domain={[-rSpan, rSpan]}
+              tick={axisStyle}
+              tickFormatter={(v: number) => v.toFixed(3)}
+            />
+            <YAxis
+              dataKey="axisError"
+              type="number"
+              name="axis °"
+              domain={[-aSpan, aSpan]}
+              tick={axisStyle}
+              tickFormatter={(v: number) => v.toFixed(2)}
+              width={44}
+            />
             <ZAxis range={[36, 36]} />
             <ReferenceArea x1={-tol} x2={tol} y1={-axisTol} y2={axisTol} fill={BAND} fillOpacity={0.08} stroke={BAND} strokeOpacity={0.5} />
             {tooltip}

@@ -26,19 +26,34 @@ export function SignedDecision({ disposition: d, documents, actions, children }:
         {children}
         <p className="flex flex-wrap items-center gap-2">
           <StateBadge state={d.decision} tone={DECISION_TONES[d.decision]} label={DISPOSITION_LABELS[d.decision]} />
-          <span className="text-sm">signed by <strong>{d.signer ?? 'a former user'}</strong>, {new Date(d.signedAt).toLocaleString()}</span>
+          <span className="text-sm">
+            signed by <strong>{d.signer ?? 'a former user'}</strong>, {new Date(d.signedAt).toLocaleString()}
+          </span>
         </p>
         <Details
           columns={2}
           items={[
             ['Meaning of the signature', <q key="m">{d.meaning}</q>],
             [d.deviationNumber ? 'Justification' : 'Note', d.justification || <span className="text-ink-faint">No note was given.</span>],
-            ...(d.deviationNumber ? [['Deviation', <span key="dv" className="font-mono">{d.deviationNumber}</span>] as [string, ReactNode]] : []),
+            ...(d.deviationNumber
+              ? [
+                  [
+                    'Deviation',
+                    <span key="dv" className="font-mono">
+                      {d.deviationNumber}
+                    </span>,
+                  ] as [string, ReactNode],
+                ]
+              : []),
             [
               'Documents',
               documents.length ? (
                 <ul key="docs" className="space-y-0.5">
-                  {documents.map((doc) => <li key={doc.id}><DocumentLink document={doc} /></li>)}
+                  {documents.map((doc) => (
+                    <li key={doc.id}>
+                      <DocumentLink document={doc} />
+                    </li>
+                  ))}
                 </ul>
               ) : (
                 <span className="text-ink-faint">None in force.</span>

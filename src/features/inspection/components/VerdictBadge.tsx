@@ -10,5 +10,7 @@ const looks: Record<string, string> = {
 };
 
 export function VerdictBadge({ value }: { value: string }) {
-  return <span className={`inline-block rounded border px-1.5 py-px text-2xs font-medium tracking-wide uppercase ${looks[value] ?? looks.unmeasured}`}>{value}</span>;
+  return (
+    <span className={`inline-block rounded border px-1.5 py-px text-2xs font-medium tracking-wide uppercase ${looks[value] ?? looks.unmeasured}`}>{value}</span>
+  );
 }

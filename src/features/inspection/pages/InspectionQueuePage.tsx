@@ -27,8 +27,12 @@ export function InspectionQueuePage() {
         header: 'Lot',
         cell: ({ row }) => (
           <span className="whitespace-nowrap">
-            <Link to={`/inspection/lots/${row.original.lotId}`} className="font-mono">{lotName(row.original.lotId)}</Link>
-            <span className="block"><StateBadge state={row.original.state} label={LOT_STATE_LABELS[row.original.state]} /></span>
+            <Link to={`/inspection/lots/${row.original.lotId}`} className="font-mono">
+              {lotName(row.original.lotId)}
+            </Link>
+            <span className="block">
+              <StateBadge state={row.original.state} label={LOT_STATE_LABELS[row.original.state]} />
+            </span>
           </span>
         ),
       }),
@@ -55,20 +59,31 @@ export function InspectionQueuePage() {
       column.display({
         id: 'daysWaiting',
         header: 'Days waiting',
-        cell: ({ row }) => <span className={`block text-right tabular-nums ${row.original.daysInQuarantine > 10 ? 'font-medium text-state-fail' : ''}`}>{row.original.daysInQuarantine}</span>,
+        cell: ({ row }) => (
+          <span className={`block text-right tabular-nums ${row.original.daysInQuarantine > 10 ? 'font-medium text-state-fail' : ''}`}>
+            {row.original.daysInQuarantine}
+          </span>
+        ),
       }),
       column.display({
         id: 'plan',
         header: 'Plan',
         cell: ({ row: { original: r } }) =>
           r.plan ? (
-            <span className="text-xs whitespace-nowrap">{r.plan.severity}, {r.plan.codeLetter}{r.plan.planLetter !== r.plan.codeLetter && `→${r.plan.planLetter}`}: n {r.plan.sampleSize}, Ac {r.plan.accept}/Re {r.plan.reject}</span>
+            <span className="text-xs whitespace-nowrap">
+              {r.plan.severity}, {r.plan.codeLetter}
+              {r.plan.planLetter !== r.plan.codeLetter && `→${r.plan.planLetter}`}: n {r.plan.sampleSize}, Ac {r.plan.accept}/Re {r.plan.reject}
+            </span>
           ) : (
             // Received while acceptance is discontinued: no plan until a quality manager resumes inspection.
             <span className="text-xs">
               <StateBadge state="acceptance-discontinued" tone="fail" label="Acceptance discontinued" />
               <span className="ml-2 text-ink-muted">waits without a plan until inspection resumes</span>
-              {maySeeSwitching && <Link to={`/switching/${r.supplierId}/${r.part.id}`} className="ml-2">switching</Link>}
+              {maySeeSwitching && (
+                <Link to={`/switching/${r.supplierId}/${r.part.id}`} className="ml-2">
+                  switching
+                </Link>
+              )}
             </span>
           ),
       }),
@@ -76,14 +91,21 @@ export function InspectionQueuePage() {
         id: 'sample',
         header: 'Sample',
         cell: ({ row: { original: r } }) => (
-          <span className="block max-w-xs min-w-56 font-mono text-2xs text-ink-muted">{r.sampleSerials.slice(0, 8).join(' ')}{r.sampleSerials.length > 8 ? ` … +${r.sampleSerials.length - 8}` : ''}</span>
+          <span className="block max-w-xs min-w-56 font-mono text-2xs text-ink-muted">
+            {r.sampleSerials.slice(0, 8).join(' ')}
+            {r.sampleSerials.length > 8 ? ` … +${r.sampleSerials.length - 8}` : ''}
+          </span>
         ),
       }),
       column.display({
         id: 'measured',
         header: 'Measured',
         cell: ({ row: { original: r } }) =>
-          r.plan && <span className="block text-right whitespace-nowrap">{r.sortRemaining === null ? `${r.measured}/${r.plan.sampleSize}` : `${r.quantity - r.sortRemaining}/${r.quantity}`}</span>,
+          r.plan && (
+            <span className="block text-right whitespace-nowrap">
+              {r.sortRemaining === null ? `${r.measured}/${r.plan.sampleSize}` : `${r.quantity - r.sortRemaining}/${r.quantity}`}
+            </span>
+          ),
       }),
       column.display({ id: 'proposal', header: 'Proposal', cell: ({ row: { original: r } }) => r.proposal && <VerdictBadge value={r.proposal} /> }),
     ],
@@ -92,9 +114,22 @@ export function InspectionQueuePage() {
   return (
     <div>
       <PageHeader title="Inspection queue" subtitle="Lots in quarantine or under inspection, oldest first, with the sample each one needs." />
-      <ListToolbar list={{ state, update }} placeholder="Lot, supplier lot, part, supplier" exportPath="/inspection/queue" summary={queue.data && counted(queue.data.total, 'lot waiting', 'lots waiting')} />
+      <ListToolbar
+        list={{ state, update }}
+        placeholder="Lot, supplier lot, part, supplier"
+        exportPath="/inspection/queue"
+        summary={queue.data && counted(queue.data.total, 'lot waiting', 'lots waiting')}
+      />
       {queue.error && <Notice tone="error">{queue.error.message}</Notice>}
-      <DataTable columns={columns} data={queue.data?.data ?? []} total={queue.data?.total ?? 0} state={state} onChange={update} isLoading={queue.isPending} empty="No lot is waiting for inspection." />
+      <DataTable
+        columns={columns}
+        data={queue.data?.data ?? []}
+        total={queue.data?.total ?? 0}
+        state={state}
+        onChange={update}
+        isLoading={queue.isPending}
+        empty="No lot is waiting for inspection."
+      />
     </div>
   );
 }

@@ -35,13 +35,21 @@ export function LotInspectionPage() {
   const { data: user } = useSession();
   const query = useLotInspection(lotId);
   if (query.error) {
-    const held = query.error instanceof ApiError && query.error.code === 'acceptance_discontinued' ? (query.error.details as { supplierId: number; partId: number }) : null;
+    const held =
+      query.error instanceof ApiError && query.error.code === 'acceptance_discontinued'
+        ? (query.error.details as { supplierId: number; partId: number })
+        : null;
     if (!held) return <Notice tone="error">{query.error.message}</Notice>;
     // Received while acceptance is discontinued: there is no plan to inspect against yet.
     return (
       <Notice tone="caution" title="Acceptance discontinued">
         {query.error.message}. <Link to={`/lots/${lotId}`}>The lot</Link>
-        {can(user, 'switching.read') && <> · <Link to={`/switching/${held.supplierId}/${held.partId}`}>switching page</Link></>}
+        {can(user, 'switching.read') && (
+          <>
+            {' '}
+            · <Link to={`/switching/${held.supplierId}/${held.partId}`}>switching page</Link>
+          </>
+        )}
       </Notice>
     );
   }
@@ -65,7 +73,10 @@ export function LotInspectionPage() {
               ['Nominal', `${spec.nominalWaves} λ at ${spec.designWavelengthNm} nm`],
               ['Retardance', `±${spec.retardanceTolWaves} λ`],
               ['Fast-axis mark', `±${spec.axisTolDeg}°`],
-              ['Construction', `${spec.construction}${spec.multiOrder ? ` (order ${spec.multiOrder})` : ''}${spec.bandNm ? `, ${spec.bandNm[0]}–${spec.bandNm[1]} nm` : ''}, ${spec.material}`],
+              [
+                'Construction',
+                `${spec.construction}${spec.multiOrder ? ` (order ${spec.multiOrder})` : ''}${spec.bandNm ? `, ${spec.bandNm[0]}–${spec.bandNm[1]} nm` : ''}, ${spec.material}`,
+              ],
               ['Decision rule', spec.decisionRule === 'guarded' ? 'guarded acceptance (|error| + U ≤ tol)' : 'simple acceptance'],
             ]}
           />
@@ -84,11 +95,17 @@ export function LotInspectionPage() {
         </section>
         <section className="rounded border border-paper-line bg-paper-card p-3">
           <h2 className="mb-2 text-sm">Lot verdict</h2>
-          <p className="mb-1"><VerdictBadge value={verdict.proposal} /></p>
+          <p className="mb-1">
+            <VerdictBadge value={verdict.proposal} />
+          </p>
           <p className="text-sm">{verdict.explanation}.</p>
-          <p className="mt-1 text-xs text-ink-muted">{verdict.measured} of {plan.sampleSize} sample pieces measured · {verdict.defectives} defective</p>
+          <p className="mt-1 text-xs text-ink-muted">
+            {verdict.measured} of {plan.sampleSize} sample pieces measured · {verdict.defectives} defective
+          </p>
           {view.disposition && (
-            <p className="mt-2 text-sm">Signed decision: <strong>{DISPOSITION_LABELS[view.disposition.decision]}</strong></p>
+            <p className="mt-2 text-sm">
+              Signed decision: <strong>{DISPOSITION_LABELS[view.disposition.decision]}</strong>
+            </p>
           )}
         </section>
       </div>
@@ -98,7 +115,8 @@ export function LotInspectionPage() {
         <section className="space-y-2">
           <h2>Upload bench measurements</h2>
           <Notice tone="caution">
-            Laser source on the bench: wear the eyewear its class requires and keep beams below eye level. Handle plates by the rim with gloves; cemented plates have damage thresholds.
+            Laser source on the bench: wear the eyewear its class requires and keep beams below eye level. Handle plates by the rim with gloves; cemented plates
+            have damage thresholds.
           </Notice>
           <MeasurementUpload lotId={lot.id} />
         </section>
@@ -117,7 +135,12 @@ export function LotInspectionPage() {
           <h2 className="mb-2 text-sm">Measurement files</h2>
           <ul className="space-y-1 text-xs">
             {view.files.map((f) => (
-              <li key={f.id}><span className="font-medium">{f.name}</span> · {f.method} · {f.instrument} · {f.rows} rows · {f.uploadedBy}, {new Date(f.uploadedAt).toLocaleString()}<br /><span className="font-mono break-all text-ink-faint">{f.sha256}</span></li>
+              <li key={f.id}>
+                <span className="font-medium">{f.name}</span> · {f.method} · {f.instrument} · {f.rows} rows · {f.uploadedBy},{' '}
+                {new Date(f.uploadedAt).toLocaleString()}
+                <br />
+                <span className="font-mono break-all text-ink-faint">{f.sha256}</span>
+              </li>
             ))}
             {view.files.length === 0 && <li className="text-ink-faint">None yet.</li>}
           </ul>
@@ -127,7 +150,8 @@ export function LotInspectionPage() {
           <ul className="space-y-1 text-xs">
             {view.dispositions.map((d) => (
               <li key={d.id} className={d.supersededAt ? 'text-ink-faint line-through' : ''}>
-                <strong>{DISPOSITION_LABELS[d.decision]}</strong> by {d.signer}, {new Date(d.signedAt).toLocaleString()}{d.deviationNumber && ` · ${d.deviationNumber}`}
+                <strong>{DISPOSITION_LABELS[d.decision]}</strong> by {d.signer}, {new Date(d.signedAt).toLocaleString()}
+                {d.deviationNumber && ` · ${d.deviationNumber}`}
                 <span className="block no-underline">“{d.meaning}”</span>
               </li>
             ))}
@@ -138,7 +162,9 @@ export function LotInspectionPage() {
           <h2 className="mb-2 text-sm">Documents</h2>
           <ul className="space-y-1 text-xs">
             {view.documents.map((d) => (
-              <li key={d.id}><DocumentLink document={d} /></li>
+              <li key={d.id}>
+                <DocumentLink document={d} />
+              </li>
             ))}
             {view.documents.length === 0 && <li className="text-ink-faint">None issued.</li>}
           </ul>

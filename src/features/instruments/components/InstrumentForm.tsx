@@ -7,8 +7,16 @@ import { Notice } from '@/components/Notice';
 import { useSaveInstrument } from '../api';
 
 const blank: InstrumentInput = {
-  code: '', kind: 'stokes-polarimeter', description: '', s3Sign: 1, angleSign: 1,
-  uncertaintyWaves: 0.001, uncertaintyDeg: 0.1, calibratedOn: '', calibrationDueOn: '', active: true,
+  code: '',
+  kind: 'stokes-polarimeter',
+  description: '',
+  s3Sign: 1,
+  angleSign: 1,
+  uncertaintyWaves: 0.001,
+  uncertaintyDeg: 0.1,
+  calibratedOn: '',
+  calibrationDueOn: '',
+  active: true,
 };
 
 export function InstrumentForm({ instrument, onDone }: { instrument?: InstrumentView; onDone: () => void }) {
@@ -21,7 +29,12 @@ export function InstrumentForm({ instrument, onDone }: { instrument?: Instrument
     { value: -1, label: 'reversed' },
   ];
   return (
-    <form onSubmit={submit} noValidate aria-label={instrument ? `Edit ${instrument.code}` : 'New instrument'} className="mb-4 space-y-3 rounded border border-paper-line bg-paper-card p-4">
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-label={instrument ? `Edit ${instrument.code}` : 'New instrument'}
+      className="mb-4 space-y-3 rounded border border-paper-line bg-paper-card p-4"
+    >
       {save.error && <Notice tone="error">{save.error.message}</Notice>}
       <div className="grid gap-3 sm:grid-cols-4">
         <Field label="Code" htmlFor="ins-code" error={errors.code?.message}>
@@ -29,7 +42,11 @@ export function InstrumentForm({ instrument, onDone }: { instrument?: Instrument
         </Field>
         <Field label="Kind" htmlFor="ins-kind" error={errors.kind?.message}>
           <select id="ins-kind" className={inputClass} {...form.register('kind')}>
-            {INSTRUMENT_KINDS.map((k) => <option key={k} value={k}>{INSTRUMENT_KIND_LABELS[k]}</option>)}
+            {INSTRUMENT_KINDS.map((k) => (
+              <option key={k} value={k}>
+                {INSTRUMENT_KIND_LABELS[k]}
+              </option>
+            ))}
           </select>
         </Field>
         <div className="sm:col-span-2">
@@ -51,12 +68,20 @@ export function InstrumentForm({ instrument, onDone }: { instrument?: Instrument
         </Field>
         <Field label="S3 sign in its exports" htmlFor="ins-s3">
           <select id="ins-s3" className={inputClass} {...form.register('s3Sign', { valueAsNumber: true })}>
-            {signOptions.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+            {signOptions.map((o) => (
+              <option key={o.value} value={o.value}>
+                {o.label}
+              </option>
+            ))}
           </select>
         </Field>
         <Field label="Angle direction in its exports" htmlFor="ins-angle">
           <select id="ins-angle" className={inputClass} {...form.register('angleSign', { valueAsNumber: true })}>
-            {signOptions.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+            {signOptions.map((o) => (
+              <option key={o.value} value={o.value}>
+                {o.label}
+              </option>
+            ))}
           </select>
         </Field>
         <label className="flex items-center gap-2 self-end pb-2 text-sm">
@@ -64,8 +89,12 @@ export function InstrumentForm({ instrument, onDone }: { instrument?: Instrument
         </label>
       </div>
       <div className="flex gap-2">
-        <Button type="submit" disabled={save.isPending}>{instrument ? 'Save changes' : 'Register instrument'}</Button>
-        <Button look="secondary" onClick={onDone}>Cancel</Button>
+        <Button type="submit" disabled={save.isPending}>
+          {instrument ? 'Save changes' : 'Register instrument'}
+        </Button>
+        <Button look="secondary" onClick={onDone}>
+          Cancel
+        </Button>
       </div>
     </form>
   );

@@ -19,7 +19,14 @@ export function InstrumentsPage() {
       <PageHeader
         title="Instruments"
         subtitle="The bench's polarimeters, their export profile, expanded uncertainty and calibration. Readings from an instrument past its due date are refused."
-        actions={mayManage && !editing && <Button onClick={() => setEditing('new')}><Plus className="h-4 w-4" aria-hidden /> Register instrument</Button>}
+        actions={
+          mayManage &&
+          !editing && (
+            <Button onClick={() => setEditing('new')}>
+              <Plus className="h-4 w-4" aria-hidden /> Register instrument
+            </Button>
+          )
+        }
       />
       {editing && <InstrumentForm instrument={editing === 'new' ? undefined : editing} onDone={() => setEditing(null)} />}
       {instruments.error && <Notice tone="error">{instruments.error.message}</Notice>}
@@ -27,7 +34,9 @@ export function InstrumentsPage() {
         <thead className="bg-paper-sunk text-left text-xs text-ink-muted">
           <tr>
             {['Code', 'Kind', 'Description', 'U retardance', 'U axis', 'Profile', 'Calibration', ''].map((h) => (
-              <th key={h} className="px-2.5 py-1.5 font-medium">{h}</th>
+              <th key={h} className="px-2.5 py-1.5 font-medium">
+                {h}
+              </th>
             ))}
           </tr>
         </thead>
@@ -36,16 +45,27 @@ export function InstrumentsPage() {
             <tr key={i.id} className={`border-t border-paper-line/70 ${i.active ? '' : 'text-ink-faint'}`}>
               <td className="px-2.5 py-1 font-mono">{i.code}</td>
               <td className="px-2.5 py-1">{INSTRUMENT_KIND_LABELS[i.kind]}</td>
-              <td className="px-2.5 py-1">{i.description}{!i.active && ' (not in use)'}</td>
+              <td className="px-2.5 py-1">
+                {i.description}
+                {!i.active && ' (not in use)'}
+              </td>
               <td className="px-2.5 py-1 font-mono">±{i.uncertaintyWaves.toFixed(4)} λ</td>
               <td className="px-2.5 py-1 font-mono">±{i.uncertaintyDeg.toFixed(2)}°</td>
-              <td className="px-2.5 py-1 text-xs">{i.s3Sign === -1 ? 'S3 reversed' : 'S3 as ours'}, {i.angleSign === -1 ? 'angles reversed' : 'angles as ours'}</td>
+              <td className="px-2.5 py-1 text-xs">
+                {i.s3Sign === -1 ? 'S3 reversed' : 'S3 as ours'}, {i.angleSign === -1 ? 'angles reversed' : 'angles as ours'}
+              </td>
               <td className="px-2.5 py-1 text-xs">
                 <span className={i.calibrationCurrent ? 'text-state-pass' : 'font-medium text-state-fail'}>
                   {i.calibrationCurrent ? `due ${i.calibrationDueOn}` : `lapsed ${i.calibrationDueOn}`}
                 </span>
               </td>
-              <td className="px-2.5 py-1 text-right">{mayManage && <Button look="quiet" className="!py-0 text-xs" onClick={() => setEditing(i)}>Edit</Button>}</td>
+              <td className="px-2.5 py-1 text-right">
+                {mayManage && (
+                  <Button look="quiet" className="!py-0 text-xs" onClick={() => setEditing(i)}>
+                    Edit
+                  </Button>
+                )}
+              </td>
             </tr>
           ))}
         </tbody>

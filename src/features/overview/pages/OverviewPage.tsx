@@ -16,7 +16,11 @@ export function OverviewPage() {
       {areas.length > 0 && (
         <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3">
           {areas.map(({ to, label, icon: Icon }) => (
-            <Link key={to} to={to} className="flex items-center gap-3 rounded border border-paper-line bg-paper-card px-4 py-3 text-ink no-underline hover:border-frame-soft">
+            <Link
+              key={to}
+              to={to}
+              className="flex items-center gap-3 rounded border border-paper-line bg-paper-card px-4 py-3 text-ink no-underline hover:border-frame-soft"
+            >
               <Icon className="h-5 w-5 text-frame" aria-hidden />
               <span className="font-medium">{label}</span>
             </Link>
@@ -24,12 +28,12 @@ export function OverviewPage() {
         </div>
       )}
       <Notice tone="caution" title="At the bench">
-        Polarimeters use laser sources: keep beams at bench height, wear the eyewear the source's class requires and never look into the beam or
-        its reflections. Crystal and film retarders are fragile; handle them by the rim with gloves, and respect the damage threshold of cemented plates.
+        Polarimeters use laser sources: keep beams at bench height, wear the eyewear the source's class requires and never look into the beam or its
+        reflections. Crystal and film retarders are fragile; handle them by the rim with gloves, and respect the damage threshold of cemented plates.
       </Notice>
       <Notice tone="info">
-        Phaselot proposes verdicts from measurements and the ordered tolerance; accepting or rejecting a lot remains the responsibility of the site's
-        quality system and its procedures.
+        Phaselot proposes verdicts from measurements and the ordered tolerance; accepting or rejecting a lot remains the responsibility of the site's quality
+        system and its procedures.
       </Notice>
     </div>
   );

@@ -18,7 +18,7 @@ export const purchasingKeys = {
   plan: (query: PlanQuery | null) => [...purchasingKeys.all, 'plan', query] as const,
 };
 
-const listQuery = <T,>(key: readonly unknown[], path: string, query: Filters) =>
+const listQuery = <T>(key: readonly unknown[], path: string, query: Filters) =>
   ({ queryKey: key, queryFn: listPage<T>(path, query), placeholderData: keepPreviousData }) as const;
 
 export const useSuppliers = (query: ListState & Filters) => useQuery(listQuery<SupplierView>(purchasingKeys.suppliers(query), '/suppliers', query));

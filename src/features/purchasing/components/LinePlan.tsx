@@ -14,10 +14,17 @@ export function LinePlan({ quantity, level, aql, hundredPercent }: Props) {
   if (plan.error) return <span className="text-state-fail">{plan.error.message}</span>;
   if (!plan.data) return <span className="text-ink-faint">Looking up the sampling plan…</span>;
   const { codeLetter, planLetter, sampleSize, accept, reject } = plan.data;
-  const everyPiece = hundredPercent ? '; 100 % ordered, every piece inspected' : plan.data.hundredPercent ? `; n reaches the ${lotSize} pieces, every piece inspected` : '';
+  const everyPiece = hundredPercent
+    ? '; 100 % ordered, every piece inspected'
+    : plan.data.hundredPercent
+      ? `; n reaches the ${lotSize} pieces, every piece inspected`
+      : '';
   return (
     <span>
-      Normal inspection: <span data-testid="line-plan">Code letter {codeLetterText(codeLetter, planLetter)}, n = {sampleSize}, Ac {accept} / Re {reject}</span>
+      Normal inspection:{' '}
+      <span data-testid="line-plan">
+        Code letter {codeLetterText(codeLetter, planLetter)}, n = {sampleSize}, Ac {accept} / Re {reject}
+      </span>
       {everyPiece}
     </span>
   );

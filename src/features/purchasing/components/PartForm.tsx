@@ -11,8 +11,19 @@ import { showServerFieldErrors } from '@/lib/formErrors';
 import { useSavePart } from '../api';
 
 const blankSpec: PartInput['spec'] = {
-  nominalWaves: '', designWavelengthNm: '', retardanceTolWaves: '', axisTolDeg: '', construction: 'zero-order', multiOrder: '', bandNm: ['', ''],
-  material: 'quartz', clearApertureMm: '', diameterMm: '', maxDiattenuation: '', maxDepolarization: '', decisionRule: 'simple',
+  nominalWaves: '',
+  designWavelengthNm: '',
+  retardanceTolWaves: '',
+  axisTolDeg: '',
+  construction: 'zero-order',
+  multiOrder: '',
+  bandNm: ['', ''],
+  material: 'quartz',
+  clearApertureMm: '',
+  diameterMm: '',
+  maxDiattenuation: '',
+  maxDepolarization: '',
+  decisionRule: 'simple',
 };
 
 export function PartForm({ part, onSaved, onCancel }: { part?: PartView; onSaved: (part: PartView) => void; onCancel: () => void }) {
@@ -56,7 +67,11 @@ export function PartForm({ part, onSaved, onCancel }: { part?: PartView; onSaved
           {number('spec.axisTolDeg', 'Fast-axis tolerance ± (°)', specErrors.axisTolDeg?.message)}
           <Field label="Construction" htmlFor="part-construction">
             <select id="part-construction" className={inputClass} {...form.register('spec.construction')}>
-              {CONSTRUCTIONS.map((c) => <option key={c} value={c}>{CONSTRUCTION_LABELS[c]}</option>)}
+              {CONSTRUCTIONS.map((c) => (
+                <option key={c} value={c}>
+                  {CONSTRUCTION_LABELS[c]}
+                </option>
+              ))}
             </select>
           </Field>
           {construction === 'multi-order' && number('spec.multiOrder', 'Order', specErrors.multiOrder?.message, 'Whole waves beyond the nominal')}
@@ -68,7 +83,11 @@ export function PartForm({ part, onSaved, onCancel }: { part?: PartView; onSaved
           )}
           <Field label="Material" htmlFor="part-material">
             <select id="part-material" className={inputClass} {...form.register('spec.material')}>
-              {MATERIALS.map((m) => <option key={m} value={m}>{MATERIAL_LABELS[m]}</option>)}
+              {MATERIALS.map((m) => (
+                <option key={m} value={m}>
+                  {MATERIAL_LABELS[m]}
+                </option>
+              ))}
             </select>
           </Field>
           {number('spec.clearApertureMm', 'Clear aperture (mm)', specErrors.clearApertureMm?.message)}
@@ -91,8 +110,12 @@ export function PartForm({ part, onSaved, onCancel }: { part?: PartView; onSaved
       </label>
       {part && <Notice tone="info">Orders already placed keep the specification they were ordered with; a change applies to new PO lines.</Notice>}
       <div className="flex gap-2">
-        <Button type="submit" disabled={save.isPending}>{part ? 'Save part' : 'Create part'}</Button>
-        <Button look="secondary" onClick={onCancel}>Cancel</Button>
+        <Button type="submit" disabled={save.isPending}>
+          {part ? 'Save part' : 'Create part'}
+        </Button>
+        <Button look="secondary" onClick={onCancel}>
+          Cancel
+        </Button>
       </div>
     </form>
   );

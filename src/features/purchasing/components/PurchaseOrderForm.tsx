@@ -4,7 +4,15 @@ import { Fragment } from 'react';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Plus, Trash2 } from 'lucide-react';
-import { AQL_VALUES, INSPECTION_LEVELS, purchaseOrderInputSchema, type PartView, type PurchaseOrderInput, type PurchaseOrderView, type SupplierView } from '@shared/schemas/purchasing';
+import {
+  AQL_VALUES,
+  INSPECTION_LEVELS,
+  purchaseOrderInputSchema,
+  type PartView,
+  type PurchaseOrderInput,
+  type PurchaseOrderView,
+  type SupplierView,
+} from '@shared/schemas/purchasing';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
@@ -16,7 +24,16 @@ const ALL = { page: 1, pageSize: 500 };
 const newLine = { partId: '', quantity: '', unitPrice: '', inspectionLevel: 'II', aql: 1, hundredPercent: false, dueOn: '' } as const;
 
 function valuesOf(order?: PurchaseOrderView): PurchaseOrderInput {
-  if (!order) return { number: '', supplierId: '', orderedOn: new Date().toISOString().slice(0, 10), currency: 'EUR', status: 'open', notes: '', lines: [{ ...newLine }] };
+  if (!order)
+    return {
+      number: '',
+      supplierId: '',
+      orderedOn: new Date().toISOString().slice(0, 10),
+      currency: 'EUR',
+      status: 'open',
+      notes: '',
+      lines: [{ ...newLine }],
+    };
   return {
     number: order.number,
     supplierId: order.supplier.id,
@@ -24,7 +41,16 @@ function valuesOf(order?: PurchaseOrderView): PurchaseOrderInput {
     currency: order.currency,
     status: order.status,
     notes: order.notes,
-    lines: order.lines.map((l) => ({ id: l.id, partId: l.part.id, quantity: l.quantity, unitPrice: l.unitPrice, inspectionLevel: l.inspectionLevel, aql: l.aql, hundredPercent: l.hundredPercent, dueOn: l.dueOn ?? '' })),
+    lines: order.lines.map((l) => ({
+      id: l.id,
+      partId: l.part.id,
+      quantity: l.quantity,
+      unitPrice: l.unitPrice,
+      inspectionLevel: l.inspectionLevel,
+      aql: l.aql,
+      hundredPercent: l.hundredPercent,
+      dueOn: l.dueOn ?? '',
+    })),
   };
 }
 
@@ -62,7 +88,11 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
           <Field label="Supplier" htmlFor="po-supplier" error={errors.supplierId?.message}>
             <select id="po-supplier" className={inputClass} {...form.register('supplierId')}>
               <option value="">Choose a supplier…</option>
-              {suppliers.map((s) => <option key={s.id} value={s.id}>{s.name}</option>)}
+              {suppliers.map((s) => (
+                <option key={s.id} value={s.id}>
+                  {s.name}
+                </option>
+              ))}
             </select>
           </Field>
         </div>
@@ -76,8 +106,16 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
 
       <fieldset className="rounded border border-paper-line">
         <legend className="ml-2 px-1 text-xs font-semibold text-ink-muted">Lines</legend>
-        {errors.lines?.message && <p role="alert" className="px-3 text-xs text-state-fail">{errors.lines.message}</p>}
-        {errors.lines?.root?.message && <p role="alert" className="px-3 text-xs text-state-fail">{errors.lines.root.message}</p>}
+        {errors.lines?.message && (
+          <p role="alert" className="px-3 text-xs text-state-fail">
+            {errors.lines.message}
+          </p>
+        )}
+        {errors.lines?.root?.message && (
+          <p role="alert" className="px-3 text-xs text-state-fail">
+            {errors.lines.root.message}
+          </p>
+        )}
         <table className="w-full text-sm">
           <thead className="text-left text-xs text-ink-muted">
             <tr>
@@ -89,7 +127,9 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
               <th className="px-2 py-1 font-medium">Inspection level</th>
               <th className="px-2 py-1 font-medium">AQL</th>
               <th className="px-2 py-1 font-medium">100 %</th>
-              <th className="px-2 py-1"><span className="sr-only">Remove</span></th>
+              <th className="px-2 py-1">
+                <span className="sr-only">Remove</span>
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -111,40 +151,88 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
                       ) : (
                         <select aria-label={`Part of line ${index + 1}`} className={`${inputClass} w-full`} {...form.register(`lines.${index}.partId`)}>
                           <option value="">Choose a part…</option>
-                          {parts.filter((p) => p.active || p.id === Number(field.partId)).map((p) => (
-                            <option key={p.id} value={p.id}>{p.number} — {p.description}</option>
-                          ))}
+                          {parts
+                            .filter((p) => p.active || p.id === Number(field.partId))
+                            .map((p) => (
+                              <option key={p.id} value={p.id}>
+                                {p.number} — {p.description}
+                              </option>
+                            ))}
                         </select>
                       )}
-                      {lineError(index, 'partId') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'partId')}</p>}
+                      {lineError(index, 'partId') && (
+                        <p role="alert" className="text-xs text-state-fail">
+                          {lineError(index, 'partId')}
+                        </p>
+                      )}
                     </td>
                     <td className="px-2 py-1">
-                      <input aria-label={`Quantity of line ${index + 1}`} inputMode="numeric" className={`${inputClass} w-24`} {...form.register(`lines.${index}.quantity`)} />
-                      {lineError(index, 'quantity') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'quantity')}</p>}
+                      <input
+                        aria-label={`Quantity of line ${index + 1}`}
+                        inputMode="numeric"
+                        className={`${inputClass} w-24`}
+                        {...form.register(`lines.${index}.quantity`)}
+                      />
+                      {lineError(index, 'quantity') && (
+                        <p role="alert" className="text-xs text-state-fail">
+                          {lineError(index, 'quantity')}
+                        </p>
+                      )}
                     </td>
                     <td className="px-2 py-1">
-                      <input aria-label={`Unit price of line ${index + 1}`} inputMode="decimal" className={`${inputClass} w-24`} {...form.register(`lines.${index}.unitPrice`)} />
-                      {lineError(index, 'unitPrice') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'unitPrice')}</p>}
+                      <input
+                        aria-label={`Unit price of line ${index + 1}`}
+                        inputMode="decimal"
+                        className={`${inputClass} w-24`}
+                        {...form.register(`lines.${index}.unitPrice`)}
+                      />
+                      {lineError(index, 'unitPrice') && (
+                        <p role="alert" className="text-xs text-state-fail">
+                          {lineError(index, 'unitPrice')}
+                        </p>
+                      )}
                     </td>
                     <td className="px-2 py-1">
-                      <input type="date" aria-label={`Due date of line ${index + 1}`} className={`${inputClass} w-36`} {...form.register(`lines.${index}.dueOn`)} />
-                      {lineError(index, 'dueOn') && <p role="alert" className="text-xs text-state-fail">{lineError(index, 'dueOn')}</p>}
+                      <input
+                        type="date"
+                        aria-label={`Due date of line ${index + 1}`}
+                        className={`${inputClass} w-36`}
+                        {...form.register(`lines.${index}.dueOn`)}
+                      />
+                      {lineError(index, 'dueOn') && (
+                        <p role="alert" className="text-xs text-state-fail">
+                          {lineError(index, 'dueOn')}
+                        </p>
+                      )}
                     </td>
                     <td className="px-2 py-1">
                       <select aria-label={`Inspection level of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.inspectionLevel`)}>
-                        {INSPECTION_LEVELS.map((level) => <option key={level} value={level}>{level}</option>)}
+                        {INSPECTION_LEVELS.map((level) => (
+                          <option key={level} value={level}>
+                            {level}
+                          </option>
+                        ))}
                       </select>
                     </td>
                     <td className="px-2 py-1">
                       <select aria-label={`AQL of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.aql`)}>
-                        {AQL_VALUES.map((aql) => <option key={aql} value={aql}>{aql}</option>)}
+                        {AQL_VALUES.map((aql) => (
+                          <option key={aql} value={aql}>
+                            {aql}
+                          </option>
+                        ))}
                       </select>
                     </td>
                     <td className="px-2 py-2 text-center">
                       <input type="checkbox" aria-label={`100 % inspection of line ${index + 1}`} {...form.register(`lines.${index}.hundredPercent`)} />
                     </td>
                     <td className="px-2 py-1">
-                      <Button look="quiet" aria-label={`Remove line ${index + 1}`} disabled={got > 0 || lines.fields.length === 1} onClick={() => lines.remove(index)}>
+                      <Button
+                        look="quiet"
+                        aria-label={`Remove line ${index + 1}`}
+                        disabled={got > 0 || lines.fields.length === 1}
+                        onClick={() => lines.remove(index)}
+                      >
                         <Trash2 className="h-4 w-4" aria-hidden />
                       </Button>
                     </td>
@@ -161,7 +249,9 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
           </tbody>
         </table>
         <div className="border-t border-paper-line px-2 py-1.5">
-          <Button look="quiet" onClick={() => lines.append({ ...newLine })}><Plus className="h-4 w-4" aria-hidden /> Add line</Button>
+          <Button look="quiet" onClick={() => lines.append({ ...newLine })}>
+            <Plus className="h-4 w-4" aria-hidden /> Add line
+          </Button>
         </div>
       </fieldset>
 
@@ -179,8 +269,12 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
         </Field>
       </div>
       <div className="flex gap-2">
-        <Button type="submit" disabled={save.isPending}>{order ? 'Save purchase order' : 'Place purchase order'}</Button>
-        <Button look="secondary" onClick={onCancel}>Cancel</Button>
+        <Button type="submit" disabled={save.isPending}>
+          {order ? 'Save purchase order' : 'Place purchase order'}
+        </Button>
+        <Button look="secondary" onClick={onCancel}>
+          Cancel
+        </Button>
       </div>
     </form>
   );

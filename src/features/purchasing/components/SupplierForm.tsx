@@ -12,7 +12,13 @@ export function SupplierForm({ supplier, onDone }: { supplier?: SupplierView; on
   const form = useForm({
     resolver: zodResolver(supplierInputSchema),
     defaultValues: supplier
-      ? { name: supplier.name, contactEmail: supplier.contactEmail, qualityContactEmail: supplier.qualityContactEmail ?? '', notes: supplier.notes, active: supplier.active }
+      ? {
+          name: supplier.name,
+          contactEmail: supplier.contactEmail,
+          qualityContactEmail: supplier.qualityContactEmail ?? '',
+          notes: supplier.notes,
+          active: supplier.active,
+        }
       : { name: '', contactEmail: '', qualityContactEmail: '', notes: '', active: true },
   });
   const errors = form.formState.errors;
@@ -21,7 +27,12 @@ export function SupplierForm({ supplier, onDone }: { supplier?: SupplierView; on
   );
   const prefix = `supplier-${supplier?.id ?? 'new'}`;
   return (
-    <form onSubmit={submit} noValidate aria-label={supplier ? `Edit ${supplier.name}` : 'New supplier'} className="mb-4 space-y-3 rounded border border-paper-line bg-paper-card p-4">
+    <form
+      onSubmit={submit}
+      noValidate
+      aria-label={supplier ? `Edit ${supplier.name}` : 'New supplier'}
+      className="mb-4 space-y-3 rounded border border-paper-line bg-paper-card p-4"
+    >
       {save.error && <Notice tone="error">{save.error.message}</Notice>}
       <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
         <Field label="Name" htmlFor={`${prefix}-name`} error={errors.name?.message}>
@@ -30,7 +41,12 @@ export function SupplierForm({ supplier, onDone }: { supplier?: SupplierView; on
         <Field label="Contact e-mail" htmlFor={`${prefix}-email`} error={errors.contactEmail?.message} hint="Where rejection notices and orders go.">
           <input id={`${prefix}-email`} type="email" className={inputClass} {...form.register('contactEmail')} />
         </Field>
-        <Field label="Quality contact e-mail" htmlFor={`${prefix}-quality-email`} error={errors.qualityContactEmail?.message} hint="Where corrective-action requests go.">
+        <Field
+          label="Quality contact e-mail"
+          htmlFor={`${prefix}-quality-email`}
+          error={errors.qualityContactEmail?.message}
+          hint="Where corrective-action requests go."
+        >
           <input id={`${prefix}-quality-email`} type="email" className={inputClass} {...form.register('qualityContactEmail')} />
         </Field>
         <Field label="Owner" hint="The buyer who saves a new supplier owns it.">
@@ -44,8 +60,12 @@ export function SupplierForm({ supplier, onDone }: { supplier?: SupplierView; on
         <input type="checkbox" {...form.register('active')} /> Active (new orders may be placed)
       </label>
       <div className="flex gap-2">
-        <Button type="submit" disabled={save.isPending}>{supplier ? 'Save supplier' : 'Create supplier'}</Button>
-        <Button look="secondary" onClick={onDone}>Cancel</Button>
+        <Button type="submit" disabled={save.isPending}>
+          {supplier ? 'Save supplier' : 'Create supplier'}
+        </Button>
+        <Button look="secondary" onClick={onDone}>
+          Cancel
+        </Button>
       </div>
     </form>
   );

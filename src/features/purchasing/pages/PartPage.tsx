@@ -21,15 +21,27 @@ export function PartPage() {
   if (id !== undefined && !part.data) return <p className="text-ink-muted">Loading…</p>;
   return (
     <div className="max-w-5xl">
-      <PageHeader title={part.data ? `Part ${part.data.number}` : 'New part'} subtitle={part.data?.description ?? 'A wave plate as it is ordered: what it must measure, and how it is judged.'} />
+      <PageHeader
+        title={part.data ? `Part ${part.data.number}` : 'New part'}
+        subtitle={part.data?.description ?? 'A wave plate as it is ordered: what it must measure, and how it is judged.'}
+      />
       <PurchasingTabs />
       {can(user, 'catalog.write') ? (
         <PartForm part={part.data} onSaved={(saved) => navigate(`/purchasing/parts/${saved.id}`)} onCancel={toList} />
       ) : (
         part.data && (
           <div className="space-y-3">
-            <Panel title="Ordered specification"><SpecSummary spec={part.data.spec} /></Panel>
-            <Panel title="Stock"><Details items={[['In stock bins', part.data.onHand], ['Status', part.data.active ? 'Ordered' : 'Retired']]} /></Panel>
+            <Panel title="Ordered specification">
+              <SpecSummary spec={part.data.spec} />
+            </Panel>
+            <Panel title="Stock">
+              <Details
+                items={[
+                  ['In stock bins', part.data.onHand],
+                  ['Status', part.data.active ? 'Ordered' : 'Retired'],
+                ]}
+              />
+            </Panel>
           </div>
         )
       )}

@@ -32,7 +32,11 @@ export function PartsPage() {
       column.accessor((p) => constructionText(p.spec), { id: 'construction', header: 'Construction' }),
       column.accessor((p) => MATERIAL_LABELS[p.spec.material], { id: 'material', header: 'Material' }),
       column.accessor('onHand', { header: 'In stock', cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
-      column.accessor('active', { header: 'Status', enableSorting: false, cell: ({ getValue }) => <StateBadge state={getValue() ? 'open' : 'closed'} label={getValue() ? 'Ordered' : 'Retired'} /> }),
+      column.accessor('active', {
+        header: 'Status',
+        enableSorting: false,
+        cell: ({ getValue }) => <StateBadge state={getValue() ? 'open' : 'closed'} label={getValue() ? 'Ordered' : 'Retired'} />,
+      }),
     ],
     [],
   );
@@ -41,12 +45,35 @@ export function PartsPage() {
       <PageHeader
         title="Purchasing"
         subtitle="Suppliers, the parts ordered from them with their optical specification, and purchase orders."
-        actions={can(user, 'catalog.write') && <Link to="/purchasing/parts/new" className="inline-flex items-center gap-1.5 rounded bg-frame px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-frame-deep"><Plus className="h-4 w-4" aria-hidden /> New part</Link>}
+        actions={
+          can(user, 'catalog.write') && (
+            <Link
+              to="/purchasing/parts/new"
+              className="inline-flex items-center gap-1.5 rounded bg-frame px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-frame-deep"
+            >
+              <Plus className="h-4 w-4" aria-hidden /> New part
+            </Link>
+          )
+        }
       />
       <PurchasingTabs />
-      <ListToolbar list={{ state, update }} placeholder="Search part, description, material" exportPath="/parts" summary={counted(parts.data?.total ?? 0, 'part')} />
+      <ListToolbar
+        list={{ state, update }}
+        placeholder="Search part, description, material"
+        exportPath="/parts"
+        summary={counted(parts.data?.total ?? 0, 'part')}
+      />
       {parts.error && <Notice tone="error">{parts.error.message}</Notice>}
-      <DataTable columns={columns} data={parts.data?.data ?? []} total={parts.data?.total ?? 0} state={state} onChange={update} isLoading={parts.isPending} empty="No part matches." onRowClick={(p) => navigate(`/purchasing/parts/${p.id}`)} />
+      <DataTable
+        columns={columns}
+        data={parts.data?.data ?? []}
+        total={parts.data?.total ?? 0}
+        state={state}
+        onChange={update}
+        isLoading={parts.isPending}
+        empty="No part matches."
+        onRowClick={(p) => navigate(`/purchasing/parts/${p.id}`)}
+      />
     </div>
   );
 }

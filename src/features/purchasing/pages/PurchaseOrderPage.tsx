@@ -25,17 +25,41 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
   if (order.error) return <Notice tone="error">{order.error.message}</Notice>;
   if (id !== undefined && !order.data) return <p className="text-ink-muted">Loading…</p>;
   const po = order.data;
-  const header = <PageHeader title={po ? `Purchase order ${po.number}` : 'New purchase order'} subtitle={po ? po.supplier.name : 'Lines take the specification of their part as it is today; later edits of the part do not change them.'} actions={po && mayEdit && !editing && (
-    <Link to={`/purchasing/orders/${po.id}/edit`} className="inline-flex items-center gap-1.5 rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-sunk"><Pencil className="h-4 w-4" aria-hidden /> Edit</Link>
-  )} />;
+  const header = (
+    <PageHeader
+      title={po ? `Purchase order ${po.number}` : 'New purchase order'}
+      subtitle={po ? po.supplier.name : 'Lines take the specification of their part as it is today; later edits of the part do not change them.'}
+      actions={
+        po &&
+        mayEdit &&
+        !editing && (
+          <Link
+            to={`/purchasing/orders/${po.id}/edit`}
+            className="inline-flex items-center gap-1.5 rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-sunk"
+          >
+            <Pencil className="h-4 w-4" aria-hidden /> Edit
+          </Link>
+        )
+      }
+    />
+  );
 
   if (editing || !po) {
-    if (!mayEdit) return <Notice tone="error" title="Not available to your role">Only buyers place and change purchase orders.</Notice>;
+    if (!mayEdit)
+      return (
+        <Notice tone="error" title="Not available to your role">
+          Only buyers place and change purchase orders.
+        </Notice>
+      );
     return (
       <div className="max-w-6xl">
         {header}
         <PurchasingTabs />
-        <PurchaseOrderForm order={po} onSaved={(saved) => navigate(`/purchasing/orders/${saved.id}`)} onCancel={() => navigate(po ? `/purchasing/orders/${po.id}` : '/purchasing/orders')} />
+        <PurchaseOrderForm
+          order={po}
+          onSaved={(saved) => navigate(`/purchasing/orders/${saved.id}`)}
+          onCancel={() => navigate(po ? `/purchasing/orders/${po.id}` : '/purchasing/orders')}
+        />
       </div>
     );
   }
@@ -59,7 +83,12 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
             ['Pieces', `${received} of ${ordered} received`],
             ['Outcome', <PieceOutcomes key="o" quantities={outcomes} />],
             ['Replacements received', po.lines.reduce((sum, l) => sum + l.replaced, 0)],
-            ['Receipts', <Link key="l" to={`/lots?purchaseOrderId=${po.id}`}>Lots of this PO</Link>],
+            [
+              'Receipts',
+              <Link key="l" to={`/lots?purchaseOrderId=${po.id}`}>
+                Lots of this PO
+              </Link>,
+            ],
             ['Notes', po.notes || '—'],
           ]}
         />
@@ -68,13 +97,22 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
         <Panel
           key={line.id}
           title={`Line ${line.lineNumber}: ${line.part.number}`}
-          actions={<span className="text-xs text-ink-muted">{line.received} of {line.quantity} received{line.outstanding > 0 ? `, ${line.outstanding} expected` : ''}</span>}
+          actions={
+            <span className="text-xs text-ink-muted">
+              {line.received} of {line.quantity} received{line.outstanding > 0 ? `, ${line.outstanding} expected` : ''}
+            </span>
+          }
         >
           <div className="space-y-3">
             <Details
               columns={4}
               items={[
-                ['Part', <Link key="p" to={`/purchasing/parts/${line.part.id}`}>{line.part.description}</Link>],
+                [
+                  'Part',
+                  <Link key="p" to={`/purchasing/parts/${line.part.id}`}>
+                    {line.part.description}
+                  </Link>,
+                ],
                 ['Unit price', money(line.unitPrice, po.currency)],
                 ['Due', line.dueOn ?? 'No date agreed'],
                 ['Sampling', `Level ${line.inspectionLevel}, AQL ${line.aql}`],

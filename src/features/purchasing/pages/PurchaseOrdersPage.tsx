@@ -39,7 +39,10 @@ export function PurchaseOrdersPage() {
         ),
       }),
       ...outcomeColumns(column),
-      column.accessor('value', { header: 'Value', cell: ({ row }) => <span className="tabular-nums">{money(row.original.value, row.original.currency)}</span> }),
+      column.accessor('value', {
+        header: 'Value',
+        cell: ({ row }) => <span className="tabular-nums">{money(row.original.value, row.original.currency)}</span>,
+      }),
     ],
     [],
   );
@@ -49,7 +52,16 @@ export function PurchaseOrdersPage() {
       <PageHeader
         title="Purchasing"
         subtitle="Suppliers, the parts ordered from them with their optical specification, and purchase orders."
-        actions={can(user, 'catalog.write') && <Link to="/purchasing/orders/new" className="inline-flex items-center gap-1.5 rounded bg-frame px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-frame-deep"><Plus className="h-4 w-4" aria-hidden /> New purchase order</Link>}
+        actions={
+          can(user, 'catalog.write') && (
+            <Link
+              to="/purchasing/orders/new"
+              className="inline-flex items-center gap-1.5 rounded bg-frame px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-frame-deep"
+            >
+              <Plus className="h-4 w-4" aria-hidden /> New purchase order
+            </Link>
+          )
+        }
       />
       <PurchasingTabs />
       <ListToolbar
@@ -57,12 +69,29 @@ export function PurchaseOrdersPage() {
         filters={{ status }}
         placeholder="Search PO, supplier, notes"
         exportPath="/purchase-orders"
-        summary={totals && `${counted(orders.data?.total ?? 0, 'PO')} · ${counted(totals.ordered, 'piece')} ordered · ${totals.received} received · ${outcomeSummary(totals)}`}
+        summary={
+          totals &&
+          `${counted(orders.data?.total ?? 0, 'PO')} · ${counted(totals.ordered, 'piece')} ordered · ${totals.received} received · ${outcomeSummary(totals)}`
+        }
       >
-        <FilterSelect label="Status" value={status} onChange={(value) => update({ status: value })} options={PO_STATUSES.map((s) => ({ value: s, label: s === 'open' ? 'Open' : 'Closed' }))} />
+        <FilterSelect
+          label="Status"
+          value={status}
+          onChange={(value) => update({ status: value })}
+          options={PO_STATUSES.map((s) => ({ value: s, label: s === 'open' ? 'Open' : 'Closed' }))}
+        />
       </ListToolbar>
       {orders.error && <Notice tone="error">{orders.error.message}</Notice>}
-      <DataTable columns={columns} data={orders.data?.data ?? []} total={orders.data?.total ?? 0} state={state} onChange={update} isLoading={orders.isPending} empty="No purchase order matches." onRowClick={(o) => navigate(`/purchasing/orders/${o.id}`)} />
+      <DataTable
+        columns={columns}
+        data={orders.data?.data ?? []}
+        total={orders.data?.total ?? 0}
+        state={state}
+        onChange={update}
+        isLoading={orders.isPending}
+        empty="No purchase order matches."
+        onRowClick={(o) => navigate(`/purchasing/orders/${o.id}`)}
+      />
     </div>
   );
 }

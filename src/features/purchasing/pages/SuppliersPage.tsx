@@ -30,10 +30,20 @@ export function SuppliersPage() {
   const columns = useMemo(
     () => [
       column.accessor('name', { header: 'Supplier', cell: ({ getValue }) => <span className="font-medium">{getValue()}</span> }),
-      column.accessor('contactEmail', { header: 'Contact', cell: ({ getValue }) => <a href={`mailto:${getValue()}`} onClick={(e) => e.stopPropagation()}>{getValue()}</a> }),
+      column.accessor('contactEmail', {
+        header: 'Contact',
+        cell: ({ getValue }) => (
+          <a href={`mailto:${getValue()}`} onClick={(e) => e.stopPropagation()}>
+            {getValue()}
+          </a>
+        ),
+      }),
       column.accessor((s) => s.owner?.name ?? '—', { id: 'owner', header: 'Owner' }),
       column.accessor('openOrders', { header: 'Open POs', cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
-      column.accessor('active', { header: 'Status', cell: ({ getValue }) => <StateBadge state={getValue() ? 'open' : 'closed'} label={getValue() ? 'Active' : 'Inactive'} /> }),
+      column.accessor('active', {
+        header: 'Status',
+        cell: ({ getValue }) => <StateBadge state={getValue() ? 'open' : 'closed'} label={getValue() ? 'Active' : 'Inactive'} />,
+      }),
       column.accessor('notes', { header: 'Notes', enableSorting: false, cell: ({ getValue }) => <span className="text-xs text-ink-muted">{getValue()}</span> }),
       ...(maySeeSwitching
         ? [
@@ -69,10 +79,19 @@ export function SuppliersPage() {
       <PageHeader
         title="Purchasing"
         subtitle="Suppliers, the parts ordered from them with their optical specification, and purchase orders."
-        actions={mayEdit && editing === null && <Button onClick={() => setEditing('new')}><Plus className="h-4 w-4" aria-hidden /> New supplier</Button>}
+        actions={
+          mayEdit &&
+          editing === null && (
+            <Button onClick={() => setEditing('new')}>
+              <Plus className="h-4 w-4" aria-hidden /> New supplier
+            </Button>
+          )
+        }
       />
       <PurchasingTabs />
-      {editing && <SupplierForm key={editing === 'new' ? 'new' : editing.id} supplier={editing === 'new' ? undefined : editing} onDone={() => setEditing(null)} />}
+      {editing && (
+        <SupplierForm key={editing === 'new' ? 'new' : editing.id} supplier={editing === 'new' ? undefined : editing} onDone={() => setEditing(null)} />
+      )}
       <ListToolbar
         list={{ state, update }}
         filters={{ active }}
@@ -80,7 +99,15 @@ export function SuppliersPage() {
         exportPath="/suppliers"
         summary={counted(suppliers.data?.total ?? 0, 'supplier')}
       >
-        <FilterSelect label="Status" value={active} onChange={(value) => update({ active: value })} options={[{ value: 'true', label: 'Active' }, { value: 'false', label: 'Inactive' }]} />
+        <FilterSelect
+          label="Status"
+          value={active}
+          onChange={(value) => update({ active: value })}
+          options={[
+            { value: 'true', label: 'Active' },
+            { value: 'false', label: 'Inactive' },
+          ]}
+        />
       </ListToolbar>
       {suppliers.error && <Notice tone="error">{suppliers.error.message}</Notice>}
       <DataTable

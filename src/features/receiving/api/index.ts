@@ -20,7 +20,11 @@ export const receivingKeys = {
 };
 
 export const useShipments = (query: ListState & Filters) =>
-  useQuery({ queryKey: receivingKeys.shipments(query), queryFn: listPage<ShipmentRow & { lotIds: number[] }>('/shipments', query), placeholderData: keepPreviousData });
+  useQuery({
+    queryKey: receivingKeys.shipments(query),
+    queryFn: listPage<ShipmentRow & { lotIds: number[] }>('/shipments', query),
+    placeholderData: keepPreviousData,
+  });
 
 export const useLots = (query: ListState & Filters) =>
   useQuery({ queryKey: receivingKeys.lots(query), queryFn: listPage<LotRow>('/lots', query), placeholderData: keepPreviousData });
@@ -29,9 +33,13 @@ export const useLot = (id: number) => useQuery({ queryKey: receivingKeys.lot(id)
 
 /** NCRs still owed replacement pieces, which a shipment may be received against. */
 export const useReplacementCandidates = () =>
-  useQuery({ queryKey: receivingKeys.replacementFor(), queryFn: () => api<ListResponse<NcrRow>>('/nonconformances', { query: { awaitingReplacement: true, pageSize: 500, sort: '-openedAt' } }) });
+  useQuery({
+    queryKey: receivingKeys.replacementFor(),
+    queryFn: () => api<ListResponse<NcrRow>>('/nonconformances', { query: { awaitingReplacement: true, pageSize: 500, sort: '-openedAt' } }),
+  });
 
-export const useOpenLines = () => useQuery({ queryKey: receivingKeys.openLines(), queryFn: () => api<ListResponse<OpenLineView>>('/purchase-orders/open-lines') });
+export const useOpenLines = () =>
+  useQuery({ queryKey: receivingKeys.openLines(), queryFn: () => api<ListResponse<OpenLineView>>('/purchase-orders/open-lines') });
 
 export function useReceiveShipment() {
   const queryClient = useQueryClient();

@@ -14,7 +14,14 @@ export function LotPieces({ pieces }: { pieces: Piece[] }) {
   const [state, setState] = useState<ListState>({ page: 1, pageSize: 25, sort: 'serial' });
   const columns = useMemo(
     () => [
-      column.accessor('serial', { header: 'Serial', cell: ({ getValue }) => <Link to={`/pieces/${encodeURIComponent(getValue())}`} className="font-mono">{getValue()}</Link> }),
+      column.accessor('serial', {
+        header: 'Serial',
+        cell: ({ getValue }) => (
+          <Link to={`/pieces/${encodeURIComponent(getValue())}`} className="font-mono">
+            {getValue()}
+          </Link>
+        ),
+      }),
       column.accessor('state', { header: 'State', cell: ({ getValue }) => <StateBadge state={getValue()} label={PIECE_STATE_LABELS[getValue()]} /> }),
       column.accessor('location', { header: 'Location', cell: ({ getValue }) => <span className="font-mono text-xs">{getValue() ?? 'issued out'}</span> }),
     ],
@@ -22,7 +29,9 @@ export function LotPieces({ pieces }: { pieces: Piece[] }) {
   );
   const rows = useMemo(() => {
     const key = (state.sort ?? 'serial').replace(/^-/, '') as keyof Piece;
-    const sorted = [...pieces].sort((a, b) => String(a[key] ?? '').localeCompare(String(b[key] ?? ''), undefined, { numeric: true }) * (state.sort?.startsWith('-') ? -1 : 1));
+    const sorted = [...pieces].sort(
+      (a, b) => String(a[key] ?? '').localeCompare(String(b[key] ?? ''), undefined, { numeric: true }) * (state.sort?.startsWith('-') ? -1 : 1),
+    );
     return sorted.slice((state.page - 1) * state.pageSize, state.page * state.pageSize);
   }, [pieces, state]);
   return <DataTable columns={columns} data={rows} total={pieces.length} state={state} onChange={(patch) => setState((s) => ({ ...s, page: 1, ...patch }))} />;

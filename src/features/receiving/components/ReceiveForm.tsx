@@ -22,7 +22,16 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
   const receive = useReceiveShipment();
   const form = useForm({
     resolver: zodResolver(shipmentReceiveSchema),
-    defaultValues: { poLineId: '', packingSlipNumber: '', carrier: '', supplierLot: '', quantity: '', serials: '', overReceiptReason: '', replacementForNcrId: '' },
+    defaultValues: {
+      poLineId: '',
+      packingSlipNumber: '',
+      carrier: '',
+      supplierLot: '',
+      quantity: '',
+      serials: '',
+      overReceiptReason: '',
+      replacementForNcrId: '',
+    },
   });
   const [source, setSource] = useState<'typed' | 'file'>('typed');
   const [serialFile, setSerialFile] = useState<File | null>(null);
@@ -55,7 +64,8 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
       onSuccess: onReceived,
       onError: (error) => {
         // Problems with serials come back with their line numbers; others name form fields.
-        if (error instanceof ApiError && Array.isArray(error.details) && (error.details as LineMessage[])[0]?.line !== undefined) setSerialErrors(error.details as LineMessage[]);
+        if (error instanceof ApiError && Array.isArray(error.details) && (error.details as LineMessage[])[0]?.line !== undefined)
+          setSerialErrors(error.details as LineMessage[]);
         else showServerFieldErrors(error, form.setError);
       },
     });
@@ -64,21 +74,35 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
   const noLines = openLines.data && openLines.data.data.length === 0;
   return (
     <form onSubmit={submit} noValidate aria-label="Receive shipment" className="space-y-4">
-      {receive.error && <Notice tone="error" title="Nothing was received">{receive.error.message}</Notice>}
+      {receive.error && (
+        <Notice tone="error" title="Nothing was received">
+          {receive.error.message}
+        </Notice>
+      )}
       {noLines && <Notice tone="info">No purchase order is open. The buyer opens one before anything can be received.</Notice>}
       <Field label="PO line" htmlFor="receive-line" error={errors.poLineId?.message}>
         <select id="receive-line" className={inputClass} {...form.register('poLineId')}>
           <option value="">Choose the open PO line the shipment belongs to…</option>
           {openLines.data?.data.map((l) => (
             <option key={l.id} value={l.id}>
-              {l.poNumber} / {l.lineNumber} · {l.partNumber} · {l.supplierName} · {l.outstanding > 0 ? `${l.outstanding} of ${l.quantity} still expected` : `all ${l.quantity} received`}
+              {l.poNumber} / {l.lineNumber} · {l.partNumber} · {l.supplierName} ·{' '}
+              {l.outstanding > 0 ? `${l.outstanding} of ${l.quantity} still expected` : `all ${l.quantity} received`}
             </option>
           ))}
         </select>
       </Field>
-      {line && <p className="-mt-2 text-xs text-ink-muted">{line.partDescription}. Received so far: {line.received}.</p>}
+      {line && (
+        <p className="-mt-2 text-xs text-ink-muted">
+          {line.partDescription}. Received so far: {line.received}.
+        </p>
+      )}
       {candidates.length > 0 && (
-        <Field label="Replacement for an NCR (optional)" htmlFor="receive-replacement" hint="When this shipment replaces pieces shipped back to the supplier." error={errors.replacementForNcrId?.message}>
+        <Field
+          label="Replacement for an NCR (optional)"
+          htmlFor="receive-replacement"
+          hint="When this shipment replaces pieces shipped back to the supplier."
+          error={errors.replacementForNcrId?.message}
+        >
           <select id="receive-replacement" className={`${inputClass} max-w-md`} {...form.register('replacementForNcrId')}>
             <option value="">Not a replacement</option>
             {candidates.map((n) => (
@@ -112,8 +136,12 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
         <div className="sm:col-span-3">
           <Field label="Serial numbers" error={source === 'typed' ? errors.serials?.message : undefined}>
             <div className="mb-1 flex gap-4 text-sm">
-              <label className="flex items-center gap-1.5"><input type="radio" name="serial-source" checked={source === 'typed'} onChange={() => setSource('typed')} /> Typed, pasted or a range</label>
-              <label className="flex items-center gap-1.5"><input type="radio" name="serial-source" checked={source === 'file'} onChange={() => setSource('file')} /> From a CSV file</label>
+              <label className="flex items-center gap-1.5">
+                <input type="radio" name="serial-source" checked={source === 'typed'} onChange={() => setSource('typed')} /> Typed, pasted or a range
+              </label>
+              <label className="flex items-center gap-1.5">
+                <input type="radio" name="serial-source" checked={source === 'file'} onChange={() => setSource('file')} /> From a CSV file
+              </label>
             </div>
             {source === 'typed' ? (
               <textarea
@@ -125,12 +153,20 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
                 {...form.register('serials')}
               />
             ) : (
-              <input aria-label="Serial number file" type="file" accept=".csv,text/csv,text/plain" onChange={(e) => setSerialFile(e.target.files?.[0] ?? null)} className="text-sm" />
+              <input
+                aria-label="Serial number file"
+                type="file"
+                accept=".csv,text/csv,text/plain"
+                onChange={(e) => setSerialFile(e.target.files?.[0] ?? null)}
+                className="text-sm"
+              />
             )}
           </Field>
           <div className="mt-1">
-            <SerialPreview text={source === 'typed' ? form.watch('serials') ?? '' : ''} quantity={quantity} serverErrors={serialErrors} />
-            {source === 'file' && <p className="text-2xs text-ink-faint">One serial a row; a column headed “serial” is used if there is a header, else the first column.</p>}
+            <SerialPreview text={source === 'typed' ? (form.watch('serials') ?? '') : ''} quantity={quantity} serverErrors={serialErrors} />
+            {source === 'file' && (
+              <p className="text-2xs text-ink-faint">One serial a row; a column headed “serial” is used if there is a header, else the first column.</p>
+            )}
           </div>
         </div>
       </div>
@@ -138,7 +174,9 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
       {overReceipt && (
         <div className="space-y-2">
           <Notice tone="caution" title="More than the line expects">
-            Line {line.lineNumber} of {line.poNumber} still expects {line.outstanding}{replacing ? ` and ${replacing.number} is owed ${replacing.replacementOwed}` : ''}; {quantity} are being received. State why, or receive only what is expected.
+            Line {line.lineNumber} of {line.poNumber} still expects {line.outstanding}
+            {replacing ? ` and ${replacing.number} is owed ${replacing.replacementOwed}` : ''}; {quantity} are being received. State why, or receive only what
+            is expected.
           </Notice>
           <Field label="Reason for the extra pieces" htmlFor="receive-reason" error={errors.overReceiptReason?.message}>
             <textarea id="receive-reason" rows={2} className={inputClass} {...form.register('overReceiptReason')} />
@@ -148,15 +186,30 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
 
       <div className="grid gap-3 sm:grid-cols-2">
         <Field label="Packing slip" htmlFor="receive-slip-file" hint="PDF, PNG or JPEG, up to 20 MB.">
-          <input id="receive-slip-file" type="file" accept={DOCUMENT_TYPES} onChange={(e) => setPackingSlips([...(e.target.files ?? [])])} className="text-sm" />
+          <input
+            id="receive-slip-file"
+            type="file"
+            accept={DOCUMENT_TYPES}
+            onChange={(e) => setPackingSlips([...(e.target.files ?? [])])}
+            className="text-sm"
+          />
         </Field>
         <Field label="Supplier's certificate" htmlFor="receive-certificate" hint="The certificate of conformance; several files allowed.">
-          <input id="receive-certificate" type="file" multiple accept={DOCUMENT_TYPES} onChange={(e) => setCertificates([...(e.target.files ?? [])])} className="text-sm" />
+          <input
+            id="receive-certificate"
+            type="file"
+            multiple
+            accept={DOCUMENT_TYPES}
+            onChange={(e) => setCertificates([...(e.target.files ?? [])])}
+            className="text-sm"
+          />
         </Field>
       </div>
       {oversized.length > 0 && <Notice tone="error">Larger than 20 MB: {oversized.join(', ')}</Notice>}
 
-      <Button type="submit" disabled={receive.isPending || oversized.length > 0}>{receive.isPending ? 'Receiving…' : 'Receive into quarantine'}</Button>
+      <Button type="submit" disabled={receive.isPending || oversized.length > 0}>
+        {receive.isPending ? 'Receiving…' : 'Receive into quarantine'}
+      </Button>
     </form>
   );
 }

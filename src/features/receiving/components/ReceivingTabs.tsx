@@ -1,5 +1,13 @@
 import { SectionTabs } from '@/components/SectionTabs';
 
 export function ReceivingTabs() {
-  return <SectionTabs label="Receiving" tabs={[{ to: '/receiving', label: 'Shipments', end: true }, { to: '/receiving/new', label: 'Receive a shipment' }]} />;
+  return (
+    <SectionTabs
+      label="Receiving"
+      tabs={[
+        { to: '/receiving', label: 'Shipments', end: true },
+        { to: '/receiving/new', label: 'Receive a shipment' },
+      ]}
+    />
+  );
 }

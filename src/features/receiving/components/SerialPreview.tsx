@@ -11,8 +11,16 @@ export function SerialPreview({ text, quantity, serverErrors }: { text: string; 
     <div className="space-y-1 text-xs" aria-live="polite">
       {count > 0 && (
         <p className="text-ink-muted">
-          <span data-testid="serial-count" className="font-medium text-ink">{count}</span> serial number{count === 1 ? '' : 's'}: <span className="font-mono">{list.serials[0]}</span>
-          {count > 1 && <> … <span className="font-mono">{list.serials[count - 1]}</span></>}
+          <span data-testid="serial-count" className="font-medium text-ink">
+            {count}
+          </span>{' '}
+          serial number{count === 1 ? '' : 's'}: <span className="font-mono">{list.serials[0]}</span>
+          {count > 1 && (
+            <>
+              {' '}
+              … <span className="font-mono">{list.serials[count - 1]}</span>
+            </>
+          )}
           {quantity > 0 && count !== quantity && <span className="ml-1 font-medium text-state-fail">— the quantity says {quantity}</span>}
         </p>
       )}

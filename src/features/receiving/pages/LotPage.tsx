@@ -41,16 +41,38 @@ export function LotPage() {
         actions={
           <div className="flex items-center gap-2">
             <StateBadge state={l.state} label={LOT_STATE_LABELS[l.state]} />
-            <Link to={`/inspection/lots/${l.id}`} className="rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm text-ink no-underline hover:bg-paper-sunk">Inspection record</Link>
-            {maySeeSwitching && <Link to={switchingPath} className="rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm text-ink no-underline hover:bg-paper-sunk">Switching</Link>}
-            {mayPutAway && <Link to={`/stock/put-away?lot=${l.id}`} className="rounded bg-frame px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-frame-deep">Put away in stock</Link>}
+            <Link
+              to={`/inspection/lots/${l.id}`}
+              className="rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm text-ink no-underline hover:bg-paper-sunk"
+            >
+              Inspection record
+            </Link>
+            {maySeeSwitching && (
+              <Link to={switchingPath} className="rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm text-ink no-underline hover:bg-paper-sunk">
+                Switching
+              </Link>
+            )}
+            {mayPutAway && (
+              <Link to={`/stock/put-away?lot=${l.id}`} className="rounded bg-frame px-3 py-1.5 text-sm font-medium text-white no-underline hover:bg-frame-deep">
+                Put away in stock
+              </Link>
+            )}
           </div>
         }
       />
       {l.acceptanceDiscontinued && (
         <Notice tone="caution" title="Acceptance discontinued">
-          Acceptance inspection of this part from {l.purchaseOrder.supplier.name} is discontinued. The lot is recorded and waits in quarantine without a sampling plan until a quality manager
-          resumes inspection{maySeeSwitching ? <> on the <Link to={switchingPath}>switching page</Link></> : ''}; it will then be sampled on tightened inspection.
+          Acceptance inspection of this part from {l.purchaseOrder.supplier.name} is discontinued. The lot is recorded and waits in quarantine without a
+          sampling plan until a quality manager resumes inspection
+          {maySeeSwitching ? (
+            <>
+              {' '}
+              on the <Link to={switchingPath}>switching page</Link>
+            </>
+          ) : (
+            ''
+          )}
+          ; it will then be sampled on tightened inspection.
         </Notice>
       )}
       {params.get('received') && (
@@ -64,7 +86,12 @@ export function LotPage() {
             <Details
               items={[
                 ['Supplier', l.purchaseOrder.supplier.name],
-                ['PO / line', <span key="po" className="font-mono">{l.purchaseOrder.number} / {l.line.lineNumber}</span>],
+                [
+                  'PO / line',
+                  <span key="po" className="font-mono">
+                    {l.purchaseOrder.number} / {l.line.lineNumber}
+                  </span>,
+                ],
                 ['Line quantity', l.line.quantity],
                 ['Sampling', `Level ${l.line.inspectionLevel}, AQL ${l.line.aql}${l.line.hundredPercent ? ', 100 % inspection' : ''}`],
                 [
@@ -73,7 +100,12 @@ export function LotPage() {
                     ? `${l.plan.severity}, code letter ${codeLetterText(l.plan.codeLetter, l.plan.planLetter)}: n = ${l.plan.sampleSize}${l.plan.hundredPercent ? ' (every piece)' : ''}, Ac ${l.plan.accept}, Re ${l.plan.reject}`
                     : '—',
                 ],
-                ['Packing slip', <span key="ps" className="font-mono">{l.shipment.packingSlip}</span>],
+                [
+                  'Packing slip',
+                  <span key="ps" className="font-mono">
+                    {l.shipment.packingSlip}
+                  </span>,
+                ],
                 ['Carrier', l.shipment.carrier || '—'],
                 ['Received', new Date(l.shipment.receivedAt).toLocaleString()],
                 ['Received by', l.shipment.receivedBy],
@@ -83,7 +115,9 @@ export function LotPage() {
             />
             {l.overReceiptReason && (
               <div className="mt-3">
-                <Notice tone="caution" title="More than the line expected">{l.overReceiptReason}</Notice>
+                <Notice tone="caution" title="More than the line expected">
+                  {l.overReceiptReason}
+                </Notice>
               </div>
             )}
           </Panel>
@@ -113,11 +147,15 @@ export function LotPage() {
                   <li key={a.id} className="flex gap-2 text-sm">
                     <FileText className="mt-0.5 h-4 w-4 shrink-0 text-ink-muted" aria-hidden />
                     <div className="min-w-0">
-                      <a href={`/api/attachments/${a.id}`} target="_blank" rel="noreferrer" className="break-all">{a.name}</a>
+                      <a href={`/api/attachments/${a.id}`} target="_blank" rel="noreferrer" className="break-all">
+                        {a.name}
+                      </a>
                       <p className="text-2xs text-ink-faint">
                         {ATTACHMENT_KIND_LABELS[a.kind]} · {a.mediaType.replace(/^.*\//, '').toUpperCase()} · {kilobytes(a.sizeBytes)}
                       </p>
-                      <p className="font-mono text-2xs break-all text-ink-faint" title="SHA-256 of the stored file">SHA-256 {a.sha256}</p>
+                      <p className="font-mono text-2xs break-all text-ink-faint" title="SHA-256 of the stored file">
+                        SHA-256 {a.sha256}
+                      </p>
                     </div>
                   </li>
                 ))}

@@ -38,7 +38,14 @@ export function LotsPage() {
       }),
       column.accessor('supplierName', { header: 'Supplier' }),
       column.accessor('supplierLot', { header: 'Supplier lot', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
-      column.accessor('poNumber', { header: 'PO / line', cell: ({ row }) => <span className="font-mono">{row.original.poNumber} / {row.original.lineNumber}</span> }),
+      column.accessor('poNumber', {
+        header: 'PO / line',
+        cell: ({ row }) => (
+          <span className="font-mono">
+            {row.original.poNumber} / {row.original.lineNumber}
+          </span>
+        ),
+      }),
       column.accessor('quantity', { header: 'Pieces', cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
       ...outcomeColumns(column),
       column.accessor('receivedAt', { header: 'Received', cell: ({ getValue }) => new Date(getValue()).toLocaleDateString() }),
@@ -55,15 +62,33 @@ export function LotsPage() {
         exportPath="/lots"
         summary={lots.data && `${counted(lots.data.total, 'lot')} · ${counted(lots.data.totals.quantity, 'piece')} · ${outcomeSummary(lots.data.totals)}`}
       >
-        <FilterSelect label="State" value={filters.state} onChange={(value) => update({ state: value })} options={LOT_STATES.map((s) => ({ value: s, label: LOT_STATE_LABELS[s] }))} />
+        <FilterSelect
+          label="State"
+          value={filters.state}
+          onChange={(value) => update({ state: value })}
+          options={LOT_STATES.map((s) => ({ value: s, label: LOT_STATE_LABELS[s] }))}
+        />
         {filters.purchaseOrderId && (
-          <button type="button" className="self-center rounded border border-paper-line px-2 py-1 text-xs hover:bg-paper-sunk" onClick={() => update({ purchaseOrderId: undefined })}>
+          <button
+            type="button"
+            className="self-center rounded border border-paper-line px-2 py-1 text-xs hover:bg-paper-sunk"
+            onClick={() => update({ purchaseOrderId: undefined })}
+          >
             One PO only ✕
           </button>
         )}
       </ListToolbar>
       {lots.error && <Notice tone="error">{lots.error.message}</Notice>}
-      <DataTable columns={columns} data={lots.data?.data ?? []} total={lots.data?.total ?? 0} state={state} onChange={update} isLoading={lots.isPending} empty="No lot matches." onRowClick={(lot) => navigate(`/lots/${lot.id}`)} />
+      <DataTable
+        columns={columns}
+        data={lots.data?.data ?? []}
+        total={lots.data?.total ?? 0}
+        state={state}
+        onChange={update}
+        isLoading={lots.isPending}
+        empty="No lot matches."
+        onRowClick={(lot) => navigate(`/lots/${lot.id}`)}
+      />
     </div>
   );
 }

@@ -29,7 +29,12 @@ export function ShipmentsPage() {
       column.accessor('lotIds', {
         header: 'Lots',
         enableSorting: false,
-        cell: ({ getValue }) => getValue().map((id) => <Link key={id} to={`/lots/${id}`} onClick={(e) => e.stopPropagation()} className="mr-1 font-mono">{lotName(id)}</Link>),
+        cell: ({ getValue }) =>
+          getValue().map((id) => (
+            <Link key={id} to={`/lots/${id}`} onClick={(e) => e.stopPropagation()} className="mr-1 font-mono">
+              {lotName(id)}
+            </Link>
+          )),
       }),
       column.accessor('pieces', { header: 'Pieces', cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
     ],

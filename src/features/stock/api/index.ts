@@ -25,14 +25,23 @@ export const useOnHand = (query: ListState & Filters) =>
 export const useMoves = (query: ListState & Filters) =>
   useQuery({ queryKey: stockKeys.moves(query), queryFn: listPage<MoveView>('/stock/moves', query), placeholderData: keepPreviousData });
 
-export const useLocations = () => useQuery({ queryKey: stockKeys.locations(), queryFn: () => api<ListResponse<LocationView>>('/stock/locations'), staleTime: 60_000 });
+export const useLocations = () =>
+  useQuery({ queryKey: stockKeys.locations(), queryFn: () => api<ListResponse<LocationView>>('/stock/locations'), staleTime: 60_000 });
 
 /** Parts to choose from when naming serials (a serial is unique within its part). */
 export const useStockParts = () =>
-  useQuery({ queryKey: stockKeys.parts(), queryFn: () => api<ListResponse<PartView>>('/parts', { query: { pageSize: 500, sort: 'number' } }), staleTime: 60_000 });
+  useQuery({
+    queryKey: stockKeys.parts(),
+    queryFn: () => api<ListResponse<PartView>>('/parts', { query: { pageSize: 500, sort: 'number' } }),
+    staleTime: 60_000,
+  });
 
 export const usePieceHistory = (serial: string) =>
-  useQuery({ queryKey: stockKeys.piece(serial), queryFn: () => api<ListResponse<PieceHistoryView>>(`/pieces/${encodeURIComponent(serial)}`), enabled: serial !== '' });
+  useQuery({
+    queryKey: stockKeys.piece(serial),
+    queryFn: () => api<ListResponse<PieceHistoryView>>(`/pieces/${encodeURIComponent(serial)}`),
+    enabled: serial !== '',
+  });
 
 function useMove<Input>(path: string) {
   const queryClient = useQueryClient();

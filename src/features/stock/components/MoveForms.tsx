@@ -18,12 +18,21 @@ function SerialsField<T extends FieldValues>({ form, optional }: { form: UseForm
   const list = parseSerialText(text);
   const error = form.formState.errors.serials?.message;
   return (
-    <Field label="Serial numbers" htmlFor="move-serials" error={typeof error === 'string' ? error : undefined} hint={optional ?? 'One per line, separated by commas, or ranges such as QW-0001..QW-0010.'}>
+    <Field
+      label="Serial numbers"
+      htmlFor="move-serials"
+      error={typeof error === 'string' ? error : undefined}
+      hint={optional ?? 'One per line, separated by commas, or ranges such as QW-0001..QW-0010.'}
+    >
       <textarea id="move-serials" rows={4} spellCheck={false} className={`${inputClass} font-mono`} {...form.register(name)} />
       {text.trim() && (
         <p className="text-xs text-ink-muted">
           {list.serials.length} serial number{list.serials.length === 1 ? '' : 's'}
-          {list.errors.map((e) => <span key={e.line + e.message} className="block text-state-fail">Line {e.line}: {e.message}</span>)}
+          {list.errors.map((e) => (
+            <span key={e.line + e.message} className="block text-state-fail">
+              Line {e.line}: {e.message}
+            </span>
+          ))}
         </p>
       )}
     </Field>
@@ -37,7 +46,11 @@ function PartField<T extends FieldValues>({ form }: { form: UseFormReturn<T> }) 
     <Field label="Part" htmlFor="move-part" error={typeof error === 'string' ? error : undefined}>
       <select id="move-part" className={inputClass} {...form.register('partId' as Path<T>)}>
         <option value="">Choose the part…</option>
-        {parts.data?.data.map((p) => <option key={p.id} value={p.id}>{p.number} — {p.description}</option>)}
+        {parts.data?.data.map((p) => (
+          <option key={p.id} value={p.id}>
+            {p.number} — {p.description}
+          </option>
+        ))}
       </select>
     </Field>
   );
@@ -50,7 +63,13 @@ function BinField<T extends FieldValues>({ form, label }: { form: UseFormReturn<
     <Field label={label} htmlFor="move-bin" error={typeof error === 'string' ? error : undefined}>
       <select id="move-bin" className={inputClass} {...form.register('toLocationId' as Path<T>)}>
         <option value="">Choose a stock bin…</option>
-        {locations.data?.data.filter((l) => l.kind === 'stock' && l.active).map((l) => <option key={l.id} value={l.id}>{l.code} — {l.name}</option>)}
+        {locations.data?.data
+          .filter((l) => l.kind === 'stock' && l.active)
+          .map((l) => (
+            <option key={l.id} value={l.id}>
+              {l.code} — {l.name}
+            </option>
+          ))}
       </select>
     </Field>
   );
@@ -60,11 +79,21 @@ export function IssueForm({ onDone }: { onDone: Done }) {
   const issue = useIssue();
   const form = useForm({ resolver: zodResolver(issueInputSchema), defaultValues: { partId: '', serials: '', workOrder: '' } });
   const submit = form.handleSubmit((input) =>
-    issue.mutate(input, { onSuccess: (r) => { form.reset(); onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} issued to work order ${input.workOrder}.`); }, onError: (e) => showServerFieldErrors(e, form.setError) }),
+    issue.mutate(input, {
+      onSuccess: (r) => {
+        form.reset();
+        onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} issued to work order ${input.workOrder}.`);
+      },
+      onError: (e) => showServerFieldErrors(e, form.setError),
+    }),
   );
   return (
     <form onSubmit={submit} noValidate aria-label="Issue to work order" className="space-y-3">
-      {issue.error && <Notice tone="error" title="Nothing was issued">{issue.error.message}</Notice>}
+      {issue.error && (
+        <Notice tone="error" title="Nothing was issued">
+          {issue.error.message}
+        </Notice>
+      )}
       <div className="grid gap-3 sm:grid-cols-2">
         <PartField form={form} />
         <Field label="Work order" htmlFor="move-wo" error={form.formState.errors.workOrder?.message}>
@@ -72,7 +101,9 @@ export function IssueForm({ onDone }: { onDone: Done }) {
         </Field>
       </div>
       <SerialsField form={form} />
-      <Button type="submit" disabled={issue.isPending}>Issue</Button>
+      <Button type="submit" disabled={issue.isPending}>
+        Issue
+      </Button>
     </form>
   );
 }
@@ -81,17 +112,29 @@ export function TransferForm({ onDone }: { onDone: Done }) {
   const transfer = useTransfer();
   const form = useForm({ resolver: zodResolver(transferInputSchema), defaultValues: { partId: '', serials: '', toLocationId: '' } });
   const submit = form.handleSubmit((input) =>
-    transfer.mutate(input, { onSuccess: (r) => { form.reset(); onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} transferred.`); }, onError: (e) => showServerFieldErrors(e, form.setError) }),
+    transfer.mutate(input, {
+      onSuccess: (r) => {
+        form.reset();
+        onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} transferred.`);
+      },
+      onError: (e) => showServerFieldErrors(e, form.setError),
+    }),
   );
   return (
     <form onSubmit={submit} noValidate aria-label="Transfer between bins" className="space-y-3">
-      {transfer.error && <Notice tone="error" title="Nothing was moved">{transfer.error.message}</Notice>}
+      {transfer.error && (
+        <Notice tone="error" title="Nothing was moved">
+          {transfer.error.message}
+        </Notice>
+      )}
       <div className="grid gap-3 sm:grid-cols-2">
         <PartField form={form} />
         <BinField form={form} label="To bin" />
       </div>
       <SerialsField form={form} />
-      <Button type="submit" disabled={transfer.isPending}>Transfer</Button>
+      <Button type="submit" disabled={transfer.isPending}>
+        Transfer
+      </Button>
     </form>
   );
 }
@@ -100,19 +143,36 @@ export function PutAwayForm({ lotId, onDone }: { lotId?: string; onDone: Done })
   const release = useRelease();
   const form = useForm({ resolver: zodResolver(releaseInputSchema), defaultValues: { lotId: lotId ?? '', toLocationId: '', serials: '' } });
   const submit = form.handleSubmit((input) =>
-    release.mutate(input, { onSuccess: (r) => { form.reset({ lotId: '', toLocationId: '', serials: '' }); onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} of lot ${lotName(Number(input.lotId))} put away.`); }, onError: (e) => showServerFieldErrors(e, form.setError) }),
+    release.mutate(input, {
+      onSuccess: (r) => {
+        form.reset({ lotId: '', toLocationId: '', serials: '' });
+        onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} of lot ${lotName(Number(input.lotId))} put away.`);
+      },
+      onError: (e) => showServerFieldErrors(e, form.setError),
+    }),
   );
   return (
     <form onSubmit={submit} noValidate aria-label="Put away an accepted lot" className="space-y-3">
-      {release.error && <Notice tone="error" title="Nothing was put away">{release.error.message}</Notice>}
+      {release.error && (
+        <Notice tone="error" title="Nothing was put away">
+          {release.error.message}
+        </Notice>
+      )}
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field label="Lot number" htmlFor="move-lot" error={form.formState.errors.lotId?.message} hint={`The lot's number, e.g. 12 for ${lotName(12)}. Only accepted lots go to stock.`}>
+        <Field
+          label="Lot number"
+          htmlFor="move-lot"
+          error={form.formState.errors.lotId?.message}
+          hint={`The lot's number, e.g. 12 for ${lotName(12)}. Only accepted lots go to stock.`}
+        >
           <input id="move-lot" inputMode="numeric" className={`${inputClass} font-mono`} {...form.register('lotId')} />
         </Field>
         <BinField form={form} label="Into bin" />
       </div>
       <SerialsField form={form} optional="Leave blank to put away every piece of the lot still waiting." />
-      <Button type="submit" disabled={release.isPending}>Put away</Button>
+      <Button type="submit" disabled={release.isPending}>
+        Put away
+      </Button>
     </form>
   );
 }

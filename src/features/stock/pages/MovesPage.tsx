@@ -27,9 +27,24 @@ export function MovesPage() {
   const columns = useMemo(
     () => [
       column.accessor('movedAt', { header: 'When', cell: ({ getValue }) => new Date(getValue()).toLocaleString() }),
-      column.accessor('serial', { header: 'Serial', cell: ({ getValue }) => <Link to={`/pieces/${encodeURIComponent(getValue())}`} className="font-mono">{getValue()}</Link> }),
+      column.accessor('serial', {
+        header: 'Serial',
+        cell: ({ getValue }) => (
+          <Link to={`/pieces/${encodeURIComponent(getValue())}`} className="font-mono">
+            {getValue()}
+          </Link>
+        ),
+      }),
       column.accessor('partNumber', { header: 'Part', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
-      column.accessor('lotId', { header: 'Lot', enableSorting: false, cell: ({ getValue }) => <Link to={`/lots/${getValue()}`} className="font-mono">{lotName(getValue())}</Link> }),
+      column.accessor('lotId', {
+        header: 'Lot',
+        enableSorting: false,
+        cell: ({ getValue }) => (
+          <Link to={`/lots/${getValue()}`} className="font-mono">
+            {lotName(getValue())}
+          </Link>
+        ),
+      }),
       column.accessor('reason', { header: 'Move', cell: ({ getValue }) => MOVE_REASON_LABELS[getValue()] }),
       column.accessor('from', { header: 'From', cell: ({ getValue }) => place(getValue(), 'supplier / work order') }),
       column.accessor('to', { header: 'To', cell: ({ getValue }) => place(getValue(), 'issued out') }),
@@ -49,15 +64,32 @@ export function MovesPage() {
         exportPath="/stock/moves"
         summary={moves.data && counted(moves.data.total, 'move')}
       >
-        <FilterSelect label="Move" value={filters.reason} onChange={(value) => update({ reason: value })} options={MOVE_REASONS.map((r) => ({ value: r, label: MOVE_REASON_LABELS[r] }))} />
+        <FilterSelect
+          label="Move"
+          value={filters.reason}
+          onChange={(value) => update({ reason: value })}
+          options={MOVE_REASONS.map((r) => ({ value: r, label: MOVE_REASON_LABELS[r] }))}
+        />
         {narrowed && (
-          <button type="button" className="self-center rounded border border-paper-line px-2 py-1 text-xs hover:bg-paper-sunk" onClick={() => update({ partId: undefined, locationId: undefined, lotId: undefined })}>
+          <button
+            type="button"
+            className="self-center rounded border border-paper-line px-2 py-1 text-xs hover:bg-paper-sunk"
+            onClick={() => update({ partId: undefined, locationId: undefined, lotId: undefined })}
+          >
             Narrowed to one part, place or lot ✕
           </button>
         )}
       </ListToolbar>
       {moves.error && <Notice tone="error">{moves.error.message}</Notice>}
-      <DataTable columns={columns} data={moves.data?.data ?? []} total={moves.data?.total ?? 0} state={state} onChange={update} isLoading={moves.isPending} empty="No move matches." />
+      <DataTable
+        columns={columns}
+        data={moves.data?.data ?? []}
+        total={moves.data?.total ?? 0}
+        state={state}
+        onChange={update}
+        isLoading={moves.isPending}
+        empty="No move matches."
+      />
     </div>
   );
 }

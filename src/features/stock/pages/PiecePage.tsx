@@ -23,11 +23,22 @@ export function PiecePage() {
   };
   return (
     <div className="max-w-5xl space-y-3">
-      <PageHeader title={serial ? `Serial ${serial}` : 'Find a serial'} subtitle="From the supplier through the lot and its decision to where the piece is now." />
+      <PageHeader
+        title={serial ? `Serial ${serial}` : 'Find a serial'}
+        subtitle="From the supplier through the lot and its decision to where the piece is now."
+      />
       <StockTabs />
       <form onSubmit={find} role="search" className="flex gap-2">
-        <input aria-label="Serial number" value={text} onChange={(e) => setText(e.target.value)} placeholder="Serial number, e.g. QW-0007" className={`${inputClass} w-72 font-mono`} />
-        <Button type="submit" look="secondary">Find</Button>
+        <input
+          aria-label="Serial number"
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+          placeholder="Serial number, e.g. QW-0007"
+          className={`${inputClass} w-72 font-mono`}
+        />
+        <Button type="submit" look="secondary">
+          Find
+        </Button>
       </form>
       {history.error && <Notice tone="error">{history.error.message}</Notice>}
       {history.data?.data.map((piece) => (
@@ -35,20 +46,45 @@ export function PiecePage() {
           {history.data.total > 1 && <h2 className="pt-2">{piece.part.number}</h2>}
           {piece.releasedAsIs && (
             <Notice tone="caution" title={`Failed inspection: in use as is under deviation ${piece.releasedAsIs.deviationNumber}`}>
-              Released by the lot's signed use-as-is decision ({piece.releasedAsIs.signedBy ?? 'signer unknown'}, {new Date(piece.releasedAsIs.signedAt).toLocaleString()})
-              {piece.releasedAsIs.justification && <>: “{piece.releasedAsIs.justification}”</>}
+              Released by the lot's signed use-as-is decision ({piece.releasedAsIs.signedBy ?? 'signer unknown'},{' '}
+              {new Date(piece.releasedAsIs.signedAt).toLocaleString()}){piece.releasedAsIs.justification && <>: “{piece.releasedAsIs.justification}”</>}
             </Notice>
           )}
           <Panel title="Piece" actions={<StateBadge state={piece.state} label={PIECE_STATE_LABELS[piece.state]} />}>
             <Details
               columns={4}
               items={[
-                ['Part', <Link key="p" to={`/purchasing/parts/${piece.part.id}`}>{piece.part.number}</Link>],
+                [
+                  'Part',
+                  <Link key="p" to={`/purchasing/parts/${piece.part.id}`}>
+                    {piece.part.number}
+                  </Link>,
+                ],
                 ['Supplier', piece.supplier.name],
-                ['PO / line', <span key="po" className="font-mono">{piece.purchaseOrder.number} / {piece.purchaseOrder.lineNumber}</span>],
-                ['Lot', <Link key="l" to={`/lots/${piece.lot.id}`} className="font-mono">{lotName(piece.lot.id)}</Link>],
-                ['Supplier lot', <span key="sl" className="font-mono">{piece.lot.supplierLot}</span>],
-                ['Lot state', <Link key="ls" to={`/inspection/lots/${piece.lot.id}`} title="Readings, verdicts and the lot's decision">{LOT_STATE_LABELS[piece.lot.state]}</Link>],
+                [
+                  'PO / line',
+                  <span key="po" className="font-mono">
+                    {piece.purchaseOrder.number} / {piece.purchaseOrder.lineNumber}
+                  </span>,
+                ],
+                [
+                  'Lot',
+                  <Link key="l" to={`/lots/${piece.lot.id}`} className="font-mono">
+                    {lotName(piece.lot.id)}
+                  </Link>,
+                ],
+                [
+                  'Supplier lot',
+                  <span key="sl" className="font-mono">
+                    {piece.lot.supplierLot}
+                  </span>,
+                ],
+                [
+                  'Lot state',
+                  <Link key="ls" to={`/inspection/lots/${piece.lot.id}`} title="Readings, verdicts and the lot's decision">
+                    {LOT_STATE_LABELS[piece.lot.state]}
+                  </Link>,
+                ],
                 ['Now at', piece.location ? `${piece.location.code} (${LOCATION_KIND_LABELS[piece.location.kind].toLowerCase()})` : 'issued out of stores'],
               ]}
             />
@@ -62,7 +98,9 @@ export function PiecePage() {
                       <span className="text-xs whitespace-nowrap text-ink-muted">{new Date(m.at).toLocaleString()}</span>
                       <span>
                         <span className="font-medium">{MOVE_REASON_LABELS[m.reason]}</span>{' '}
-                        <span className="font-mono text-xs">{m.from ?? (m.reason === 'receipt' ? 'supplier' : 'work order')} → {m.to ?? `work order ${m.workOrder}`}</span>
+                        <span className="font-mono text-xs">
+                          {m.from ?? (m.reason === 'receipt' ? 'supplier' : 'work order')} → {m.to ?? `work order ${m.workOrder}`}
+                        </span>
                         {m.who && <span className="text-xs text-ink-muted"> · {m.who}</span>}
                         {m.note && <span className="block text-xs text-ink-muted">{m.note}</span>}
                       </span>
@@ -80,9 +118,13 @@ export function PiecePage() {
             <ul className="space-y-1 text-sm" aria-label="Readings">
               {piece.readings.map((r, i) => (
                 <li key={i} className={r.current ? '' : 'text-ink-faint line-through'}>
-                  <span className="font-mono">{r.wavelengthNm} nm</span> · retardance {r.retardanceWaves?.toFixed(4) ?? '—'} λ, error {r.retardanceErrorWaves?.toFixed(4) ?? '—'} λ, axis {r.axisErrorDeg?.toFixed(2) ?? '—'}° ·{' '}
-                  <span className="font-medium">{r.verdict}</span>{r.reasons.length > 0 && ` (${r.reasons.join('; ')})`}
-                  <span className="block text-xs text-ink-muted">{r.file} on {r.instrument}, {new Date(r.measuredAt).toLocaleString()}{r.current ? '' : ' — superseded'}</span>
+                  <span className="font-mono">{r.wavelengthNm} nm</span> · retardance {r.retardanceWaves?.toFixed(4) ?? '—'} λ, error{' '}
+                  {r.retardanceErrorWaves?.toFixed(4) ?? '—'} λ, axis {r.axisErrorDeg?.toFixed(2) ?? '—'}° · <span className="font-medium">{r.verdict}</span>
+                  {r.reasons.length > 0 && ` (${r.reasons.join('; ')})`}
+                  <span className="block text-xs text-ink-muted">
+                    {r.file} on {r.instrument}, {new Date(r.measuredAt).toLocaleString()}
+                    {r.current ? '' : ' — superseded'}
+                  </span>
                 </li>
               ))}
             </ul>
@@ -90,7 +132,8 @@ export function PiecePage() {
               <p className="mt-2 text-sm">
                 {piece.documents.map((d) => (
                   <a key={d.number} href={`/api/documents/${encodeURIComponent(d.number)}.pdf`} target="_blank" rel="noreferrer" className="mr-3 font-mono">
-                    {d.number}{d.revokedAt ? ' (revoked)' : ''}
+                    {d.number}
+                    {d.revokedAt ? ' (revoked)' : ''}
                   </a>
                 ))}
               </p>

@@ -23,10 +23,16 @@ export function StockMovePage({ move }: { move: keyof typeof SUBTITLES }) {
       <PageHeader title="Stock" subtitle={SUBTITLES[move]} />
       <StockTabs />
       {!can(user, 'stock.move') ? (
-        <Notice tone="error" title="Not available to your role">Receiving clerks move stock.</Notice>
+        <Notice tone="error" title="Not available to your role">
+          Receiving clerks move stock.
+        </Notice>
       ) : (
         <>
-          {done && <Notice tone="info" title="Done">{done}</Notice>}
+          {done && (
+            <Notice tone="info" title="Done">
+              {done}
+            </Notice>
+          )}
           <div className="rounded border border-paper-line bg-paper-card p-4">
             {move === 'issue' && <IssueForm onDone={finish} />}
             {move === 'transfer' && <TransferForm onDone={finish} />}

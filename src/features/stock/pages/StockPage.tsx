@@ -31,7 +31,11 @@ export function StockPage() {
       column.accessor('onHand', {
         header: 'On hand',
         cell: ({ row }) => (
-          <Link to={`/stock/moves?partId=${row.original.partId}&locationId=${row.original.locationId}`} onClick={(e) => e.stopPropagation()} className="tabular-nums">
+          <Link
+            to={`/stock/moves?partId=${row.original.partId}&locationId=${row.original.locationId}`}
+            onClick={(e) => e.stopPropagation()}
+            className="tabular-nums"
+          >
             {row.original.onHand}
           </Link>
         ),
@@ -50,12 +54,35 @@ export function StockPage() {
         exportPath="/stock"
         summary={stock.data && `${counted(stock.data.totals.onHand, 'piece')} in ${counted(stock.data.total, 'place')}`}
       >
-        <FilterSelect label="Part" value={filters.partId} onChange={(value) => update({ partId: value })} options={(parts.data?.data ?? []).map((p) => ({ value: String(p.id), label: p.number }))} />
-        <FilterSelect label="Kind" value={filters.kind} onChange={(value) => update({ kind: value })} options={LOCATION_KINDS.map((k) => ({ value: k, label: LOCATION_KIND_LABELS[k] }))} />
-        <FilterSelect label="Location" value={filters.locationId} onChange={(value) => update({ locationId: value })} options={(locations.data?.data ?? []).map((l) => ({ value: String(l.id), label: l.code }))} />
+        <FilterSelect
+          label="Part"
+          value={filters.partId}
+          onChange={(value) => update({ partId: value })}
+          options={(parts.data?.data ?? []).map((p) => ({ value: String(p.id), label: p.number }))}
+        />
+        <FilterSelect
+          label="Kind"
+          value={filters.kind}
+          onChange={(value) => update({ kind: value })}
+          options={LOCATION_KINDS.map((k) => ({ value: k, label: LOCATION_KIND_LABELS[k] }))}
+        />
+        <FilterSelect
+          label="Location"
+          value={filters.locationId}
+          onChange={(value) => update({ locationId: value })}
+          options={(locations.data?.data ?? []).map((l) => ({ value: String(l.id), label: l.code }))}
+        />
       </ListToolbar>
       {stock.error && <Notice tone="error">{stock.error.message}</Notice>}
-      <DataTable columns={columns} data={stock.data?.data ?? []} total={stock.data?.total ?? 0} state={state} onChange={update} isLoading={stock.isPending} empty="Nothing is on hand for this filter." />
+      <DataTable
+        columns={columns}
+        data={stock.data?.data ?? []}
+        total={stock.data?.total ?? 0}
+        state={state}
+        onChange={update}
+        isLoading={stock.isPending}
+        empty="Nothing is on hand for this filter."
+      />
     </div>
   );
 }

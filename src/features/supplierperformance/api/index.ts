@@ -14,7 +14,11 @@ export const performanceKeys = {
 };
 
 export const useSupplierRanking = (query: ListState & Period) =>
-  useQuery({ queryKey: performanceKeys.ranking(query), queryFn: listPage<SupplierRankingRow>('/supplier-scorecards', query), placeholderData: keepPreviousData });
+  useQuery({
+    queryKey: performanceKeys.ranking(query),
+    queryFn: listPage<SupplierRankingRow>('/supplier-scorecards', query),
+    placeholderData: keepPreviousData,
+  });
 
 export const useScorecard = (supplierId: number, period: Period) =>
   useQuery({

@@ -14,8 +14,9 @@ export function AlarmList({ alarms, showPart = true }: { alarms: DriftAlarmView[
             <span className="text-xs text-ink-muted tabular-nums">{new Date(a.raisedAt).toLocaleDateString()}</span>
             {showPart && <span className="font-mono">{a.part.number}</span>}
             <span>
-              {name} drifting {a.direction === 'high' ? 'up' : 'down'}: EWMA {signedError(a.characteristic, a.ewma, { finer: 1 })} past {signedError(a.characteristic, a.limit, { finer: 1 })} with lot{' '}
-              <span className="font-medium">{a.lot.name}</span> <span className="text-ink-muted">(supplier lot {a.lot.supplierLot})</span>
+              {name} drifting {a.direction === 'high' ? 'up' : 'down'}: EWMA {signedError(a.characteristic, a.ewma, { finer: 1 })} past{' '}
+              {signedError(a.characteristic, a.limit, { finer: 1 })} with lot <span className="font-medium">{a.lot.name}</span>{' '}
+              <span className="text-ink-muted">(supplier lot {a.lot.supplierLot})</span>
             </span>
             <span className={`text-xs ${a.failingPieces ? 'text-state-fail' : 'text-state-pass'}`}>
               {a.failingPieces ? `${a.failingPieces} piece${a.failingPieces === 1 ? '' : 's'} already failing` : 'before any piece failed'}

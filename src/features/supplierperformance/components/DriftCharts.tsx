@@ -2,7 +2,19 @@
 // tolerance (Cp, Cpk and their 95 % intervals), the lot means in the order the lots came (ticks at
 // the tolerance limits and 0, the individuals limits dotted), and the EWMA of the lot means with its
 // limits, where a drift shows before lots fail. Tooltips name each lot L-n with its supplier lot.
-import { CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceDot, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis, type TooltipContentProps } from 'recharts';
+import {
+  CartesianGrid,
+  ComposedChart,
+  Line,
+  ReferenceArea,
+  ReferenceDot,
+  ReferenceLine,
+  ResponsiveContainer,
+  Tooltip,
+  XAxis,
+  YAxis,
+  type TooltipContentProps,
+} from 'recharts';
 import { CHARACTERISTIC_LABELS, type CharacteristicView, type DriftAlarmView, type LotMeanPoint } from '@shared/schemas/supplierPerformance';
 import { signedError } from './format';
 
@@ -31,7 +43,8 @@ function LotTooltip({ active, payload, view }: TooltipContentProps<number, strin
       <p>lot mean {signedError(c, point.mean)}</p>
       {point.ewma !== null && (
         <p>
-          EWMA {signedError(c, point.ewma, { finer: 1 })} (limits {signedError(c, point.ewmaLower, { finer: 1 })} to {signedError(c, point.ewmaUpper, { finer: 1 })})
+          EWMA {signedError(c, point.ewma, { finer: 1 })} (limits {signedError(c, point.ewmaLower, { finer: 1 })} to{' '}
+          {signedError(c, point.ewmaUpper, { finer: 1 })})
         </p>
       )}
       <p className={point.outside ? 'text-state-fail' : 'text-ink-muted'}>
@@ -81,11 +94,33 @@ function Capability({ view }: { view: CharacteristicView }) {
       </div>
       <div>
         <dt className="text-2xs tracking-wide text-ink-faint uppercase">Cp (95 %)</dt>
-        <dd className="tabular-nums">{cap ? <><span className={`font-semibold ${tone(cap.cp)}`}>{cap.cp.toFixed(2)}</span> <span className="text-xs text-ink-muted">{cap.cpLow.toFixed(2)}–{cap.cpHigh.toFixed(2)}</span></> : '—'}</dd>
+        <dd className="tabular-nums">
+          {cap ? (
+            <>
+              <span className={`font-semibold ${tone(cap.cp)}`}>{cap.cp.toFixed(2)}</span>{' '}
+              <span className="text-xs text-ink-muted">
+                {cap.cpLow.toFixed(2)}–{cap.cpHigh.toFixed(2)}
+              </span>
+            </>
+          ) : (
+            '—'
+          )}
+        </dd>
       </div>
       <div>
         <dt className="text-2xs tracking-wide text-ink-faint uppercase">Cpk (95 %)</dt>
-        <dd className="tabular-nums">{cap ? <><span className={`font-semibold ${tone(cap.cpk)}`}>{cap.cpk.toFixed(2)}</span> <span className="text-xs text-ink-muted">{cap.cpkLow.toFixed(2)}–{cap.cpkHigh.toFixed(2)}</span></> : '—'}</dd>
+        <dd className="tabular-nums">
+          {cap ? (
+            <>
+              <span className={`font-semibold ${tone(cap.cpk)}`}>{cap.cpk.toFixed(2)}</span>{' '}
+              <span className="text-xs text-ink-muted">
+                {cap.cpkLow.toFixed(2)}–{cap.cpkHigh.toFixed(2)}
+              </span>
+            </>
+          ) : (
+            '—'
+          )}
+        </dd>
       </div>
     </dl>
   );
@@ -99,27 +134,54 @@ export function DriftCharts({ view, alarms }: { view: CharacteristicView; alarms
   const individuals = view.individuals;
   const meanSpan = spanOf([...points.map((p) => p.mean), individuals?.upper ?? null, individuals?.lower ?? null], tol);
   const last = points[points.length - 1];
-  const ewmaSpan = spanOf(points.flatMap((p) => [p.ewma, p.ewmaUpper, p.ewmaLower]), 0);
+  const ewmaSpan = spanOf(
+    points.flatMap((p) => [p.ewma, p.ewmaUpper, p.ewmaLower]),
+    0,
+  );
   const alarmed = alarms.filter((a) => a.characteristic === c);
   const tick = (v: number) => signedError(c, v);
   // Every value tick carries its unit; the lot axis says which way time runs.
-  const lotAxis = <XAxis dataKey="label" tick={axisStyle} interval="preserveStartEnd" minTickGap={8} label={{ value: 'lots, oldest first', position: 'insideBottom', offset: -2, style: axisStyle }} height={34} />;
+  const lotAxis = (
+    <XAxis
+      dataKey="label"
+      tick={axisStyle}
+      interval="preserveStartEnd"
+      minTickGap={8}
+      label={{ value: 'lots, oldest first', position: 'insideBottom', offset: -2, style: axisStyle }}
+      height={34}
+    />
+  );
   const tooltip = <Tooltip content={(props) => <LotTooltip {...(props as TooltipContentProps<number, string>)} view={view} />} />;
 
   return (
     <section className="space-y-2" aria-label={name}>
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h3 className="text-sm font-semibold">
-          {name} <span className="font-normal text-ink-muted">({unit}), ordered ±{tol}{unit === '°' ? '°' : ` ${unit}`}</span>
+          {name}{' '}
+          <span className="font-normal text-ink-muted">
+            ({unit}), ordered ±{tol}
+            {unit === '°' ? '°' : ` ${unit}`}
+          </span>
         </h3>
-        {view.tolerancesDiffer && <p className="text-2xs text-ink-muted">Lines of the period ordered different tolerances: Cp and Cpk judge each piece against its own; the charts show the latest.</p>}
+        {view.tolerancesDiffer && (
+          <p className="text-2xs text-ink-muted">
+            Lines of the period ordered different tolerances: Cp and Cpk judge each piece against its own; the charts show the latest.
+          </p>
+        )}
       </div>
       <Capability view={view} />
       {points.length === 0 ? (
         <p className="text-sm text-ink-muted">Nothing was measured in the period.</p>
       ) : (
         <div className="grid gap-3 lg:grid-cols-2">
-          <ChartFrame title="Lot means" note={individuals ? `Dotted: individuals limits ${tick(individuals.lower)} to ${tick(individuals.upper)}. Red: lots with pieces outside the tolerance.` : undefined}>
+          <ChartFrame
+            title="Lot means"
+            note={
+              individuals
+                ? `Dotted: individuals limits ${tick(individuals.lower)} to ${tick(individuals.upper)}. Red: lots with pieces outside the tolerance.`
+                : undefined
+            }
+          >
             <ComposedChart data={points} margin={{ top: 8, right: 10, bottom: 4, left: 0 }}>
               <CartesianGrid stroke={GRID} />
               {lotAxis}
@@ -136,7 +198,11 @@ export function DriftCharts({ view, alarms }: { view: CharacteristicView; alarms
           </ChartFrame>
           <ChartFrame
             title="Drift: EWMA of the lot means"
-            note={view.ewma ? `Weight ${view.ewma.lambda}, limits at ${view.ewma.width} standard deviations around 0 (the ordered value). Amber: alarms raised.` : 'Drift is judged from five lots on.'}
+            note={
+              view.ewma
+                ? `Weight ${view.ewma.lambda}, limits at ${view.ewma.width} standard deviations around 0 (the ordered value). Amber: alarms raised.`
+                : 'Drift is judged from five lots on.'
+            }
           >
             <ComposedChart data={points} margin={{ top: 8, right: 10, bottom: 4, left: 0 }}>
               <CartesianGrid stroke={GRID} />

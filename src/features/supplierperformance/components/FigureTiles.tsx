@@ -7,9 +7,24 @@ type Tile = { label: string; value: string; detail: string; warn?: boolean };
 function tilesOf(f: ScorecardFigures): Tile[] {
   return [
     { label: 'Lots received', value: whole(f.lotsReceived), detail: `${f.lotsDecided} decided` },
-    { label: 'Lot acceptance', value: percent(f.acceptanceRate), detail: `${f.lotsAccepted} of ${f.lotsDecided} decided lots accepted`, warn: f.acceptanceRate !== null && f.acceptanceRate < 0.9 },
-    { label: 'Nonconforming', value: f.ppm === null ? '—' : `${whole(f.ppm)} ppm`, detail: `${f.piecesNonconforming} of ${whole(f.piecesInspected)} pieces inspected`, warn: (f.ppm ?? 0) > 0 },
-    { label: 'On time', value: percent(f.onTimeRate), detail: `${f.lotsOnTime} of ${f.lotsWithDueDate} lots with a due date`, warn: f.onTimeRate !== null && f.onTimeRate < 0.9 },
+    {
+      label: 'Lot acceptance',
+      value: percent(f.acceptanceRate),
+      detail: `${f.lotsAccepted} of ${f.lotsDecided} decided lots accepted`,
+      warn: f.acceptanceRate !== null && f.acceptanceRate < 0.9,
+    },
+    {
+      label: 'Nonconforming',
+      value: f.ppm === null ? '—' : `${whole(f.ppm)} ppm`,
+      detail: `${f.piecesNonconforming} of ${whole(f.piecesInspected)} pieces inspected`,
+      warn: (f.ppm ?? 0) > 0,
+    },
+    {
+      label: 'On time',
+      value: percent(f.onTimeRate),
+      detail: `${f.lotsOnTime} of ${f.lotsWithDueDate} lots with a due date`,
+      warn: f.onTimeRate !== null && f.onTimeRate < 0.9,
+    },
     {
       label: 'Open NCRs',
       value: whole(f.ncrs.open),
@@ -19,7 +34,9 @@ function tilesOf(f: ScorecardFigures): Tile[] {
     {
       label: 'Open corrective actions',
       value: whole(f.correctiveActions.open),
-      detail: f.correctiveActions.open ? `${f.correctiveActions.overdue} overdue, oldest ${days(f.correctiveActions.oldestOpenDays)}` : `${f.correctiveActions.requestedInPeriod} requested in the period`,
+      detail: f.correctiveActions.open
+        ? `${f.correctiveActions.overdue} overdue, oldest ${days(f.correctiveActions.oldestOpenDays)}`
+        : `${f.correctiveActions.requestedInPeriod} requested in the period`,
       warn: f.correctiveActions.overdue > 0,
     },
   ];

@@ -42,8 +42,12 @@ export function PartsTable({ parts, chosen, onChoose }: Props) {
               <td className="px-2 py-1.5 text-right tabular-nums">{f.ppm === null ? '—' : `${whole(f.ppm)} ppm`}</td>
               <td className="px-2 py-1.5 text-right tabular-nums">{percent(f.onTimeRate)}</td>
               <td className="px-2 py-1.5 text-right tabular-nums">{f.ncrs.open ? `${f.ncrs.open} (oldest ${days(f.ncrs.oldestOpenDays)})` : '0'}</td>
-              <td className="px-2 py-1.5 text-right tabular-nums">{f.correctiveActions.open ? `${f.correctiveActions.open}${f.correctiveActions.overdue ? `, ${f.correctiveActions.overdue} overdue` : ''}` : '0'}</td>
-              <td className="px-2 py-1.5">{switching ? <PhaseBadge phase={switching.phase} /> : <span className="text-xs text-ink-faint">No lot decided</span>}</td>
+              <td className="px-2 py-1.5 text-right tabular-nums">
+                {f.correctiveActions.open ? `${f.correctiveActions.open}${f.correctiveActions.overdue ? `, ${f.correctiveActions.overdue} overdue` : ''}` : '0'}
+              </td>
+              <td className="px-2 py-1.5">
+                {switching ? <PhaseBadge phase={switching.phase} /> : <span className="text-xs text-ink-faint">No lot decided</span>}
+              </td>
             </tr>
           ))}
         </tbody>

@@ -72,14 +72,16 @@ export function SupplierPerformancePage() {
             <div className="space-y-5">
               {chart.markOnSlowAxis > 0 && (
                 <Notice tone="caution">
-                  {chart.markOnSlowAxis} piece{chart.markOnSlowAxis === 1 ? ' had its' : 's had their'} fast-axis mark on the slow axis: a marking error of its own, left out of the statistics.
+                  {chart.markOnSlowAxis} piece{chart.markOnSlowAxis === 1 ? ' had its' : 's had their'} fast-axis mark on the slow axis: a marking error of its
+                  own, left out of the statistics.
                 </Notice>
               )}
               {DRIFT_CHARACTERISTICS.map((c) => (
                 <DriftCharts key={c} view={chart.characteristics.find((v) => v.characteristic === c)!} alarms={chart.alarms} />
               ))}
               <p className="text-2xs text-ink-muted">
-                Cp and Cpk use the spread of every piece measured at the design wavelength against the ordered tolerance; 95 % intervals, since lots are small. Green from 1.33, amber from 1.0.
+                Cp and Cpk use the spread of every piece measured at the design wavelength against the ordered tolerance; 95 % intervals, since lots are small.
+                Green from 1.33, amber from 1.0.
               </p>
             </div>
           )}

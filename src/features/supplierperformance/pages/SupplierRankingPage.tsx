@@ -23,15 +23,35 @@ export function SupplierRankingPage() {
   const list = useSupplierRanking({ ...state, ...chosen });
   const columns = useMemo(
     () => [
-      column.accessor('rank', { header: 'Rank', cell: ({ getValue }) => (getValue() === null ? <span className="text-ink-faint">—</span> : number(getValue()!)) }),
-      column.accessor((r) => r.supplier.name, { id: 'name', header: 'Supplier', cell: ({ row }) => <span className={row.original.supplier.active ? '' : 'text-ink-muted'}>{row.original.supplier.name}</span> }),
-      column.accessor('lotsReceived', { header: 'Lots', cell: ({ row }) => <span className="tabular-nums">{row.original.lotsReceived} <span className="text-ink-faint">({row.original.lotsDecided} decided)</span></span> }),
+      column.accessor('rank', {
+        header: 'Rank',
+        cell: ({ getValue }) => (getValue() === null ? <span className="text-ink-faint">—</span> : number(getValue()!)),
+      }),
+      column.accessor((r) => r.supplier.name, {
+        id: 'name',
+        header: 'Supplier',
+        cell: ({ row }) => <span className={row.original.supplier.active ? '' : 'text-ink-muted'}>{row.original.supplier.name}</span>,
+      }),
+      column.accessor('lotsReceived', {
+        header: 'Lots',
+        cell: ({ row }) => (
+          <span className="tabular-nums">
+            {row.original.lotsReceived} <span className="text-ink-faint">({row.original.lotsDecided} decided)</span>
+          </span>
+        ),
+      }),
       column.accessor('acceptanceRate', { header: 'Accepted', cell: ({ getValue }) => <span className="tabular-nums">{percent(getValue())}</span> }),
-      column.accessor('ppm', { header: 'Nonconforming', cell: ({ getValue }) => <span className="tabular-nums">{getValue() === null ? '—' : `${whole(getValue())} ppm`}</span> }),
+      column.accessor('ppm', {
+        header: 'Nonconforming',
+        cell: ({ getValue }) => <span className="tabular-nums">{getValue() === null ? '—' : `${whole(getValue())} ppm`}</span>,
+      }),
       column.accessor('onTimeRate', { header: 'On time', cell: ({ getValue }) => <span className="tabular-nums">{percent(getValue())}</span> }),
       column.accessor('openNcrs', { header: 'Open NCRs', cell: ({ getValue }) => number(getValue()) }),
       column.accessor('openCorrectiveActions', { header: 'Open CARs', cell: ({ getValue }) => number(getValue()) }),
-      column.accessor('alarms', { header: 'Drift alarms', cell: ({ getValue }) => (getValue() > 0 ? <span className="font-medium text-state-quarantine">{getValue()}</span> : number(0)) }),
+      column.accessor('alarms', {
+        header: 'Drift alarms',
+        cell: ({ getValue }) => (getValue() > 0 ? <span className="font-medium text-state-quarantine">{getValue()}</span> : number(0)),
+      }),
     ],
     [],
   );
@@ -45,7 +65,13 @@ export function SupplierRankingPage() {
       <div className="mb-3">
         <PeriodPicker period={period} chosen={chosen} onChange={(patch) => update(patch)} />
       </div>
-      <ListToolbar list={{ state, update }} filters={chosen} placeholder="Supplier" exportPath="/supplier-scorecards" summary={list.data && counted(list.data.total, 'supplier')} />
+      <ListToolbar
+        list={{ state, update }}
+        filters={chosen}
+        placeholder="Supplier"
+        exportPath="/supplier-scorecards"
+        summary={list.data && counted(list.data.total, 'supplier')}
+      />
       {list.error && <Notice tone="error">{list.error.message}</Notice>}
       <DataTable
         columns={columns}
@@ -55,7 +81,12 @@ export function SupplierRankingPage() {
         onChange={update}
         isLoading={list.isPending}
         empty="No supplier matches."
-        onRowClick={(row) => navigate({ pathname: `/supplier-performance/${row.supplier.id}`, search: new URLSearchParams(Object.entries(chosen).filter((e): e is [string, string] => !!e[1])).toString() })}
+        onRowClick={(row) =>
+          navigate({
+            pathname: `/supplier-performance/${row.supplier.id}`,
+            search: new URLSearchParams(Object.entries(chosen).filter((e): e is [string, string] => !!e[1])).toString(),
+          })
+        }
       />
     </div>
   );

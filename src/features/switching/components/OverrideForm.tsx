@@ -32,8 +32,8 @@ export function OverrideForm({ supplierId, partId, current, onSigned, onCancel }
     <form onSubmit={submit} noValidate aria-label="Override severity" className="space-y-3 rounded border border-frame/30 bg-paper-card p-4">
       <h2>Override the severity</h2>
       <Notice tone="caution" title="What an override does">
-        The supplier and part leave {SWITCHING_PHASE_LABELS[current].toLowerCase()} for the severity you choose. Lots received from now on are sampled on it; lots already
-        sampled keep their plans. The counts and the switching score start again, and the switching rules go on from there.
+        The supplier and part leave {SWITCHING_PHASE_LABELS[current].toLowerCase()} for the severity you choose. Lots received from now on are sampled on it;
+        lots already sampled keep their plans. The counts and the switching score start again, and the switching rules go on from there.
       </Notice>
       {override.error && <Notice tone="error">{override.error.message}</Notice>}
       <fieldset className="flex flex-wrap gap-4">
@@ -43,7 +43,11 @@ export function OverrideForm({ supplierId, partId, current, onSigned, onCancel }
             <input type="radio" value={s} {...form.register('severity')} /> {SWITCHING_PHASE_LABELS[s]}
           </label>
         ))}
-        {errors.severity && <p role="alert" className="w-full text-xs text-state-fail">Choose a severity.</p>}
+        {errors.severity && (
+          <p role="alert" className="w-full text-xs text-state-fail">
+            Choose a severity.
+          </p>
+        )}
       </fieldset>
       <Field label="Reason" htmlFor="override-reason" error={errors.reason?.message}>
         <textarea id="override-reason" rows={2} className={inputClass} {...form.register('reason')} />

@@ -41,7 +41,11 @@ export function ResumeForm({ supplierId, partId, waitingLots, onResumed }: Props
       </h2>
       <p className="text-sm text-ink-muted">
         Acceptance stays discontinued until the supplier has acted to improve what it submits. Record that action; inspection then resumes on tightened
-        inspection{waitingLots > 0 ? `, and ${waitingLots === 1 ? 'the lot waiting in quarantine gets its sampling plan' : `the ${waitingLots} lots waiting in quarantine get their sampling plans`}` : ''}.
+        inspection
+        {waitingLots > 0
+          ? `, and ${waitingLots === 1 ? 'the lot waiting in quarantine gets its sampling plan' : `the ${waitingLots} lots waiting in quarantine get their sampling plans`}`
+          : ''}
+        .
       </p>
       {resume.error && <Notice tone="error">{resume.error.message}</Notice>}
       <Field label="Supplier's corrective action" htmlFor="corrective-action" error={errors.correctiveAction?.message}>
@@ -50,9 +54,17 @@ export function ResumeForm({ supplierId, partId, waitingLots, onResumed }: Props
       <Field
         label="Accepted corrective-action request"
         htmlFor="corrective-request"
-        hint={requests.data?.data.length ? 'The request whose answer quality accepted.' : 'No accepted request of this part from this supplier: give the reference of the action below.'}
+        hint={
+          requests.data?.data.length
+            ? 'The request whose answer quality accepted.'
+            : 'No accepted request of this part from this supplier: give the reference of the action below.'
+        }
       >
-        <select id="corrective-request" className={`${inputClass} max-w-md`} {...form.register('correctiveActionId', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}>
+        <select
+          id="corrective-request"
+          className={`${inputClass} max-w-md`}
+          {...form.register('correctiveActionId', { setValueAs: (v) => (v === '' || v === undefined ? undefined : Number(v)) })}
+        >
           <option value="">None: an action recorded elsewhere</option>
           {requests.data?.data.map((r) => (
             <option key={r.id} value={r.id}>
@@ -62,7 +74,12 @@ export function ResumeForm({ supplierId, partId, waitingLots, onResumed }: Props
         </select>
       </Field>
       {!pickedRequest && (
-        <Field label="Reference of the corrective action" htmlFor="corrective-reference" hint="For actions recorded before corrective-action requests were kept here: the supplier's report number." error={errors.reference?.message}>
+        <Field
+          label="Reference of the corrective action"
+          htmlFor="corrective-reference"
+          hint="For actions recorded before corrective-action requests were kept here: the supplier's report number."
+          error={errors.reference?.message}
+        >
           <input id="corrective-reference" className={`${inputClass} max-w-xs font-mono`} {...form.register('reference')} />
         </Field>
       )}

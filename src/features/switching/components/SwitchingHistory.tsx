@@ -13,9 +13,14 @@ function Title({ entry }: { entry: SwitchingHistoryEntry }) {
   if (entry.kind === 'override') return <>Severity set to {entry.severity}</>;
   return (
     <>
-      <Link to={`/lots/${entry.lotId}`} className="font-mono">{lotName(entry.lotId!)}</Link> {entry.accepted ? 'accepted' : 'not accepted'}
+      <Link to={`/lots/${entry.lotId}`} className="font-mono">
+        {lotName(entry.lotId!)}
+      </Link>{' '}
+      {entry.accepted ? 'accepted' : 'not accepted'}
       <span className="font-normal text-ink-muted">
-        {' '}· {entry.decision ? DISPOSITION_LABELS[entry.decision as Disposition] ?? entry.decision : ''} · {entry.defectives} defective{entry.defectives === 1 ? '' : 's'} · sampled on {entry.sampledOn}
+        {' '}
+        · {entry.decision ? (DISPOSITION_LABELS[entry.decision as Disposition] ?? entry.decision) : ''} · {entry.defectives} defective
+        {entry.defectives === 1 ? '' : 's'} · sampled on {entry.sampledOn}
       </span>
     </>
   );
@@ -26,7 +31,11 @@ export function SwitchingHistory({ entries }: { entries: SwitchingHistoryEntry[]
   return (
     <ol className="divide-y divide-paper-line">
       {entries.map((entry) => (
-        <li key={entry.id} className={`grid gap-x-4 gap-y-1 py-2 text-sm sm:grid-cols-[9rem_1fr] ${entry.superseded ? 'text-ink-faint' : ''}`} data-kind={entry.kind}>
+        <li
+          key={entry.id}
+          className={`grid gap-x-4 gap-y-1 py-2 text-sm sm:grid-cols-[9rem_1fr] ${entry.superseded ? 'text-ink-faint' : ''}`}
+          data-kind={entry.kind}
+        >
           <div className="text-xs text-ink-muted">
             <p>{new Date(entry.at).toLocaleString()}</p>
             <p className="text-2xs">#{entry.position} in the sequence</p>
@@ -60,7 +69,11 @@ export function SwitchingHistory({ entries }: { entries: SwitchingHistoryEntry[]
                   ))}
               </blockquote>
             )}
-            {entry.by && <p className="text-2xs text-ink-faint">{entry.kind === 'lot' ? 'Decision signed by' : 'Signed by'} {entry.by}</p>}
+            {entry.by && (
+              <p className="text-2xs text-ink-faint">
+                {entry.kind === 'lot' ? 'Decision signed by' : 'Signed by'} {entry.by}
+              </p>
+            )}
           </div>
         </li>
       ))}

@@ -22,23 +22,52 @@ export function SwitchingListPage() {
   const columns = useMemo(
     () => [
       column.accessor('supplierName', { header: 'Supplier' }),
-      column.accessor('partNumber', { header: 'Part', cell: ({ row }) => <PartLabel number={row.original.partNumber} description={row.original.partDescription} /> }),
+      column.accessor('partNumber', {
+        header: 'Part',
+        cell: ({ row }) => <PartLabel number={row.original.partNumber} description={row.original.partDescription} />,
+      }),
       column.accessor('phase', { header: 'Inspection', cell: ({ getValue }) => <PhaseBadge phase={getValue()} /> }),
       column.accessor('switchingScore', { header: 'Score', cell: ({ getValue }) => number(getValue()) }),
       column.accessor('consecutiveAccepted', { header: 'Accepted in a row', enableSorting: false, cell: ({ getValue }) => number(getValue()) }),
       column.accessor('tightenedCount', { header: 'Not accepted on tightened', enableSorting: false, cell: ({ getValue }) => number(getValue()) }),
-      column.accessor('waitingLots', { header: 'Lots waiting', enableSorting: false, cell: ({ getValue }) => (getValue() > 0 ? <span className="font-medium text-state-fail">{getValue()}</span> : number(0)) }),
-      column.accessor('changedAt', { header: 'Last event', enableSorting: false, cell: ({ getValue }) => (getValue() ? new Date(getValue()!).toLocaleDateString() : '—') }),
+      column.accessor('waitingLots', {
+        header: 'Lots waiting',
+        enableSorting: false,
+        cell: ({ getValue }) => (getValue() > 0 ? <span className="font-medium text-state-fail">{getValue()}</span> : number(0)),
+      }),
+      column.accessor('changedAt', {
+        header: 'Last event',
+        enableSorting: false,
+        cell: ({ getValue }) => (getValue() ? new Date(getValue()!).toLocaleDateString() : '—'),
+      }),
     ],
     [],
   );
   return (
     <div>
-      <PageHeader title="Switching" subtitle="The inspection severity of each part from each supplier under the ISO 2859-1 switching rules, and where acceptance is discontinued." />
-      <ListToolbar list={{ state, update }} filters={filters} placeholder="Supplier or part" exportPath="/switching" summary={list.data && counted(list.data.total, 'supplier and part', 'suppliers and parts')}>
-        <FilterSelect label="Inspection" value={filters.phase} onChange={(value) => update({ phase: value })} options={SWITCHING_PHASES.map((p) => ({ value: p, label: SWITCHING_PHASE_LABELS[p] }))} />
+      <PageHeader
+        title="Switching"
+        subtitle="The inspection severity of each part from each supplier under the ISO 2859-1 switching rules, and where acceptance is discontinued."
+      />
+      <ListToolbar
+        list={{ state, update }}
+        filters={filters}
+        placeholder="Supplier or part"
+        exportPath="/switching"
+        summary={list.data && counted(list.data.total, 'supplier and part', 'suppliers and parts')}
+      >
+        <FilterSelect
+          label="Inspection"
+          value={filters.phase}
+          onChange={(value) => update({ phase: value })}
+          options={SWITCHING_PHASES.map((p) => ({ value: p, label: SWITCHING_PHASE_LABELS[p] }))}
+        />
         {filters.supplierId && (
-          <button type="button" className="self-center rounded border border-paper-line px-2 py-1 text-xs hover:bg-paper-sunk" onClick={() => update({ supplierId: undefined })}>
+          <button
+            type="button"
+            className="self-center rounded border border-paper-line px-2 py-1 text-xs hover:bg-paper-sunk"
+            onClick={() => update({ supplierId: undefined })}
+          >
             One supplier only ✕
           </button>
         )}

@@ -42,7 +42,8 @@ export function SwitchingPage() {
         title={`Switching · ${view.part.number}`}
         subtitle={
           <>
-            {view.part.description} from <Link to={`/switching?supplierId=${view.supplier.id}`}>{view.supplier.name}</Link> · ISO 2859-1 switching rules, clause 9
+            {view.part.description} from <Link to={`/switching?supplierId=${view.supplier.id}`}>{view.supplier.name}</Link> · ISO 2859-1 switching rules, clause
+            9
           </>
         }
         actions={<PhaseBadge phase={view.phase} />}
@@ -54,7 +55,9 @@ export function SwitchingPage() {
       )}
       <div className="grid gap-3 lg:grid-cols-3">
         <Panel title="Where inspection stands">
-          <p className="text-lg font-semibold" data-testid="switching-phase">{SWITCHING_PHASE_LABELS[view.phase]}</p>
+          <p className="text-lg font-semibold" data-testid="switching-phase">
+            {SWITCHING_PHASE_LABELS[view.phase]}
+          </p>
           <p className="mt-1 text-sm text-ink-muted">{WHAT_IT_MEANS[view.phase]}</p>
           {lastChange && <p className="mt-2 text-xs text-ink-faint">Since {new Date(lastChange.at).toLocaleString()}.</p>}
           {mayManage && view.phase !== 'stopped' && !overriding && (
@@ -79,14 +82,18 @@ export function SwitchingPage() {
           <ul className="space-y-1.5 text-sm">
             {view.waitingLots.map((lot) => (
               <li key={lot.id} className="flex flex-wrap items-center gap-2">
-                <Link to={`/lots/${lot.id}`} className="font-mono">{lotName(lot.id)}</Link>
+                <Link to={`/lots/${lot.id}`} className="font-mono">
+                  {lotName(lot.id)}
+                </Link>
                 <span className="font-mono text-xs text-ink-muted">{lot.supplierLot}</span>
                 <StateBadge state="stopped" tone="fail" label="waits, no plan" />
               </li>
             ))}
             {view.openLots.map((lot) => (
               <li key={lot.id} className="flex flex-wrap items-center gap-2">
-                <Link to={`/inspection/lots/${lot.id}`} className="font-mono">{lotName(lot.id)}</Link>
+                <Link to={`/inspection/lots/${lot.id}`} className="font-mono">
+                  {lotName(lot.id)}
+                </Link>
                 <span className="font-mono text-xs text-ink-muted">{lot.supplierLot}</span>
                 <StateBadge state={lot.state} label={LOT_STATE_LABELS[lot.state as LotState] ?? lot.state} />
                 <span className="text-xs text-ink-muted">sampled on {lot.severity}</span>
@@ -95,22 +102,25 @@ export function SwitchingPage() {
           </ul>
         </Panel>
       </div>
-      {view.phase === 'stopped' && (mayManage ? (
-        <ResumeForm
-          key={view.history[0]?.id}
-          supplierId={supplierId}
-          partId={partId}
-          waitingLots={view.waitingLots.length}
-          onResumed={(drawn) =>
-            setSigned({
-              title: 'Inspection resumed on tightened inspection',
-              detail: drawn.length > 0 ? `Sampling plans drawn for ${drawn.map(lotName).join(', ')}.` : 'No lot was waiting for a plan.',
-            })
-          }
-        />
-      ) : (
-        <Notice tone="caution" title="Acceptance discontinued">A quality manager resumes inspection once the supplier has acted.</Notice>
-      ))}
+      {view.phase === 'stopped' &&
+        (mayManage ? (
+          <ResumeForm
+            key={view.history[0]?.id}
+            supplierId={supplierId}
+            partId={partId}
+            waitingLots={view.waitingLots.length}
+            onResumed={(drawn) =>
+              setSigned({
+                title: 'Inspection resumed on tightened inspection',
+                detail: drawn.length > 0 ? `Sampling plans drawn for ${drawn.map(lotName).join(', ')}.` : 'No lot was waiting for a plan.',
+              })
+            }
+          />
+        ) : (
+          <Notice tone="caution" title="Acceptance discontinued">
+            A quality manager resumes inspection once the supplier has acted.
+          </Notice>
+        ))}
       {overriding && view.phase !== 'stopped' && (
         <OverrideForm
           supplierId={supplierId}
