@@ -12,7 +12,7 @@ import type {
 import { retardanceName, type PartSpec } from '../../shared/schemas/spec';
 import { filterWhen, type ListDefinition } from '../http/list';
 import { onHandSql } from '../stock/onHand';
-import { pieceQuantities, pieceQuantitiesSql } from '../stock/standing';
+import { pieceQuantities, pieceQuantitiesSql, receivedAsOrderedSql } from '../stock/standing';
 
 export const supplierList: ListDefinition<SupplierView, z.infer<typeof supplierListQuerySchema>> = {
   select: `s.id, s.name, s.contact_email AS "contactEmail", s.quality_contact_email AS "qualityContactEmail", s.notes, s.active, u.id AS "ownerId", u.name AS "ownerName",
@@ -91,7 +91,7 @@ export const partList: ListDefinition<PartView, z.infer<typeof partListQuerySche
 };
 
 const lineTotals = `(SELECT count(*) AS lines, sum(pol.quantity) AS ordered, sum(pol.quantity * pol.unit_price) AS value,
-    (SELECT coalesce(sum(l.quantity), 0) FROM lots l JOIN purchase_order_lines x ON x.id = l.po_line_id WHERE x.purchase_order_id = po.id) AS received
+    ${receivedAsOrderedSql('ol.po_line_id IN (SELECT x.id FROM purchase_order_lines x WHERE x.purchase_order_id = po.id)')} AS received
   FROM purchase_order_lines pol WHERE pol.purchase_order_id = po.id)`;
 const outcomes = pieceQuantitiesSql('ql.po_line_id IN (SELECT x.id FROM purchase_order_lines x WHERE x.purchase_order_id = po.id)');
 

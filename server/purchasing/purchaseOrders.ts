@@ -8,7 +8,7 @@ import { purchaseOrderInputSchema, type PurchaseOrderInput } from '../../shared/
 import { recordAudit, type AuditActor } from '../audit/record';
 import { badRequest, conflict, notFound } from '../http/errors';
 import { containing } from '../http/list';
-import { pieceQuantities, pieceQuantitiesSql, replacedPiecesSql } from '../stock/standing';
+import { pieceQuantities, pieceQuantitiesSql, receivedAsOrderedSql, replacedPiecesSql } from '../stock/standing';
 
 type ParsedInput = ReturnType<typeof purchaseOrderInputSchema.parse>;
 
@@ -32,12 +32,11 @@ async function partsOf(input: ParsedInput, transaction: Transaction, existing: M
   return parts;
 }
 
-/** Pieces received so far per line of a PO. */
+/** Pieces received so far as ordered per line of a PO (replacements apart). */
 export async function receivedByLine(purchaseOrderId: number, transaction?: Transaction) {
   const rows = await sequelize.query<{ lineId: number; received: string }>(
-    `SELECT l.po_line_id AS "lineId", sum(l.quantity) AS received
-       FROM lots l JOIN purchase_order_lines pol ON pol.id = l.po_line_id
-      WHERE pol.purchase_order_id = :purchaseOrderId GROUP BY l.po_line_id`,
+    `SELECT pol.id AS "lineId", ${receivedAsOrderedSql('ol.po_line_id = pol.id')} AS received
+       FROM purchase_order_lines pol WHERE pol.purchase_order_id = :purchaseOrderId`,
     { type: QueryTypes.SELECT, replacements: { purchaseOrderId }, transaction },
   );
   return new Map(rows.map((r) => [Number(r.lineId), Number(r.received)]));
@@ -173,7 +172,7 @@ export async function openLines(q?: string) {
   return sequelize.query<Record<string, unknown>>(
     `SELECT pol.id, po.number AS "poNumber", pol.line_number AS "lineNumber", s.name AS "supplierName", p.number AS "partNumber",
             p.description AS "partDescription", pol.quantity,
-            (SELECT coalesce(sum(l.quantity), 0) FROM lots l WHERE l.po_line_id = pol.id) AS received
+            ${receivedAsOrderedSql('ol.po_line_id = pol.id')} AS received
        FROM purchase_order_lines pol
        JOIN purchase_orders po ON po.id = pol.purchase_order_id
        JOIN suppliers s ON s.id = po.supplier_id

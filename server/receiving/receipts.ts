@@ -14,6 +14,7 @@ import { replacementOwed } from '../nonconformance/returns';
 import { AppError, badRequest, conflict, notFound } from '../http/errors';
 import { storeBlob } from '../storage/blobs';
 import { defaultLocation, recordReceipt } from '../stock/ledger';
+import { receivedAsOrderedSql } from '../stock/standing';
 import { checkDocuments, readSerialFile, type UploadedFile } from './uploads';
 
 export type ReceiptFiles = { packingSlip?: UploadedFile[]; certificate?: UploadedFile[]; serialsFile?: UploadedFile[] };
@@ -25,9 +26,14 @@ function serialsOf(typed: string, file: UploadedFile | undefined): { list: Seria
   return { list: parseSerialText(typed), source: 'the serial numbers' };
 }
 
-/** How many pieces the line has received so far (lots already logged against it). */
+/** How many pieces the line has received so far as ordered (replacements of returned pieces apart). */
 export async function receivedOnLine(lineId: number, transaction?: Transaction) {
-  return Number((await Lot.sum('quantity', { where: { poLineId: lineId }, transaction })) ?? 0);
+  const [row] = await sequelize.query<{ received: string }>(`SELECT ${receivedAsOrderedSql('ol.po_line_id = :lineId')} AS received`, {
+    type: QueryTypes.SELECT,
+    replacements: { lineId },
+    transaction,
+  });
+  return Number(row.received);
 }
 
 export async function receiveShipment(actor: AuditActor, rawInput: ShipmentReceiveInput, files: ReceiptFiles) {

@@ -29,6 +29,11 @@ export const pieceQuantities = (row: Record<string, unknown>): PieceQuantities =
   returned: Number(row.returned ?? 0),
 });
 
+/** Pieces received as ordered on the PO lines `where` selects (lots alias `ol`): a shipment that
+ * replaces an NCR's returned pieces is counted apart (replacedPiecesSql), so neither is counted twice. */
+export const receivedAsOrderedSql = (where: string) =>
+  `(SELECT coalesce(sum(ol.quantity), 0) FROM lots ol JOIN shipments os ON os.id = ol.shipment_id WHERE os.replacement_for_ncr_id IS NULL AND ${where})`;
+
 /** Pieces received in shipments that replace an NCR's returned pieces, of the lots `where` selects
  * (lots alias `rl`). */
 export const replacedPiecesSql = (where: string) =>

@@ -107,12 +107,16 @@ describe('returns to the vendor', () => {
       .expect(409);
     expect(nothing.body.error.message).toBe('No piece of this NCR is dispositioned for return and not yet shipped');
 
-    // The replacement is received against the NCR: up to the 10 pieces owed it needs no over-receipt reason
-    // although the line's 13 have all arrived; one more does.
+    // The replacement is received against the NCR, in two shipments: up to the 10 pieces owed it needs no
+    // over-receipt reason although the line's 13 have all arrived; one more does. A first shipment of 6
+    // leaves 4 owed (the line's own 13 are not counted again against the second).
     const tag = uniqueTag();
-    const tooMany = await postReceipt(lineId, { quantity: 11, serials: `R${tag}-0001..R${tag}-0011`, replacementForNcrId: ncr.id });
+    const first = await postReceipt(lineId, { quantity: 6, serials: `R${tag}-0001..R${tag}-0006`, replacementForNcrId: ncr.id });
+    expect(first.status, JSON.stringify(first.body)).toBe(201);
+    const tooMany = await postReceipt(lineId, { quantity: 5, serials: `R${tag}-0007..R${tag}-0011`, replacementForNcrId: ncr.id });
     expect(tooMany.status, JSON.stringify(tooMany.body)).toBe(400);
-    const received = await postReceipt(lineId, { quantity: 10, serials: `R${tag}-0001..R${tag}-0010`, replacementForNcrId: ncr.id });
+    expect(tooMany.body.error.message).toBe(`Line 1 of PO ${lot.poNumber} still expects 4; receiving 5 needs a stated reason for the extra pieces`);
+    const received = await postReceipt(lineId, { quantity: 4, serials: `R${tag}-0007..R${tag}-0010`, replacementForNcrId: ncr.id });
     expect(received.status, JSON.stringify(received.body)).toBe(201);
     // A shipment of another supplier's part cannot replace this NCR's pieces.
     const other = await receivedLot({ quantity: 5 });
@@ -125,9 +129,15 @@ describe('returns to the vendor', () => {
     expect(elsewhere.body.error.message).toBe(`${ncr.number} is for another supplier or part than this PO line`);
 
     const view = (await (await as('clerk')).get(`/api/nonconformances/${ncr.id}`).expect(200)).body;
-    expect(view.replacements).toEqual([expect.objectContaining({ shipmentId: received.body.shipmentId, lots: [{ id: received.body.lotId, quantity: 10 }] })]);
+    expect(view.replacements).toEqual([
+      expect.objectContaining({ shipmentId: first.body.shipmentId, lots: [{ id: first.body.lotId, quantity: 6 }] }),
+      expect.objectContaining({ shipmentId: received.body.shipmentId, lots: [{ id: received.body.lotId, quantity: 4 }] }),
+    ]);
+    // Each piece counted once: the line's 13 received as ordered, 13 returned, 10 replacing them.
     const order = (await (await as('buyer')).get(`/api/purchase-orders/${poId}`).expect(200)).body;
-    expect(order.lines[0]).toMatchObject({ returned: 13, replaced: 10 });
+    expect(order.lines[0]).toMatchObject({ quantity: 13, received: 13, outstanding: 0, returned: 13, replaced: 10 });
+    const orders = (await (await as('buyer')).get(`/api/purchase-orders?q=${lot.poNumber}`).expect(200)).body;
+    expect(orders.data).toEqual([expect.objectContaining({ number: lot.poNumber, ordered: 13, received: 13, returned: 13 })]);
 
     const listed = (await (await as('auditor')).get(`/api/returns?nonconformanceId=${ncr.id}&sort=rmaNumber`).expect(200)).body;
     expect(listed.data.map((r: { rmaNumber: string; pieces: number; replaced: number }) => [r.rmaNumber, r.pieces, r.replaced])).toEqual([
