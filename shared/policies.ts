@@ -15,6 +15,8 @@ export const POLICIES = {
   'shipments.receive': ['clerk'],
   'lots.read': EVERYONE,
   'stock.read': EVERYONE,
+  // Lot, serial and status labels: whoever may read the lot may print what it says.
+  'labels.print': EVERYONE,
   'stock.move': ['clerk'],
   'inspection.perform': ['inspector'],
   'disposition.sign': ['quality'],

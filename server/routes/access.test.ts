@@ -25,7 +25,8 @@ const PUBLIC: Record<string, number[]> = {
 };
 
 /** Routes every signed-in user may call, whatever the role. */
-const ANY_SIGNED_IN = new Set(['GET /api/auth/me', 'GET /api/settings']);
+// The scan look-up answers, per kind of record, only what the user's roles may read.
+const ANY_SIGNED_IN = new Set(['GET /api/auth/me', 'GET /api/settings', 'GET /api/lookup']);
 
 /** Routes that end the session they are called with: each call gets a session of its own. */
 const ENDS_SESSION = new Set(['POST /api/auth/logout']);
