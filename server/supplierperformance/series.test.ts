@@ -54,7 +54,7 @@ describe('a characteristic of a supplier-part', () => {
       [3, 0, 0],
       [2, 0, 0],
     ]);
-    // x̄ = 0.00076667, MR̄ = 0.00075, σ̂ = MR̄/1.128 (common practice, d₂ for ranges of two).
+    // x̄ = 0.00076667, MR̄ = 0.00075, σ̂ = MR̄/1.128 (d₂ for ranges of two, R's qcc exp.R.unscaled).
     expect(view.individuals!.sigma).toBeCloseTo(0.00075 / 1.128, 12);
     expect(view.individuals!.center).toBeCloseTo(0.0023 / 3, 12);
   });

@@ -21,8 +21,8 @@ describe('summaries', () => {
 
 describe('Cp and Cpk', () => {
   it('reproduces the handbook example of an off-centre process', () => {
-    // NIST/SEMATECH e-Handbook of Statistical Methods, 6.1.6 "What is Process Capability?" (from
-    // memory): USL = 20, LSL = 8, mean 16, σ = 2 give Cp = 1.0 and Cpk = 0.6667.
+    // NIST/SEMATECH e-Handbook of Statistical Methods, 6.1.6 "What is Process Capability?", worked
+    // example: USL = 20, LSL = 8, mean 16, σ = 2 give Cp = 1.0 and Cpk = 0.6667.
     const result = capability({ n: 50, mean: 16, sd: 2 }, { lower: 8, upper: 20 })!;
     expect(result.cp).toBeCloseTo(1.0, 4);
     expect(result.cpk).toBeCloseTo(0.6667, 4);
@@ -30,21 +30,31 @@ describe('Cp and Cpk', () => {
 
   it('gives the confidence interval on Cp of the textbook example', () => {
     // Montgomery, Introduction to Statistical Quality Control, example of a 95 % confidence interval
-    // on Cp (from memory, printed to two decimals): USL = 62, LSL = 38, n = 20, s = 1.75 give
-    // Ĉp = 2.29 and, from that rounded Ĉp, 1.57 ≤ Cp ≤ 3.01.
+    // on Cp: USL = 62, LSL = 38, n = 20, s = 1.75 give Ĉp = 2.29 and, from that rounded Ĉp,
+    // 1.57 ≤ Cp ≤ 3.01. From memory, printed to two decimals (±0.005); the chi-square quantiles it
+    // rests on, 8.91 and 32.85 at 19 degrees, are checked against R in distributions.test.ts.
     const result = capability({ n: 20, mean: 50, sd: 1.75 }, { lower: 38, upper: 62 })!;
     expect(result.cp).toBeCloseTo(2.29, 2);
     const interval = cpInterval(2.29, 20, 0.95);
-    expect(interval.low).toBeCloseTo(1.57, 2);
-    expect(interval.high).toBeCloseTo(3.01, 2);
+    expect(Math.abs(interval.low - 1.57)).toBeLessThan(0.005);
+    expect(Math.abs(interval.high - 3.01)).toBeLessThan(0.005);
+  });
+
+  it('gives the confidence interval on Cpk of a published worked example', () => {
+    // Quality Digest, May 2000, "Last Word" column, worked example: a Cpk of 1.15 from a random sample
+    // of n = 45 lies, with 95 % confidence, between 0.89 and 1.41 (printed to two decimals).
+    const interval = cpkInterval(1.15, 45, 0.95);
+    expect(Math.abs(interval.low - 0.89)).toBeLessThan(0.005);
+    expect(Math.abs(interval.high - 1.41)).toBeLessThan(0.005);
   });
 
   it('gives the confidence interval on Cpk of the textbook example', () => {
     // Montgomery, Introduction to Statistical Quality Control, example of a 95 % confidence interval
-    // on Cpk (from memory, printed to two decimals): Ĉpk = 1.33 from n = 20 gives 0.88 ≤ Cpk ≤ 1.78.
+    // on Cpk: Ĉpk = 1.33 from n = 20 gives 0.88 ≤ Cpk ≤ 1.78. From memory, printed to two decimals
+    // (±0.005); no readable copy of the example was found.
     const interval = cpkInterval(1.33, 20, 0.95);
-    expect(interval.low).toBeCloseTo(0.88, 2);
-    expect(interval.high).toBeCloseTo(1.78, 2);
+    expect(Math.abs(interval.low - 0.88)).toBeLessThan(0.005);
+    expect(Math.abs(interval.high - 1.78)).toBeLessThan(0.005);
   });
 
   it('builds the Cp interval from jstat chi-square quantiles', () => {

@@ -49,9 +49,9 @@ describe('EWMA chart', () => {
 
 describe('individuals and moving-range chart', () => {
   it('sets its limits from the mean moving range', () => {
-    // Worked by hand with the constants for ranges of two, d₂ = 1.128 and D₄ = 3.267 (Montgomery,
-    // Introduction to Statistical Quality Control, appendix table of control-chart factors; from
-    // memory): values 10, 12, 11, 14, 13 have moving ranges 2, 1, 3, 1, so MR̄ = 1.75, x̄ = 12,
+    // Worked by hand with the constants for ranges of two from R's qcc package (.qcc.options:
+    // exp.R.unscaled d₂ = 1.128, se.R.unscaled d₃ = 0.8525033, so D₄ = 1 + 3d₃/d₂ = 3.267, common
+    // practice): values 10, 12, 11, 14, 13 have moving ranges 2, 1, 3, 1, so MR̄ = 1.75, x̄ = 12,
     // σ̂ = 1.75 / 1.128 = 1.5514, limits 12 ± 4.6543 = 7.3457 and 16.6543, MR limit 5.7173.
     const chart = individualsChart([10, 12, 11, 14, 13])!;
     expect(chart.center).toBe(12);

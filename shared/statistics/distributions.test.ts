@@ -33,11 +33,16 @@ describe('chi-square quantiles', () => {
     expect(Math.abs(chiSquareQuantile(p, degrees) - reference) / reference).toBeLessThan(1e-8);
   });
 
-  it('gives the 19-degree quantiles of the printed chi-square table', () => {
-    // Chi-square table (Montgomery, Introduction to Statistical Quality Control, appendix; from
-    // memory): χ²_{0.975,19} = 8.91 and χ²_{0.025,19} = 32.85 (upper-tail notation), to two decimals.
-    expect(chiSquareQuantile(0.025, 19)).toBeCloseTo(8.91, 2);
-    expect(chiSquareQuantile(0.975, 19)).toBeCloseTo(32.85, 2);
+  it('gives the 19-degree quantiles of R and of the printed chi-square table', () => {
+    // R (stats::qchisq): qchisq(0.025, df = 19) = 8.906516, qchisq(0.975, df = 19) = 32.85233,
+    // qchisq(0.95, 19) = 30.14353, as R prints them (7 significant digits).
+    expect(Math.abs(chiSquareQuantile(0.025, 19) - 8.906516)).toBeLessThan(5e-7);
+    expect(Math.abs(chiSquareQuantile(0.975, 19) - 32.85233)).toBeLessThan(5e-6);
+    expect(Math.abs(chiSquareQuantile(0.95, 19) - 30.14353)).toBeLessThan(5e-6);
+    // NIST/SEMATECH e-Handbook 1.3.6.7.4, lower-tail critical values of the chi-square distribution,
+    // 19 degrees of freedom: 10.117 exceeded with probability 0.95, 8.907 with 0.975 (three decimals).
+    expect(Math.abs(chiSquareQuantile(0.05, 19) - 10.117)).toBeLessThan(5e-4);
+    expect(Math.abs(chiSquareQuantile(0.025, 19) - 8.907)).toBeLessThan(5e-4);
   });
 
   it.each([0.3, 1, 4.5, 12, 40])('cdf agrees with jstat at x = %f (7 degrees)', (x) => {
