@@ -5,6 +5,7 @@ import { ROLE_LABELS } from '@shared/schemas/roles';
 import { useSession, useSignOut } from '@/lib/session';
 import { BrandMark } from '@/components/BrandMark';
 import { NAVIGATION } from './navigation';
+import { ScanBox } from './ScanBox';
 
 export function AppLayout() {
   const session = useSession();
@@ -72,6 +73,9 @@ export function AppLayout() {
         </div>
       </aside>
       <main className="min-w-0 flex-1 px-6 py-5">
+        <header className="mb-3 flex justify-end">
+          <ScanBox user={user} />
+        </header>
         <Outlet />
       </main>
     </div>

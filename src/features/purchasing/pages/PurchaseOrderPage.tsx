@@ -1,5 +1,5 @@
 import { Link, useNavigate, useParams } from 'react-router-dom';
-import { Pencil } from 'lucide-react';
+import { FileDown, Pencil } from 'lucide-react';
 import { can } from '@shared/policies';
 import type { PieceQuantities } from '@shared/schemas/stock';
 import { Details, Panel } from '@/components/Details';
@@ -8,6 +8,7 @@ import { PageHeader } from '@/components/PageHeader';
 import { PieceOutcomes } from '@/components/PieceOutcomes';
 import { SpecSummary } from '@/components/SpecSummary';
 import { StateBadge } from '@/components/StateBadge';
+import { apiUrl } from '@/lib/api';
 import { useSession } from '@/lib/session';
 import { usePurchaseOrder } from '../api';
 import { money } from '../components/money';
@@ -31,14 +32,25 @@ export function PurchaseOrderPage({ editing = false }: { editing?: boolean }) {
       subtitle={po ? po.supplier.name : 'Lines take the specification of their part as it is today; later edits of the part do not change them.'}
       actions={
         po &&
-        mayEdit &&
         !editing && (
-          <Link
-            to={`/purchasing/orders/${po.id}/edit`}
-            className="inline-flex items-center gap-1.5 rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-sunk"
-          >
-            <Pencil className="h-4 w-4" aria-hidden /> Edit
-          </Link>
+          <div className="flex flex-wrap gap-2">
+            <a
+              href={apiUrl(`/purchase-orders/${po.id}/order.pdf`)}
+              target="_blank"
+              rel="noreferrer"
+              className="inline-flex items-center gap-1.5 rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-sunk"
+            >
+              <FileDown className="h-4 w-4" aria-hidden /> PDF for the supplier
+            </a>
+            {mayEdit && (
+              <Link
+                to={`/purchasing/orders/${po.id}/edit`}
+                className="inline-flex items-center gap-1.5 rounded border border-paper-line bg-paper-card px-3 py-1.5 text-sm font-medium text-ink no-underline hover:bg-paper-sunk"
+              >
+                <Pencil className="h-4 w-4" aria-hidden /> Edit
+              </Link>
+            )}
+          </div>
         )
       }
     />

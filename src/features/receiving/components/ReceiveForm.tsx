@@ -12,6 +12,7 @@ import { ApiError } from '@/lib/api';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useOpenLines, useReceiveShipment, useReplacementCandidates, type Receipt } from '../api';
 import { SerialPreview } from './SerialPreview';
+import { SerialScanField } from './SerialScanField';
 
 const DOCUMENT_TYPES = '.pdf,.png,.jpg,.jpeg,application/pdf,image/png,image/jpeg';
 const tooLarge = (files: File[]) => files.filter((f) => f.size > MAX_ATTACHMENT_BYTES).map((f) => f.name);
@@ -144,14 +145,20 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
               </label>
             </div>
             {source === 'typed' ? (
-              <textarea
-                aria-label="Serial numbers"
-                rows={5}
-                spellCheck={false}
-                placeholder={'QW-0001..QW-0050\nor one per line, or separated by commas'}
-                className={`${inputClass} font-mono`}
-                {...form.register('serials')}
-              />
+              <div className="space-y-1.5">
+                <SerialScanField
+                  serials={form.watch('serials') ?? ''}
+                  onChange={(serials) => form.setValue('serials', serials, { shouldValidate: form.formState.isSubmitted })}
+                />
+                <textarea
+                  aria-label="Serial numbers"
+                  rows={5}
+                  spellCheck={false}
+                  placeholder={'QW-0001..QW-0050\nor one per line, or separated by commas'}
+                  className={`${inputClass} font-mono`}
+                  {...form.register('serials')}
+                />
+              </div>
             ) : (
               <input
                 aria-label="Serial number file"

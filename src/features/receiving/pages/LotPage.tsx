@@ -2,10 +2,12 @@ import { Link, useParams, useSearchParams } from 'react-router-dom';
 import { FileText } from 'lucide-react';
 import { can } from '@shared/policies';
 import { codeLetterText } from '@shared/sampling/plan';
+import { LOT_LABEL_KIND_LABELS, type LotLabelKind } from '@shared/schemas/labels';
 import { ATTACHMENT_KIND_LABELS } from '@shared/schemas/receiving';
 import { LOT_STATE_LABELS, PIECE_STATE_LABELS, RELEASABLE_LOT_STATES, lotName, type PieceState } from '@shared/schemas/stock';
 import { Details, Panel } from '@/components/Details';
 import { HistoryList } from '@/components/HistoryList';
+import { LabelPrint } from '@/components/LabelPrint';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { PieceOutcomes } from '@/components/PieceOutcomes';
@@ -29,6 +31,12 @@ export function LotPage() {
   const maySeeSwitching = can(user, 'switching.read');
   const switchingPath = `/switching/${l.purchaseOrder.supplier.id}/${l.part.id}`;
   const mayPutAway = can(user, 'stock.move') && RELEASABLE_LOT_STATES.includes(l.state) && waiting > 0;
+  // Status labels only while pieces stand so (held pieces may be in material review).
+  const labelKinds = (['lot', 'serials'] as LotLabelKind[])
+    .concat((l.pieceStates.quarantine ?? 0) > 0 ? ['quarantine'] : [])
+    .concat((l.pieceStates['in-stock'] ?? 0) > 0 ? ['accepted'] : [])
+    .concat((l.pieceStates.held ?? 0) > 0 ? ['material-review'] : [])
+    .map((value) => ({ value, label: LOT_LABEL_KIND_LABELS[value] }));
   return (
     <div className="max-w-6xl space-y-3">
       <PageHeader
@@ -138,6 +146,11 @@ export function LotPage() {
           </Panel>
         </div>
         <div className="space-y-3">
+          {can(user, 'labels.print') && (
+            <Panel title="Labels">
+              <LabelPrint name={`Labels of ${lotName(l.id)}`} path={`/labels/lots/${l.id}`} kinds={labelKinds} />
+            </Panel>
+          )}
           <Panel title="Attachments">
             {l.attachments.length === 0 ? (
               <p className="text-sm text-ink-faint">No documents came with this shipment.</p>

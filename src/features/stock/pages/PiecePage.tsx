@@ -1,13 +1,16 @@
 import { useState, type FormEvent } from 'react';
+import { can } from '@shared/policies';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { LOCATION_KIND_LABELS, LOT_STATE_LABELS, MOVE_REASON_LABELS, PIECE_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { Button } from '@/components/Button';
 import { Details, Panel } from '@/components/Details';
 import { inputClass } from '@/components/Field';
 import { HistoryList } from '@/components/HistoryList';
+import { LabelPrint } from '@/components/LabelPrint';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { StateBadge } from '@/components/StateBadge';
+import { useSession } from '@/lib/session';
 import { usePieceHistory } from '../api';
 import { StockTabs } from '../components/StockTabs';
 
@@ -17,6 +20,7 @@ export function PiecePage() {
   const navigate = useNavigate();
   const [text, setText] = useState(serial);
   const history = usePieceHistory(serial);
+  const { data: user } = useSession();
   const find = (event: FormEvent) => {
     event.preventDefault();
     if (text.trim()) navigate(`/pieces/${encodeURIComponent(text.trim())}`);
@@ -88,6 +92,11 @@ export function PiecePage() {
                 ['Now at', piece.location ? `${piece.location.code} (${LOCATION_KIND_LABELS[piece.location.kind].toLowerCase()})` : 'issued out of stores'],
               ]}
             />
+            {can(user, 'labels.print') && (
+              <div className="mt-3 border-t border-paper-line pt-3">
+                <LabelPrint name={`Label of ${piece.serial}`} path={`/labels/pieces/${piece.id}`} />
+              </div>
+            )}
           </Panel>
           <div className="grid gap-3 lg:grid-cols-3">
             <div className="lg:col-span-2">
