@@ -5,6 +5,7 @@ import { notFound } from '../http/errors';
 import { sortOf } from '../http/list';
 import { DISPOSITION_LABELS, type Disposition } from '../../shared/inspection/lotVerdict';
 import type { CertificateListQuery, VerificationResult } from '../../shared/schemas/certificates';
+import type { ExportSpanView } from '../../shared/schemas/exports';
 
 type DocumentRow = {
   id: number;
@@ -96,6 +97,17 @@ export async function documentsForExport(filter: DocumentFilter) {
   const { sql, replacements } = whereOf(filter);
   const rows = await sequelize.query<DocumentRow>(`${DOCUMENT_SELECT} ${sql} ORDER BY d.issued_at, d.id`, { type: QueryTypes.SELECT, replacements });
   return rows.map((r) => ({ ...present(r), storageKey: r.storage_key }));
+}
+
+/** How many documents a filter finds and the first and last day they were issued on (the session's UTC days). */
+export async function documentSpan(filter: DocumentFilter): Promise<ExportSpanView> {
+  const { sql, replacements } = whereOf(filter);
+  const [row] = await sequelize.query<{ documents: string; first: string | null; last: string | null }>(
+    `SELECT count(*) AS documents, to_char(min(issued_at), 'YYYY-MM-DD') AS first, to_char(max(issued_at), 'YYYY-MM-DD') AS last
+     FROM (${DOCUMENT_SELECT} ${sql}) matching`,
+    { type: QueryTypes.SELECT, replacements },
+  );
+  return { documents: Number(row.documents), first: row.first, last: row.last };
 }
 
 export async function verifyDocument(number: string, hash: string): Promise<VerificationResult> {

@@ -11,6 +11,17 @@ export const exportFilterSchema = z
   .refine((filter) => filter.from <= filter.to, { path: ['to'], message: 'The last day comes before the first day' });
 export type ExportFilter = z.infer<typeof exportFilterSchema>;
 
+/** The documents a choice of supplier, part and (optionally) days finds, before an export is started. */
+export const exportSpanQuerySchema = z.object({
+  from: z.iso.date('Enter the first day as YYYY-MM-DD').optional(),
+  to: z.iso.date('Enter the last day as YYYY-MM-DD').optional(),
+  supplierId: z.coerce.number().int().positive().optional(),
+  partId: z.coerce.number().int().positive().optional(),
+});
+export type ExportSpanQuery = z.infer<typeof exportSpanQuerySchema>;
+/** How many documents were issued for the choice, and the first and last day (YYYY-MM-DD, UTC) of their issue. */
+export type ExportSpanView = { documents: number; first: string | null; last: string | null };
+
 export const EXPORT_STATUSES = ['queued', 'running', 'done', 'failed'] as const;
 export type ExportStatus = (typeof EXPORT_STATUSES)[number];
 

@@ -1,7 +1,8 @@
 import { Router } from 'express';
-import { exportFilterSchema } from '../../../shared/schemas/exports';
+import { exportFilterSchema, exportSpanQuerySchema } from '../../../shared/schemas/exports';
 import { actorOf } from '../../audit/record';
 import { allow, authenticate } from '../../auth/authenticate';
+import { documentSpan } from '../../documents/certificates';
 import { exportForDownload, findExportJob, recentExports, requestExport } from '../../exports/exportJobs';
 import { idParams } from '../../http/params';
 import { validated } from '../../http/validate';
@@ -24,6 +25,16 @@ exportsRouter.get('/', authenticate, allow('exports.create'), async (req, res) =
   const jobs = await recentExports(req.user!.id);
   res.json({ data: jobs.map(presentExportJob), total: jobs.length });
 });
+
+// What the form offers by default: the days that have documents for the chosen supplier and part.
+exportsRouter.get(
+  '/span',
+  authenticate,
+  allow('exports.create'),
+  validated({ query: exportSpanQuerySchema }, async ({ query }, _req, res) => {
+    res.json(await documentSpan(query));
+  }),
+);
 
 exportsRouter.get(
   '/:id',

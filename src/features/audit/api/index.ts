@@ -1,7 +1,7 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { AuditAnchor, AuditAnchorCheck, AuditChainHead, AuditChainReport, AuditEventView } from '@shared/schemas/audit';
 import type { VerificationResult } from '@shared/schemas/certificates';
-import type { ExportFilter, ExportJobView } from '@shared/schemas/exports';
+import type { ExportFilter, ExportJobView, ExportSpanQuery, ExportSpanView } from '@shared/schemas/exports';
 import type { ListResponse } from '@shared/schemas/paging';
 import { api } from '@/lib/api';
 import { listPage } from '@/lib/lists';
@@ -33,6 +33,7 @@ export const auditKeys = {
   head: () => [...auditKeys.all, 'chain-head'] as const,
   exports: () => [...auditKeys.all, 'exports'] as const,
   exportJob: (id: number) => [...auditKeys.all, 'exports', id] as const,
+  exportSpan: (query: ExportSpanQuery) => [...auditKeys.all, 'export-span', query] as const,
   suppliers: () => [...auditKeys.all, 'supplier-options'] as const,
   parts: () => [...auditKeys.all, 'part-options'] as const,
   verification: (number: string, hash: string) => ['verification', number, hash] as const,
@@ -73,6 +74,10 @@ export const useExportJob = (job: ExportJobView) =>
     initialData: job,
     refetchInterval: (query) => (unfinished(query.state.data) ? 500 : false),
   });
+
+/** The documents a choice finds: how many, and the first and last day they were issued on. */
+export const useExportSpan = (query: ExportSpanQuery) =>
+  useQuery({ queryKey: auditKeys.exportSpan(query), queryFn: () => api<ExportSpanView>('/exports/span', { query }), placeholderData: keepPreviousData });
 
 export function useStartExport() {
   const queryClient = useQueryClient();

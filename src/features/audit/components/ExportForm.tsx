@@ -1,31 +1,65 @@
-import { useForm } from 'react-hook-form';
+import { useEffect } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { exportFilterSchema, type ExportFilter } from '@shared/schemas/exports';
+import { exportFilterSchema, type ExportFilter, type ExportSpanView } from '@shared/schemas/exports';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
-import { usePartOptions, useStartExport, useSupplierOptions } from '../api';
+import { formatDate, plural } from '@shared/format';
+import { useExportSpan, usePartOptions, useStartExport, useSupplierOptions } from '../api';
 
-const isoDate = (date: Date) => `${date.getFullYear()}-${String(date.getMonth() + 1).padStart(2, '0')}-${String(date.getDate()).padStart(2, '0')}`;
-
-/** First and last day of the month `offset` months from this one, in local time. */
+/** First and last day of the month `offset` months from this one, as UTC days like the documents' issue. */
 function month(offset: number) {
   const now = new Date();
-  return { from: isoDate(new Date(now.getFullYear(), now.getMonth() + offset, 1)), to: isoDate(new Date(now.getFullYear(), now.getMonth() + offset + 1, 0)) };
+  const day = (monthIndex: number, date: number) => formatDate(new Date(Date.UTC(now.getUTCFullYear(), monthIndex, date)));
+  return { from: day(now.getUTCMonth() + offset, 1), to: day(now.getUTCMonth() + offset + 1, 0) };
 }
 
 const optionalId = { setValueAs: (value: string) => (value === '' ? undefined : Number(value)) };
+
+const isDay = (value: unknown): value is string => typeof value === 'string' && /^\d{4}-\d{2}-\d{2}$/.test(value);
+const idOf = (value: unknown) => (typeof value === 'number' && value > 0 ? value : undefined);
+
+/** What the chosen days, supplier and part find, said before the export is started. */
+function DocumentCount({ range, span }: { range: { from: string; to: string }; span: ExportSpanView }) {
+  if (span.documents > 0) {
+    return (
+      <p className="text-sm text-ink-muted" data-testid="export-count">
+        {plural(span.documents, 'document')} issued from {span.first} to {span.last} in this range.
+      </p>
+    );
+  }
+  return (
+    <Notice tone="info">
+      No certificate or inspection report was issued from {range.from} to {range.to} for this choice; there is nothing to export. Choose other days, supplier or
+      part.
+    </Notice>
+  );
+}
 
 export function ExportForm() {
   const suppliers = useSupplierOptions();
   const parts = usePartOptions();
   const start = useStartExport();
-  const form = useForm<z.input<typeof exportFilterSchema>, unknown, ExportFilter>({ resolver: zodResolver(exportFilterSchema), defaultValues: month(-1) });
+  const form = useForm<z.input<typeof exportFilterSchema>, unknown, ExportFilter>({ resolver: zodResolver(exportFilterSchema), defaultValues: month(0) });
   const errors = form.formState.errors;
+  const [from, to, supplier, part] = useWatch({ control: form.control, name: ['from', 'to', 'supplierId', 'partId'] });
+  // The days of every document there is: the range offered until the user picks one.
+  const all = useExportSpan({});
+  const { dirtyFields } = form.formState;
+  const datesTouched = Boolean(dirtyFields.from || dirtyFields.to);
+  useEffect(() => {
+    if (datesTouched || !all.data?.first || !all.data.last) return;
+    form.reset({ ...form.getValues(), from: all.data.first, to: all.data.last }, { keepDirty: true });
+  }, [all.data, datesTouched, form]);
+  const nothingIssued = all.data?.documents === 0;
+  const range = isDay(from) && isDay(to) && from <= to ? { from, to } : null;
+  const span = useExportSpan({ ...range, supplierId: idOf(supplier), partId: idOf(part) });
+  const chosen = range && span.data && !span.isPlaceholderData ? span.data : null;
   const pick = (range: { from: string; to: string }) => {
-    form.setValue('from', range.from);
-    form.setValue('to', range.to);
+    form.setValue('from', range.from, { shouldDirty: true });
+    form.setValue('to', range.to, { shouldDirty: true });
   };
   const submit = form.handleSubmit((filter: ExportFilter) => start.mutate(filter));
 
@@ -45,6 +79,11 @@ export function ExportForm() {
           <Button look="secondary" onClick={() => pick(month(-1))}>
             Last month
           </Button>
+          {all.data?.first && all.data.last && (
+            <Button look="secondary" onClick={() => pick({ from: all.data.first!, to: all.data.last! })}>
+              Every document
+            </Button>
+          )}
         </div>
       </div>
       <div className="flex flex-wrap items-end gap-3">
@@ -68,10 +107,16 @@ export function ExportForm() {
             ))}
           </select>
         </Field>
-        <Button type="submit" disabled={start.isPending}>
+        <Button type="submit" disabled={start.isPending || nothingIssued || chosen?.documents === 0}>
           {start.isPending ? 'Starting…' : 'Start export'}
         </Button>
       </div>
+      {nothingIssued ? (
+        <Notice tone="info">No certificate or inspection report has been issued yet; there is nothing to export.</Notice>
+      ) : (
+        range && chosen && <DocumentCount range={range} span={chosen} />
+      )}
+      {all.error && <Notice tone="error">The documents on record could not be counted: {all.error.message}</Notice>}
       {start.error && <Notice tone="error">{start.error.message}</Notice>}
     </form>
   );

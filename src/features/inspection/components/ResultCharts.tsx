@@ -1,20 +1,33 @@
 // The lot drawn: retardance errors and axis errors of the measured pieces against their tolerance
-// bands, and every piece as a point in the tolerance box.
-import { CartesianGrid, ReferenceArea, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis } from 'recharts';
+// bands, along the measuring order or by serial, and every piece as a point in the tolerance box.
+// Ticks sit at 0 and the tolerance limits; tooltips name the serial and write values as the table does.
+import { useState } from 'react';
+import { CartesianGrid, ReferenceArea, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis, type TooltipContentProps } from 'recharts';
+import { digitsOf, symmetricExtent, tickText, toleranceTicks } from '@shared/chartTicks';
+import { fixed, signedFixed } from '@shared/format';
 import type { LotInspectionView } from '@shared/schemas/inspection';
 
 const PASS = '#2e7d4f';
 const FAIL = '#b3372f';
 const BAND = '#234a41';
+const MUTED = '#5b645f';
 
-type Point = { index: number; serial: string; retardanceError: number; axisError: number; verdict: string };
+type Point = { index: number; serial: string; wavelengthNm: number; retardanceError: number; axisError: number; verdict: string };
+type Order = 'measured' | 'serial';
 
 function pointsOf(view: LotInspectionView): Point[] {
   const points: Point[] = [];
   view.pieces.forEach((piece) => {
     for (const r of piece.results) {
       if (!r.judged || r.retardanceErrorWaves === null || r.axisErrorDeg === null) continue;
-      points.push({ index: points.length + 1, serial: piece.serial, retardanceError: r.retardanceErrorWaves, axisError: r.axisErrorDeg, verdict: r.verdict });
+      points.push({
+        index: points.length + 1,
+        serial: piece.serial,
+        wavelengthNm: r.wavelengthNm,
+        retardanceError: r.retardanceErrorWaves,
+        axisError: r.axisErrorDeg,
+        verdict: r.verdict,
+      });
     }
   });
   return points;
@@ -22,39 +35,95 @@ function pointsOf(view: LotInspectionView): Point[] {
 
 function Panel({ title, children }: { title: string; children: React.ReactNode }) {
   return (
-    <figure className="rounded border border-paper-line bg-paper-card p-2">
+    <figure className="min-w-0 rounded border border-paper-line bg-paper-card p-2">
       <figcaption className="px-1 pb-1 text-xs font-medium text-ink-muted">{title}</figcaption>
-      <div className="h-56">{children}</div>
+      <div className="h-60">{children}</div>
     </figure>
   );
 }
 
-const axisStyle = { fontSize: 11, fill: '#5b645f' };
-const tooltip = <Tooltip formatter={(value) => Number(value).toFixed(4)} labelFormatter={() => ''} />;
+const axisStyle = { fontSize: 11, fill: MUTED };
 
-type ByPieceProps = { title: string; field: 'retardanceError' | 'axisError'; limit: number; span: number; digits: number; pass: Point[]; fail: Point[] };
+/** The piece under the pointer as the results table writes it: serial, wavelength, both errors, verdict. */
+function PieceTooltip({ active, payload }: TooltipContentProps<number, string>) {
+  if (!active || !payload?.length) return null;
+  const p = payload[0].payload as Point;
+  return (
+    <div className="rounded border border-paper-line bg-paper-card px-2 py-1.5 text-xs shadow-sm" data-testid="chart-tooltip">
+      <p className="font-mono font-semibold">{p.serial}</p>
+      <p className="text-ink-muted">at {fixed(p.wavelengthNm, 1)} nm</p>
+      <p>Retardance error {signedFixed(p.retardanceError, 4)} λ</p>
+      <p>Axis error {signedFixed(p.axisError, 2)}°</p>
+      <p className={p.verdict === 'pass' ? 'text-state-pass' : 'text-state-fail'}>{p.verdict === 'pass' ? 'Pass' : 'Fail'}</p>
+    </div>
+  );
+}
+const tooltip = <Tooltip content={(props) => <PieceTooltip {...(props as TooltipContentProps<number, string>)} />} />;
 
-/** One error per measured piece against its ± tolerance band. */
-function ByPieceChart({ title, field, limit, span, digits, pass, fail }: ByPieceProps) {
+type Scale = { limit: number; extent: number; ticks: number[]; digits: number; unit: string };
+
+function scaleOf(values: number[], limit: number, unit: string): Scale {
+  const extent = symmetricExtent(values, limit);
+  return { limit, extent, ticks: toleranceTicks(limit, extent), digits: digitsOf(limit), unit };
+}
+
+const unitLabel = (value: string, angle = 0) =>
+  angle
+    ? { value, angle, position: 'insideLeft' as const, offset: 10, style: { ...axisStyle, textAnchor: 'middle' as const } }
+    : { value, position: 'insideBottom' as const, offset: -2, style: axisStyle };
+
+type ByPieceProps = { title: string; field: 'retardanceError' | 'axisError'; scale: Scale; order: Order; points: Point[] };
+
+/** One error per measured result against its ± tolerance band, along the measuring order or by serial. */
+function ByPieceChart({ title, field, scale, order, points }: ByPieceProps) {
+  const bySerial = order === 'serial';
+  const data = bySerial ? [...points].sort((a, b) => a.serial.localeCompare(b.serial, 'en', { numeric: true })) : points;
+  const pass = data.filter((p) => p.verdict === 'pass');
+  const fail = data.filter((p) => p.verdict !== 'pass');
   return (
     <Panel title={title}>
       <ResponsiveContainer>
-        <ScatterChart margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
+        <ScatterChart margin={{ top: 8, right: 12, bottom: 8, left: 8 }}>
           <CartesianGrid stroke="#eceae2" />
-          <XAxis dataKey="index" type="number" name="piece" tick={axisStyle} allowDecimals={false} />
+          {bySerial ? (
+            <XAxis
+              dataKey="serial"
+              type="category"
+              allowDuplicatedCategory={false}
+              tick={axisStyle}
+              interval="preserveStartEnd"
+              minTickGap={12}
+              height={36}
+              label={unitLabel('serial')}
+            />
+          ) : (
+            <XAxis
+              dataKey="index"
+              type="number"
+              domain={[1, 'dataMax']}
+              tick={axisStyle}
+              allowDecimals={false}
+              height={36}
+              label={unitLabel('measured, in order')}
+            />
+          )}
           <YAxis
             dataKey={field}
             type="number"
-            name={field}
-            domain={[-span, span]}
+            domain={[-scale.extent, scale.extent]}
+            ticks={scale.ticks}
+            interval={0}
             tick={axisStyle}
-            tickFormatter={(v: number) => v.toFixed(digits)}
-            width={52}
+            tickFormatter={(v: number) => tickText(v, scale.digits)}
+            width={64}
+            allowDataOverflow
+            label={unitLabel(`error (${scale.unit})`, -90)}
           />
-          <ReferenceArea y1={-limit} y2={limit} fill={BAND} fillOpacity={0.08} stroke={BAND} strokeOpacity={0.4} />
+          <ReferenceArea y1={-scale.limit} y2={scale.limit} fill={BAND} fillOpacity={0.08} stroke={BAND} strokeOpacity={0.4} />
+          <ZAxis range={[36, 36]} />
           {tooltip}
-          <Scatter data={pass} fill={PASS} name="pass" />
-          <Scatter data={fail} fill={FAIL} name="fail" shape="diamond" />
+          <Scatter data={pass} fill={PASS} name="pass" isAnimationActive={false} />
+          <Scatter data={fail} fill={FAIL} name="fail" shape="diamond" isAnimationActive={false} />
         </ScatterChart>
       </ResponsiveContainer>
     </Panel>
@@ -62,70 +131,98 @@ function ByPieceChart({ title, field, limit, span, digits, pass, fail }: ByPiece
 }
 
 export function ResultCharts({ view }: { view: LotInspectionView }) {
+  const [order, setOrder] = useState<Order>('measured');
   const points = pointsOf(view);
   if (points.length === 0) return null;
-  const tol = view.spec.retardanceTolWaves;
-  const axisTol = view.spec.axisTolDeg;
+  const retardance = scaleOf(
+    points.map((p) => p.retardanceError),
+    view.spec.retardanceTolWaves,
+    'λ',
+  );
+  const axis = scaleOf(
+    points.map((p) => p.axisError),
+    view.spec.axisTolDeg,
+    '°',
+  );
   const pass = points.filter((p) => p.verdict === 'pass');
   const fail = points.filter((p) => p.verdict !== 'pass');
-  const span = (values: number[], limit: number) => Math.max(limit * 1.6, ...values.map((v) => Math.abs(v) * 1.15));
-  const rSpan = span(
-    points.map((p) => p.retardanceError),
-    tol,
-  );
-  const aSpan = span(
-    points.map((p) => p.axisError),
-    axisTol,
-  );
   return (
-    <div className="grid gap-3 lg:grid-cols-3" data-testid="result-charts">
-      <ByPieceChart
-        title={`Retardance error (λ) by piece, tolerance ±${tol} λ`}
-        field="retardanceError"
-        limit={tol}
-        span={rSpan}
-        digits={3}
-        pass={pass}
-        fail={fail}
-      />
-      <ByPieceChart
-        title={`Fast-axis error (°) by piece, tolerance ±${axisTol}°`}
-        field="axisError"
-        limit={axisTol}
-        span={aSpan}
-        digits={2}
-        pass={pass}
-        fail={fail}
-      />
-      <Panel title="Tolerance box: retardance error (λ) × axis error (°)">
-        <ResponsiveContainer>
-          <ScatterChart margin={{ top: 8, right: 12, bottom: 4, left: 4 }}>
-            <CartesianGrid stroke="#eceae2" />
-            <XAxis
-              dataKey="retardanceError"
-              type="number"
-              name="error λ"
-              domain={[-rSpan, rSpan]}
-              tick={axisStyle}
-              tickFormatter={(v: number) => v.toFixed(3)}
-            />
-            <YAxis
-              dataKey="axisError"
-              type="number"
-              name="axis °"
-              domain={[-aSpan, aSpan]}
-              tick={axisStyle}
-              tickFormatter={(v: number) => v.toFixed(2)}
-              width={44}
-            />
-            <ZAxis range={[36, 36]} />
-            <ReferenceArea x1={-tol} x2={tol} y1={-axisTol} y2={axisTol} fill={BAND} fillOpacity={0.08} stroke={BAND} strokeOpacity={0.5} />
-            {tooltip}
-            <Scatter data={pass} fill={PASS} />
-            <Scatter data={fail} fill={FAIL} shape="diamond" />
-          </ScatterChart>
-        </ResponsiveContainer>
-      </Panel>
-    </div>
+    <section className="space-y-2" aria-label="Result charts">
+      <fieldset className="flex flex-wrap items-center gap-3 text-xs text-ink-muted">
+        <legend className="sr-only">Order of the pieces along the charts</legend>
+        <span>Pieces along the x axis:</span>
+        {(
+          [
+            ['measured', 'in measuring order'],
+            ['serial', 'by serial'],
+          ] as const
+        ).map(([value, label]) => (
+          <label key={value} className="inline-flex items-center gap-1">
+            <input type="radio" name="chart-order" value={value} checked={order === value} onChange={() => setOrder(value)} /> {label}
+          </label>
+        ))}
+      </fieldset>
+      <div className="grid gap-3 lg:grid-cols-3" data-testid="result-charts">
+        <ByPieceChart
+          title={`Retardance error (λ), tolerance ±${tickText(retardance.limit, retardance.digits)} λ`}
+          field="retardanceError"
+          scale={retardance}
+          order={order}
+          points={points}
+        />
+        <ByPieceChart
+          title={`Fast-axis error (°), tolerance ±${tickText(axis.limit, axis.digits)}°`}
+          field="axisError"
+          scale={axis}
+          order={order}
+          points={points}
+        />
+        <Panel title="Tolerance box: retardance error (λ) × axis error (°)">
+          <ResponsiveContainer>
+            <ScatterChart margin={{ top: 8, right: 12, bottom: 8, left: 8 }}>
+              <CartesianGrid stroke="#eceae2" />
+              <XAxis
+                dataKey="retardanceError"
+                type="number"
+                domain={[-retardance.extent, retardance.extent]}
+                ticks={retardance.ticks}
+                interval={0}
+                tick={axisStyle}
+                tickFormatter={(v: number) => tickText(v, retardance.digits)}
+                height={36}
+                allowDataOverflow
+                label={unitLabel('retardance error (λ)')}
+              />
+              <YAxis
+                dataKey="axisError"
+                type="number"
+                domain={[-axis.extent, axis.extent]}
+                ticks={axis.ticks}
+                interval={0}
+                tick={axisStyle}
+                tickFormatter={(v: number) => tickText(v, axis.digits)}
+                width={64}
+                allowDataOverflow
+                label={unitLabel('axis error (°)', -90)}
+              />
+              <ZAxis range={[36, 36]} />
+              <ReferenceArea
+                x1={-retardance.limit}
+                x2={retardance.limit}
+                y1={-axis.limit}
+                y2={axis.limit}
+                fill={BAND}
+                fillOpacity={0.08}
+                stroke={BAND}
+                strokeOpacity={0.5}
+              />
+              {tooltip}
+              <Scatter data={pass} fill={PASS} isAnimationActive={false} />
+              <Scatter data={fail} fill={FAIL} shape="diamond" isAnimationActive={false} />
+            </ScatterChart>
+          </ResponsiveContainer>
+        </Panel>
+      </div>
+    </section>
   );
 }
