@@ -83,7 +83,8 @@ async function checkFiles(files: UploadedFile[]) {
   return checked;
 }
 
-async function auditRefusal(token: string, error: AppError, sender: Sender) {
+/** Audits a refused answer (with the sender's address) when it came through a link the server issued. */
+export async function auditRefusal(token: string, error: AppError, sender: Sender) {
   // Only a link the server issued names a request; forged tokens leave no trace but the rate limit's.
   const link = await claimedLink(token);
   if (!link) return;

@@ -219,6 +219,28 @@ describe('/api/corrective-actions', () => {
     expect((await answer(token, [[TINY_PDF, 'report.pdf']])).status).toBe(201);
   });
 
+  it('refuses a file over 10 MB before storing anything, audits the refusal with its address, and keeps the link', async () => {
+    const { car, token } = await requestWithLink();
+    // A PDF (its header sniffed as one) one byte over the 10 MB limit, beside an acceptable file.
+    const oversized = Buffer.concat([TINY_PDF, Buffer.alloc(10 * 1024 * 1024 + 1 - TINY_PDF.length, 0x20)]);
+    const refused = await answer(token, [
+      [TINY_PDF, 'summary.pdf'],
+      [oversized, 'scan.pdf'],
+    ]);
+    expect(refused.status).toBe(413);
+    expect(refused.body.error).toMatchObject({ code: 'file_too_large', message: 'A file is larger than 10 MB; attach files of up to 10 MB each' });
+    const [refusal] = await sequelize.query<{ address: string; after: { code: string; userAgent: string } }>(
+      `SELECT address, after FROM audit_events WHERE action = 'corrective-action.response-refused' AND entity_id = :id ORDER BY id DESC LIMIT 1`,
+      { type: QueryTypes.SELECT, replacements: { id: String(car.id) } },
+    );
+    expect(refusal).toMatchObject({ address: expect.stringMatching(/127\.0\.0\.1|::1/), after: { code: 'file_too_large', userAgent: 'supplier-browser/1.0' } });
+    expect((await view(car.id)).responseHistory).toEqual([]);
+    // Exactly 10 MB is within the limit.
+    const largest = oversized.subarray(0, 10 * 1024 * 1024);
+    expect((await answer(token, [[largest, 'scan.pdf']])).status).toBe(201);
+    expect((await view(car.id)).responseHistory[0].attachments).toEqual([expect.objectContaining({ name: 'scan.pdf', size: 10 * 1024 * 1024 })]);
+  });
+
   it('returns an answer with a note and a new link, accepts the next one (signed) and closes on later lots that were checked', async () => {
     const { pair, car, token } = await requestWithLink();
     await answer(token).expect(201);

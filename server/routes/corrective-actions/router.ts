@@ -20,7 +20,7 @@ import { validated } from '../../http/validate';
 import { openBlob } from '../../storage/blobs';
 import { closeCorrectiveAction, raiseCorrectiveAction, reviewResponse, revokeLink, sendNewLink } from '../../supplierquality/correctiveActions';
 import { correctiveActionList, correctiveActionView, responseAttachment } from '../../supplierquality/correctiveQueries';
-import { submitSupplierResponse, supplierRequestView } from '../../supplierquality/supplierResponse';
+import { auditRefusal, submitSupplierResponse, supplierRequestView } from '../../supplierquality/supplierResponse';
 
 export const correctiveActionsRouter = Router();
 
@@ -33,16 +33,27 @@ const linkToken = (req: Parameters<RequestHandler>[0]) => {
   return token.slice(0, 2000);
 };
 
+const senderOf = (req: Parameters<RequestHandler>[0]) => ({ requestId: String(req.id ?? ''), address: req.ip, userAgent: req.get('user-agent') });
+
+/** The upload's own refusals (a file over 10 MB, too many files) are audited like the operation's,
+ * when they came through a genuine link: the operation never sees those requests. */
+function uploadRefusal(error: unknown) {
+  if (!(error instanceof multer.MulterError)) return null;
+  if (error.code === 'LIMIT_FILE_SIZE')
+    return new AppError(413, 'file_too_large', 'A file is larger than 10 MB; attach files of up to 10 MB each', { field: error.field });
+  if (error.code === 'LIMIT_FILE_COUNT') return new AppError(400, 'too_many_files', `At most ${MAX_RESPONSE_FILES} files can be attached`);
+  return null;
+}
+
 const upload: RequestHandler = (req, res, next) =>
   multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_RESPONSE_FILE_BYTES, files: MAX_RESPONSE_FILES, fields: 20 } }).array(
     'files',
     MAX_RESPONSE_FILES,
   )(req, res, (error: unknown) => {
-    if (error instanceof multer.MulterError && error.code === 'LIMIT_FILE_SIZE')
-      next(new AppError(413, 'upload', 'A file is larger than 10 MB', { field: error.field }));
-    else if (error instanceof multer.MulterError && error.code === 'LIMIT_FILE_COUNT')
-      next(new AppError(400, 'too_many_files', `At most ${MAX_RESPONSE_FILES} files can be attached`));
-    else next(error);
+    const refusal = uploadRefusal(error);
+    const token = req.get(LINK_HEADER);
+    if (!refusal || !token) return next(refusal ?? error);
+    auditRefusal(token.slice(0, 2000), refusal, senderOf(req)).then(() => next(refusal), next);
   });
 
 correctiveActionsRouter.get('/respond', addressRateLimit('car-response-read', 60, 15), async (req, res) => {
@@ -55,11 +66,7 @@ correctiveActionsRouter.post(
   upload,
   validated({ body: supplierResponseSchema }, async ({ body }, req, res) => {
     const files = (req.files as Express.Multer.File[] | undefined) ?? [];
-    const response = await submitSupplierResponse(linkToken(req), body, files, {
-      requestId: String(req.id ?? ''),
-      address: req.ip,
-      userAgent: req.get('user-agent'),
-    });
+    const response = await submitSupplierResponse(linkToken(req), body, files, senderOf(req));
     res.status(201).json({ submittedAt: response.submittedAt.toISOString() });
   }),
 );

@@ -4,7 +4,13 @@ import { useMemo, useRef, useState } from 'react';
 import { useLocation } from 'react-router-dom';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { MAX_RESPONSE_FILES, supplierResponseSchema, type SupplierRequestView, type SupplierResponseInput } from '@shared/schemas/correctiveActions';
+import {
+  MAX_RESPONSE_FILE_BYTES,
+  MAX_RESPONSE_FILES,
+  supplierResponseSchema,
+  type SupplierRequestView,
+  type SupplierResponseInput,
+} from '@shared/schemas/correctiveActions';
 import { BrandMark } from '@/components/BrandMark';
 import { Button } from '@/components/Button';
 import { Details } from '@/components/Details';
@@ -103,6 +109,9 @@ function AnswerForm({ token, onSent }: { token: string; onSent(at: string): void
   const send = form.handleSubmit((values) => {
     const chosen = [...(files.current?.files ?? [])];
     if (chosen.length > MAX_RESPONSE_FILES) return setFileError(`At most ${MAX_RESPONSE_FILES} files`);
+    // Said before a large file is sent at all; the server refuses it the same way.
+    const tooLarge = chosen.filter((file) => file.size > MAX_RESPONSE_FILE_BYTES);
+    if (tooLarge.length) return setFileError(`${tooLarge.map((file) => file.name).join(', ')}: larger than 10 MB`);
     setFileError(null);
     const body = new FormData();
     for (const [name, value] of Object.entries(values)) if (value) body.append(name, String(value));
