@@ -44,9 +44,10 @@ export function ScanBox({ user }: { user: { roles: readonly Role[] } }) {
     setPending(true);
     try {
       const view = await api<LookupView>('/lookup', { query: { code } });
+      // The box empties after every look-up, so the next scan starts afresh; the answer names the code.
+      setText('');
       if (view.matches.length === 1) {
         setAnswer(null);
-        setText('');
         navigate(view.matches[0].path);
       } else setAnswer(view);
     } catch (error) {
@@ -70,7 +71,6 @@ export function ScanBox({ user }: { user: { roles: readonly Role[] } }) {
       if (event.key === 'Enter') {
         if (burst.length >= MIN_SCAN_LENGTH) {
           event.preventDefault();
-          setText(burst);
           void lookRef.current(burst);
         }
         burst = '';
@@ -149,13 +149,7 @@ export function ScanBox({ user }: { user: { roles: readonly Role[] } }) {
                   const { title, detail } = matchText(match);
                   return (
                     <li key={match.path + detail}>
-                      <Link
-                        to={match.path}
-                        onClick={() => {
-                          setAnswer(null);
-                          setText('');
-                        }}
-                      >
+                      <Link to={match.path} onClick={() => setAnswer(null)}>
                         {title}
                       </Link>{' '}
                       <span className="text-xs text-ink-muted">{detail}</span>

@@ -155,7 +155,7 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
                   rows={5}
                   spellCheck={false}
                   placeholder={'QW-0001..QW-0050\nor one per line, or separated by commas'}
-                  className={`${inputClass} font-mono`}
+                  className={`${inputClass} w-full font-mono`}
                   {...form.register('serials')}
                 />
               </div>

@@ -41,7 +41,7 @@ export function SerialScanField({ serials, onChange }: Props) {
         onKeyDown={take}
         autoComplete="off"
         spellCheck={false}
-        placeholder="Scan a serial, or type it and press Enter"
+        placeholder="Scan, or type and press Enter"
         className={`${inputClass} w-72 max-w-full font-mono`}
       />
       <span className="text-xs text-ink-muted" aria-live="polite">
