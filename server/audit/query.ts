@@ -1,7 +1,7 @@
 // Reading the trail: filtered, paged, or streamed whole for an export.
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../db';
-import type { AuditEventView, AuditQuery } from '../../shared/schemas/audit';
+import type { AuditChoicesView, AuditEventView, AuditQuery } from '../../shared/schemas/audit';
 import { containing, filterWhen, sortOf, uncountedPage, type Filters, type ListPage } from '../http/list';
 
 type Filter = Omit<AuditQuery, 'page' | 'pageSize' | 'sort' | 'count'> & { entityIds?: string[]; uptoSeq?: string };
@@ -85,6 +85,24 @@ export async function* streamAuditEvents(filter: Filter, batchSize = 1000): Asyn
     if (rows.length < batchSize) return;
     afterSeq = rows[rows.length - 1].seq;
   }
+}
+
+/**
+ * The record types on the trail, read by skipping through the index of (type, id) from one type to
+ * the next (a few index probes however long the trail); and every user by name.
+ */
+export async function auditChoices(): Promise<AuditChoicesView> {
+  const types = await sequelize.query<{ type: string }>(
+    `WITH RECURSIVE types(type) AS (
+       SELECT min(entity_type) FROM audit_events
+       UNION ALL
+       SELECT (SELECT min(entity_type) FROM audit_events WHERE entity_type > types.type) FROM types WHERE types.type IS NOT NULL
+     )
+     SELECT type FROM types WHERE type IS NOT NULL`,
+    { type: QueryTypes.SELECT },
+  );
+  const actors = await sequelize.query<{ email: string; name: string }>('SELECT email, name FROM users ORDER BY name, email', { type: QueryTypes.SELECT });
+  return { recordTypes: types.map((t) => t.type), actors };
 }
 
 export const AUDIT_CSV_COLUMNS = [

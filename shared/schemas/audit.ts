@@ -29,6 +29,12 @@ export type AuditEventView = {
   hash: string;
 };
 
+/** What the trail's filters offer: the record types on the trail and the people who may act, by name. */
+export type AuditChoicesView = {
+  recordTypes: string[];
+  actors: { email: string; name: string }[];
+};
+
 /** The last link of the audit chain, for an outside copy to anchor. */
 export type AuditChainHead = { seq: string; hash: string | null; occurredAt: string | null };
 

@@ -19,6 +19,21 @@ async function lastEvent(action: string) {
 }
 
 describe('audit trail', () => {
+  it('offers its filters as lists: the record types on the trail and every user by name', async () => {
+    const { email } = await freshUser(['buyer']);
+    const choices = await (await as('auditor')).get('/api/audit/choices').expect(200);
+    // The demo users sign in for every test, so sign-ins are on the trail.
+    expect(choices.body.recordTypes).toContain('session');
+    expect([...choices.body.recordTypes].sort()).toEqual(choices.body.recordTypes);
+    expect(new Set(choices.body.recordTypes).size).toBe(choices.body.recordTypes.length);
+    const [{ types }] = await sequelize.query<{ types: string[] }>('SELECT array_agg(DISTINCT entity_type ORDER BY entity_type) AS types FROM audit_events', {
+      type: QueryTypes.SELECT,
+    });
+    expect(choices.body.recordTypes).toEqual(types);
+    expect(choices.body.actors).toContainEqual({ email, name: expect.any(String) });
+    await (await as('buyer')).get('/api/audit/choices').expect(403);
+  });
+
   it('records sign-ins, refused sign-ins and user changes with actor, request id and address', async () => {
     const { email, password } = await freshUser(['buyer']);
     await request(app).post('/api/auth/login').set('x-request-id', 'req-audit-1').send({ email, password }).expect(200);

@@ -2,7 +2,7 @@ import { Router } from 'express';
 import { auditAnchorSchema, auditQuerySchema } from '../../../shared/schemas/audit';
 import { allow, authenticate } from '../../auth/authenticate';
 import { actorOf, recordAudit } from '../../audit/record';
-import { AUDIT_CSV_COLUMNS, listAuditEvents, streamAuditEvents } from '../../audit/query';
+import { AUDIT_CSV_COLUMNS, auditChoices, listAuditEvents, streamAuditEvents } from '../../audit/query';
 import { chainHead, checkAnchor, verifyAuditChain } from '../../audit/verify';
 import { sendCsv } from '../../http/csv';
 import { validated } from '../../http/validate';
@@ -17,6 +17,10 @@ auditRouter.get(
     res.json(await listAuditEvents(query));
   }),
 );
+
+auditRouter.get('/choices', authenticate, allow('audit.read'), async (_req, res) => {
+  res.json(await auditChoices());
+});
 
 auditRouter.get('/verify', authenticate, allow('audit.read'), async (_req, res) => {
   res.json(await verifyAuditChain());

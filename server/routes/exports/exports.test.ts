@@ -148,6 +148,22 @@ describe('export bundle', () => {
     expect(empty.body.error.message).toMatch(/nothing to export/);
   });
 
+  it('tells the form how many documents a choice finds and on which days, so its default range has documents', async () => {
+    // The supplier of the lot accepted then rejected: the documents of both decisions, issued today.
+    const span = await auditor.get('/api/exports/span').query({ supplierId: revokedLot.supplierId }).expect(200);
+    expect(span.body).toEqual({ documents: issuedNumbers.length, first: TODAY, last: TODAY });
+    const inRange = await auditor.get('/api/exports/span').query({ supplierId: revokedLot.supplierId, from: TODAY, to: TODAY }).expect(200);
+    expect(inRange.body.documents).toBe(issuedNumbers.length);
+    // A range before anything was issued finds nothing: an answer, not an error.
+    const empty = await auditor.get('/api/exports/span').query({ supplierId: revokedLot.supplierId, from: '2020-01-01', to: '2020-01-31' }).expect(200);
+    expect(empty.body).toEqual({ documents: 0, first: null, last: null });
+    // Every document on record: the range the form offers first.
+    const all = await auditor.get('/api/exports/span').expect(200);
+    expect(all.body.documents).toBeGreaterThanOrEqual(issuedNumbers.length);
+    expect(all.body.first <= TODAY && all.body.last >= TODAY).toBe(true);
+    await auditor.get('/api/exports/span').query({ from: '2026-02-30' }).expect(400);
+  });
+
   it('is for auditors and quality managers only', async () => {
     const clerk = await as('clerk');
     await clerk.post('/api/exports').send({ from: TODAY, to: TODAY }).expect(403);

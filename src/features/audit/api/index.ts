@@ -1,5 +1,5 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { AuditAnchor, AuditAnchorCheck, AuditChainHead, AuditChainReport, AuditEventView } from '@shared/schemas/audit';
+import type { AuditAnchor, AuditAnchorCheck, AuditChainHead, AuditChainReport, AuditChoicesView, AuditEventView } from '@shared/schemas/audit';
 import type { VerificationResult } from '@shared/schemas/certificates';
 import type { ExportFilter, ExportJobView, ExportSpanQuery, ExportSpanView } from '@shared/schemas/exports';
 import type { ListResponse } from '@shared/schemas/paging';
@@ -31,6 +31,7 @@ export const auditKeys = {
   documents: (query: Query) => [...auditKeys.all, 'documents', query] as const,
   events: (query: Query) => [...auditKeys.all, 'events', query] as const,
   head: () => [...auditKeys.all, 'chain-head'] as const,
+  choices: () => [...auditKeys.all, 'choices'] as const,
   exports: () => [...auditKeys.all, 'exports'] as const,
   exportJob: (id: number) => [...auditKeys.all, 'exports', id] as const,
   exportSpan: (query: ExportSpanQuery) => [...auditKeys.all, 'export-span', query] as const,
@@ -48,6 +49,9 @@ export const useDocuments = (query: Query) =>
 
 export const useAuditEvents = (query: Query) =>
   useQuery({ queryKey: auditKeys.events(query), queryFn: listPage<AuditEventView>('/audit', query), placeholderData: keepPreviousData });
+
+/** The record types on the trail and the users by name, for the trail's filter lists. */
+export const useAuditChoices = () => useQuery({ queryKey: auditKeys.choices(), queryFn: () => api<AuditChoicesView>('/audit/choices') });
 
 export function useVerifyChain() {
   const queryClient = useQueryClient();
