@@ -1,6 +1,7 @@
 import jstat from 'jstat';
 import { describe, expect, it } from 'vitest';
-import { characteristicView, currentDrift, MIN_LOTS_FOR_DRIFT, type MeasuredPiece } from './series';
+import { MIN_LOTS_FOR_DRIFT } from '../../shared/schemas/supplierPerformance';
+import { characteristicView, currentDrift, type MeasuredPiece } from './series';
 import { addCounts, figuresOf, type FigureCounts } from './figures';
 
 const { jStat } = jstat;

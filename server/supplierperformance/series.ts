@@ -5,14 +5,12 @@
 // enough lots, with σ of a lot mean taken from the moving ranges of the lot means, which a slow
 // drift barely widens.
 import { capability, ewmaChart, individualsChart, summarize } from '../../shared/statistics';
-import type { CharacteristicView, DriftCharacteristic, LotMeanPoint } from '../../shared/schemas/supplierPerformance';
+import { MIN_LOTS_FOR_DRIFT, type CharacteristicView, type DriftCharacteristic, type LotMeanPoint } from '../../shared/schemas/supplierPerformance';
 import { lotName } from '../../shared/schemas/stock';
 
 /** EWMA weight and limit width (a weight of 0.2 with three-sigma limits: common practice). */
 export const EWMA_LAMBDA = 0.2;
 export const EWMA_WIDTH = 3;
-/** Fewer lot means than this say nothing about a drift. */
-export const MIN_LOTS_FOR_DRIFT = 5;
 const CONFIDENCE = 0.95;
 
 /** One piece measured at the design wavelength, with the tolerances its PO line ordered. */

@@ -113,6 +113,8 @@ export type SupplierRankingRow = {
 };
 
 export const DRIFT_CHARACTERISTICS = ['retardance', 'axis'] as const;
+/** Fewer lot means than this say nothing about a drift. */
+export const MIN_LOTS_FOR_DRIFT = 5;
 export type DriftCharacteristic = (typeof DRIFT_CHARACTERISTICS)[number];
 
 export const CHARACTERISTIC_LABELS: Record<DriftCharacteristic, { name: string; unit: string }> = {

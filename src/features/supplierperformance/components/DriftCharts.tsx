@@ -15,7 +15,13 @@ import {
   YAxis,
   type TooltipContentProps,
 } from 'recharts';
-import { CHARACTERISTIC_LABELS, type CharacteristicView, type DriftAlarmView, type LotMeanPoint } from '@shared/schemas/supplierPerformance';
+import {
+  CHARACTERISTIC_LABELS,
+  MIN_LOTS_FOR_DRIFT,
+  type CharacteristicView,
+  type DriftAlarmView,
+  type LotMeanPoint,
+} from '@shared/schemas/supplierPerformance';
 import { signedError } from './format';
 
 const INK = '#1e2421';
@@ -196,36 +202,46 @@ export function DriftCharts({ view, alarms }: { view: CharacteristicView; alarms
               <Line dataKey="mean" stroke={INK} strokeWidth={1.5} dot={<FailingDot />} isAnimationActive={false} />
             </ComposedChart>
           </ChartFrame>
-          <ChartFrame
-            title="Drift: EWMA of the lot means"
-            note={
-              view.ewma
-                ? `Weight ${view.ewma.lambda}, limits at ${view.ewma.width} standard deviations around 0 (the ordered value). Amber: alarms raised.`
-                : 'Drift is judged from five lots on.'
-            }
-          >
-            <ComposedChart data={points} margin={{ top: 8, right: 10, bottom: 4, left: 0 }}>
-              <CartesianGrid stroke={GRID} />
-              {lotAxis}
-              <YAxis
-                type="number"
-                domain={[-ewmaSpan || -tol, ewmaSpan || tol]}
-                ticks={last?.ewmaUpper != null ? [last.ewmaLower!, 0, last.ewmaUpper] : [0]}
-                tickFormatter={(v: number) => signedError(c, v, { finer: 1 })}
-                tick={axisStyle}
-                width={78}
-              />
-              <ReferenceLine y={0} stroke={INK} />
-              {tooltip}
-              <Line dataKey="ewmaUpper" stroke={LIMIT} strokeDasharray="4 3" dot={false} type="stepAfter" isAnimationActive={false} />
-              <Line dataKey="ewmaLower" stroke={LIMIT} strokeDasharray="4 3" dot={false} type="stepAfter" isAnimationActive={false} />
-              <Line dataKey="ewma" stroke={INK} strokeWidth={1.5} dot={{ r: 2.5, fill: INK }} isAnimationActive={false} />
-              {alarmed.map((a) => {
-                const at = points.find((p) => p.lot.id === a.lot.id);
-                return at && at.ewma !== null ? <ReferenceDot key={a.id} x={at.label} y={at.ewma} r={7} fill="none" stroke={ALARM} strokeWidth={2.5} /> : null;
-              })}
-            </ComposedChart>
-          </ChartFrame>
+          {!view.ewma ? (
+            // Without a chart to draw, an empty frame would read as a broken one: say why instead.
+            <figure className="min-w-0 rounded border border-paper-line bg-paper-card p-2">
+              <figcaption className="px-1 text-xs font-medium text-ink">Drift: EWMA of the lot means</figcaption>
+              <p className="px-1 py-3 text-sm text-ink-muted">
+                {points.length < MIN_LOTS_FOR_DRIFT
+                  ? `Drift is judged from ${MIN_LOTS_FOR_DRIFT} lots on; ${points.length} ${points.length === 1 ? 'lot was' : 'lots were'} measured in the period.`
+                  : 'The lot means do not vary at all, so there is no spread to judge a drift against.'}
+              </p>
+            </figure>
+          ) : (
+            <ChartFrame
+              title="Drift: EWMA of the lot means"
+              note={`Weight ${view.ewma.lambda}, limits at ${view.ewma.width} standard deviations around 0 (the ordered value). Amber: alarms raised.`}
+            >
+              <ComposedChart data={points} margin={{ top: 8, right: 10, bottom: 4, left: 0 }}>
+                <CartesianGrid stroke={GRID} />
+                {lotAxis}
+                <YAxis
+                  type="number"
+                  domain={[-ewmaSpan || -tol, ewmaSpan || tol]}
+                  ticks={last?.ewmaUpper != null ? [last.ewmaLower!, 0, last.ewmaUpper] : [0]}
+                  tickFormatter={(v: number) => signedError(c, v, { finer: 1 })}
+                  tick={axisStyle}
+                  width={78}
+                />
+                <ReferenceLine y={0} stroke={INK} />
+                {tooltip}
+                <Line dataKey="ewmaUpper" stroke={LIMIT} strokeDasharray="4 3" dot={false} type="stepAfter" isAnimationActive={false} />
+                <Line dataKey="ewmaLower" stroke={LIMIT} strokeDasharray="4 3" dot={false} type="stepAfter" isAnimationActive={false} />
+                <Line dataKey="ewma" stroke={INK} strokeWidth={1.5} dot={{ r: 2.5, fill: INK }} isAnimationActive={false} />
+                {alarmed.map((a) => {
+                  const at = points.find((p) => p.lot.id === a.lot.id);
+                  return at && at.ewma !== null ? (
+                    <ReferenceDot key={a.id} x={at.label} y={at.ewma} r={7} fill="none" stroke={ALARM} strokeWidth={2.5} />
+                  ) : null;
+                })}
+              </ComposedChart>
+            </ChartFrame>
+          )}
         </div>
       )}
     </section>
