@@ -21,6 +21,8 @@ const AREAS = [
   'nonconformance',
   'supplierquality',
   'supplierperformance',
+  'notifications',
+  'dashboard',
 ];
 const INFRASTRUCTURE = ['http', 'auth', 'audit', 'storage', 'mail', 'jobs'];
 

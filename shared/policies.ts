@@ -48,6 +48,15 @@ export const POLICIES = {
   'corrective.manage': ['buyer', 'quality'],
   // Accepting or returning the supplier's answer, verifying effectiveness and closing.
   'corrective.review': ['quality'],
+  // The first screen: the dashboard answers one section per role, each only to users who may also read
+  // what it shows (server/dashboard/sections.ts names those reads); the bell, one's own notifications.
+  'dashboard.read': EVERYONE,
+  'dashboard.receiving': ['clerk'],
+  'dashboard.inspection': ['inspector'],
+  'dashboard.quality': ['quality'],
+  'dashboard.purchasing': ['buyer'],
+  'dashboard.audit': ['auditor'],
+  'notifications.read': EVERYONE,
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof POLICIES;
@@ -56,4 +65,9 @@ export function can(user: { roles: readonly Role[] } | null | undefined, permiss
   if (!user) return false;
   const allowed: readonly Role[] = POLICIES[permission];
   return user.roles.some((role) => allowed.includes(role));
+}
+
+/** Every permission the user's roles grant. */
+export function permissionsOf(user: { roles: readonly Role[] }): Permission[] {
+  return (Object.keys(POLICIES) as Permission[]).filter((permission) => can(user, permission));
 }

@@ -72,3 +72,20 @@ export async function checkAnchor(anchor: AuditAnchor): Promise<AuditAnchorCheck
     message: `The event at position ${seq} carries the anchored hash: if the chain verifies, nothing up to there has changed since.`,
   };
 }
+
+/** Re-checks only the newest `rows` links of the chain (content, link and numbering) and that the head
+ * names the last row: cheap enough for a dashboard; the full check is verifyAuditChain. */
+export async function checkChainTail(rows: number): Promise<{ head: AuditChainHead; checked: number; intact: boolean }> {
+  return sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ, readOnly: true }, async (transaction) => {
+    const head = await chainHead(transaction);
+    const [tail] = await sequelize.query<{ checked: string; intact: boolean; last_seq: string | null }>(
+      `SELECT count(*) AS checked, max(seq) AS last_seq,
+              coalesce(bool_and(content_ok AND (prev_seq IS NULL OR (link_ok AND seq = prev_seq + 1))), true) AS intact
+         FROM (SELECT seq, audit_event_digest(prev_hash, a) = hash AS content_ok,
+                      prev_hash IS NOT DISTINCT FROM lag(hash) OVER chain AS link_ok, lag(seq) OVER chain AS prev_seq
+                 FROM audit_events a WHERE seq > :from WINDOW chain AS (ORDER BY seq)) t`,
+      { type: QueryTypes.SELECT, transaction, replacements: { from: Number(head.seq) - rows } },
+    );
+    return { head, checked: Number(tail.checked), intact: tail.intact && String(tail.last_seq ?? 0) === head.seq };
+  });
+}

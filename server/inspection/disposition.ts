@@ -12,6 +12,7 @@ import { actorFromUser, recordAudit, type AuditActor } from '../audit/record';
 import { verifySignature } from '../auth/signature';
 import { AppError, conflict } from '../http/errors';
 import { queueMail } from '../mail/outbox';
+import { buyersOfLot, notify } from '../notifications/notify';
 import { openLotNcr } from '../nonconformance/lotNcr';
 import { recordDeviationUse, releaseDeviationUse, takeDeviation } from '../supplierquality/deviationUse';
 import { issueLotDocuments } from './documents';
@@ -118,6 +119,18 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
           ].join('\n'),
           attachments: [{ filename: `${report.number}.pdf`, contentType: 'application/pdf', content: report.pdf }],
           related: { type: 'lot', id: lot.id },
+        },
+        transaction,
+      );
+      await notify(
+        {
+          kind: 'lot-rejected',
+          permission: 'lots.read',
+          title: `Lot ${lotName(lot.id)} rejected${sorting ? ' (100 % sort)' : ''}: ${lot.part.number} from ${lot.supplier.name}, PO ${lot.poNumber}`,
+          link: `/lots/${lot.id}`,
+          entity: { type: 'lot', id: lot.id },
+          ...(await buyersOfLot(lot.id, transaction)),
+          actorId: signer.id,
         },
         transaction,
       );

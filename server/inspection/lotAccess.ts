@@ -9,6 +9,7 @@ import { LOCATION_KIND_LABELS, lotName, type LocationKind, type LotState, type M
 import type { AuditActor } from '../audit/record';
 import { defaultLocation, movePieces } from '../stock/ledger';
 import { AppError, notFound } from '../http/errors';
+import { notify } from '../notifications/notify';
 
 export type LotForInspection = {
   id: number;
@@ -115,6 +116,19 @@ export async function markLotInspected(lot: LotForInspection, sampleDecides: boo
     transaction,
     replacements: { id: lot.id, state: sampleDecides ? 'awaiting-disposition' : 'inspection' },
   });
+  if (sampleDecides && lot.state !== 'awaiting-disposition') {
+    await notify(
+      {
+        kind: 'awaiting-signature',
+        permission: 'disposition.sign',
+        title: `Lot ${lotName(lot.id)} awaits a signed decision: ${lot.part.number} from ${lot.supplier.name}`,
+        link: `/inspection/lots/${lot.id}`,
+        entity: { type: 'lot', id: lot.id },
+        roles: ['quality'],
+      },
+      transaction,
+    );
+  }
 }
 
 /** What moves a lot's pieces: a signed decision, or the end of the 100 % sort a 'sort' decision ordered. */

@@ -12,6 +12,8 @@ import type { NcrOrigin } from '../../shared/schemas/nonconformance';
 import { lotName } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
 import { AppError } from '../http/errors';
+import { buyersOfLot } from '../notifications/notify';
+import { notifyNcrOpened } from './ncrNotice';
 import { nextYearlyNumber } from '../supplierquality/numbers';
 
 /** A signed lot decision, and the pieces its routing set aside (in material review or return-to-vendor). */
@@ -130,6 +132,13 @@ export async function openLotNcr(decision: LotDecisionForNcr, actor: AuditActor,
   await NonconformanceDefect.bulkCreate(
     catalogue.map((c) => ({ nonconformanceId: ncr.id, defectCodeId: c.id })),
     { transaction },
+  );
+  await notifyNcrOpened(
+    ncr,
+    `${lot.part.number} from ${lot.supplier.name}, lot ${lotName(lot.id)}`,
+    await buyersOfLot(lot.id, transaction),
+    actor,
+    transaction,
   );
   await recordAudit(
     actor,

@@ -27,9 +27,11 @@ import { parseSerialText } from '../../shared/serials';
 import { actorFromUser, recordAudit, type AuditActor } from '../audit/record';
 import { verifySignature } from '../auth/signature';
 import { AppError, badRequest, conflict, notFound } from '../http/errors';
+import { buyersOfLot, buyersOfSupplier } from '../notifications/notify';
 import { defaultLocation, movePieces } from '../stock/ledger';
 import { nextYearlyNumber } from '../supplierquality/numbers';
 import { recordDeviationUse, takeDeviation } from '../supplierquality/deviationUse';
+import { notifyNcrOpened } from './ncrNotice';
 
 type Request = Pick<AuditActor, 'requestId' | 'address'>;
 
@@ -168,6 +170,12 @@ export function openNcrByHand(actor: AuditActor, rawInput: NcrOpenInput) {
     const onSite = pieces.filter((p) => p.state !== 'issued' && p.locationKind !== 'material-review').map((p) => p.id);
     if (issued.length) await movePieces({ pieceIds: issued, toLocationId: review.id, reason: 'return', note }, actor, transaction);
     if (onSite.length) await movePieces({ pieceIds: onSite, toLocationId: review.id, reason: 'hold', note }, actor, transaction);
+    const buyers = ncr.lotId ? await buyersOfLot(ncr.lotId, transaction) : await buyersOfSupplier(ncr.supplierId, transaction);
+    const found = `${pieces.length} ${pieces.length === 1 ? 'piece' : 'pieces'} found nonconforming: ${listSerials(
+      pieces.map((p) => p.serial),
+      3,
+    )}`;
+    await notifyNcrOpened(ncr, found, buyers, actor, transaction);
     await recordAudit(
       actor,
       {

@@ -25,6 +25,8 @@ import { nonconformancesRouter } from './nonconformances/router';
 import { returnsRouter } from './returns/router';
 import { deviationsRouter } from './deviations/router';
 import { correctiveActionsRouter } from './corrective-actions/router';
+import { dashboardRouter } from './dashboard/router';
+import { notificationsRouter } from './notifications/router';
 import { labelsRouter } from './labels/router';
 import { lookupRouter } from './lookup/router';
 
@@ -57,5 +59,7 @@ apiRouter.use('/corrective-actions', correctiveActionsRouter);
 apiRouter.use('/certificates', certificatesRouter);
 apiRouter.use('/documents', documentsRouter);
 apiRouter.use('/exports', exportsRouter);
+apiRouter.use('/dashboard', dashboardRouter);
+apiRouter.use('/notifications', notificationsRouter);
 apiRouter.use('/labels', labelsRouter);
 apiRouter.use('/lookup', lookupRouter);

@@ -20,6 +20,7 @@ import { recordAudit, type AuditActor } from '../audit/record';
 import { config } from '../config';
 import { AppError, conflict } from '../http/errors';
 import { queueMail } from '../mail/outbox';
+import { buyersOfSupplier, notify } from '../notifications/notify';
 import { storeBlob } from '../storage/blobs';
 import { buyerAndQuality, lockedRequest } from './correctiveActions';
 import { claimedLink, linkOfToken } from './responseLinks';
@@ -144,6 +145,19 @@ export async function submitSupplierResponse(token: string, rawInput: SupplierRe
             `Review it (accept, or return it to the supplier) at ${config.PUBLIC_URL}/corrective-actions/${request.id}`,
           ].join('\n'),
           related: { type: 'corrective-action', id: request.id },
+        },
+        transaction,
+      );
+      const buyers = await buyersOfSupplier(request.supplierId, transaction);
+      await notify(
+        {
+          kind: 'corrective-answered',
+          permission: 'corrective.read',
+          title: `Supplier answered ${request.number}: review the answer`,
+          link: `/corrective-actions/${request.id}`,
+          entity: { type: 'corrective-action', id: request.id },
+          users: [request.requestedBy, ...(buyers.users ?? [])],
+          roles: ['quality'],
         },
         transaction,
       );

@@ -4,6 +4,7 @@ import { can } from '@shared/policies';
 import { ROLE_LABELS } from '@shared/schemas/roles';
 import { useSession, useSignOut } from '@/lib/session';
 import { BrandMark } from '@/components/BrandMark';
+import { NotificationBell } from '@/components/NotificationBell';
 import { NAVIGATION } from './navigation';
 import { ScanBox } from './ScanBox';
 
@@ -73,8 +74,9 @@ export function AppLayout() {
         </div>
       </aside>
       <main className="min-w-0 flex-1 px-6 py-5">
-        <header className="mb-3 flex justify-end">
+        <header className="mb-3 flex items-center justify-end gap-2">
           <ScanBox user={user} />
+          <NotificationBell />
         </header>
         <Outlet />
       </main>

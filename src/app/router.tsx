@@ -53,8 +53,8 @@ export const router = createBrowserRouter([
       {
         index: true,
         lazy: page(
-          () => import('@/features/overview/pages/OverviewPage'),
-          (m) => <m.OverviewPage />,
+          () => import('@/features/dashboard/pages/DashboardPage'),
+          (m) => <m.DashboardPage />,
         ),
       },
       {
