@@ -70,7 +70,7 @@ const STATUS_OF: Record<Exclude<LotLabelKind, 'lot' | 'serials'>, { kind: Locati
 };
 
 /** The labels of a lot of one kind. A status label is refused while no piece of the lot stands so. */
-export async function lotLabels(lotId: number, kind: LotLabelKind, today = new Date()): Promise<Label[]> {
+export async function lotLabels(lotId: number, kind: LotLabelKind): Promise<Label[]> {
   const lot = await lotRow(lotId);
   const name = lotName(lot.id);
   if (kind === 'lot')
@@ -102,7 +102,7 @@ export async function lotLabels(lotId: number, kind: LotLabelKind, today = new D
         ['Part', lot.partNumber],
         ['Supplier lot', lot.supplierLot],
         ['Pieces', `${count} of ${lot.quantity}`],
-        ['Labelled', isoDate(today)],
+        ['Labelled', isoDate(new Date())],
       ],
     },
   ];
