@@ -16,6 +16,7 @@ import type { LotEvaluation } from './evaluation';
 import type { LotForInspection } from './lotAccess';
 import { acceptedRequestFor } from '../supplierquality/correctiveActions';
 import { drawWaitingPlans, switchingStateOf } from './sampling';
+import { plural } from '../../shared/format';
 
 const entityId = (supplierId: number, partId: number) => `${supplierId}/${partId}`;
 
@@ -110,8 +111,7 @@ async function feedSequence(
   return { state, event: created, plansDrawn };
 }
 
-const resultText = (result: LotResult) =>
-  `${result.accepted ? 'accepted' : 'not accepted'}, ${result.defectives} defective${result.defectives === 1 ? '' : 's'}`;
+const resultText = (result: LotResult) => `${result.accepted ? 'accepted' : 'not accepted'}, ${plural(result.defectives, 'defective')}`;
 
 /** Feeds a signed decision into the lot's supplier-part sequence: at its end for a first decision,
  * in place of the earlier result when the decision supersedes one. Only an acceptance counts as

@@ -22,6 +22,7 @@ import { QUEUES, type JobDefinition } from '../jobs/queue';
 import { queueMail } from '../mail/outbox';
 import { measuredPieces } from './capability';
 import { characteristicView, currentDrift } from './series';
+import { plural } from '../../shared/format';
 
 export const supplierPerformanceUrl = (supplierId: number, partId: number) => `${config.PUBLIC_URL}/supplier-performance/${supplierId}?partId=${partId}`;
 
@@ -54,7 +55,7 @@ function alarmText(
   const lots = view.lots.slice(-6);
   return [
     `The mean ${name.toLowerCase()} of ${names.part} from ${names.supplier} is drifting ${drift.direction === 'high' ? 'up' : 'down'}: the EWMA of the lot means reached ${value(drift.lot.ewma!)} with lot ${drift.lot.lot.name} (supplier lot ${drift.lot.lot.supplierLot}), past its limit of ${value(drift.limit)}.`,
-    `The ordered tolerance is ±${view.tolerance} ${unit}; ${drift.lot.failing === 0 ? 'no piece of that lot fails yet' : `${drift.lot.failing} piece${drift.lot.failing === 1 ? '' : 's'} of that lot already fail`}.`,
+    `The ordered tolerance is ±${view.tolerance} ${unit}; ${drift.lot.failing === 0 ? 'no piece of that lot fails yet' : `${plural(drift.lot.failing, 'piece')} of that lot already fail`}.`,
     '',
     'Latest lot means:',
     ...lots.map(

@@ -9,6 +9,7 @@ import { Deviation, DeviationApproval, DeviationUse } from '../../db/models';
 import { todayUtc } from '../../shared/schemas/deviations';
 import { AppError } from '../http/errors';
 import { quantityUsed } from './deviations';
+import { plural } from '../../shared/format';
 
 export type DeviationRequest = {
   deviationId: number;
@@ -40,7 +41,7 @@ export async function takeDeviation(request: DeviationRequest, transaction: Tran
     throw refused(
       left === 0
         ? `${name} is used up: its ${deviation.quantityLimit} pieces are all taken`
-        : `${name} covers ${left} more piece${left === 1 ? '' : 's'} of its ${deviation.quantityLimit}; this decision releases ${request.quantity}`,
+        : `${name} covers ${plural(left, 'more piece')} of its ${deviation.quantityLimit}; this decision releases ${request.quantity}`,
       { quantityLimit: deviation.quantityLimit, quantityUsed: used, requested: request.quantity },
     );
   }

@@ -13,6 +13,7 @@ import { sweepRateLimits } from '../http/rateLimit';
 import { QUEUES, type JobDefinition } from '../jobs/queue';
 import { queueMail } from '../mail/outbox';
 import { responseUrl, tokenOf } from './responseLinks';
+import { plural } from '../../shared/format';
 
 export const REMIND_EVERY_DAYS = 7;
 
@@ -45,7 +46,7 @@ export async function remindOverdueRequests(): Promise<string[]> {
         transaction,
       });
       const days = Math.floor((Date.now() - Date.parse(`${request.responseDueOn}T23:59:59Z`)) / 86_400_000) + 1;
-      const late = `${days} day${days === 1 ? '' : 's'} past its due date (${request.responseDueOn})`;
+      const late = `${plural(days, 'day')} past its due date (${request.responseDueOn})`;
       if (link) {
         await queueMail(
           {

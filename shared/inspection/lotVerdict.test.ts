@@ -40,9 +40,9 @@ describe('proposeLotVerdict', () => {
     const gap = { accept: 1, reject: 4 };
     const twoFailed = proposeLotVerdict(sample([['fail'], ['fail'], ['pass']]), gap);
     expect(twoFailed).toMatchObject({ proposal: 'accept', defectives: 2 });
-    expect(twoFailed.explanation).toBe('2 defective(s) in the sample, above Ac 1 but below Re 4: the lot is accepted and normal inspection resumes');
+    expect(twoFailed.explanation).toBe('2 defectives in the sample, above Ac 1 but below Re 4: the lot is accepted and normal inspection resumes');
     expect(proposeLotVerdict(sample([['fail'], ['fail'], ['fail'], ['fail']]), gap).proposal).toBe('reject');
-    expect(proposeLotVerdict(sample([['fail'], ['pass']]), gap).explanation).toBe('1 defective(s) in the sample, within Ac 1');
+    expect(proposeLotVerdict(sample([['fail'], ['pass']]), gap).explanation).toBe('1 defective in the sample, within Ac 1');
   });
 
   it('keeps a result inside the gap undecided while the sample is open, as Re may still be reached', () => {

@@ -3,6 +3,7 @@
 // wavelengths (an achromatic part) is defective when any of its wavelengths fails; a sample piece
 // without a usable result keeps the lot undecided.
 import { z } from 'zod';
+import { plural } from '../format';
 
 export type PieceVerdict = 'pass' | 'fail' | 'incomplete';
 
@@ -37,7 +38,7 @@ export function proposeLotVerdict(sample: SamplePieceOutcome[], plan: { accept: 
   const base = { measured, defectives, incomplete, unmeasured };
   // Reaching Re rejects the lot even before the rest of the sample is measured.
   if (defectives >= plan.reject) {
-    return { ...base, proposal: 'reject', explanation: `${defectives} defective(s) in the sample reach Re ${plan.reject}` };
+    return { ...base, proposal: 'reject', explanation: `${plural(defectives, 'defective')} in the sample reach Re ${plan.reject}` };
   }
   if (incomplete.length || unmeasured.length) {
     const open = [incomplete.length && `${incomplete.length} incomplete`, unmeasured.length && `${unmeasured.length} not yet measured`]
@@ -46,14 +47,14 @@ export function proposeLotVerdict(sample: SamplePieceOutcome[], plan: { accept: 
     return { ...base, proposal: 'undecided', explanation: `The sample is not complete: ${open}` };
   }
   if (defectives <= plan.accept) {
-    return { ...base, proposal: 'accept', explanation: `${defectives} defective(s) in the sample, within Ac ${plan.accept}` };
+    return { ...base, proposal: 'accept', explanation: `${plural(defectives, 'defective')} in the sample, within Ac ${plan.accept}` };
   }
   // Only reduced plans (ANSI/ASQ Z1.4) leave a gap between Ac and Re: a result inside it accepts the
   // lot, and the switching rules then return to normal inspection.
   return {
     ...base,
     proposal: 'accept',
-    explanation: `${defectives} defective(s) in the sample, above Ac ${plan.accept} but below Re ${plan.reject}: the lot is accepted and normal inspection resumes`,
+    explanation: `${plural(defectives, 'defective')} in the sample, above Ac ${plan.accept} but below Re ${plan.reject}: the lot is accepted and normal inspection resumes`,
   };
 }
 

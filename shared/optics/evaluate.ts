@@ -10,6 +10,7 @@ import { fitScan, type ScanReading } from './scan.js';
 import { nominalFraction, type PieceSpec } from './spec.js';
 import type { LineMessage, Method, PieceResult, SerialResult } from './types.js';
 import { modulo, radToDeg, radToWaves, wrapDeg, wrapWaves } from './units.js';
+import { plural } from '../format.js';
 
 /** Readings within this distance of the design wavelength are at the design wavelength. */
 export const DESIGN_WAVELENGTH_WINDOW_NM = 0.5;
@@ -41,7 +42,7 @@ function countDistinctInputs(readings: readonly StokesReading[]): number {
 function measureStokes(group: Group<'stokes'>): Measurement {
   const distinct = countDistinctInputs(group.readings);
   if (distinct < 4) {
-    return { ok: false, reason: `too few inputs: ${distinct} input state(s), at least 4 that span the Stokes space are needed` };
+    return { ok: false, reason: `too few inputs: ${plural(distinct, 'input state')}, at least 4 that span the Stokes space are needed` };
   }
   const fit = muellerFromMeasurements(
     group.readings.map((r) => r.input),

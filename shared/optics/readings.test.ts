@@ -13,7 +13,7 @@ const lines = (...parts: (string | string[])[]) => parts.flat().join('\n');
 describe('bad files: every problem with its line number', () => {
   it('refuses a file whose header names no method, saying which columns are missing', () => {
     const result = analyzeText(lines('# instrument: BENCH-2', 'serial,wavelength_nm,input,s0,s1,s2', 'QW-0001,632.8,H,1,1,0'), QWP);
-    expect(result.fatal).toBe('line 2: no recognisable header: for the stokes method the column(s) s3 are missing');
+    expect(result.fatal).toBe('line 2: no recognisable header: for the stokes method the column s3 is missing');
     expect(result.pieces).toEqual([]);
     expect(analyzeText('just some text\nand more', QWP).fatal).toMatch(
       /^line 1: no recognisable header: expected the columns of the stokes method \(serial, wavelength_nm, input, s0, s1, s2, s3\), or the scan method/,
@@ -59,7 +59,7 @@ describe('bad files: every problem with its line number', () => {
     const three = analyzeText(lines(STOKES_HEADER, good().slice(0, 3)), QWP);
     expect(three.pieces[0]).toMatchObject({
       verdict: 'incomplete',
-      reasons: ['too few inputs: 3 input state(s), at least 4 that span the Stokes space are needed'],
+      reasons: ['too few inputs: 3 input states, at least 4 that span the Stokes space are needed'],
       lines: [2, 3, 4],
     });
     const linear = analyzeText(lines(STOKES_HEADER, good().slice(0, 4)), QWP);
@@ -146,12 +146,12 @@ describe('what the file may contain', () => {
     const result = analyzeText(lines(`${STOKES_HEADER},temperature_c`, rows), QWP);
     expect(result.warnings).toEqual([{ line: 1, message: 'unknown column "temperature_c" ignored' }]);
     const wide = analyzeText(lines(STOKES_HEADER, rows), QWP);
-    expect(wide.warnings).toEqual([{ line: 2, message: '1 field(s) beyond the header ignored' }]);
+    expect(wide.warnings).toEqual([{ line: 2, message: '1 field beyond the header ignored' }]);
   });
 
   it('lets # method force a method, refuses an unknown one and ignores one after the header', () => {
     const forced = analyzeText(lines('# method: scan', STOKES_HEADER, good()), QWP);
-    expect(forced.fatal).toBe('line 2: no recognisable header: for the scan method the column(s) analyzer, angle_deg, intensity are missing');
+    expect(forced.fatal).toBe('line 2: no recognisable header: for the scan method the columns analyzer, angle_deg, intensity are missing');
     expect(analyzeText(lines('# method: ellipsometry', STOKES_HEADER, good()), QWP).fatal).toBe(
       'line 1: unknown method "ellipsometry": expected stokes, scan or direct',
     );

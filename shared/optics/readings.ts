@@ -8,6 +8,7 @@ import { degreeOfPolarization, inputStateReader, toOurFrame, type InstrumentProf
 import { normalizeText } from './text.js';
 import { METHODS, type AnalyzeOptions, type FileMetadata, type LineMessage, type Method, type ParsedRow } from './types.js';
 import { DEG, parseRetardanceUnit, toWaves } from './units.js';
+import { plural } from '../format.js';
 
 export interface StokesReading {
   input: Stokes;
@@ -310,7 +311,7 @@ export class ReadingCollector {
       const expected = METHOD_COLUMNS[closest].required;
       this.fail(
         missing(closest).length < expected.length
-          ? `line ${line}: no recognisable header: for the ${closest} method the column(s) ${missing(closest).join(', ')} are missing`
+          ? `line ${line}: no recognisable header: for the ${closest} method ${missing(closest).length === 1 ? 'the column' : 'the columns'} ${missing(closest).join(', ')} ${missing(closest).length === 1 ? 'is' : 'are'} missing`
           : `line ${line}: no recognisable header: expected the columns of the ` +
               METHODS.map((m) => `${m} method (${METHOD_COLUMNS[m].required.join(', ')})`).join(', or the '),
       );
@@ -348,7 +349,7 @@ export class ReadingCollector {
     this.context.wavelengthNm = wavelengthNm;
     const reading = ROW_PARSERS[method](fields, columns, this.context, problems);
     if (fields.length > this.headerWidth && fields.slice(this.headerWidth).some((f) => f.trim() !== '')) {
-      this.warnings.push({ line, message: `${fields.length - this.headerWidth} field(s) beyond the header ignored` });
+      this.warnings.push({ line, message: `${plural(fields.length - this.headerWidth, 'field')} beyond the header ignored` });
     }
 
     const group = serial !== '' && wavelengthNm > 0 ? this.group(serial, wavelengthNm, mountDeg) : undefined;

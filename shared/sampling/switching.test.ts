@@ -168,7 +168,7 @@ describe('reduced → normal', () => {
     expect(outcome.change).toEqual({ from: 'reduced', to: 'normal' });
     expect(outcome.state).toEqual(initialSwitchingState('normal'));
     expect(outcome.explanation).toBe(
-      'lot accepted on reduced inspection; its 3 defective(s) lie between Ac 1 and Re 4, so normal inspection resumes (ANSI/ASQ Z1.4)',
+      'lot accepted on reduced inspection; its 3 defectives lie between Ac 1 and Re 4, so normal inspection resumes (ANSI/ASQ Z1.4)',
     );
   });
 

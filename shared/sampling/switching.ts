@@ -12,6 +12,7 @@
 import { z } from 'zod';
 import { aqlSchema, tighterNormalAcceptance } from './plan';
 import { CODE_LETTERS, INSPECTION_LEVELS, SEVERITIES, type Aql, type Severity } from './tables';
+import { plural } from '../format';
 
 const RECENT_LOTS_ON_NORMAL = 5;
 const REJECTIONS_FOR_TIGHTENED = 2;
@@ -159,7 +160,7 @@ export function nextSwitchingState(state: SwitchingState, lotResult: LotResult, 
       const reason = !lot.accepted
         ? 'a lot was not accepted, so normal inspection resumes (ISO 2859-1, 9.3.4)'
         : inGap
-          ? `its ${lot.defectives} defective(s) lie between Ac ${lot.plan.accept} and Re ${lot.plan.reject}, so normal inspection resumes (ANSI/ASQ Z1.4)`
+          ? `its ${plural(lot.defectives, 'defective')} lie between Ac ${lot.plan.accept} and Re ${lot.plan.reject}, so normal inspection resumes (ANSI/ASQ Z1.4)`
           : 'production is irregular or delayed, so normal inspection resumes (ISO 2859-1, 9.3.4)';
       return switched(initialSwitchingState('normal'), 'reduced', 'normal', `${lotText}; ${reason}`);
     }

@@ -1,4 +1,5 @@
 import type { HistoryEntry } from '@shared/schemas/receiving';
+import { formatDateTime } from '@shared/format';
 
 export function HistoryList({ entries }: { entries: HistoryEntry[] }) {
   if (entries.length === 0) return <p className="text-sm text-ink-faint">Nothing recorded yet.</p>;
@@ -11,7 +12,7 @@ export function HistoryList({ entries }: { entries: HistoryEntry[] }) {
             {entry.who && <span className="text-ink-muted"> · {entry.who}</span>}
           </p>
           {entry.detail && <p className="text-xs text-ink-muted">{entry.detail}</p>}
-          <p className="text-2xs text-ink-faint">{new Date(entry.at).toLocaleString()}</p>
+          <p className="text-2xs text-ink-faint">{formatDateTime(entry.at)}</p>
         </li>
       ))}
     </ol>

@@ -1,2 +1,2 @@
-/** "1 lot", "7 lots". */
-export const counted = (n: number, noun: string, plural = `${noun}s`) => `${n} ${n === 1 ? noun : plural}`;
+// The one way counts are written: "1 lot", "7 lots" (shared/format.ts, also used by PDFs and mails).
+export { plural as counted } from '@shared/format';

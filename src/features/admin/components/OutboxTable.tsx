@@ -1,5 +1,6 @@
 import { Notice } from '@/components/Notice';
 import { useOutbox } from '../api';
+import { formatDateTime, formatTime } from '@shared/format';
 
 export function OutboxTable() {
   const outbox = useOutbox();
@@ -18,16 +19,16 @@ export function OutboxTable() {
       <tbody>
         {rows.map((m) => (
           <tr key={m.id} className="border-t border-paper-line/70">
-            <td className="px-2.5 py-1 text-xs text-ink-muted">{new Date(m.createdAt).toLocaleString()}</td>
+            <td className="px-2.5 py-1 text-xs text-ink-muted">{formatDateTime(m.createdAt)}</td>
             <td className="px-2.5 py-1 text-xs">{m.recipients.join(', ')}</td>
             <td className="px-2.5 py-1">{m.subject}</td>
             <td className="px-2.5 py-1 text-xs">
               {m.status === 'sent' ? (
-                <span className="text-state-pass">Delivered {new Date(m.sentAt!).toLocaleString()}</span>
+                <span className="text-state-pass">Delivered {formatDateTime(m.sentAt!)}</span>
               ) : (
                 <span className="text-state-quarantine" title={m.lastError ?? undefined}>
                   Waiting
-                  {m.attempts > 0 ? ` — ${m.attempts} failed tr${m.attempts === 1 ? 'y' : 'ies'}, next ${new Date(m.nextAttemptAt!).toLocaleTimeString()}` : ''}
+                  {m.attempts > 0 ? ` — ${m.attempts} failed tr${m.attempts === 1 ? 'y' : 'ies'}, next ${formatTime(m.nextAttemptAt!)}` : ''}
                 </span>
               )}
             </td>

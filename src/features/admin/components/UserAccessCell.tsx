@@ -9,6 +9,7 @@ import { Field } from '@/components/Field';
 import { PasswordInput } from '@/components/PasswordInput';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useSendResetLink, useUnlockSigning, useUpdateUser } from '../api';
+import { formatTime } from '@shared/format';
 
 const setPasswordSchema = userUpdateSchema.pick({ password: true }).required();
 type SetPasswordInput = { password: string };
@@ -59,8 +60,7 @@ export function UserAccessCell({ user }: { user: UserView }) {
       {user.signingLockedUntil && (
         <div className="flex flex-wrap items-center gap-2">
           <span className="inline-flex items-center gap-1 text-state-fail">
-            <Lock className="h-3.5 w-3.5" aria-hidden /> Signing locked until{' '}
-            {new Date(user.signingLockedUntil).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}
+            <Lock className="h-3.5 w-3.5" aria-hidden /> Signing locked until {formatTime(user.signingLockedUntil)}
           </span>
           <Button look="quiet" className="!px-1.5 !py-0 text-xs" disabled={unlock.isPending} onClick={() => unlock.mutate(user.id)}>
             Unlock signing

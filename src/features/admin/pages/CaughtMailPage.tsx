@@ -4,6 +4,7 @@ import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { useCaughtMail } from '../api';
 import { OutboxTable } from '../components/OutboxTable';
+import { formatDateTime, plural } from '@shared/format';
 
 export function CaughtMailPage() {
   const mail = useCaughtMail();
@@ -26,10 +27,10 @@ export function CaughtMailPage() {
               className="flex w-full items-baseline gap-3 px-3 py-2 text-left hover:bg-paper"
               onClick={() => setOpenId(openId === m.id ? null : m.id)}
             >
-              <span className="w-40 shrink-0 text-xs text-ink-muted">{new Date(m.receivedAt).toLocaleString()}</span>
+              <span className="w-40 shrink-0 text-xs text-ink-muted">{formatDateTime(m.receivedAt)}</span>
               <span className="w-56 shrink-0 truncate text-xs">{m.to}</span>
               <span className="flex-1 font-medium">{m.subject}</span>
-              {m.attachments.length > 0 && <Paperclip className="h-3.5 w-3.5 text-ink-muted" aria-label={`${m.attachments.length} attachment(s)`} />}
+              {m.attachments.length > 0 && <Paperclip className="h-3.5 w-3.5 text-ink-muted" aria-label={plural(m.attachments.length, 'attachment')} />}
             </button>
             {openId === m.id && (
               <div className="border-t border-paper-line bg-paper px-3 py-3">

@@ -11,6 +11,7 @@ import { useUpdateUser, useUsers } from '../api';
 import { NewUserForm } from '../components/NewUserForm';
 import { RolePicker } from '../components/RolePicker';
 import { UserAccessCell } from '../components/UserAccessCell';
+import { formatDateTime } from '@shared/format';
 
 const column = createColumnHelper<UserView>();
 
@@ -68,7 +69,7 @@ export function UsersPage() {
       column.display({ id: 'roles', header: 'Roles', cell: ({ row }) => <RolesCell user={row.original} /> }),
       column.display({ id: 'active', header: 'Status', cell: ({ row }) => <ActiveCell user={row.original} /> }),
       column.display({ id: 'access', header: 'Password and signing', cell: ({ row }) => <UserAccessCell user={row.original} /> }),
-      column.accessor('lastSignInAt', { header: 'Last sign-in', cell: ({ getValue }) => (getValue() ? new Date(getValue()!).toLocaleString() : '—') }),
+      column.accessor('lastSignInAt', { header: 'Last sign-in', cell: ({ getValue }) => (getValue() ? formatDateTime(getValue()!) : '—') }),
     ],
     [],
   );

@@ -8,6 +8,7 @@ import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { useChainHead, useCheckAnchor } from '../api';
 import { CopyButton } from './CopyButton';
+import { formatDateTime } from '@shared/format';
 
 type AnchorInput = z.input<typeof auditAnchorSchema>;
 
@@ -50,7 +51,7 @@ export function ChainAnchor() {
                   'No event recorded yet'
                 ),
               ],
-              ['Recorded', current.occurredAt ? new Date(current.occurredAt).toLocaleString() : '—'],
+              ['Recorded', current.occurredAt ? formatDateTime(current.occurredAt) : '—'],
             ]}
           />
         )}

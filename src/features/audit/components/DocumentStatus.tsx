@@ -1,3 +1,4 @@
+import { formatDateTime } from '@shared/format';
 /** Whether an issued document still stands or was revoked by a later decision on its lot. */
 export function DocumentStatus({ revokedAt }: { revokedAt: string | null }) {
   if (!revokedAt)
@@ -8,7 +9,7 @@ export function DocumentStatus({ revokedAt }: { revokedAt: string | null }) {
     );
   return (
     <span
-      title={`Revoked ${new Date(revokedAt).toLocaleString()}`}
+      title={`Revoked ${formatDateTime(revokedAt)}`}
       className="inline-block rounded border border-state-fail/30 bg-state-fail/10 px-1.5 py-px text-2xs font-medium tracking-wide text-state-fail uppercase"
     >
       revoked

@@ -4,6 +4,7 @@ import { Notice } from '@/components/Notice';
 import { apiUrl } from '@/lib/api';
 import { useExportJob } from '../api';
 import { CopyButton } from './CopyButton';
+import { formatDateTime, formatTime } from '@shared/format';
 
 const STATUS_LABELS = { queued: 'Waiting to start', running: 'Building', done: 'Ready', failed: 'Failed' } as const;
 
@@ -23,8 +24,8 @@ export function ExportJobCard({ job: initial, names }: { job: ExportJobView; nam
           Export {job.id} <span className="font-normal text-ink-muted">· {describeFilter(job, names)}</span>
         </p>
         <p className="text-xs text-ink-muted">
-          requested {new Date(job.createdAt).toLocaleString()}
-          {job.finishedAt && `, finished ${new Date(job.finishedAt).toLocaleTimeString()}`}
+          requested {formatDateTime(job.createdAt)}
+          {job.finishedAt && `, finished ${formatTime(job.finishedAt)}`}
         </p>
       </div>
       <div className="mt-2 flex items-center gap-3">

@@ -1,5 +1,6 @@
 import { CheckCircle2, ShieldAlert, XCircle } from 'lucide-react';
 import type { VerificationResult } from '@shared/schemas/certificates';
+import { formatDateTime } from '@shared/format';
 
 const KIND_LABELS = { certificate: 'Certificate of conformance', 'inspection-report': 'Inspection report' } as const;
 
@@ -25,11 +26,11 @@ export function VerificationCard({ result }: { result: VerificationResult }) {
           <dt className="text-ink-muted">Document</dt>
           <dd>{KIND_LABELS[result.document.kind]}</dd>
           <dt className="text-ink-muted">Issued</dt>
-          <dd>{new Date(result.document.issuedAt).toLocaleString()}</dd>
+          <dd>{formatDateTime(result.document.issuedAt)}</dd>
           {result.document.revokedAt && (
             <>
               <dt className="text-ink-muted">Revoked</dt>
-              <dd>{new Date(result.document.revokedAt).toLocaleString()}</dd>
+              <dd>{formatDateTime(result.document.revokedAt)}</dd>
             </>
           )}
           <dt className="text-ink-muted">Part</dt>

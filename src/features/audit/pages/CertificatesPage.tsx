@@ -11,6 +11,7 @@ import { useDocuments, type IssuedDocument } from '../api';
 import { CopyButton } from '../components/CopyButton';
 import { DocumentStatus } from '../components/DocumentStatus';
 import { FilterBar } from '../components/FilterBar';
+import { formatDateTime } from '@shared/format';
 
 const FILTERS = ['q', 'kind', 'from', 'to'] as const;
 const KIND_LABELS = { certificate: 'Certificate of conformance', 'inspection-report': 'Inspection report' } as const;
@@ -51,7 +52,7 @@ const columns = [
   }),
   column.display({ id: 'decision', header: 'Decision', cell: ({ row }) => DISPOSITION_LABELS[row.original.decision] }),
   column.display({ id: 'signer', header: 'Signed by', cell: ({ row }) => row.original.signer }),
-  column.accessor('issuedAt', { header: 'Issued', cell: ({ getValue }) => <span className="whitespace-nowrap">{new Date(getValue()).toLocaleString()}</span> }),
+  column.accessor('issuedAt', { header: 'Issued', cell: ({ getValue }) => <span className="whitespace-nowrap">{formatDateTime(getValue())}</span> }),
   column.display({ id: 'status', header: 'Status', cell: ({ row }) => <DocumentStatus revokedAt={row.original.revokedAt} /> }),
   column.display({
     id: 'hash',

@@ -13,6 +13,7 @@ import { Notice } from '@/components/Notice';
 import { useCurrentDeviations, useSignDisposition } from '../api';
 import type { LotInspectionView } from '@shared/schemas/inspection';
 import { SignedDecision } from './SignedDecision';
+import { formatDateTime } from '@shared/format';
 
 type Signed = LotInspectionView['dispositions'][number];
 type Signing = ReturnType<typeof useSignDisposition>;
@@ -134,8 +135,8 @@ function SignatureForm({ view, sign, replaces, inForce, onSigned, onCancel }: Fo
       </h2>
       {replaces && (
         <Notice tone="caution" title="What superseding does">
-          The decision “{DISPOSITION_LABELS[replaces.decision]}” signed by {replaces.signer ?? 'a former user'} on{' '}
-          {new Date(replaces.signedAt).toLocaleString()} stays on record as superseded.
+          The decision “{DISPOSITION_LABELS[replaces.decision]}” signed by {replaces.signer ?? 'a former user'} on {formatDateTime(replaces.signedAt)} stays on
+          record as superseded.
           {inForce.length > 0 && ` Its documents (${inForce.map((d) => d.number).join(', ')}) are revoked.`} Your decision is signed in its place, with its own
           documents, and the lot's pieces move as your decision says.
         </Notice>

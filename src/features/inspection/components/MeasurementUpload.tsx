@@ -4,14 +4,12 @@ import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { ApiError } from '@/lib/api';
-import { counted } from '@/lib/plural';
 import { useBenchInstruments, useCommitMeasurements, usePreviewMeasurements, usePreviewPage, type PreviewEntry, type PreviewPageQuery } from '../api';
 import { PREVIEW_PAGE_SIZE, type FilePreview, type PlanEffect, type PreviewList, type PreviewPiece, type SampleStanding } from '@shared/schemas/inspection';
 import { VerdictBadge } from './VerdictBadge';
+import { fixed, plural, wholeNumber } from '@shared/format';
 
-const num = (v: number | null | undefined, digits: number) => (v === null || v === undefined ? '—' : v.toFixed(digits));
-
-/** "51–100 of 1,234" and the page buttons of one list of a checked file. */
+/** "51–100 of 1 234" and the page buttons of one list of a checked file. */
 function Pager({ what, page, total, onPage }: { what: string; page: number; total: number; onPage: (page: number) => void }) {
   const pages = Math.max(1, Math.ceil(total / PREVIEW_PAGE_SIZE));
   if (pages === 1) return null;
@@ -19,7 +17,7 @@ function Pager({ what, page, total, onPage }: { what: string; page: number; tota
   return (
     <div className="flex items-center justify-end gap-1 border-t border-paper-line/60 px-3 py-1 text-xs text-ink-muted">
       <span className="mr-auto">
-        {what} {first.toLocaleString()}–{Math.min(total, page * PREVIEW_PAGE_SIZE).toLocaleString()} of {total.toLocaleString()}
+        {what} {wholeNumber(first)}–{wholeNumber(Math.min(total, page * PREVIEW_PAGE_SIZE))} of {wholeNumber(total)}
       </span>
       <button
         type="button"
@@ -109,7 +107,7 @@ function PieceList({ checked }: { checked: Checked }) {
             className={`rounded px-2 py-0.5 ${verdict === v ? 'bg-frame text-white' : 'text-ink-muted hover:bg-paper-sunk'}`}
             onClick={() => setVerdict(v)}
           >
-            {v ?? 'all'} {(v ? counts[v] : counts.pieces).toLocaleString()}
+            {v ?? 'all'} {wholeNumber(v ? counts[v] : counts.pieces)}
           </button>
         ))}
       </div>
@@ -128,10 +126,10 @@ function PieceList({ checked }: { checked: Checked }) {
             {paged.entries.map((p) => (
               <tr key={`${p.serial}-${p.wavelengthNm}`} className="border-t border-paper-line/60">
                 <td className="px-2.5 py-0.5 font-mono">{p.serial}</td>
-                <td className="px-2.5 py-0.5 text-right">{num(p.wavelengthNm, 1)}</td>
-                <td className="px-2.5 py-0.5 text-right font-mono">{num(p.retardanceWaves, 4)}</td>
-                <td className="px-2.5 py-0.5 text-right font-mono">{num(p.retardanceErrorWaves, 4)}</td>
-                <td className="px-2.5 py-0.5 text-right font-mono">{num(p.axisErrorDeg, 2)}</td>
+                <td className="px-2.5 py-0.5 text-right">{fixed(p.wavelengthNm, 1)}</td>
+                <td className="px-2.5 py-0.5 text-right font-mono">{fixed(p.retardanceWaves, 4)}</td>
+                <td className="px-2.5 py-0.5 text-right font-mono">{fixed(p.retardanceErrorWaves, 4)}</td>
+                <td className="px-2.5 py-0.5 text-right font-mono">{fixed(p.axisErrorDeg, 2)}</td>
                 <td className="px-2.5 py-0.5">
                   <VerdictBadge value={p.verdict} /> <span className="text-ink-muted">{p.reasons.join('; ')}</span>
                 </td>
@@ -159,12 +157,12 @@ function PreviewOfFile({ checked }: { checked: Checked }) {
       <header className="flex flex-wrap items-baseline gap-x-4 gap-y-1 border-b border-paper-line px-3 py-2 text-sm">
         <span className="font-medium">{file.name}</span>
         <span className="text-xs text-ink-muted">
-          {file.method ?? 'method not recognised'} · {file.instrument?.code ?? 'no instrument'} · {counted(counts.pieces, 'piece result')}
+          {file.method ?? 'method not recognised'} · {file.instrument?.code ?? 'no instrument'} · {plural(counts.pieces, 'piece result')}
           {counts.pieces > 0 && ` (${counts.pass} pass, ${counts.fail} fail, ${counts.incomplete} incomplete)`}
         </span>
         <span className="font-mono text-2xs text-ink-faint">SHA-256 {file.sha256.slice(0, 16)}…</span>
         <span className={`ml-auto text-xs font-medium ${problems ? 'text-state-fail' : 'text-state-pass'}`}>
-          {problems ? `${problems.toLocaleString()} problem(s)` : 'ready to save'}
+          {problems ? plural(problems, 'problem') : 'ready to save'}
         </span>
       </header>
       {file.fatal && (
@@ -179,7 +177,7 @@ function PreviewOfFile({ checked }: { checked: Checked }) {
   );
 }
 
-const standingText = (s: SampleStanding) => `${s.measured} measured, ${counted(s.defectives, 'defective')}`;
+const standingText = (s: SampleStanding) => `${s.measured} measured, ${plural(s.defectives, 'defective')}`;
 
 /** What saving the checked files would do to the lot's decision. */
 function PlanEffectNote({ effect }: { effect: PlanEffect }) {
@@ -211,8 +209,8 @@ function PlanEffectNote({ effect }: { effect: PlanEffect }) {
         ))}
       </dl>
       <p className="mt-1 text-xs text-ink-muted">
-        These files measure {counted(effect.samplePieces, 'sample piece')} and {counted(effect.otherPieces, 'other piece')}
-        {effect.replacing > 0 && `; ${counted(effect.replacing, 'result')} replace current ones`}.
+        These files measure {plural(effect.samplePieces, 'sample piece')} and {plural(effect.otherPieces, 'other piece')}
+        {effect.replacing > 0 && `; ${plural(effect.replacing, 'result')} replace current ones`}.
       </p>
     </section>
   );
@@ -293,7 +291,7 @@ export function MeasurementUpload({ lotId }: { lotId: number }) {
         <Notice tone="error" title={commit.error.message}>
           {commitErrors.map((f: { name: string; fatal?: string; errors: { line: number; message: string }[] }) => (
             <p key={f.name}>
-              {f.name}: {f.fatal ?? `${f.errors.length} error(s), first at line ${f.errors[0]?.line}`}
+              {f.name}: {f.fatal ?? `${plural(f.errors.length, 'error')}, first at line ${f.errors[0]?.line}`}
             </p>
           ))}
         </Notice>

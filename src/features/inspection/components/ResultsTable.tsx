@@ -1,9 +1,9 @@
 import { useState } from 'react';
+import { fixed, plural, signedFixed } from '@shared/format';
 import type { LotInspectionView } from '@shared/schemas/inspection';
 import { VerdictBadge } from './VerdictBadge';
 
-const num = (v: number | null | undefined, digits: number, signed = false) =>
-  v === null || v === undefined ? '—' : `${signed && v >= 0 ? '+' : ''}${v.toFixed(digits)}`;
+const num = (v: number | null | undefined, digits: number, signed = false) => (signed ? signedFixed(v, digits) : fixed(v, digits));
 
 export function ResultsTable({ view }: { view: LotInspectionView }) {
   const [onlyToMeasure, setOnlyToMeasure] = useState(true);
@@ -11,7 +11,7 @@ export function ResultsTable({ view }: { view: LotInspectionView }) {
   return (
     <div className="rounded border border-paper-line bg-paper-card">
       <div className="flex items-center justify-between border-b border-paper-line px-3 py-1.5 text-xs text-ink-muted">
-        <span>{pieces.length} piece(s)</span>
+        <span>{plural(pieces.length, 'piece')}</span>
         <label className="inline-flex items-center gap-1.5">
           <input type="checkbox" checked={onlyToMeasure} onChange={(e) => setOnlyToMeasure(e.target.checked)} />{' '}
           {view.sort ? 'pieces of the sort only' : 'sample only'}

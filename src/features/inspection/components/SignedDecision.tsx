@@ -4,6 +4,7 @@ import { Details, Panel } from '@/components/Details';
 import { StateBadge, type Tone } from '@/components/StateBadge';
 import type { LotInspectionView } from '@shared/schemas/inspection';
 import { DocumentLink } from './DocumentLink';
+import { formatDateTime } from '@shared/format';
 
 const DECISION_TONES: Record<Disposition, Tone> = { accept: 'pass', reject: 'fail', sort: 'hold', 'use-as-is': 'hold' };
 
@@ -27,7 +28,7 @@ export function SignedDecision({ disposition: d, documents, actions, children }:
         <p className="flex flex-wrap items-center gap-2">
           <StateBadge state={d.decision} tone={DECISION_TONES[d.decision]} label={DISPOSITION_LABELS[d.decision]} />
           <span className="text-sm">
-            signed by <strong>{d.signer ?? 'a former user'}</strong>, {new Date(d.signedAt).toLocaleString()}
+            signed by <strong>{d.signer ?? 'a former user'}</strong>, {formatDateTime(d.signedAt)}
           </span>
         </p>
         <Details

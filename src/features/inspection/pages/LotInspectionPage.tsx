@@ -16,6 +16,7 @@ import { OcChart } from '../components/OcChart';
 import { ResultCharts } from '../components/ResultCharts';
 import { ResultsTable } from '../components/ResultsTable';
 import { VerdictBadge } from '../components/VerdictBadge';
+import { formatDateTime } from '@shared/format';
 
 function Facts({ rows }: { rows: [string, React.ReactNode][] }) {
   return (
@@ -136,8 +137,7 @@ export function LotInspectionPage() {
           <ul className="space-y-1 text-xs">
             {view.files.map((f) => (
               <li key={f.id}>
-                <span className="font-medium">{f.name}</span> · {f.method} · {f.instrument} · {f.rows} rows · {f.uploadedBy},{' '}
-                {new Date(f.uploadedAt).toLocaleString()}
+                <span className="font-medium">{f.name}</span> · {f.method} · {f.instrument} · {f.rows} rows · {f.uploadedBy}, {formatDateTime(f.uploadedAt)}
                 <br />
                 <span className="font-mono break-all text-ink-faint">{f.sha256}</span>
               </li>
@@ -150,7 +150,7 @@ export function LotInspectionPage() {
           <ul className="space-y-1 text-xs">
             {view.dispositions.map((d) => (
               <li key={d.id} className={d.supersededAt ? 'text-ink-faint line-through' : ''}>
-                <strong>{DISPOSITION_LABELS[d.decision]}</strong> by {d.signer}, {new Date(d.signedAt).toLocaleString()}
+                <strong>{DISPOSITION_LABELS[d.decision]}</strong> by {d.signer}, {formatDateTime(d.signedAt)}
                 {d.deviationNumber && ` · ${d.deviationNumber}`}
                 <span className="block no-underline">“{d.meaning}”</span>
               </li>

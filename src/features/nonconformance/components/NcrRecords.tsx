@@ -2,6 +2,7 @@ import { Link } from 'react-router-dom';
 import { NCR_DECISION_LABELS, REMEDY_LABELS, type NcrView } from '@shared/schemas/nonconformance';
 import { lotName } from '@shared/schemas/stock';
 import { Panel } from '@/components/Details';
+import { formatDate, formatDateTime, plural } from '@shared/format';
 
 const serialList = (serials: string[]) => (serials.length <= 6 ? serials.join(', ') : `${serials.slice(0, 6).join(', ')} and ${serials.length - 6} more`);
 
@@ -15,8 +16,8 @@ export function NcrRecords({ ncr }: { ncr: NcrView }) {
           {ncr.dispositions.map((d) => (
             <li key={d.id} className="border-l-2 border-frame-soft pl-2">
               <p>
-                <span className="font-medium">{NCR_DECISION_LABELS[d.decision]}</span> · {d.serials.length} piece{d.serials.length === 1 ? '' : 's'} · signed by{' '}
-                {d.signer}, {new Date(d.signedAt).toLocaleString()}
+                <span className="font-medium">{NCR_DECISION_LABELS[d.decision]}</span> · {plural(d.serials.length, 'piece')} · signed by {d.signer},{' '}
+                {formatDateTime(d.signedAt)}
               </p>
               <p className="font-mono text-xs text-ink-muted">{serialList(d.serials)}</p>
               {d.deviation && (
@@ -36,8 +37,7 @@ export function NcrRecords({ ncr }: { ncr: NcrView }) {
           {ncr.returns.map((r) => (
             <li key={r.id}>
               <p>
-                <span className="font-mono">RMA {r.rmaNumber}</span> · {r.serials.length} piece{r.serials.length === 1 ? '' : 's'} shipped {r.shipDate} by{' '}
-                {r.carrier}
+                <span className="font-mono">RMA {r.rmaNumber}</span> · {plural(r.serials.length, 'piece')} shipped {r.shipDate} by {r.carrier}
                 {r.tracking && <span className="font-mono text-xs"> ({r.tracking})</span>} · for {REMEDY_LABELS[r.remedy].toLowerCase()}
                 {r.creditAmount !== null && ` of ${r.creditAmount.toFixed(2)} ${r.currency ?? ''}`}
               </p>
@@ -46,8 +46,7 @@ export function NcrRecords({ ncr }: { ncr: NcrView }) {
           ))}
           {ncr.replacements.map((s) => (
             <li key={s.shipmentId}>
-              Replacement received {new Date(s.receivedAt).toLocaleDateString()} on PO {s.poNumber}, packing slip{' '}
-              <span className="font-mono">{s.packingSlip}</span>:{' '}
+              Replacement received {formatDate(s.receivedAt)} on PO {s.poNumber}, packing slip <span className="font-mono">{s.packingSlip}</span>:{' '}
               {s.lots.map((l, i) => (
                 <span key={l.id}>
                   {i > 0 && ', '}

@@ -14,6 +14,7 @@ import { counted } from '@/lib/plural';
 import { useSession } from '@/lib/session';
 import { useNcrList } from '../api';
 import { NcrTabs } from '../components/NcrTabs';
+import { formatDate } from '@shared/format';
 
 const column = createColumnHelper<NcrRow>();
 
@@ -46,7 +47,7 @@ export function NcrListPage() {
         cell: ({ getValue }) => <span className={`tabular-nums ${getValue() > 0 ? 'font-medium text-state-fail' : 'text-ink-faint'}`}>{getValue()}</span>,
       }),
       column.accessor('owner', { header: 'Owner', enableSorting: false, cell: ({ getValue }) => getValue() ?? '—' }),
-      column.accessor('openedAt', { header: 'Opened', cell: ({ getValue }) => new Date(getValue()).toLocaleDateString() }),
+      column.accessor('openedAt', { header: 'Opened', cell: ({ getValue }) => formatDate(getValue()) }),
     ],
     [],
   );

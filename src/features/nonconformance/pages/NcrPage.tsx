@@ -18,6 +18,7 @@ import { NcrPiecesTable } from '../components/NcrPiecesTable';
 import { NcrRecords } from '../components/NcrRecords';
 import { ReturnForm } from '../components/ReturnForm';
 import { ReworkReleaseForm } from '../components/ReworkReleaseForm';
+import { formatDate, formatDateTime } from '@shared/format';
 
 type Act = 'disposition' | 'rework' | 'ship';
 
@@ -109,11 +110,11 @@ export function NcrPage() {
                 [
                   'Lot decision',
                   ncr.lotDecision
-                    ? `${DISPOSITION_LABELS[ncr.lotDecision.decision as Disposition] ?? ncr.lotDecision.decision}, ${new Date(ncr.lotDecision.signedAt).toLocaleDateString()}`
+                    ? `${DISPOSITION_LABELS[ncr.lotDecision.decision as Disposition] ?? ncr.lotDecision.decision}, ${formatDate(ncr.lotDecision.signedAt)}`
                     : null,
                 ],
                 ['Owner', ncr.owner?.name],
-                ['Opened', `${new Date(ncr.openedAt).toLocaleString()}${ncr.openedBy ? ` by ${ncr.openedBy}` : ''}`],
+                ['Opened', `${formatDateTime(ncr.openedAt)}${ncr.openedBy ? ` by ${ncr.openedBy}` : ''}`],
               ]}
             />
             <div className="mt-3 border-t border-paper-line pt-3">
@@ -142,7 +143,7 @@ export function NcrPage() {
         <Panel title={ncr.status === 'closed' ? 'Closed' : 'Still to do'}>
           {ncr.status === 'closed' ? (
             <p className="text-sm">
-              {new Date(ncr.closedAt!).toLocaleString()}
+              {formatDateTime(ncr.closedAt!)}
               {ncr.closedBy && ` by ${ncr.closedBy}`}
               {ncr.closingNote && <span className="block text-ink-muted">{ncr.closingNote}</span>}
             </p>

@@ -13,6 +13,7 @@ import { showServerFieldErrors } from '@/lib/formErrors';
 import { useOpenLines, useReceiveShipment, useReplacementCandidates, type Receipt } from '../api';
 import { SerialPreview } from './SerialPreview';
 import { SerialScanField } from './SerialScanField';
+import { plural } from '@shared/format';
 
 const DOCUMENT_TYPES = '.pdf,.png,.jpg,.jpeg,application/pdf,image/png,image/jpeg';
 const tooLarge = (files: File[]) => files.filter((f) => f.size > MAX_ATTACHMENT_BYTES).map((f) => f.name);
@@ -108,7 +109,7 @@ export function ReceiveForm({ onReceived }: { onReceived: (receipt: Receipt) => 
             <option value="">Not a replacement</option>
             {candidates.map((n) => (
               <option key={n.id} value={n.id}>
-                {n.number} · {n.replacementOwed} piece{n.replacementOwed === 1 ? '' : 's'} owed
+                {n.number} · {plural(n.replacementOwed, 'piece')} owed
               </option>
             ))}
           </select>

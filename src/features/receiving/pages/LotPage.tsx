@@ -16,6 +16,7 @@ import { StateBadge } from '@/components/StateBadge';
 import { useSession } from '@/lib/session';
 import { useLot } from '../api';
 import { LotPieces } from '../components/LotPieces';
+import { formatDateTime } from '@shared/format';
 
 const kilobytes = (bytes: number) => (bytes < 1024 * 1024 ? `${Math.max(1, Math.round(bytes / 1024))} kB` : `${(bytes / 1024 / 1024).toFixed(1)} MB`);
 
@@ -115,7 +116,7 @@ export function LotPage() {
                   </span>,
                 ],
                 ['Carrier', l.shipment.carrier || '—'],
-                ['Received', new Date(l.shipment.receivedAt).toLocaleString()],
+                ['Received', formatDateTime(l.shipment.receivedAt)],
                 ['Received by', l.shipment.receivedBy],
                 ['Pieces', l.quantity],
                 ['Outcome', <PieceOutcomes key="o" quantities={l} />],

@@ -12,6 +12,7 @@ import { outcomeColumns, outcomeSummary } from '@/components/PieceOutcomes';
 import { StateBadge } from '@/components/StateBadge';
 import { counted } from '@/lib/plural';
 import { useLots } from '../api';
+import { formatDate } from '@shared/format';
 
 const column = createColumnHelper<LotRow>();
 
@@ -48,7 +49,7 @@ export function LotsPage() {
       }),
       column.accessor('quantity', { header: 'Pieces', cell: ({ getValue }) => <span className="tabular-nums">{getValue()}</span> }),
       ...outcomeColumns(column),
-      column.accessor('receivedAt', { header: 'Received', cell: ({ getValue }) => new Date(getValue()).toLocaleDateString() }),
+      column.accessor('receivedAt', { header: 'Received', cell: ({ getValue }) => formatDate(getValue()) }),
     ],
     [],
   );

@@ -10,6 +10,7 @@ import { PageHeader } from '@/components/PageHeader';
 import { counted } from '@/lib/plural';
 import { useShipments } from '../api';
 import { ReceivingTabs } from '../components/ReceivingTabs';
+import { formatDateTime } from '@shared/format';
 
 type Row = ShipmentRow & { lotIds: number[] };
 const column = createColumnHelper<Row>();
@@ -20,7 +21,7 @@ export function ShipmentsPage() {
   const shipments = useShipments(state);
   const columns = useMemo(
     () => [
-      column.accessor('receivedAt', { header: 'Received', cell: ({ getValue }) => new Date(getValue()).toLocaleString() }),
+      column.accessor('receivedAt', { header: 'Received', cell: ({ getValue }) => formatDateTime(getValue()) }),
       column.accessor('poNumber', { header: 'PO', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),
       column.accessor('supplierName', { header: 'Supplier' }),
       column.accessor('packingSlip', { header: 'Packing slip', cell: ({ getValue }) => <span className="font-mono">{getValue()}</span> }),

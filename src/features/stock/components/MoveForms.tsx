@@ -9,6 +9,7 @@ import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useIssue, useLocations, useRelease, useStockParts, useTransfer } from '../api';
+import { plural } from '@shared/format';
 
 type Done = (message: string) => void;
 
@@ -27,7 +28,7 @@ function SerialsField<T extends FieldValues>({ form, optional }: { form: UseForm
       <textarea id="move-serials" rows={4} spellCheck={false} className={`${inputClass} font-mono`} {...form.register(name)} />
       {text.trim() && (
         <p className="text-xs text-ink-muted">
-          {list.serials.length} serial number{list.serials.length === 1 ? '' : 's'}
+          {plural(list.serials.length, 'serial number')}
           {list.errors.map((e) => (
             <span key={e.line + e.message} className="block text-state-fail">
               Line {e.line}: {e.message}
@@ -82,7 +83,7 @@ export function IssueForm({ onDone }: { onDone: Done }) {
     issue.mutate(input, {
       onSuccess: (r) => {
         form.reset();
-        onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} issued to work order ${input.workOrder}.`);
+        onDone(`${plural(r.moved, 'piece')} issued to work order ${input.workOrder}.`);
       },
       onError: (e) => showServerFieldErrors(e, form.setError),
     }),
@@ -115,7 +116,7 @@ export function TransferForm({ onDone }: { onDone: Done }) {
     transfer.mutate(input, {
       onSuccess: (r) => {
         form.reset();
-        onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} transferred.`);
+        onDone(`${plural(r.moved, 'piece')} transferred.`);
       },
       onError: (e) => showServerFieldErrors(e, form.setError),
     }),
@@ -146,7 +147,7 @@ export function PutAwayForm({ lotId, onDone }: { lotId?: string; onDone: Done })
     release.mutate(input, {
       onSuccess: (r) => {
         form.reset({ lotId: '', toLocationId: '', serials: '' });
-        onDone(`${r.moved} piece${r.moved === 1 ? '' : 's'} of lot ${lotName(Number(input.lotId))} put away.`);
+        onDone(`${plural(r.moved, 'piece')} of lot ${lotName(Number(input.lotId))} put away.`);
       },
       onError: (e) => showServerFieldErrors(e, form.setError),
     }),

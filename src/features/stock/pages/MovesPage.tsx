@@ -9,6 +9,7 @@ import { PageHeader } from '@/components/PageHeader';
 import { counted } from '@/lib/plural';
 import { useMoves } from '../api';
 import { StockTabs } from '../components/StockTabs';
+import { formatDateTime } from '@shared/format';
 
 const column = createColumnHelper<MoveView>();
 const place = (code: string | null, empty: string) => (code ? <span className="font-mono">{code}</span> : <span className="text-ink-faint">{empty}</span>);
@@ -26,7 +27,7 @@ export function MovesPage() {
   const narrowed = filters.partId || filters.locationId || filters.lotId;
   const columns = useMemo(
     () => [
-      column.accessor('movedAt', { header: 'When', cell: ({ getValue }) => new Date(getValue()).toLocaleString() }),
+      column.accessor('movedAt', { header: 'When', cell: ({ getValue }) => formatDateTime(getValue()) }),
       column.accessor('serial', {
         header: 'Serial',
         cell: ({ getValue }) => (

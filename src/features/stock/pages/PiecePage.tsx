@@ -13,6 +13,7 @@ import { StateBadge } from '@/components/StateBadge';
 import { useSession } from '@/lib/session';
 import { usePieceHistory } from '../api';
 import { StockTabs } from '../components/StockTabs';
+import { formatDateTime } from '@shared/format';
 
 /** The whole story of one serial: where it came from and every place it has been. */
 export function PiecePage() {
@@ -50,8 +51,8 @@ export function PiecePage() {
           {history.data.total > 1 && <h2 className="pt-2">{piece.part.number}</h2>}
           {piece.releasedAsIs && (
             <Notice tone="caution" title={`Failed inspection: in use as is under deviation ${piece.releasedAsIs.deviationNumber}`}>
-              Released by the lot's signed use-as-is decision ({piece.releasedAsIs.signedBy ?? 'signer unknown'},{' '}
-              {new Date(piece.releasedAsIs.signedAt).toLocaleString()}){piece.releasedAsIs.justification && <>: “{piece.releasedAsIs.justification}”</>}
+              Released by the lot's signed use-as-is decision ({piece.releasedAsIs.signedBy ?? 'signer unknown'}, {formatDateTime(piece.releasedAsIs.signedAt)})
+              {piece.releasedAsIs.justification && <>: “{piece.releasedAsIs.justification}”</>}
             </Notice>
           )}
           <Panel title="Piece" actions={<StateBadge state={piece.state} label={PIECE_STATE_LABELS[piece.state]} />}>
@@ -104,7 +105,7 @@ export function PiecePage() {
                 <ol className="space-y-1.5 text-sm">
                   {piece.moves.map((m) => (
                     <li key={m.id} className="grid grid-cols-[11rem_1fr] gap-2">
-                      <span className="text-xs whitespace-nowrap text-ink-muted">{new Date(m.at).toLocaleString()}</span>
+                      <span className="text-xs whitespace-nowrap text-ink-muted">{formatDateTime(m.at)}</span>
                       <span>
                         <span className="font-medium">{MOVE_REASON_LABELS[m.reason]}</span>{' '}
                         <span className="font-mono text-xs">
@@ -131,7 +132,7 @@ export function PiecePage() {
                   {r.retardanceErrorWaves?.toFixed(4) ?? '—'} λ, axis {r.axisErrorDeg?.toFixed(2) ?? '—'}° · <span className="font-medium">{r.verdict}</span>
                   {r.reasons.length > 0 && ` (${r.reasons.join('; ')})`}
                   <span className="block text-xs text-ink-muted">
-                    {r.file} on {r.instrument}, {new Date(r.measuredAt).toLocaleString()}
+                    {r.file} on {r.instrument}, {formatDateTime(r.measuredAt)}
                     {r.current ? '' : ' — superseded'}
                   </span>
                 </li>

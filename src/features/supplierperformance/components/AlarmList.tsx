@@ -2,6 +2,7 @@
 // past its limit, and whether any piece of that lot was failing yet.
 import { CHARACTERISTIC_LABELS, type DriftAlarmView } from '@shared/schemas/supplierPerformance';
 import { signedError } from './format';
+import { formatDate, plural } from '@shared/format';
 
 export function AlarmList({ alarms, showPart = true }: { alarms: DriftAlarmView[]; showPart?: boolean }) {
   if (alarms.length === 0) return <p className="text-sm text-ink-muted">No drift alarm in the period.</p>;
@@ -11,7 +12,7 @@ export function AlarmList({ alarms, showPart = true }: { alarms: DriftAlarmView[
         const { name } = CHARACTERISTIC_LABELS[a.characteristic];
         return (
           <li key={a.id} className="flex flex-wrap items-baseline gap-x-3 gap-y-0.5 py-1.5 text-sm">
-            <span className="text-xs text-ink-muted tabular-nums">{new Date(a.raisedAt).toLocaleDateString()}</span>
+            <span className="text-xs text-ink-muted tabular-nums">{formatDate(a.raisedAt)}</span>
             {showPart && <span className="font-mono">{a.part.number}</span>}
             <span>
               {name} drifting {a.direction === 'high' ? 'up' : 'down'}: EWMA {signedError(a.characteristic, a.ewma, { finer: 1 })} past{' '}
@@ -19,7 +20,7 @@ export function AlarmList({ alarms, showPart = true }: { alarms: DriftAlarmView[
               <span className="text-ink-muted">(supplier lot {a.lot.supplierLot})</span>
             </span>
             <span className={`text-xs ${a.failingPieces ? 'text-state-fail' : 'text-state-pass'}`}>
-              {a.failingPieces ? `${a.failingPieces} piece${a.failingPieces === 1 ? '' : 's'} already failing` : 'before any piece failed'}
+              {a.failingPieces ? `${plural(a.failingPieces, 'piece')} already failing` : 'before any piece failed'}
             </span>
           </li>
         );

@@ -1,11 +1,12 @@
 // How the supplier-performance pages write their figures.
 import { CHARACTERISTIC_LABELS, type DriftCharacteristic } from '@shared/schemas/supplierPerformance';
+import { plural } from '@shared/format';
 
 export const percent = (rate: number | null) => (rate === null ? '—' : `${(rate * 100).toFixed(rate === 1 || rate === 0 ? 0 : 1)} %`);
 
 export const whole = (n: number | null) => (n === null ? '—' : n.toLocaleString('en-GB'));
 
-export const days = (n: number | null) => (n === null ? '—' : `${n} day${n === 1 ? '' : 's'}`);
+export const days = (n: number | null) => (n === null ? '—' : `${plural(n, 'day')}`);
 
 const DIGITS: Record<DriftCharacteristic, number> = { retardance: 4, axis: 3 };
 

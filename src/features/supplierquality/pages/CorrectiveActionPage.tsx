@@ -26,9 +26,7 @@ import { StateBadge } from '@/components/StateBadge';
 import { useSession } from '@/lib/session';
 import { useCloseRequest, useCorrectiveAction, useReviewResponse, useRevokeLink, useSendNewLink } from '../api';
 import { RequestBadge } from '../components/Badges';
-
-const when = (iso: string) => new Date(iso).toLocaleString();
-const day = (iso: string) => iso.slice(0, 10);
+import { formatDate, formatDateTime } from '@shared/format';
 
 export function CorrectiveActionPage() {
   const id = Number(useParams().requestId);
@@ -55,7 +53,7 @@ export function CorrectiveActionPage() {
           items={[
             ['Sent to', car.sentTo],
             ['Answer due', car.responseDueOn],
-            ['Raised', `${car.requestedBy ?? 'a former user'}, ${when(car.requestedAt)}`],
+            ['Raised', `${car.requestedBy ?? 'a former user'}, ${formatDateTime(car.requestedAt)}`],
             [
               'NCRs',
               <span key="ncrs" className="flex flex-wrap gap-x-2">
@@ -80,7 +78,7 @@ export function CorrectiveActionPage() {
       </section>
       {mayReview && car.status === 'responded' && <ReviewForm car={car} />}
       {car.status === 'accepted' && (
-        <Notice tone="info" title={`Accepted by ${car.acceptedBy ?? 'quality'}, ${when(car.acceptedAt!)}`}>
+        <Notice tone="info" title={`Accepted by ${car.acceptedBy ?? 'quality'}, ${formatDateTime(car.acceptedAt!)}`}>
           Check the lots of {car.part.number} that arrive from now on; close the request once they show the action worked.
         </Notice>
       )}
@@ -88,7 +86,7 @@ export function CorrectiveActionPage() {
       {car.status === 'closed' && (
         <Panel title="Effectiveness verified">
           <p className="text-sm">
-            Closed by {car.closedBy ?? 'quality'}, {when(car.closedAt!)}: {car.effectivenessNote}
+            Closed by {car.closedBy ?? 'quality'}, {formatDateTime(car.closedAt!)}: {car.effectivenessNote}
           </p>
           <p className="mt-1 text-sm">
             Lots checked:{' '}
@@ -117,11 +115,11 @@ function LinkPanel({ car, mayManage }: { car: CarView; mayManage: boolean }) {
         {car.links.map((l) => (
           <li key={l.id} className="flex flex-wrap items-center gap-2">
             <span>
-              Sent {when(l.issuedAt)}, valid until {day(l.expiresAt)}
+              Sent {formatDateTime(l.issuedAt)}, valid until {formatDate(l.expiresAt)}
             </span>
             {l.live && <StateBadge state="live" label="Live" tone="pass" />}
-            {l.submittedAt && <StateBadge state="used" label={`Answered ${day(l.submittedAt)}`} tone="neutral" />}
-            {l.revokedAt && <StateBadge state="revoked" label={`Revoked ${day(l.revokedAt)}`} tone="fail" />}
+            {l.submittedAt && <StateBadge state="used" label={`Answered ${formatDate(l.submittedAt)}`} tone="neutral" />}
+            {l.revokedAt && <StateBadge state="revoked" label={`Revoked ${formatDate(l.revokedAt)}`} tone="fail" />}
             {!l.live && !l.submittedAt && !l.revokedAt && <StateBadge state="expired" label="Expired" tone="neutral" />}
           </li>
         ))}
@@ -153,7 +151,7 @@ function ResponseCard({ car, response: r, latest }: { car: CarView; response: Ca
       <StateBadge state="to-review" label="To review" tone="hold" />
     );
   return (
-    <Panel title={`${r.responderName}, ${when(r.submittedAt)}`} actions={review}>
+    <Panel title={`${r.responderName}, ${formatDateTime(r.submittedAt)}`} actions={review}>
       <div className={latest ? '' : 'opacity-80'}>
         <Details
           columns={2}
@@ -179,7 +177,7 @@ function ResponseCard({ car, response: r, latest }: { car: CarView; response: Ca
         <p className="mt-2 text-xs text-ink-faint">Sent from {r.address ?? 'an unknown address'}.</p>
         {r.review && (
           <p className="mt-1 text-sm">
-            {r.review === 'accepted' ? 'Accepted' : 'Returned'} by {r.reviewedBy}, {when(r.reviewedAt!)}
+            {r.review === 'accepted' ? 'Accepted' : 'Returned'} by {r.reviewedBy}, {formatDateTime(r.reviewedAt!)}
             {r.reviewNote && `: ${r.reviewNote}`}
           </p>
         )}
@@ -270,7 +268,7 @@ function CloseForm({ car }: { car: CarView }) {
             <li key={l.id}>
               <label className="inline-flex items-center gap-2">
                 <input type="checkbox" checked={lots.includes(l.id)} onChange={(e) => toggle(l.id, e.target.checked)} /> {lotName(l.id)} · supplier lot{' '}
-                {l.supplierLot} · {l.decision} · received {day(l.receivedAt)}
+                {l.supplierLot} · {l.decision} · received {formatDate(l.receivedAt)}
               </label>
             </li>
           ))}

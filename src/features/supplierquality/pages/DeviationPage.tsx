@@ -21,8 +21,7 @@ import { useSession } from '@/lib/session';
 import { useApproveDeviation, useDeviation, useWithdrawDeviation } from '../api';
 import { DeviationBadge } from '../components/Badges';
 import { DeviationForm } from '../components/DeviationForm';
-
-const when = (iso: string) => new Date(iso).toLocaleString();
+import { formatDateTime, plural } from '@shared/format';
 
 export function DeviationPage() {
   const id = Number(useParams().deviationId);
@@ -54,7 +53,7 @@ export function DeviationPage() {
         </Notice>
       )}
       {d.withdrawn && (
-        <Notice tone="caution" title={`Withdrawn ${when(d.withdrawn.at)}${d.withdrawn.by ? ` by ${d.withdrawn.by}` : ''}`}>
+        <Notice tone="caution" title={`Withdrawn ${formatDateTime(d.withdrawn.at)}${d.withdrawn.by ? ` by ${d.withdrawn.by}` : ''}`}>
           {d.withdrawn.reason}
         </Notice>
       )}
@@ -82,7 +81,7 @@ export function DeviationPage() {
                 ['Fast-axis tolerance', d.axisTolDeg === null ? 'As ordered' : `± ${d.axisTolDeg}°`],
                 ['Pieces', d.quantityLimit === null ? 'Not recorded' : `${d.quantityUsed} used, ${d.quantityLeft} of ${d.quantityLimit} left`],
                 ['Last day of use', d.expiresOn ?? 'Not recorded'],
-                ['Written by', d.createdBy ? `${d.createdBy}, ${when(d.createdAt)}` : when(d.createdAt)],
+                ['Written by', d.createdBy ? `${d.createdBy}, ${formatDateTime(d.createdAt)}` : formatDateTime(d.createdAt)],
               ]}
             />
           </div>
@@ -94,7 +93,7 @@ export function DeviationPage() {
           <ul className="space-y-2 text-sm">
             {d.approvalsSigned.map((a) => (
               <li key={a.slot}>
-                <strong>{a.slot === 'quality' ? 'Quality manager' : 'Second approver'}:</strong> {a.approver}, {when(a.signedAt)}
+                <strong>{a.slot === 'quality' ? 'Quality manager' : 'Second approver'}:</strong> {a.approver}, {formatDateTime(a.signedAt)}
                 <p className="text-xs text-ink-muted">{a.meaning}</p>
               </li>
             ))}
@@ -106,9 +105,9 @@ export function DeviationPage() {
           <ul className="space-y-1 text-sm">
             {d.uses.map((u, i) => (
               <li key={i} className={u.releasedAt ? 'text-ink-faint line-through' : ''}>
-                {u.quantity} piece{u.quantity === 1 ? '' : 's'} {u.source === 'lot' ? 'of lot' : 'of an NCR of lot'}{' '}
-                {u.lotId ? <Link to={`/lots/${u.lotId}`}>{lotName(u.lotId)}</Link> : '—'}, {when(u.usedAt)}
-                {u.releasedAt && <span className="ml-1 no-underline">(decision superseded {when(u.releasedAt)})</span>}
+                {plural(u.quantity, 'piece')} {u.source === 'lot' ? 'of lot' : 'of an NCR of lot'}{' '}
+                {u.lotId ? <Link to={`/lots/${u.lotId}`}>{lotName(u.lotId)}</Link> : '—'}, {formatDateTime(u.usedAt)}
+                {u.releasedAt && <span className="ml-1 no-underline">(decision superseded {formatDateTime(u.releasedAt)})</span>}
               </li>
             ))}
           </ul>

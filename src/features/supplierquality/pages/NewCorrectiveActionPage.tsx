@@ -12,6 +12,7 @@ import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useNcrChoices, useRaiseCorrectiveAction, type NcrChoice } from '../api';
+import { plural } from '@shared/format';
 
 const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 
@@ -67,7 +68,7 @@ export function NewCorrectiveActionPage() {
                     {n.supplierName} · {n.partNumber}
                     {n.lotId ? ` · ${lotName(n.lotId)}` : ''}
                   </span>
-                  <span className="text-xs text-ink-muted">{[`${n.pieces} piece${n.pieces === 1 ? '' : 's'}`, ...n.defects].join('; ')}</span>
+                  <span className="text-xs text-ink-muted">{[`${plural(n.pieces, 'piece')}`, ...n.defects].join('; ')}</span>
                 </label>
               </li>
             ))}

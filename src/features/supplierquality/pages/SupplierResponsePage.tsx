@@ -18,6 +18,7 @@ import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useSubmitResponse, useSupplierRequest } from '../api';
+import { formatDateTime } from '@shared/format';
 
 export function SupplierResponsePage() {
   const { hash } = useLocation();
@@ -42,7 +43,7 @@ export function SupplierResponsePage() {
         )}
         {sentAt && (
           <Notice tone="info" title="Thank you: your answer was received">
-            It was recorded on {new Date(sentAt).toLocaleString()} and sent to the buyer and quality, who will review it. This link takes no further answer.
+            It was recorded on {formatDateTime(sentAt)} and sent to the buyer and quality, who will review it. This link takes no further answer.
           </Notice>
         )}
         {request.data && !sentAt && <RequestSummary view={request.data} />}

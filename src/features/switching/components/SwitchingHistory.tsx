@@ -7,6 +7,7 @@ import { DISPOSITION_LABELS, type Disposition } from '@shared/inspection/lotVerd
 import type { SwitchingHistoryEntry } from '@shared/schemas/switching';
 import { lotName } from '@shared/schemas/stock';
 import { PhaseBadge } from '@/components/PhaseBadge';
+import { formatDateTime, plural } from '@shared/format';
 
 function Title({ entry }: { entry: SwitchingHistoryEntry }) {
   if (entry.kind === 'resume') return <>Inspection resumed</>;
@@ -19,8 +20,8 @@ function Title({ entry }: { entry: SwitchingHistoryEntry }) {
       {entry.accepted ? 'accepted' : 'not accepted'}
       <span className="font-normal text-ink-muted">
         {' '}
-        · {entry.decision ? (DISPOSITION_LABELS[entry.decision as Disposition] ?? entry.decision) : ''} · {entry.defectives} defective
-        {entry.defectives === 1 ? '' : 's'} · sampled on {entry.sampledOn}
+        · {entry.decision ? (DISPOSITION_LABELS[entry.decision as Disposition] ?? entry.decision) : ''} ·{' '}
+        {entry.defectives === null ? 'defectives not recorded' : plural(entry.defectives, 'defective')} · sampled on {entry.sampledOn}
       </span>
     </>
   );
@@ -37,7 +38,7 @@ export function SwitchingHistory({ entries }: { entries: SwitchingHistoryEntry[]
           data-kind={entry.kind}
         >
           <div className="text-xs text-ink-muted">
-            <p>{new Date(entry.at).toLocaleString()}</p>
+            <p>{formatDateTime(entry.at)}</p>
             <p className="text-2xs">#{entry.position} in the sequence</p>
           </div>
           <div className="min-w-0 space-y-1">

@@ -10,6 +10,7 @@ import { PartLabel } from '@/components/PartLabel';
 import { counted } from '@/lib/plural';
 import { useSwitchingList } from '../api';
 import { PhaseBadge } from '@/components/PhaseBadge';
+import { formatDate } from '@shared/format';
 
 const column = createColumnHelper<SwitchingRow>();
 const number = (value: number) => <span className="tabular-nums">{value}</span>;
@@ -38,7 +39,7 @@ export function SwitchingListPage() {
       column.accessor('changedAt', {
         header: 'Last event',
         enableSorting: false,
-        cell: ({ getValue }) => (getValue() ? new Date(getValue()!).toLocaleDateString() : '—'),
+        cell: ({ getValue }) => (getValue() ? formatDate(getValue()!) : '—'),
       }),
     ],
     [],

@@ -15,6 +15,7 @@ import { PhaseBadge } from '@/components/PhaseBadge';
 import { ResumeForm } from '../components/ResumeForm';
 import { SwitchingCounts } from '../components/SwitchingCounts';
 import { SwitchingHistory } from '../components/SwitchingHistory';
+import { formatDateTime } from '@shared/format';
 
 const WHAT_IT_MEANS = {
   normal: 'Lots received now are sampled on normal inspection.',
@@ -59,7 +60,7 @@ export function SwitchingPage() {
             {SWITCHING_PHASE_LABELS[view.phase]}
           </p>
           <p className="mt-1 text-sm text-ink-muted">{WHAT_IT_MEANS[view.phase]}</p>
-          {lastChange && <p className="mt-2 text-xs text-ink-faint">Since {new Date(lastChange.at).toLocaleString()}.</p>}
+          {lastChange && <p className="mt-2 text-xs text-ink-faint">Since {formatDateTime(lastChange.at)}.</p>}
           {mayManage && view.phase !== 'stopped' && !overriding && (
             <div className="mt-3 border-t border-paper-line pt-3">
               <Button
