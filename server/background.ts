@@ -1,6 +1,6 @@
 // The background work every server process takes part in (server/jobs): export bundles, mail
 // delivery, the scheduled sweeps of due mail and of orphan files, reminders of overdue corrective
-// actions and the suppliers' drift check. Whichever process takes a job does it; a job whose
+// actions, the suppliers' drift check and calibrations coming due. Whichever process takes a job does it; a job whose
 // process dies is retried by another.
 import { startJobs, stopJobs, QUEUES, type JobDefinition } from './jobs/queue';
 import { mailJobs } from './mail/outbox';
@@ -8,6 +8,7 @@ import { exportJob } from './exports/exportJobs';
 import { sweepOrphanBlobs } from './storage/sweep';
 import { correctiveReminderJob } from './supplierquality/reminders';
 import { driftCheckJob } from './supplierperformance/drift';
+import { calibrationReminderJob } from './instruments/reminders';
 
 const blobSweepJob: JobDefinition = {
   queue: QUEUES.blobSweep,
@@ -17,6 +18,6 @@ const blobSweepJob: JobDefinition = {
   },
 };
 
-export const startBackgroundWork = () => startJobs([exportJob, ...mailJobs, blobSweepJob, correctiveReminderJob, driftCheckJob]);
+export const startBackgroundWork = () => startJobs([exportJob, ...mailJobs, blobSweepJob, correctiveReminderJob, driftCheckJob, calibrationReminderJob]);
 
 export const stopBackgroundWork = stopJobs;

@@ -22,6 +22,8 @@ export const POLICIES = {
   'disposition.sign': ['quality'],
   'instruments.read': EVERYONE,
   'instruments.manage': ['quality'],
+  // Recording a calibration and attaching its certificate.
+  'instruments.calibrate': ['quality', 'admin'],
   // The plan a lot size, level and AQL give (a look-up in the published tables).
   'sampling.read': EVERYONE,
   'sampling.manage': ['quality'],

@@ -9,14 +9,17 @@ export class Instrument extends Model<InferAttributes<Instrument>, InferCreation
   declare angleSign: 1 | -1;
   declare uncertaintyWaves: number;
   declare uncertaintyDeg: number;
+  /** The newest calibration record's dates, kept by a trigger (migration 1200); written only through
+   * a record, the first one with the instrument's registration. */
   declare calibratedOn: string;
   declare calibrationDueOn: string;
   declare active: CreationOptional<boolean>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
-  /** Readings taken on `day` (YYYY-MM-DD) count only while the calibration is current. */
-  isCalibratedOn(day: string) {
+  /** Whether the newest calibration covers `day` (YYYY-MM-DD). Bench files are checked against every
+   * record instead (an older calibration covers the days it was in force). */
+  newestCalibrationCovers(day: string) {
     return day >= this.calibratedOn && day <= this.calibrationDueOn;
   }
 

@@ -3,6 +3,7 @@ import type { Sequelize } from 'sequelize';
 import { User } from './User';
 import { OutboxMail } from './OutboxMail';
 import { Instrument } from './Instrument';
+import { InstrumentCalibration } from './InstrumentCalibration';
 import { Supplier } from './Supplier';
 import { Part } from './Part';
 import { PurchaseOrder } from './PurchaseOrder';
@@ -24,6 +25,7 @@ export function initModels(sequelize: Sequelize) {
   User.initModel(sequelize);
   OutboxMail.initModel(sequelize);
   Instrument.initModel(sequelize);
+  InstrumentCalibration.initModel(sequelize);
   ExportJob.initModel(sequelize);
   initReceivingModels(sequelize);
   const inspection = initInspectionModels(sequelize);
@@ -39,6 +41,7 @@ export function initModels(sequelize: Sequelize) {
     User,
     OutboxMail,
     Instrument,
+    InstrumentCalibration,
     ExportJob,
     Supplier,
     Part,
@@ -72,7 +75,23 @@ function initReceivingModels(sequelize: Sequelize) {
   Piece.belongsTo(Lot, { as: 'lot', foreignKey: 'lotId' });
 }
 
-export { User, OutboxMail, Instrument, ExportJob, Supplier, Part, PurchaseOrder, PurchaseOrderLine, Shipment, Lot, Piece, Location, StockMove, Attachment };
+export {
+  User,
+  OutboxMail,
+  Instrument,
+  InstrumentCalibration,
+  ExportJob,
+  Supplier,
+  Part,
+  PurchaseOrder,
+  PurchaseOrderLine,
+  Shipment,
+  Lot,
+  Piece,
+  Location,
+  StockMove,
+  Attachment,
+};
 export type { OutboxAttachment } from './OutboxMail';
 export { Session, PasswordResetToken, type SessionEndReason } from './auth';
 export {

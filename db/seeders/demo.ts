@@ -9,7 +9,10 @@ import { seedReceivingDemo, seedStockDemo } from './receivingDemo';
 import { seedNonconformanceDemo } from './nonconformanceDemo';
 import { seedCorrectiveActionDemo } from './supplierQualityDemo';
 import { ROLES, type Role } from '../../shared/schemas/roles';
-import { instrumentInputSchema, type InstrumentInput } from '../../shared/schemas/instruments';
+import type { InstrumentInput } from '../../shared/schemas/instruments';
+import { actorFromUser } from '../../server/audit/record';
+import { recordCalibration } from '../../server/instruments/calibrations';
+import { registerInstrument } from '../../server/instruments/instruments';
 import { hashPassword } from '../../server/auth/passwords';
 
 export const DEMO_PASSWORD = 'phaselot-demo';
@@ -33,7 +36,7 @@ async function seedUsers() {
 }
 
 /** The inspection bench of the demo site; one instrument is past its calibration date on purpose. */
-async function seedInstruments() {
+async function seedInstruments(quality: User) {
   const rows: InstrumentInput[] = [
     {
       code: 'BENCH-2',
@@ -75,7 +78,21 @@ async function seedInstruments() {
       active: false,
     },
   ];
-  return Instrument.bulkCreate(rows.map((r) => instrumentInputSchema.parse(r)));
+  const actor = actorFromUser(quality);
+  const instruments: Instrument[] = [];
+  for (const row of rows) instruments.push(await registerInstrument(actor, row, 'Oskarvale Metrology Laboratory'));
+  // BENCH-2's history: the calibration before the current one.
+  await recordCalibration(actor, instruments[0].id, {
+    calibratedOn: '2025-05-09',
+    dueOn: '2026-05-12',
+    performedBy: 'Oskarvale Metrology Laboratory',
+    certificateNumber: 'OML-25-0418',
+    uncertaintyRetardance: 0.0009,
+    uncertaintyRetardanceUnit: 'waves',
+    uncertaintyAngleDeg: 0.05,
+    uncertaintyNote: 'Expanded uncertainty, k = 2, at 632.8 nm',
+  });
+  return instruments;
 }
 
 export async function isDatabaseEmpty() {
@@ -86,7 +103,7 @@ export async function isDatabaseEmpty() {
 export async function seedDemo() {
   faker.seed(4870);
   const users = await seedUsers();
-  const instruments = await seedInstruments();
+  const instruments = await seedInstruments(users.quality);
   await sequelize.query(`INSERT INTO site_settings (id, value) VALUES (1, :value::jsonb)`, {
     replacements: { value: JSON.stringify({ siteName: DEMO_SITE_NAME, reducedInspectionEnabled: true }) },
   });

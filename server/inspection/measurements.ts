@@ -19,6 +19,7 @@ import {
 } from '../../shared/optics';
 import { DECIDED_LOT_STATES, LOT_STATE_LABELS, lotName, type LotState } from '../../shared/schemas/stock';
 import { recordAudit, type AuditActor } from '../audit/record';
+import { calibrationRefusal } from '../instruments/calibrations';
 import { AppError, badRequest } from '../http/errors';
 import { enqueue, QUEUES } from '../jobs/queue';
 import { sha256, storeBlob } from '../storage/blobs';
@@ -130,13 +131,8 @@ async function prepareFile(
   const used = { id: instrument.id, code: instrument.code };
   const day = measuredOn(metadata);
   if ('problem' in day) return refused(unreadable() ?? day.problem, metadata.metadata, used);
-  if (!instrument.isCalibratedOn(day.day)) {
-    return refused(
-      `Instrument ${instrument.code} was not in calibration on ${day.day} (calibrated ${instrument.calibratedOn}, due ${instrument.calibrationDueOn}): its readings are refused`,
-      metadata.metadata,
-      used,
-    );
-  }
+  const outOfCalibration = await calibrationRefusal(instrument, day.day, transaction);
+  if (outOfCalibration) return refused(outOfCalibration, metadata.metadata, used);
   return { base, text, instrument, used };
 }
 

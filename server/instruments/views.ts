@@ -1,8 +1,7 @@
 // An instrument as the API shows it, which is also what the audit trail records of one.
 import type { Instrument } from '../../db/models';
+import { todayUtc } from '../../shared/calibration';
 import type { InstrumentView } from '../../shared/schemas/instruments';
-
-export const today = () => new Date().toISOString().slice(0, 10);
 
 export function presentInstrument(i: Instrument): InstrumentView {
   return {
@@ -17,6 +16,6 @@ export function presentInstrument(i: Instrument): InstrumentView {
     calibratedOn: i.calibratedOn,
     calibrationDueOn: i.calibrationDueOn,
     active: i.active,
-    calibrationCurrent: i.isCalibratedOn(today()),
+    calibrationCurrent: i.newestCalibrationCovers(todayUtc()),
   };
 }

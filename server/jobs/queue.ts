@@ -21,6 +21,7 @@ export const QUEUES = {
   blobSweep: 'blob-sweep',
   correctiveReminders: 'corrective-action-reminders',
   supplierDriftCheck: 'supplier-drift-check',
+  calibrationReminders: 'calibration-reminders',
 } as const;
 
 export type QueueName = (typeof QUEUES)[keyof typeof QUEUES];

@@ -88,7 +88,7 @@ describe('orphan files', () => {
 
   it('knows every column that names a stored file', async () => {
     const columns = await sequelize.query<{ table_name: string; column_name: string }>(
-      `SELECT table_name, column_name FROM information_schema.columns WHERE table_schema = 'public' AND column_name IN ('storage_key', 'blob_key')`,
+      `SELECT table_name, column_name FROM information_schema.columns WHERE table_schema = 'public' AND (column_name LIKE '%storage\\_key' OR column_name = 'blob_key')`,
       { type: QueryTypes.SELECT },
     );
     const known = BLOB_REFERENCES.map((r) => `${r.table}.${r.column}`);

@@ -13,6 +13,7 @@ export const BLOB_REFERENCES = [
   { table: 'export_jobs', column: 'storage_key' },
   { table: 'attachments', column: 'sha256' },
   { table: 'corrective_action_attachments', column: 'storage_key' },
+  { table: 'instrument_calibrations', column: 'certificate_storage_key' },
   { table: 'mail_outbox', column: 'attachments', jsonKey: 'storageKey' },
 ] as const;
 
