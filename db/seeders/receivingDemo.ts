@@ -149,7 +149,17 @@ const PARTS: (PartInput & { key: string; spec: PartSpecInput })[] = [
 ];
 type PartKey = (typeof PARTS)[number]['key'];
 
-type Line = { part: PartKey; quantity: number; unitPrice: number; inspectionLevel?: PoLineInput['inspectionLevel']; aql: number; hundredPercent?: boolean };
+// Lines still owed carry a due date counted from the day the seed runs (days after it; negative: late),
+// so the clerk's dashboard always has lines due and late, whenever the demo is seeded.
+type Line = {
+  part: PartKey;
+  quantity: number;
+  unitPrice: number;
+  inspectionLevel?: PoLineInput['inspectionLevel'];
+  aql: number;
+  hundredPercent?: boolean;
+  dueInDays?: number;
+};
 type Receipt = { line: number; at: string; quantity: number; first: number; prefix: string; supplierLot: string; carrier: string; overReceiptReason?: string };
 type Order = { number: string; supplier: SupplierKey; orderedOn: string; lines: Line[]; receipts: Receipt[]; closeAfterwards?: boolean; notes?: string };
 
@@ -183,7 +193,7 @@ const ORDERS: Order[] = [
     orderedOn: '2026-10-28',
     lines: [
       { part: 'hwp532', quantity: 60, unitPrice: 138, aql: 1 },
-      { part: 'qwp633', quantity: 100, unitPrice: 84, aql: 1 },
+      { part: 'qwp633', quantity: 100, unitPrice: 84, aql: 1, dueInDays: -2 },
     ],
     receipts: [
       { line: 1, at: '2026-11-09T08:55:00Z', quantity: 60, first: 1, prefix: 'HG-', supplierLot: 'QCF-2611-C', carrier: 'Pellow Couriers' },
@@ -204,7 +214,7 @@ const ORDERS: Order[] = [
     notes: 'First order with Vey & Lune: every plate is measured.',
     lines: [
       { part: 'qwp1064', quantity: 300, unitPrice: 72, aql: 0.65, hundredPercent: true },
-      { part: 'hwp1064', quantity: 50, unitPrice: 205, aql: 0.65, hundredPercent: true },
+      { part: 'hwp1064', quantity: 50, unitPrice: 205, aql: 0.65, hundredPercent: true, dueInDays: 5 },
     ],
     receipts: [{ line: 1, at: '2026-11-30T13:45:00Z', quantity: 300, first: 1, prefix: 'Q1-', supplierLot: 'VL-0042', carrier: 'Brindle Air Parcel' }],
   },
@@ -212,7 +222,7 @@ const ORDERS: Order[] = [
     number: 'VW-PO-26-0188',
     supplier: 'orrisdale',
     orderedOn: '2026-11-20',
-    lines: [{ part: 'ach700', quantity: 40, unitPrice: 66, aql: 1.5 }],
+    lines: [{ part: 'ach700', quantity: 40, unitPrice: 66, aql: 1.5, dueInDays: 11 }],
     receipts: [],
   },
 ];
@@ -260,6 +270,7 @@ export async function seedReceivingDemo(users: Record<Role, User>) {
         inspectionLevel: line.inspectionLevel ?? 'II',
         aql: line.aql,
         hundredPercent: line.hundredPercent ?? false,
+        dueOn: line.dueInDays === undefined ? undefined : new Date(Date.now() + line.dueInDays * 86_400_000).toISOString().slice(0, 10),
       })),
     };
     const created = await createPurchaseOrder(buyer, input);

@@ -117,7 +117,7 @@ export const receiving: Section<'receiving'> = {
       awaited: {
         lines: Number(row.lines),
         pieces: Number(row.pieces),
-        bySupplier: row.by_supplier.map((b) => ({ label: b.name, value: Number(b.pieces), link: `/purchasing/suppliers/${b.id}` })),
+        bySupplier: row.by_supplier.map((b) => ({ label: b.name, value: Number(b.pieces), link: `/purchasing/orders?q=${encodeURIComponent(b.name)}` })),
       },
     };
   },

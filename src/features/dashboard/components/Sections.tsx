@@ -2,7 +2,6 @@
 import { formatDate, formatDateTime, plural, wholeNumber } from '@shared/format';
 import type { AuditSection, DashboardLotRow, InspectionSection, PurchasingSection, QualitySection, ReceivingSection } from '@shared/schemas/dashboard';
 import { CAR_STATUS_LABELS } from '@shared/schemas/correctiveActions';
-import { NCR_STATUS_LABELS } from '@shared/schemas/nonconformance';
 import { LOT_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { StateBadge } from '@/components/StateBadge';
 import { Bars, DailyColumns } from './Bars';
@@ -145,7 +144,7 @@ export function Quality({ section }: { section: QualitySection }) {
             detail={`${ncr.supplier}, opened ${formatDate(ncr.openedOn)}`}
             aside={
               <>
-                <StateBadge state={ncr.status} label={NCR_STATUS_LABELS[ncr.status]} />
+                <StateBadge state={ncr.status} label={ncr.status === 'open' ? 'Open' : 'Dispositioned'} />
                 <span className="mt-0.5 block">
                   <Age days={ncr.days} late={30} />
                 </span>
