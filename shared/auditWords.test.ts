@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { actionWords, changedFields, fieldWords, recordTypeWords, valueWords, wordsOf } from './auditWords';
+import { actionWords, changedFields, fieldWords, recordTypeWords, valueWords } from './auditWords';
+import { wordsOf } from './format';
 
 describe('the audit trail in words', () => {
   it('names record types and actions in words, never by their codes', () => {

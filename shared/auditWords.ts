@@ -3,7 +3,7 @@
 import { DISPOSITIONS, DISPOSITION_LABELS } from './inspection/lotVerdict';
 import { NCR_DECISIONS, NCR_DECISION_LABELS } from './schemas/nonconformance';
 import { MOVE_REASONS, MOVE_REASON_LABELS } from './schemas/stock';
-import { formatDateTime } from './format';
+import { formatDateTime, wordsOf } from './format';
 
 export const RECORD_TYPE_LABELS: Record<string, string> = {
   audit: 'Audit trail',
@@ -99,16 +99,6 @@ export const ACTION_GROUP_LABELS: Record<string, string> = {
   'stock.': 'Any stock move',
   'switching.': 'Any switching event',
 };
-
-/** Words out of a code: "drift-alarm" → "Drift alarm", "supplierLot" → "Supplier lot". */
-export function wordsOf(code: string): string {
-  const words = code
-    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
-    .replace(/[-_.]+/g, ' ')
-    .trim()
-    .toLowerCase();
-  return words.charAt(0).toUpperCase() + words.slice(1);
-}
 
 export const recordTypeWords = (type: string) => RECORD_TYPE_LABELS[type] ?? wordsOf(type);
 export const actionWords = (action: string) => ACTION_LABELS[action] ?? wordsOf(action);

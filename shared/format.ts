@@ -57,3 +57,13 @@ export function signedFixed(value: number | null | undefined, digits: number): s
   const text = fixed(value, digits);
   return text === MISSING || text.startsWith('-') || Number(text) === 0 ? text : `+${text}`;
 }
+
+/** Words out of a code, for a state or field that has no label of its own: "drift-alarm" → "Drift alarm", "supplierLot" → "Supplier lot". */
+export function wordsOf(code: string): string {
+  const words = code
+    .replace(/([a-z0-9])([A-Z])/g, '$1 $2')
+    .replace(/[-_.]+/g, ' ')
+    .trim()
+    .toLowerCase();
+  return words.charAt(0).toUpperCase() + words.slice(1);
+}

@@ -4,6 +4,7 @@
 import PDFDocument from 'pdfkit';
 import QRCode from 'qrcode';
 import { join, resolve } from 'node:path';
+import { fixed, MISSING, signedFixed } from '../../shared/format';
 import { lotName } from '../../shared/schemas/stock';
 
 const FONTS = resolve(import.meta.dirname, '../../fonts');
@@ -40,10 +41,6 @@ export type LotReportData = {
   verifyUrl: string;
 };
 
-const fmt = (value: number | null, digits: number, unit = '') =>
-  value === null ? '—' : `${value >= 0 && unit !== 'nm' ? '+' : ''}${value.toFixed(digits)}${unit}`;
-const plain = (value: number | null, digits: number) => (value === null ? '—' : value.toFixed(digits));
-
 const INK = '#1e2421';
 const MUTED = '#5b645f';
 const FRAME = '#234a41';
@@ -51,11 +48,11 @@ const LINE = '#dcd9cd';
 
 const COLUMNS: { header: string; width: number; align: 'left' | 'right'; cell: (p: ReportPiece) => string }[] = [
   { header: 'Serial', width: 78, align: 'left', cell: (p) => p.serial },
-  { header: 'λ (nm)', width: 44, align: 'right', cell: (p) => plain(p.wavelengthNm, 1) },
-  { header: 'Ret. (λ)', width: 62, align: 'right', cell: (p) => plain(p.retardanceWaves, 4) },
-  { header: 'Ret. (nm)', width: 64, align: 'right', cell: (p) => plain(p.retardanceNm, 2) },
-  { header: 'Error (λ)', width: 58, align: 'right', cell: (p) => fmt(p.retardanceErrorWaves, 4) },
-  { header: 'Axis error', width: 54, align: 'right', cell: (p) => fmt(p.axisErrorDeg, 2, '°') },
+  { header: 'λ (nm)', width: 44, align: 'right', cell: (p) => fixed(p.wavelengthNm, 1) },
+  { header: 'Ret. (λ)', width: 62, align: 'right', cell: (p) => fixed(p.retardanceWaves, 4) },
+  { header: 'Ret. (nm)', width: 64, align: 'right', cell: (p) => fixed(p.retardanceNm, 2) },
+  { header: 'Error (λ)', width: 58, align: 'right', cell: (p) => signedFixed(p.retardanceErrorWaves, 4) },
+  { header: 'Axis error', width: 54, align: 'right', cell: (p) => (p.axisErrorDeg === null ? MISSING : `${signedFixed(p.axisErrorDeg, 2)}°`) },
   { header: 'Verdict', width: 135, align: 'left', cell: (p) => (p.reasons.length ? `${p.verdict}: ${p.reasons.join('; ')}` : p.verdict) },
 ];
 

@@ -20,6 +20,7 @@ import { lotForInspection, routeLotPieces, routingOutcome } from './lotAccess';
 import { evaluateLot } from './evaluation';
 import { completeSortWhenMeasured } from './sort';
 import { recordLotInSwitching } from './switching';
+import { formatDateTime } from '../../shared/format';
 
 export async function signDisposition(signer: User, lotId: number, input: DispositionInput, request: Pick<AuditActor, 'requestId' | 'address'> = {}) {
   const actor = { ...actorFromUser(signer), ...request };
@@ -105,7 +106,7 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
           to: [lot.buyer?.email ?? signer.email],
           subject: `Lot ${lotName(lot.id)} rejected${sorting ? ', 100 % sort ordered' : ''}: ${lot.part.number}, supplier lot ${lot.supplierLot} (${lot.supplier.name})`,
           text: [
-            `Lot ${lotName(lot.id)} of ${lot.part.number} (${lot.part.description}) from ${lot.supplier.name}, supplier lot ${lot.supplierLot}, PO ${lot.poNumber}, was rejected by ${signer.name} on ${disposition.signedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC${sorting ? ', with a 100 % sort' : ''}.`,
+            `Lot ${lotName(lot.id)} of ${lot.part.number} (${lot.part.description}) from ${lot.supplier.name}, supplier lot ${lot.supplierLot}, PO ${lot.poNumber}, was rejected by ${signer.name} on ${formatDateTime(disposition.signedAt)}${sorting ? ', with a 100 % sort' : ''}.`,
             '',
             `Sampling: ${evaluation.planSummary}. ${verdict.explanation}.`,
             '',
@@ -115,7 +116,7 @@ export async function signDisposition(signer: User, lotId: number, input: Dispos
             input.justification ? `Note from quality: ${input.justification}` : '',
             sorting
               ? `The inspection report ${report.number} is attached. Every remaining piece is being measured: conforming pieces will be released to stock, nonconforming ones returned to the supplier.`
-              : `The inspection report ${report.number} is attached. The lot has been moved to return-to-vendor.`,
+              : `The inspection report ${report.number} is attached. The lot has been moved to the return-to-vendor area.`,
           ].join('\n'),
           attachments: [{ filename: `${report.number}.pdf`, contentType: 'application/pdf', content: report.pdf }],
           related: { type: 'lot', id: lot.id },

@@ -6,6 +6,7 @@ import canonicalize from 'canonicalize';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
 import { Instrument, LotDocument, MeasurementFile, type DispositionRecord, type User } from '../../db/models';
+import { fixed, formatDateTime } from '../../shared/format';
 import { DISPOSITION_LABELS } from '../../shared/inspection/lotVerdict';
 import { config } from '../config';
 import { renderLotReport, type LotReportData, type ReportPiece } from '../documents/lotReport';
@@ -14,8 +15,6 @@ import { sha256, storeBlob } from '../storage/blobs';
 import type { LotEvaluation } from './evaluation';
 import type { LotForInspection } from './lotAccess';
 import { specLines } from './specText';
-
-const utc = (date: Date) => `${date.toISOString().slice(0, 16).replace('T', ' ')} UTC`;
 
 export const verifyUrl = (number: string, hash: string) => `${config.PUBLIC_URL}/verify?number=${encodeURIComponent(number)}&hash=${hash}`;
 
@@ -69,7 +68,7 @@ async function instrumentsUsed(evaluation: LotEvaluation, transaction: Transacti
     code: i.code,
     calibratedOn: i.calibratedOn,
     calibrationDueOn: i.calibrationDueOn,
-    uncertainty: `±${i.uncertaintyWaves.toFixed(4)} λ, ±${i.uncertaintyDeg.toFixed(2)}° (k = 2)`,
+    uncertainty: `±${fixed(i.uncertaintyWaves, 4)} λ, ±${fixed(i.uncertaintyDeg, 2)}° (k = 2)`,
   }));
 }
 
@@ -98,7 +97,7 @@ export async function issueLotDocuments(
   const releasedIds = new Set(released);
   const { verdict } = evaluation;
   const common = {
-    issuedAt: utc(issuedAt),
+    issuedAt: formatDateTime(issuedAt),
     siteName: site.siteName,
     supplier: lot.supplier.name,
     purchaseOrder: `${lot.poNumber} line ${lot.lineNumber}`,
@@ -114,7 +113,7 @@ export async function issueLotDocuments(
     disposition: {
       decision: DISPOSITION_LABELS[disposition.decision],
       signer: `${signer.name} (${signer.email})`,
-      signedAt: utc(disposition.signedAt),
+      signedAt: formatDateTime(disposition.signedAt),
       meaning: disposition.meaning,
       deviation: disposition.deviationNumber ?? undefined,
       note: disposition.justification ?? undefined,

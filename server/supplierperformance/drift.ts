@@ -22,7 +22,7 @@ import { QUEUES, type JobDefinition } from '../jobs/queue';
 import { queueMail } from '../mail/outbox';
 import { measuredPieces } from './capability';
 import { characteristicView, currentDrift } from './series';
-import { plural } from '../../shared/format';
+import { formatDate, plural, signedFixed } from '../../shared/format';
 
 export const supplierPerformanceUrl = (supplierId: number, partId: number) => `${config.PUBLIC_URL}/supplier-performance/${supplierId}?partId=${partId}`;
 
@@ -51,7 +51,7 @@ function alarmText(
 ) {
   const { name, unit } = CHARACTERISTIC_LABELS[characteristic];
   const digits = DIGITS[characteristic];
-  const value = (x: number) => `${x >= 0 ? '+' : ''}${x.toFixed(digits)} ${unit}`;
+  const value = (x: number) => `${signedFixed(x, digits)} ${unit}`;
   const lots = view.lots.slice(-6);
   return [
     `The mean ${name.toLowerCase()} of ${names.part} from ${names.supplier} is drifting ${drift.direction === 'high' ? 'up' : 'down'}: the EWMA of the lot means reached ${value(drift.lot.ewma!)} with lot ${drift.lot.lot.name} (supplier lot ${drift.lot.lot.supplierLot}), past its limit of ${value(drift.limit)}.`,
@@ -60,7 +60,7 @@ function alarmText(
     'Latest lot means:',
     ...lots.map(
       (p) =>
-        `  ${p.lot.name} (${p.receivedAt.slice(0, 10)}, ${p.pieces} measured${p.failing ? `, ${p.failing} failing` : ''}): ${value(p.mean)}, EWMA ${value(p.ewma!)}`,
+        `  ${p.lot.name} (${formatDate(p.receivedAt)}, ${p.pieces} measured${p.failing ? `, ${p.failing} failing` : ''}): ${value(p.mean)}, EWMA ${value(p.ewma!)}`,
     ),
     '',
     `EWMA of the lot means around the ordered value, weight ${view.ewma!.lambda}, limits at ${view.ewma!.width} standard deviations; σ of a lot mean ${view.ewma!.sigma.toFixed(digits + 1)} ${unit} from the moving ranges.`,

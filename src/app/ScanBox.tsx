@@ -9,6 +9,7 @@ import { ScanLine } from 'lucide-react';
 import { can } from '@shared/policies';
 import type { LookupMatch, LookupView } from '@shared/schemas/labels';
 import type { Role } from '@shared/schemas/roles';
+import { lotName } from '@shared/schemas/stock';
 import { api } from '@/lib/api';
 
 const SCAN_GAP_MS = 80;
@@ -17,7 +18,7 @@ const MIN_SCAN_LENGTH = 3;
 const matchText = (match: LookupMatch) => {
   switch (match.kind) {
     case 'piece':
-      return { title: `Serial ${match.serial}`, detail: `${match.partNumber}, lot L-${match.lotId}` };
+      return { title: `Serial ${match.serial}`, detail: `${match.partNumber}, lot ${lotName(match.lotId)}` };
     case 'lot':
       return { title: `Lot ${match.name}`, detail: match.partNumber };
     case 'purchase-order':

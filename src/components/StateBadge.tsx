@@ -1,5 +1,7 @@
 // A state as a small coloured tag. The tone colours are reserved for states: quarantine amber,
 // pass green, fail red, hold violet, information blue.
+import { wordsOf } from '@shared/format';
+
 const tones = {
   quarantine: 'bg-state-quarantine/10 text-state-quarantine border-state-quarantine/30',
   pass: 'bg-state-pass/10 text-state-pass border-state-pass/30',
@@ -43,7 +45,7 @@ export function StateBadge({ state, label, tone }: { state: string; label?: stri
       data-state={state}
       className={`inline-block rounded border px-1.5 py-px text-2xs font-medium tracking-wide whitespace-nowrap uppercase ${tones[tone ?? STATE_TONES[state] ?? 'neutral']}`}
     >
-      {label ?? state}
+      {label ?? wordsOf(state)}
     </span>
   );
 }

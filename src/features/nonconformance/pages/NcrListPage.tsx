@@ -27,7 +27,7 @@ export function NcrListPage() {
   const columns = useMemo(
     () => [
       column.accessor('number', { header: 'NCR', cell: ({ getValue }) => <span className="font-mono whitespace-nowrap">{getValue()}</span> }),
-      column.accessor('status', { header: 'Status', cell: ({ getValue }) => <StateBadge state={getValue()} label={getValue()} /> }),
+      column.accessor('status', { header: 'Status', cell: ({ getValue }) => <StateBadge state={getValue()} label={NCR_STATUS_LABELS[getValue()]} /> }),
       column.accessor('supplierName', { header: 'Supplier' }),
       column.accessor('partNumber', { header: 'Part', cell: ({ getValue }) => <span className="font-mono whitespace-nowrap">{getValue()}</span> }),
       column.accessor('lotId', {
