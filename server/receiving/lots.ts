@@ -49,39 +49,34 @@ function lotMoveBatches(lotId: number) {
 }
 
 export async function findLot(id: number) {
-  const lot = await Lot.findByPk(id, {
-    include: [
-      { model: Shipment, as: 'shipment', include: [{ model: User, as: 'receiver' }] },
-      { model: PurchaseOrderLine, as: 'line', include: [{ model: PurchaseOrder, as: 'purchaseOrder', include: [{ model: Supplier, as: 'supplier' }] }] },
-      { model: Part, as: 'part' },
-    ],
-  });
+  // The reads are independent: they run at once, each on a connection of the pool, so that opening
+  // a lot waits for the slowest of them rather than for their sum.
+  const [lot, pieces, attachments, plan, [quantities], [{ waiting }], auditEvents, moves] = await Promise.all([
+    Lot.findByPk(id, {
+      include: [
+        { model: Shipment, as: 'shipment', include: [{ model: User, as: 'receiver' }] },
+        { model: PurchaseOrderLine, as: 'line', include: [{ model: PurchaseOrder, as: 'purchaseOrder', include: [{ model: Supplier, as: 'supplier' }] }] },
+        { model: Part, as: 'part' },
+      ],
+    }),
+    sequelize.query<{ id: number; serial: string; state: PieceState; location: string | null }>(
+      `SELECT p.id, p.serial, p.state, loc.code AS location FROM pieces p
+         LEFT JOIN piece_locations pl ON pl.piece_id = p.id LEFT JOIN locations loc ON loc.id = pl.location_id
+        WHERE p.lot_id = :id ORDER BY p.serial`,
+      { type: QueryTypes.SELECT, replacements: { id } },
+    ),
+    Attachment.findAll({ where: { lotId: id }, order: [['id', 'ASC']] }),
+    inspectionPlanOf(id),
+    sequelize.query<Record<string, unknown>>(`SELECT * FROM ${pieceQuantitiesSql('pc.lot_id = :id')} AS q`, { type: QueryTypes.SELECT, replacements: { id } }),
+    // One row even for a lot that is not there, which is then reported missing.
+    sequelize.query<{ waiting: boolean }>(`SELECT coalesce((SELECT ${AWAITING_RESUMPTION} FROM lots l WHERE l.id = :id), false) AS waiting`, {
+      type: QueryTypes.SELECT,
+      replacements: { id },
+    }),
+    lotAuditEvents([id]),
+    lotMoveBatches(id),
+  ]);
   if (!lot) throw notFound('Lot');
-  const pieces = await sequelize.query<{ id: number; serial: string; state: PieceState; location: string | null }>(
-    `SELECT p.id, p.serial, p.state, loc.code AS location FROM pieces p
-       LEFT JOIN piece_locations pl ON pl.piece_id = p.id LEFT JOIN locations loc ON loc.id = pl.location_id
-      WHERE p.lot_id = :id ORDER BY p.serial`,
-    { type: QueryTypes.SELECT, replacements: { id } },
-  );
-  const attachments = await Attachment.findAll({ where: { lotId: id }, order: [['id', 'ASC']] });
-  const plan = await inspectionPlanOf(id);
-  const [quantities] = await sequelize.query<Record<string, unknown>>(`SELECT * FROM ${pieceQuantitiesSql('pc.lot_id = :id')} AS q`, {
-    type: QueryTypes.SELECT,
-    replacements: { id },
-  });
-  const [{ waiting }] = await sequelize.query<{ waiting: boolean }>(`SELECT ${AWAITING_RESUMPTION} AS waiting FROM lots l WHERE l.id = :id`, {
-    type: QueryTypes.SELECT,
-    replacements: { id },
-  });
-  return {
-    lot,
-    pieces,
-    attachments,
-    plan,
-    quantities,
-    acceptanceDiscontinued: waiting,
-    auditEvents: await lotAuditEvents([id]),
-    moves: await lotMoveBatches(id),
-  };
+  return { lot, pieces, attachments, plan, quantities, acceptanceDiscontinued: waiting, auditEvents, moves };
 }
 export type LotRecord = Awaited<ReturnType<typeof findLot>>;
