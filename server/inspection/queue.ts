@@ -22,14 +22,19 @@ type SortGroup = [verdicts: PieceVerdict[], pieces: number];
 export const inspectionQueue: ListDefinition<QueueRow, ListQuery> = {
   select: `l.id AS "lotId", l.state, p.id AS "partId", p.number AS "partNumber", p.description AS "partDescription",
     sup.name AS supplier, sup.id AS "supplierId", l.supplier_lot AS "supplierLot", l.quantity, s.received_at AS "receivedAt",
-    li.code_letter AS "codeLetter", li.plan_letter AS "planLetter", li.sample_size AS "sampleSize", li.accept_number AS accept,
-    li.reject_number AS reject, li.severity,
-    (SELECT json_agg(json_build_array(pc.serial, ${verdictsOf('pc.id')}) ORDER BY pc.serial)
-       FROM sample_pieces sp JOIN pieces pc ON pc.id = sp.piece_id WHERE sp.inspection_id = li.id) AS sample,
-    CASE WHEN l.state = 'sorting' THEN
-      (SELECT json_agg(json_build_array(g.verdicts, g.pieces)) FROM (
-         SELECT ${verdictsOf('pc.id')} AS verdicts, count(*) AS pieces FROM pieces pc WHERE pc.lot_id = l.id AND pc.state <> 'issued' GROUP BY 1) g)
-    END AS "sortGroups"`,
+    li.id AS "inspectionId", li.code_letter AS "codeLetter", li.plan_letter AS "planLetter", li.sample_size AS "sampleSize",
+    li.accept_number AS accept, li.reject_number AS reject, li.severity`,
+  // Where each sample stands, for the lots of the page only: in the SELECT list of the paged query it
+  // would also be worked out for every lot the OFFSET skips.
+  late: {
+    select: `(SELECT json_agg(json_build_array(pc.serial, ${verdictsOf('pc.id')}) ORDER BY pc.serial)
+        FROM sample_pieces sp JOIN pieces pc ON pc.id = sp.piece_id WHERE sp.inspection_id = page."inspectionId") AS sample,
+      CASE WHEN page.state = 'sorting' THEN
+        (SELECT json_agg(json_build_array(g.verdicts, g.pieces)) FROM (
+           SELECT ${verdictsOf('pc.id')} AS verdicts, count(*) AS pieces FROM pieces pc WHERE pc.lot_id = page."lotId" AND pc.state <> 'issued' GROUP BY 1) g)
+      END AS "sortGroups"`,
+    from: '',
+  },
   // A lot received while acceptance is discontinued has no plan (li) until inspection resumes.
   from: `${LOTS_AWAITING_INSPECTION.from} LEFT JOIN lot_inspections li ON li.lot_id = l.id`,
   filters: () => ({ clauses: [LOTS_AWAITING_INSPECTION.where], replacements: {} }),
