@@ -1,20 +1,23 @@
 // Phaselot's design: a calm bench-green frame, paper-toned work area, and a compact type scale for
-// tables read all day. Status colours are reserved for states (quarantine, pass, fail, hold).
+// tables read all day. Status colours are reserved for states (quarantine, pass, fail, hold). Every
+// text colour reads at 4.5:1 or more on the card, the paper and the sunk paper (WCAG 2.1 AA).
 import type { Config } from 'tailwindcss';
 
 export default {
   content: ['./index.html', './src/**/*.{ts,tsx}'],
   theme: {
     extend: {
+      // Below this width the side bar folds into a menu (tablets upright, phones).
+      screens: { desk: '900px' },
       colors: {
         frame: { DEFAULT: '#234a41', deep: '#17322c', soft: '#3d6b60', line: '#2f5a50' },
         paper: { DEFAULT: '#f6f5f0', card: '#ffffff', sunk: '#eceae2', line: '#dcd9cd' },
-        ink: { DEFAULT: '#1e2421', muted: '#5b645f', faint: '#8a918c' },
-        signal: { DEFAULT: '#f2b84b', deep: '#b9821d' },
+        ink: { DEFAULT: '#1e2421', muted: '#545d58', faint: '#646b66' },
+        signal: { DEFAULT: '#f2b84b', deep: '#875c10' },
         state: {
-          quarantine: '#b9821d',
-          hold: '#6a5acd',
-          pass: '#2e7d4f',
+          quarantine: '#875c10',
+          hold: '#5f54b8',
+          pass: '#276d45',
           fail: '#b3372f',
           info: '#2f6690',
         },

@@ -19,7 +19,7 @@ export function Details({ items, columns = 3 }: { items: [string, ReactNode][]; 
 export function Panel({ title, actions, children }: { title: string; actions?: ReactNode; children: ReactNode }) {
   return (
     <section className="rounded border border-paper-line bg-paper-card" aria-label={title}>
-      <div className="flex items-center justify-between border-b border-paper-line px-3 py-2">
+      <div className="flex flex-wrap items-center justify-between gap-x-3 gap-y-1.5 border-b border-paper-line px-3 py-2">
         <h2 className="text-sm font-semibold">{title}</h2>
         {actions}
       </div>

@@ -4,7 +4,8 @@ type Props = { label: string; error?: string; hint?: string; children: ReactNode
 
 export function Field({ label, error, hint, children, htmlFor }: Props) {
   return (
-    <div className="flex flex-col gap-1">
+    // A select is as wide as its longest option unless told otherwise: in a narrow column it takes the column's width.
+    <div className="flex min-w-0 flex-col gap-1 [&>select]:w-full">
       <label htmlFor={htmlFor} className="text-xs font-medium text-ink-muted">
         {label}
       </label>
@@ -20,4 +21,4 @@ export function Field({ label, error, hint, children, htmlFor }: Props) {
 }
 
 export const inputClass =
-  'rounded border border-paper-line bg-paper-card px-2 py-1.5 text-sm outline-none focus:border-frame-soft focus:ring-2 focus:ring-frame/15';
+  'rounded border border-paper-line bg-paper-card px-2 py-1.5 text-sm outline-none focus:border-frame-soft focus:ring-2 focus:ring-frame/40';

@@ -24,12 +24,12 @@ export function CaughtMailPage() {
           <li key={m.id}>
             <button
               type="button"
-              className="flex w-full items-baseline gap-3 px-3 py-2 text-left hover:bg-paper"
+              className="flex w-full flex-col gap-0.5 px-3 py-2 text-left hover:bg-paper sm:flex-row sm:items-baseline sm:gap-3"
               onClick={() => setOpenId(openId === m.id ? null : m.id)}
             >
-              <span className="w-40 shrink-0 text-xs text-ink-muted">{formatDateTime(m.receivedAt)}</span>
-              <span className="w-56 shrink-0 truncate text-xs">{m.to}</span>
-              <span className="flex-1 font-medium">{m.subject}</span>
+              <span className="shrink-0 text-xs text-ink-muted sm:w-40">{formatDateTime(m.receivedAt)}</span>
+              <span className="max-w-full shrink-0 truncate text-xs sm:w-56">{m.to}</span>
+              <span className="min-w-0 flex-1 font-medium">{m.subject}</span>
               {m.attachments.length > 0 && <Paperclip className="h-3.5 w-3.5 text-ink-muted" aria-label={plural(m.attachments.length, 'attachment')} />}
             </button>
             {openId === m.id && (

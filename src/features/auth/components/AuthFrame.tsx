@@ -14,7 +14,7 @@ export function AuthFrame({ children }: { children: ReactNode }) {
             Receiving, quarantine, polarimetric inspection, signed dispositions and serial traceability for retarder lots.
           </p>
         </div>
-        <p className="text-xs text-white/50">Lot decisions remain the responsibility of your site's quality system and its procedures.</p>
+        <p className="text-xs text-white/75">Lot decisions remain the responsibility of your site's quality system and its procedures.</p>
       </section>
       <section className="flex items-center justify-center p-6">
         <div className="w-full max-w-xs">{children}</div>

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { fixed, plural, signedFixed } from '@shared/format';
 import type { LotInspectionView } from '@shared/schemas/inspection';
+import { ScrollBox } from '@/components/ScrollBox';
 import { VerdictBadge } from './VerdictBadge';
 
 const num = (v: number | null | undefined, digits: number, signed = false) => (signed ? signedFixed(v, digits) : fixed(v, digits));
@@ -17,7 +18,7 @@ export function ResultsTable({ view }: { view: LotInspectionView }) {
           {view.sort ? 'pieces of the sort only' : 'sample only'}
         </label>
       </div>
-      <div className="max-h-[28rem] overflow-y-auto">
+      <ScrollBox label="Piece results" className="max-h-[28rem]">
         <table className="w-full text-sm" aria-label="Piece results">
           <thead className="sticky top-0 bg-paper-sunk text-left text-xs text-ink-muted">
             <tr>
@@ -69,7 +70,7 @@ export function ResultsTable({ view }: { view: LotInspectionView }) {
             )}
           </tbody>
         </table>
-      </div>
+      </ScrollBox>
       <p className="border-t border-paper-line px-3 py-1 text-2xs text-ink-faint">
         • in the sample. Retardance and axis error are along the fast-axis mark; a scan cannot tell fast from slow axis (±90).
       </p>

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { NCR_DECISION_LABELS, type NcrPieceView } from '@shared/schemas/nonconformance';
 import { PIECE_STATE_LABELS, lotName } from '@shared/schemas/stock';
+import { ScrollBox } from '@/components/ScrollBox';
 import { StateBadge } from '@/components/StateBadge';
 
 type Props = { pieces: NcrPieceView[]; selected: Set<number>; onSelect?(ids: Set<number>): void };
@@ -22,7 +23,7 @@ export function NcrPiecesTable({ pieces, selected, onSelect }: Props) {
     onSelect?.(next);
   };
   return (
-    <div className="max-h-[28rem] overflow-auto">
+    <ScrollBox label="Pieces of the NCR" className="max-h-[28rem]">
       <table className="w-full min-w-[56rem] text-sm">
         <thead className="sticky top-0 bg-paper-sunk text-left text-xs text-ink-muted">
           <tr>
@@ -68,6 +69,6 @@ export function NcrPiecesTable({ pieces, selected, onSelect }: Props) {
           ))}
         </tbody>
       </table>
-    </div>
+    </ScrollBox>
   );
 }

@@ -116,138 +116,145 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
             {errors.lines.root.message}
           </p>
         )}
-        <table className="w-full text-sm">
-          <thead className="text-left text-xs text-ink-muted">
-            <tr>
-              <th className="px-2 py-1 font-medium">#</th>
-              <th className="px-2 py-1 font-medium">Part</th>
-              <th className="px-2 py-1 font-medium">Quantity</th>
-              <th className="px-2 py-1 font-medium">Unit price</th>
-              <th className="px-2 py-1 font-medium">Due</th>
-              <th className="px-2 py-1 font-medium">Inspection level</th>
-              <th className="px-2 py-1 font-medium">AQL</th>
-              <th className="px-2 py-1 font-medium">100 %</th>
-              <th className="px-2 py-1">
-                <span className="sr-only">Remove</span>
-              </th>
-            </tr>
-          </thead>
-          <tbody>
-            {lines.fields.map((field, index) => {
-              const lineId = form.getValues(`lines.${index}.id`) as number | undefined;
-              const got = lineId ? (received.get(lineId) ?? 0) : 0;
-              const watched = watchedLines[index] ?? field;
-              return (
-                <Fragment key={field.id}>
-                  <tr className="border-t border-paper-line/70 align-top" aria-label={`Line ${index + 1}`}>
-                    <td className="px-2 py-1.5 text-ink-muted">{index + 1}</td>
-                    <td className="px-2 py-1">
-                      {got > 0 ? (
-                        <>
-                          <input type="hidden" {...form.register(`lines.${index}.partId`)} />
-                          <p className="py-1.5 font-mono">{order?.lines.find((l) => l.id === lineId)?.part.number}</p>
-                          <p className="text-2xs text-ink-faint">{got} received; the part is fixed</p>
-                        </>
-                      ) : (
-                        <select aria-label={`Part of line ${index + 1}`} className={`${inputClass} w-full`} {...form.register(`lines.${index}.partId`)}>
-                          <option value="">Choose a part…</option>
-                          {parts
-                            .filter((p) => p.active || p.id === Number(field.partId))
-                            .map((p) => (
-                              <option key={p.id} value={p.id}>
-                                {p.number} — {p.description}
-                              </option>
-                            ))}
+        {/* The lines' fields reach the keyboard themselves, so the scrolling box needs no focus of its own. */}
+        <div className="overflow-x-auto">
+          <table className="w-full text-sm">
+            <thead className="text-left text-xs text-ink-muted">
+              <tr>
+                <th className="px-2 py-1 font-medium">#</th>
+                <th className="px-2 py-1 font-medium">Part</th>
+                <th className="px-2 py-1 font-medium">Quantity</th>
+                <th className="px-2 py-1 font-medium">Unit price</th>
+                <th className="px-2 py-1 font-medium">Due</th>
+                <th className="px-2 py-1 font-medium">Inspection level</th>
+                <th className="px-2 py-1 font-medium">AQL</th>
+                <th className="px-2 py-1 font-medium">100 %</th>
+                <th className="px-2 py-1">
+                  <span className="sr-only">Remove</span>
+                </th>
+              </tr>
+            </thead>
+            <tbody>
+              {lines.fields.map((field, index) => {
+                const lineId = form.getValues(`lines.${index}.id`) as number | undefined;
+                const got = lineId ? (received.get(lineId) ?? 0) : 0;
+                const watched = watchedLines[index] ?? field;
+                return (
+                  <Fragment key={field.id}>
+                    <tr className="border-t border-paper-line/70 align-top" aria-label={`Line ${index + 1}`}>
+                      <td className="px-2 py-1.5 text-ink-muted">{index + 1}</td>
+                      <td className="px-2 py-1">
+                        {got > 0 ? (
+                          <>
+                            <input type="hidden" {...form.register(`lines.${index}.partId`)} />
+                            <p className="py-1.5 font-mono">{order?.lines.find((l) => l.id === lineId)?.part.number}</p>
+                            <p className="text-2xs text-ink-faint">{got} received; the part is fixed</p>
+                          </>
+                        ) : (
+                          <select aria-label={`Part of line ${index + 1}`} className={`${inputClass} w-full`} {...form.register(`lines.${index}.partId`)}>
+                            <option value="">Choose a part…</option>
+                            {parts
+                              .filter((p) => p.active || p.id === Number(field.partId))
+                              .map((p) => (
+                                <option key={p.id} value={p.id}>
+                                  {p.number} — {p.description}
+                                </option>
+                              ))}
+                          </select>
+                        )}
+                        {lineError(index, 'partId') && (
+                          <p role="alert" className="text-xs text-state-fail">
+                            {lineError(index, 'partId')}
+                          </p>
+                        )}
+                      </td>
+                      <td className="px-2 py-1">
+                        <input
+                          aria-label={`Quantity of line ${index + 1}`}
+                          inputMode="numeric"
+                          className={`${inputClass} w-24`}
+                          {...form.register(`lines.${index}.quantity`)}
+                        />
+                        {lineError(index, 'quantity') && (
+                          <p role="alert" className="text-xs text-state-fail">
+                            {lineError(index, 'quantity')}
+                          </p>
+                        )}
+                      </td>
+                      <td className="px-2 py-1">
+                        <input
+                          aria-label={`Unit price of line ${index + 1}`}
+                          inputMode="decimal"
+                          className={`${inputClass} w-24`}
+                          {...form.register(`lines.${index}.unitPrice`)}
+                        />
+                        {lineError(index, 'unitPrice') && (
+                          <p role="alert" className="text-xs text-state-fail">
+                            {lineError(index, 'unitPrice')}
+                          </p>
+                        )}
+                      </td>
+                      <td className="px-2 py-1">
+                        <input
+                          type="date"
+                          aria-label={`Due date of line ${index + 1}`}
+                          className={`${inputClass} w-36`}
+                          {...form.register(`lines.${index}.dueOn`)}
+                        />
+                        {lineError(index, 'dueOn') && (
+                          <p role="alert" className="text-xs text-state-fail">
+                            {lineError(index, 'dueOn')}
+                          </p>
+                        )}
+                      </td>
+                      <td className="px-2 py-1">
+                        <select
+                          aria-label={`Inspection level of line ${index + 1}`}
+                          className={inputClass}
+                          {...form.register(`lines.${index}.inspectionLevel`)}
+                        >
+                          {INSPECTION_LEVELS.map((level) => (
+                            <option key={level} value={level}>
+                              {level}
+                            </option>
+                          ))}
                         </select>
-                      )}
-                      {lineError(index, 'partId') && (
-                        <p role="alert" className="text-xs text-state-fail">
-                          {lineError(index, 'partId')}
-                        </p>
-                      )}
-                    </td>
-                    <td className="px-2 py-1">
-                      <input
-                        aria-label={`Quantity of line ${index + 1}`}
-                        inputMode="numeric"
-                        className={`${inputClass} w-24`}
-                        {...form.register(`lines.${index}.quantity`)}
-                      />
-                      {lineError(index, 'quantity') && (
-                        <p role="alert" className="text-xs text-state-fail">
-                          {lineError(index, 'quantity')}
-                        </p>
-                      )}
-                    </td>
-                    <td className="px-2 py-1">
-                      <input
-                        aria-label={`Unit price of line ${index + 1}`}
-                        inputMode="decimal"
-                        className={`${inputClass} w-24`}
-                        {...form.register(`lines.${index}.unitPrice`)}
-                      />
-                      {lineError(index, 'unitPrice') && (
-                        <p role="alert" className="text-xs text-state-fail">
-                          {lineError(index, 'unitPrice')}
-                        </p>
-                      )}
-                    </td>
-                    <td className="px-2 py-1">
-                      <input
-                        type="date"
-                        aria-label={`Due date of line ${index + 1}`}
-                        className={`${inputClass} w-36`}
-                        {...form.register(`lines.${index}.dueOn`)}
-                      />
-                      {lineError(index, 'dueOn') && (
-                        <p role="alert" className="text-xs text-state-fail">
-                          {lineError(index, 'dueOn')}
-                        </p>
-                      )}
-                    </td>
-                    <td className="px-2 py-1">
-                      <select aria-label={`Inspection level of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.inspectionLevel`)}>
-                        {INSPECTION_LEVELS.map((level) => (
-                          <option key={level} value={level}>
-                            {level}
-                          </option>
-                        ))}
-                      </select>
-                    </td>
-                    <td className="px-2 py-1">
-                      <select aria-label={`AQL of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.aql`)}>
-                        {AQL_VALUES.map((aql) => (
-                          <option key={aql} value={aql}>
-                            {aql}
-                          </option>
-                        ))}
-                      </select>
-                    </td>
-                    <td className="px-2 py-2 text-center">
-                      <input type="checkbox" aria-label={`100 % inspection of line ${index + 1}`} {...form.register(`lines.${index}.hundredPercent`)} />
-                    </td>
-                    <td className="px-2 py-1">
-                      <Button
-                        look="quiet"
-                        aria-label={`Remove line ${index + 1}`}
-                        disabled={got > 0 || lines.fields.length === 1}
-                        onClick={() => lines.remove(index)}
-                      >
-                        <Trash2 className="h-4 w-4" aria-hidden />
-                      </Button>
-                    </td>
-                  </tr>
-                  <tr aria-label={`Sampling plan of line ${index + 1}`}>
-                    <td />
-                    <td colSpan={8} className="px-2 pb-1.5 text-xs text-ink-muted">
-                      <LinePlan quantity={watched.quantity} level={watched.inspectionLevel} aql={watched.aql} hundredPercent={watched.hundredPercent} />
-                    </td>
-                  </tr>
-                </Fragment>
-              );
-            })}
-          </tbody>
-        </table>
+                      </td>
+                      <td className="px-2 py-1">
+                        <select aria-label={`AQL of line ${index + 1}`} className={inputClass} {...form.register(`lines.${index}.aql`)}>
+                          {AQL_VALUES.map((aql) => (
+                            <option key={aql} value={aql}>
+                              {aql}
+                            </option>
+                          ))}
+                        </select>
+                      </td>
+                      <td className="px-2 py-2 text-center">
+                        <input type="checkbox" aria-label={`100 % inspection of line ${index + 1}`} {...form.register(`lines.${index}.hundredPercent`)} />
+                      </td>
+                      <td className="px-2 py-1">
+                        <Button
+                          look="quiet"
+                          aria-label={`Remove line ${index + 1}`}
+                          disabled={got > 0 || lines.fields.length === 1}
+                          onClick={() => lines.remove(index)}
+                        >
+                          <Trash2 className="h-4 w-4" aria-hidden />
+                        </Button>
+                      </td>
+                    </tr>
+                    <tr aria-label={`Sampling plan of line ${index + 1}`}>
+                      <td />
+                      <td colSpan={8} className="px-2 pb-1.5 text-xs text-ink-muted">
+                        <LinePlan quantity={watched.quantity} level={watched.inspectionLevel} aql={watched.aql} hundredPercent={watched.hundredPercent} />
+                      </td>
+                    </tr>
+                  </Fragment>
+                );
+              })}
+            </tbody>
+          </table>
+        </div>
         <div className="border-t border-paper-line px-2 py-1.5">
           <Button look="quiet" onClick={() => lines.append({ ...newLine })}>
             <Plus className="h-4 w-4" aria-hidden /> Add line
