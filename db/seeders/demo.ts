@@ -35,6 +35,8 @@ async function seedUsers() {
   return users as Record<Role, User>;
 }
 
+const daysFromSeed = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
+
 /** The inspection bench of the demo site; one instrument is past its calibration date on purpose. */
 async function seedInstruments(quality: User) {
   const rows: InstrumentInput[] = [
@@ -54,8 +56,10 @@ async function seedInstruments(quality: User) {
       angleSign: -1,
       uncertaintyWaves: 0.0015,
       uncertaintyDeg: 0.1,
-      calibratedOn: '2026-03-02',
-      calibrationDueOn: '2027-03-02',
+      // Due three weeks after the day the demo is seeded, whenever that is: quality's dashboard and the
+      // calibration reminders always have one coming due.
+      calibratedOn: daysFromSeed(-344),
+      calibrationDueOn: daysFromSeed(21),
     },
     {
       code: 'RM-3',

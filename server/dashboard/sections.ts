@@ -5,8 +5,10 @@ import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../db';
 import type { Permission } from '../../shared/policies';
 import type { Bar, DashboardLotRow, DashboardView } from '../../shared/schemas/dashboard';
+import type { InstrumentView } from '../../shared/schemas/instruments';
 import type { LotState } from '../../shared/schemas/stock';
 import { checkChainTail } from '../audit/verify';
+import { calibrationsDue } from '../instruments/calibrations';
 import { receivedAsOrderedSql } from '../stock/standing';
 
 type Reader = { id: number };
@@ -139,31 +141,26 @@ export const quality: Section<'quality'> = {
   permission: 'dashboard.quality',
   reads: ['lots.read', 'nonconformance.read', 'instruments.read'],
   async read() {
-    const row = await one<{
-      awaiting_total: string;
-      awaiting: LotRowRecord[];
-      ncr_total: string;
-      ncr_ages: string[];
-      ncrs: { id: number; number: string; status: 'open' | 'dispositioned'; supplier: string; part_number: string; opened_at: string; days: number }[];
-      calibration_total: string;
-      lapsed: string;
-      calibrations: { id: number; code: string; description: string; due_on: string; days_left: number }[];
-    }>(
-      `SELECT (SELECT count(*) FROM lots WHERE state = 'awaiting-disposition') AS awaiting_total,
+    // Calibrations as the instruments area reads them (each instrument's newest record): a handful of rows.
+    const [calibrations, row] = await Promise.all([
+      calibrationsDue(CALIBRATION_WITHIN_DAYS),
+      one<{
+        awaiting_total: string;
+        awaiting: LotRowRecord[];
+        ncr_total: string;
+        ncr_ages: string[];
+        ncrs: { id: number; number: string; status: 'open' | 'dispositioned'; supplier: string; part_number: string; opened_at: string; days: number }[];
+      }>(
+        `SELECT (SELECT count(*) FROM lots WHERE state = 'awaiting-disposition') AS awaiting_total,
               (${lotRowsSql(`'awaiting-disposition'`)}) AS awaiting,
               n.total AS ncr_total, n.ages AS ncr_ages,
               (SELECT coalesce(json_agg(r ORDER BY r.opened_at, r.id), '[]') FROM (
                  SELECT n.id, n.number, n.status, s.name AS supplier, p.number AS part_number, n.opened_at, current_date - n.opened_at::date AS days
                    FROM nonconformances n JOIN suppliers s ON s.id = n.supplier_id JOIN parts p ON p.id = n.part_id
-                  WHERE n.status <> 'closed' ORDER BY n.opened_at, n.id LIMIT ${ROWS}) r) AS ncrs,
-              c.total AS calibration_total, c.lapsed,
-              (SELECT coalesce(json_agg(r ORDER BY r.due_on, r.code), '[]') FROM (
-                 SELECT id, code, description, calibration_due_on AS due_on, calibration_due_on - current_date AS days_left FROM instruments
-                  WHERE active AND calibration_due_on <= current_date + ${CALIBRATION_WITHIN_DAYS} ORDER BY calibration_due_on, code LIMIT ${ROWS}) r) AS calibrations
-         FROM (SELECT count(*) AS total, ${ageCountsSql('current_date - opened_at::date')} AS ages FROM nonconformances WHERE status <> 'closed') n,
-              (SELECT count(*) AS total, count(*) FILTER (WHERE calibration_due_on < current_date) AS lapsed FROM instruments
-                WHERE active AND calibration_due_on <= current_date + ${CALIBRATION_WITHIN_DAYS}) c`,
-    );
+                  WHERE n.status <> 'closed' ORDER BY n.opened_at, n.id LIMIT ${ROWS}) r) AS ncrs
+         FROM (SELECT count(*) AS total, ${ageCountsSql('current_date - opened_at::date')} AS ages FROM nonconformances WHERE status <> 'closed') n`,
+      ),
+    ]);
     return {
       awaitingSignature: { total: Number(row.awaiting_total), rows: row.awaiting.map(lotRow) },
       openNcrs: {
@@ -180,9 +177,11 @@ export const quality: Section<'quality'> = {
       },
       ncrAges: ageBars(row.ncr_ages),
       calibrations: {
-        total: Number(row.calibration_total),
-        lapsed: Number(row.lapsed),
-        rows: row.calibrations.map((c) => ({ instrumentId: c.id, code: c.code, description: c.description, dueOn: day(c.due_on), daysLeft: c.days_left })),
+        total: calibrations.length,
+        lapsed: calibrations.filter((c) => c.daysLeft < 0).length,
+        rows: calibrations
+          .slice(0, ROWS)
+          .map((c) => ({ instrumentId: c.instrumentId, code: c.code, kind: c.kind as InstrumentView['kind'], dueOn: c.dueOn, daysLeft: c.daysLeft })),
       },
     };
   },

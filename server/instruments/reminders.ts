@@ -11,6 +11,7 @@ import { recordAudit, SYSTEM_ACTOR } from '../audit/record';
 import { config } from '../config';
 import { QUEUES, type JobDefinition } from '../jobs/queue';
 import { queueMail } from '../mail/outbox';
+import { notify } from '../notifications/notify';
 import { readSiteSettings } from '../settings/siteSettings';
 import { calibrationsDue, type CalibrationDue } from './calibrations';
 
@@ -55,8 +56,20 @@ export async function remindCalibrationsDue(today: string = todayUtc()): Promise
       );
       if (rows.length === 0) return [];
       const daysBefore = rows.map((r) => r.days_before).sort((a, b) => b - a);
+      const reminder = reminderText(calibration);
       const mail = await queueMail(
-        { to: recipients.map((r) => r.email), ...reminderText(calibration), related: { type: 'instrument', id: calibration.instrumentId } },
+        { to: recipients.map((r) => r.email), ...reminder, related: { type: 'instrument', id: calibration.instrumentId } },
+        transaction,
+      );
+      await notify(
+        {
+          kind: 'calibration-due',
+          permission: 'instruments.read',
+          title: reminder.subject,
+          link: `/instruments/${calibration.instrumentId}`,
+          entity: { type: 'instrument', id: calibration.instrumentId },
+          roles: ['quality'],
+        },
         transaction,
       );
       await sequelize.query(`UPDATE calibration_reminders SET mail_id = :mailId WHERE calibration_id = :calibrationId AND days_before IN (:daysBefore)`, {

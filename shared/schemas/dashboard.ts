@@ -1,5 +1,6 @@
 // What GET /api/dashboard answers: one section per role the user holds (and may read all of), each
 // with its lists cut to a few rows and the full count beside them.
+import type { InstrumentView } from './instruments';
 import type { LotState } from './stock';
 
 /** The first rows of a list and how many there are in all. */
@@ -49,7 +50,7 @@ export type QualitySection = {
   /** Open NCRs by age. */
   ncrAges: Bar[];
   /** Active instruments whose calibration falls due within 30 days or has lapsed. */
-  calibrations: Listed<{ instrumentId: number; code: string; description: string; dueOn: string; daysLeft: number }> & { lapsed: number };
+  calibrations: Listed<{ instrumentId: number; code: string; kind: InstrumentView['kind']; dueOn: string; daysLeft: number }> & { lapsed: number };
 };
 
 export type PurchasingSection = {

@@ -3,7 +3,8 @@
 // it to quality, an NCR opened and a supplier's answer to the buyer and quality; nobody is told of,
 // or counts, what their roles may not read. That a notice is written with its event or not at all is
 // common practice for anything that reports an event (an event without its notice, or a notice of
-// an event that never happened, misleads).
+// an event that never happened, misleads); a calibration coming due is told to quality with its mailed
+// reminder, at the same thresholds.
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
@@ -12,6 +13,7 @@ import { app, as, freshUser } from '../../../tests/helpers/api';
 import { benchFile, sampleOf, signDecision, uploadBench } from '../../../tests/helpers/bench';
 import { mailedToken, ncrOf, raiseRequest, supplierWithQualityContact } from '../../../tests/helpers/correctiveActions';
 import { receivedLot } from '../../../tests/helpers/receivedLot';
+import { remindCalibrationsDue } from '../../instruments/reminders';
 import { notify } from '../../notifications/notify';
 import type { NotificationsView } from '../../../shared/schemas/notifications';
 import type { Role } from '../../../shared/schemas/roles';
@@ -106,6 +108,30 @@ describe('notifications written with their events', () => {
     expect(told.some((n) => n.roles.includes('quality'))).toBe(true);
     expect(told.some((n) => n.roles.includes('buyer'))).toBe(true);
     expect(told.some((n) => n.roles.every((r) => !['buyer', 'quality', 'auditor'].includes(r)))).toBe(false);
+  });
+
+  it('tells quality of a calibration coming due when its reminder goes out, once', async () => {
+    const dueOn = new Date(Date.now() + 6 * 86_400_000).toISOString().slice(0, 10);
+    const created = await (
+      await as('quality')
+    )
+      .post('/api/instruments')
+      .send({
+        code: `T-NOTE-${Math.floor(Math.random() * 1e9)}`,
+        kind: 'direct-retardance',
+        uncertaintyWaves: 0.001,
+        uncertaintyDeg: 0.1,
+        calibratedOn: new Date(Date.now() - 300 * 86_400_000).toISOString().slice(0, 10),
+        calibrationDueOn: dueOn,
+      })
+      .expect(201);
+    await remindCalibrationsDue();
+    await remindCalibrationsDue();
+    const told = await writtenAbout('instrument', created.body.id);
+    expect(told.length).toBeGreaterThan(0);
+    expect(told.every((n) => n.kind === 'calibration-due' && n.roles.includes('quality') && n.link === `/instruments/${created.body.id}`)).toBe(true);
+    // One per quality manager: the second run found the reminder claimed and wrote nothing.
+    expect(new Set(told.map((n) => n.user_id)).size).toBe(told.length);
   });
 
   it('leaves nothing behind when the transaction of the event rolls back', async () => {

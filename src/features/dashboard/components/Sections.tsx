@@ -2,6 +2,7 @@
 import { formatDate, formatDateTime, plural, wholeNumber } from '@shared/format';
 import type { AuditSection, DashboardLotRow, InspectionSection, PurchasingSection, QualitySection, ReceivingSection } from '@shared/schemas/dashboard';
 import { CAR_STATUS_LABELS } from '@shared/schemas/correctiveActions';
+import { INSTRUMENT_KIND_LABELS } from '@shared/schemas/instruments';
 import { LOT_STATE_LABELS, lotName } from '@shared/schemas/stock';
 import { StateBadge } from '@/components/StateBadge';
 import { Bars, DailyColumns } from './Bars';
@@ -165,9 +166,9 @@ export function Quality({ section }: { section: QualitySection }) {
         {calibrations.rows.map((c) => (
           <PanelRow
             key={c.instrumentId}
-            to="/instruments"
+            to={`/instruments/${c.instrumentId}`}
             title={c.code}
-            detail={c.description || 'Instrument'}
+            detail={INSTRUMENT_KIND_LABELS[c.kind]}
             aside={
               <>
                 <span className="block">{formatDate(c.dueOn)}</span>
