@@ -18,7 +18,13 @@ import { signedInPage, startBrowserRig, type BrowserRig } from './browser';
 let rig: BrowserRig;
 beforeAll(async () => {
   rig = await startBrowserRig();
-});
+  // The first page a fresh server serves can take longer than a step's 10 s on a busy machine: the
+  // sign-in page is opened once here, with room, so the tests' own steps time what they test.
+  const page = await rig.browser.newPage();
+  await page.goto(`${rig.baseUrl}/sign-in`);
+  await page.getByLabel('E-mail').waitFor({ timeout: 60_000 });
+  await page.close();
+}, 90_000);
 afterAll(async () => rig?.close());
 
 const shots = join(tmpdir(), 'phaselot-dashboard-shots');
