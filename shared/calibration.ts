@@ -1,5 +1,6 @@
 // Calibration records read by dates: which record covers a reading day, how each record stands
 // today, and a due date in words. Pure; the server's gate and the pages read the same rules.
+import { plural } from './format';
 
 /** Today's date in UTC (YYYY-MM-DD): a calibration covers readings up to and including its due date. */
 export const todayUtc = () => new Date().toISOString().slice(0, 10);
@@ -38,12 +39,10 @@ export type CalibrationDueState = 'lapsed' | 'due-soon' | 'current';
 /** Within this many days of its due date a calibration is shown as due soon. */
 export const DUE_SOON_DAYS = 30;
 
-const dayWord = (n: number) => `${n} day${n === 1 ? '' : 's'}`;
-
 /** The standing of a calibration due on `dueOn`, in words with its ISO date. */
 export function calibrationDueStatus(dueOn: string, today: string = todayUtc()): { state: CalibrationDueState; words: string } {
   const days = daysBetween(today, dueOn);
-  if (days < 0) return { state: 'lapsed', words: `Lapsed ${dayWord(-days)} ago (due ${dueOn})` };
+  if (days < 0) return { state: 'lapsed', words: `Lapsed ${plural(-days, 'day')} ago (due ${dueOn})` };
   if (days === 0) return { state: 'due-soon', words: `Due today (${dueOn})` };
-  return { state: days <= DUE_SOON_DAYS ? 'due-soon' : 'current', words: `Due in ${dayWord(days)} (${dueOn})` };
+  return { state: days <= DUE_SOON_DAYS ? 'due-soon' : 'current', words: `Due in ${plural(days, 'day')} (${dueOn})` };
 }

@@ -9,7 +9,7 @@ import { presentInstrument } from './views';
 export const listInstruments = () => Instrument.findAll({ order: [['code', 'ASC']] });
 
 /** Registers an instrument with its current calibration, which becomes its first calibration record. */
-export function registerInstrument(actor: AuditActor, input: InstrumentInput, performedBy = 'Recorded with the instrument') {
+export function registerInstrument(actor: AuditActor, input: InstrumentInput, performedBy = 'Not stated at registration') {
   return inTransaction(async (transaction) => {
     const parsed = instrumentInputSchema.parse(input);
     const instrument = await Instrument.create(parsed, { transaction });

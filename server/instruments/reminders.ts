@@ -6,6 +6,7 @@
 import { QueryTypes } from 'sequelize';
 import { inTransaction, sequelize } from '../../db';
 import { todayUtc } from '../../shared/calibration';
+import { plural } from '../../shared/format';
 import { INSTRUMENT_KIND_LABELS, type InstrumentView } from '../../shared/schemas/instruments';
 import { recordAudit, SYSTEM_ACTOR } from '../audit/record';
 import { config } from '../config';
@@ -15,10 +16,8 @@ import { notify } from '../notifications/notify';
 import { readSiteSettings } from '../settings/siteSettings';
 import { calibrationsDue, type CalibrationDue } from './calibrations';
 
-const days = (n: number) => `${n} day${n === 1 ? '' : 's'}`;
-
 function reminderText(due: CalibrationDue) {
-  const when = due.daysLeft === 0 ? 'today' : `in ${days(due.daysLeft)}`;
+  const when = due.daysLeft === 0 ? 'today' : `in ${plural(due.daysLeft, 'day')}`;
   return {
     subject: `Calibration of ${due.code} is due ${when} (${due.dueOn})`,
     text: [

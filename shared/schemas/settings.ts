@@ -26,5 +26,6 @@ export const siteSettingsSchema = z.object({
     .default([30, 7]),
 });
 export type SiteSettings = z.infer<typeof siteSettingsSchema>;
+export type SiteSettingsInput = z.input<typeof siteSettingsSchema>;
 
 export const DEFAULT_SITE_SETTINGS: SiteSettings = { siteName: 'Phaselot site', reducedInspectionEnabled: false, calibrationReminderDays: [30, 7] };

@@ -324,6 +324,13 @@ export const router = createBrowserRouter([
         ),
       },
       {
+        path: 'instruments/:id',
+        lazy: page(
+          () => import('@/features/instruments/pages/InstrumentPage'),
+          (m) => <m.InstrumentPage />,
+        ),
+      },
+      {
         path: 'certificates',
         lazy: page(
           () => import('@/features/audit/pages/CertificatesPage'),

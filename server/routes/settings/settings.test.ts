@@ -14,6 +14,26 @@ describe('/api/settings', () => {
     await admin.put('/api/settings').send(before).expect(200);
   });
 
+  it('keeps the calibration reminder days as whole days, largest first, each once', async () => {
+    const admin = await as('admin');
+    const before = (await admin.get('/api/settings').expect(200)).body;
+    expect(before.calibrationReminderDays).toEqual([30, 7]);
+    const saved = await admin
+      .put('/api/settings')
+      .send({ ...before, calibrationReminderDays: '7, 30 7' })
+      .expect(200);
+    expect(saved.body.calibrationReminderDays).toEqual([30, 7]);
+    const bad = await admin
+      .put('/api/settings')
+      .send({ ...before, calibrationReminderDays: [0, 2.5] })
+      .expect(400);
+    expect(bad.body.error.details.map((d: { path: string; message: string }) => `${d.path}: ${d.message}`)).toEqual([
+      'calibrationReminderDays.0: At least 1 day',
+      'calibrationReminderDays.1: Whole numbers of days',
+    ]);
+    await admin.put('/api/settings').send(before).expect(200);
+  });
+
   it('is changed by admins only, with validated fields', async () => {
     await (await as('quality')).put('/api/settings').send({ siteName: 'X', reducedInspectionEnabled: true }).expect(403);
     const bad = await (await as('admin')).put('/api/settings').send({ siteName: '' }).expect(400);

@@ -1,7 +1,7 @@
 import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { siteSettingsSchema, type SiteSettings } from '@shared/schemas/settings';
+import { siteSettingsSchema, type SiteSettings, type SiteSettingsInput } from '@shared/schemas/settings';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
@@ -11,7 +11,7 @@ import { useSaveSiteSettings, useSiteSettings } from '../api';
 export function SiteSettingsPage() {
   const settings = useSiteSettings();
   const save = useSaveSiteSettings();
-  const form = useForm<SiteSettings>({ resolver: zodResolver(siteSettingsSchema) });
+  const form = useForm<SiteSettingsInput, unknown, SiteSettings>({ resolver: zodResolver(siteSettingsSchema) });
   useEffect(() => {
     if (settings.data) form.reset(settings.data);
   }, [settings.data, form]);
@@ -34,6 +34,14 @@ export function SiteSettingsPage() {
             </span>
           </span>
         </label>
+        <Field
+          label="Calibration reminders (days before the due date)"
+          htmlFor="calibration-reminders"
+          hint="Quality managers are mailed once at each, for example 30, 7"
+          error={form.formState.errors.calibrationReminderDays?.message}
+        >
+          <input id="calibration-reminders" inputMode="numeric" className={inputClass} {...form.register('calibrationReminderDays')} />
+        </Field>
         <Button type="submit" disabled={save.isPending}>
           Save settings
         </Button>

@@ -1,6 +1,13 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { INSTRUMENT_KINDS, INSTRUMENT_KIND_LABELS, instrumentInputSchema, type InstrumentInput, type InstrumentView } from '@shared/schemas/instruments';
+import {
+  INSTRUMENT_KINDS,
+  INSTRUMENT_KIND_LABELS,
+  instrumentInputSchema,
+  instrumentUpdateSchema,
+  type InstrumentInput,
+  type InstrumentView,
+} from '@shared/schemas/instruments';
 import { Button } from '@/components/Button';
 import { Field, inputClass } from '@/components/Field';
 import { Notice } from '@/components/Notice';
@@ -19,9 +26,13 @@ const blank: InstrumentInput = {
   active: true,
 };
 
+/** Registers an instrument with its current calibration, or edits its entry (the calibration dates then change only by recording a calibration). */
 export function InstrumentForm({ instrument, onDone }: { instrument?: InstrumentView; onDone: () => void }) {
   const save = useSaveInstrument();
-  const form = useForm<InstrumentInput>({ resolver: zodResolver(instrumentInputSchema) as never, defaultValues: instrument ?? blank });
+  const form = useForm<InstrumentInput>({
+    resolver: zodResolver(instrument ? instrumentUpdateSchema : instrumentInputSchema) as never,
+    defaultValues: instrument ?? blank,
+  });
   const errors = form.formState.errors;
   const submit = form.handleSubmit((values) => save.mutate({ ...values, id: instrument?.id }, { onSuccess: onDone }));
   const signOptions = [
@@ -60,12 +71,16 @@ export function InstrumentForm({ instrument, onDone }: { instrument?: Instrument
         <Field label="Expanded uncertainty, fast axis (°, k = 2)" htmlFor="ins-ud" error={errors.uncertaintyDeg?.message}>
           <input id="ins-ud" type="number" step="0.01" className={inputClass} {...form.register('uncertaintyDeg')} />
         </Field>
-        <Field label="Calibrated on" htmlFor="ins-cal" error={errors.calibratedOn?.message}>
-          <input id="ins-cal" type="date" className={inputClass} {...form.register('calibratedOn')} />
-        </Field>
-        <Field label="Calibration due" htmlFor="ins-due" error={errors.calibrationDueOn?.message}>
-          <input id="ins-due" type="date" className={inputClass} {...form.register('calibrationDueOn')} />
-        </Field>
+        {!instrument && (
+          <>
+            <Field label="Calibrated on" htmlFor="ins-cal" error={errors.calibratedOn?.message} hint="Its first calibration record">
+              <input id="ins-cal" type="date" className={inputClass} {...form.register('calibratedOn')} />
+            </Field>
+            <Field label="Calibration due" htmlFor="ins-due" error={errors.calibrationDueOn?.message}>
+              <input id="ins-due" type="date" className={inputClass} {...form.register('calibrationDueOn')} />
+            </Field>
+          </>
+        )}
         <Field label="S3 sign in its exports" htmlFor="ins-s3">
           <select id="ins-s3" className={inputClass} {...form.register('s3Sign', { valueAsNumber: true })}>
             {signOptions.map((o) => (
