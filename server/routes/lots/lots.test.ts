@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { app, as } from '../../../tests/helpers/api';
-import { receiveThroughApi } from '../../../tests/helpers/purchasing';
+import { orderedLine, receiveOk, receiveThroughApi, uniqueTag } from '../../../tests/helpers/purchasing';
 
 describe('/api/lots', () => {
   it('lists lots filtered by state and found by one of their serials, with totals and CSV', async () => {
@@ -18,6 +18,19 @@ describe('/api/lots', () => {
 
     const csv = await auditor.get(`/api/lots?q=${lot.serials[4]}&format=csv`).expect(200);
     expect(csv.text.replace(/^\uFEFF/, '').split('\n')[1]).toMatch(new RegExp(`^L-${lot.lotId},`));
+  });
+
+  it('finds a lot by its shipment’s packing slip and shows the shipment’s receipt time', async () => {
+    const auditor = await as('auditor');
+    const tag = uniqueTag();
+    const slip = `PS-${tag}`;
+    const line = await orderedLine(2);
+    const { lotId } = await receiveOk(line.lineId, { quantity: 2, serials: `${tag}-1..${tag}-2`, packingSlipNumber: slip });
+    const found = await auditor.get(`/api/lots?q=${slip}`).expect(200);
+    expect(found.body.data.map((l: { id: number }) => l.id)).toEqual([lotId]);
+    const opened = await auditor.get(`/api/lots/${lotId}`).expect(200);
+    expect(opened.body.shipment.packingSlip).toBe(slip);
+    expect(found.body.data[0].receivedAt).toBe(opened.body.shipment.receivedAt);
   });
 
   it('pages in order by the lot’s own columns and by what became of its pieces, without overlap', async () => {
