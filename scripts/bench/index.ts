@@ -48,11 +48,13 @@ try {
         });
       continue;
     }
+    // Loaded before the server starts: loading takes seconds on a busy machine, long enough for the
+    // server to close the kept-alive connection of its readiness check just as the first call reuses it.
+    const module = await import(`./${benchmark}.ts`);
     if (NEEDS_SERVER.includes(benchmark)) {
       if (!(await fillRecord())) throw new Error('The bench database is not filled: run `npm run bench -- fill` first');
       server ??= await startBenchServer();
     }
-    const module = await import(`./${benchmark}.ts`);
     await module.run({ server, tries });
   }
 } catch (error) {
