@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { digitsOf, roundTicks, symmetricExtent, tickText, toleranceTicks } from './chartTicks';
+import { digitsOf, positionTicks, roundTicks, symmetricExtent, tickText, toleranceTicks } from './chartTicks';
 
 describe('ticks of a chart against a ± tolerance', () => {
   it('marks 0 and the two limits, not round numbers chosen by the charting library', () => {
@@ -41,5 +41,15 @@ describe('round ticks from 0', () => {
 
   it('refuses an axis that does not reach past 0', () => {
     expect(() => roundTicks(0)).toThrow(/past 0/);
+  });
+});
+
+describe('ticks for places along an axis', () => {
+  it('names the first and the last place and a few evenly spread between', () => {
+    expect(positionTicks(1)).toEqual([1]);
+    expect(positionTicks(4)).toEqual([1, 2, 3, 4]);
+    expect(positionTicks(13)).toEqual([1, 4, 7, 10, 13]);
+    expect(positionTicks(32)).toEqual([1, 8, 15, 22, 29, 32]);
+    expect(() => positionTicks(0)).toThrow(/whole number/);
   });
 });

@@ -56,3 +56,12 @@ export function roundTicks(max: number, count = 5): { ticks: number[]; digits: n
   }
   return { ticks, digits: Math.max(0, ...ticks.map(digitsOf)) };
 }
+
+/** Ticks for items at places 1..count: the first, the last and about `most` in all, evenly spread. */
+export function positionTicks(count: number, most = 6): number[] {
+  if (!Number.isInteger(count) || count < 1) throw new RangeError(`a count of places must be a whole number from 1, got ${count}`);
+  const step = Math.max(1, Math.ceil((count - 1) / (most - 1)));
+  const ticks: number[] = [];
+  for (let at = 1; at < count; at += step) ticks.push(at);
+  return [...ticks, count];
+}

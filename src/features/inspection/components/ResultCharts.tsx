@@ -3,7 +3,7 @@
 // Ticks sit at 0 and the tolerance limits; tooltips name the serial and write values as the table does.
 import { useState } from 'react';
 import { CartesianGrid, ReferenceArea, ResponsiveContainer, Scatter, ScatterChart, Tooltip, XAxis, YAxis, ZAxis, type TooltipContentProps } from 'recharts';
-import { digitsOf, symmetricExtent, tickText, toleranceTicks } from '@shared/chartTicks';
+import { digitsOf, positionTicks, symmetricExtent, tickText, toleranceTicks } from '@shared/chartTicks';
 import { fixed, signedFixed } from '@shared/format';
 import type { LotInspectionView } from '@shared/schemas/inspection';
 
@@ -74,39 +74,33 @@ const unitLabel = (value: string, angle = 0) =>
 
 type ByPieceProps = { title: string; field: 'retardanceError' | 'axisError'; scale: Scale; order: Order; points: Point[] };
 
+const bySerial = (a: string, b: string) => a.localeCompare(b, 'en', { numeric: true });
+
 /** One error per measured result against its ± tolerance band, along the measuring order or by serial. */
 function ByPieceChart({ title, field, scale, order, points }: ByPieceProps) {
-  const bySerial = order === 'serial';
-  const data = bySerial ? [...points].sort((a, b) => a.serial.localeCompare(b.serial, 'en', { numeric: true })) : points;
+  // By serial, each serial has its place (several wavelengths of a piece share it) and the ticks name serials.
+  const serials = [...new Set(points.map((p) => p.serial))].sort(bySerial);
+  const place = new Map(serials.map((serial, i) => [serial, i + 1]));
+  const data = order === 'serial' ? points.map((p) => ({ ...p, x: place.get(p.serial)! })) : points.map((p) => ({ ...p, x: p.index }));
+  const count = order === 'serial' ? serials.length : points.length;
   const pass = data.filter((p) => p.verdict === 'pass');
   const fail = data.filter((p) => p.verdict !== 'pass');
   return (
     <Panel title={title}>
       <ResponsiveContainer>
-        <ScatterChart margin={{ top: 8, right: 12, bottom: 8, left: 8 }}>
+        <ScatterChart margin={{ top: 8, right: 16, bottom: 8, left: 8 }}>
           <CartesianGrid stroke="#eceae2" />
-          {bySerial ? (
-            <XAxis
-              dataKey="serial"
-              type="category"
-              allowDuplicatedCategory={false}
-              tick={axisStyle}
-              interval="preserveStartEnd"
-              minTickGap={12}
-              height={36}
-              label={unitLabel('serial')}
-            />
-          ) : (
-            <XAxis
-              dataKey="index"
-              type="number"
-              domain={[1, 'dataMax']}
-              tick={axisStyle}
-              allowDecimals={false}
-              height={36}
-              label={unitLabel('measured, in order')}
-            />
-          )}
+          <XAxis
+            dataKey="x"
+            type="number"
+            domain={[0.5, count + 0.5]}
+            ticks={positionTicks(count)}
+            interval={order === 'serial' ? 'preserveStartEnd' : 0}
+            tick={axisStyle}
+            tickFormatter={(x: number) => (order === 'serial' ? (serials[x - 1] ?? '') : String(x))}
+            height={36}
+            label={unitLabel(order === 'serial' ? 'serial' : 'measured, in order')}
+          />
           <YAxis
             dataKey={field}
             type="number"

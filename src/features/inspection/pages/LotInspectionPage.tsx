@@ -16,7 +16,7 @@ import { OcChart } from '../components/OcChart';
 import { ResultCharts } from '../components/ResultCharts';
 import { ResultsTable } from '../components/ResultsTable';
 import { VerdictBadge } from '../components/VerdictBadge';
-import { formatDateTime } from '@shared/format';
+import { formatDateTime, plural } from '@shared/format';
 
 function Facts({ rows }: { rows: [string, React.ReactNode][] }) {
   return (
@@ -101,7 +101,7 @@ export function LotInspectionPage() {
           </p>
           <p className="text-sm">{verdict.explanation}.</p>
           <p className="mt-1 text-xs text-ink-muted">
-            {verdict.measured} of {plan.sampleSize} sample pieces measured · {verdict.defectives} defective
+            {verdict.measured} of {plan.sampleSize} sample pieces measured · {plural(verdict.defectives, 'defective')}
           </p>
           {view.disposition && (
             <p className="mt-2 text-sm">
