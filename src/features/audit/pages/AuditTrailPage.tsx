@@ -35,9 +35,14 @@ function Difference({ before, after }: { before: unknown; after: unknown }) {
               <th scope="row" className="pr-2 text-left font-medium whitespace-nowrap">
                 {c.label}
               </th>
-              <td className="break-all text-ink-muted">{created ? null : <del className="decoration-ink-faint">{c.before}</del>}</td>
-              <td className="px-1 text-ink-faint">{created ? null : '→'}</td>
-              <td className="break-all">{c.after === '—' && !created ? <span className="text-ink-muted">removed</span> : c.after}</td>
+              <td className="break-words">
+                {!created && (
+                  <>
+                    <del className="text-ink-muted decoration-ink-faint">{c.before}</del> <span className="text-ink-faint">→</span>{' '}
+                  </>
+                )}
+                {c.after === '—' && !created ? <span className="text-ink-muted">removed</span> : c.after}
+              </td>
             </tr>
           ))}
         </tbody>
