@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fixed, formatDate, formatDateTime, formatTime, MISSING, plural, signedFixed, wholeNumber } from './format';
+import { fixed, formatDate, formatDateTime, formatInstant, formatTime, MISSING, plural, signedFixed, wholeNumber } from './format';
 
 describe('dates and times', () => {
   it('writes calendar dates in the ISO 8601 extended form YYYY-MM-DD', () => {
@@ -23,6 +23,12 @@ describe('dates and times', () => {
     // RFC 3339 §5.8: 1996-12-19T16:39:57-08:00 "is equivalent to 1996-12-20T00:39:57Z in UTC".
     expect(formatDateTime('1996-12-19T16:39:57-08:00')).toBe('1996-12-20 00:39 UTC');
     expect(formatDate('1996-12-19T16:39:57-08:00')).toBe('1996-12-20');
+  });
+
+  it('writes instants for CSV files in the ISO 8601 complete form, in UTC', () => {
+    // RFC 3339 §5.8 example, the ISO 8601 profile for Internet timestamps: 1985-04-12T23:20:50.52Z.
+    expect(formatInstant('1985-04-12T23:20:50.52Z')).toBe('1985-04-12T23:20:50.520Z');
+    expect(formatInstant('1996-12-19T16:39:57-08:00')).toBe('1996-12-20T00:39:57.000Z');
   });
 
   it('shows a missing date as a dash and refuses text that is no date', () => {

@@ -35,6 +35,11 @@ export function formatDateTime(value: Instant): string {
   return `${iso.slice(0, 10)} ${iso.slice(11, 16)} UTC`;
 }
 
+/** An instant for files other programs read (CSV): ISO 8601 complete, to the millisecond, in UTC ("2026-12-02T08:05:00.000Z"). */
+export function formatInstant(value: string | Date): string {
+  return toDate(value).toISOString();
+}
+
 /** A whole number with its thousands set apart by a space, as SI writes them: "120 000". */
 export function wholeNumber(count: number): string {
   return String(count).replace(/\B(?=(\d{3})+(?!\d))/g, ' ');

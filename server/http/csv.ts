@@ -2,12 +2,13 @@
 // are prefixed with a quote, the usual guard against CSV injection.
 import type { Response } from 'express';
 import { stringify } from 'csv-stringify';
+import { formatInstant } from '../../shared/format';
 
 export type CsvColumn<T> = { header: string; value: (row: T) => unknown };
 
 export function escapeCsvCell(value: unknown): string {
   if (value === null || value === undefined) return '';
-  const text = value instanceof Date ? value.toISOString() : typeof value === 'object' ? JSON.stringify(value) : String(value);
+  const text = value instanceof Date ? formatInstant(value) : typeof value === 'object' ? JSON.stringify(value) : String(value);
   return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
 }
 
