@@ -13,7 +13,7 @@ import { StateBadge } from '@/components/StateBadge';
 import { useSession } from '@/lib/session';
 import { usePieceHistory } from '../api';
 import { StockTabs } from '../components/StockTabs';
-import { formatDateTime } from '@shared/format';
+import { fixed, formatDateTime, signedFixed, wordsOf } from '@shared/format';
 
 /** The whole story of one serial: where it came from and every place it has been. */
 export function PiecePage() {
@@ -128,8 +128,8 @@ export function PiecePage() {
             <ul className="space-y-1 text-sm" aria-label="Readings">
               {piece.readings.map((r, i) => (
                 <li key={i} className={r.current ? '' : 'text-ink-faint line-through'}>
-                  <span className="font-mono">{r.wavelengthNm} nm</span> · retardance {r.retardanceWaves?.toFixed(4) ?? '—'} λ, error{' '}
-                  {r.retardanceErrorWaves?.toFixed(4) ?? '—'} λ, axis {r.axisErrorDeg?.toFixed(2) ?? '—'}° · <span className="font-medium">{r.verdict}</span>
+                  <span className="font-mono">{r.wavelengthNm} nm</span> · retardance {fixed(r.retardanceWaves, 4)} λ, error{' '}
+                  {signedFixed(r.retardanceErrorWaves, 4)} λ, axis {signedFixed(r.axisErrorDeg, 2)}° · <span className="font-medium">{wordsOf(r.verdict)}</span>
                   {r.reasons.length > 0 && ` (${r.reasons.join('; ')})`}
                   <span className="block text-xs text-ink-muted">
                     {r.file} on {r.instrument}, {formatDateTime(r.measuredAt)}
