@@ -5,11 +5,12 @@
 import canonicalize from 'canonicalize';
 import { QueryTypes, type Transaction } from 'sequelize';
 import { sequelize } from '../../db';
-import { Instrument, LotDocument, MeasurementFile, type DispositionRecord, type User } from '../../db/models';
+import { LotDocument, type DispositionRecord, type User } from '../../db/models';
 import { fixed, formatDateTime } from '../../shared/format';
 import { DISPOSITION_LABELS } from '../../shared/inspection/lotVerdict';
 import { config } from '../config';
 import { renderLotReport, type LotReportData, type ReportPiece } from '../documents/lotReport';
+import { calibrationsOfFiles } from '../instruments/calibrations';
 import { readSiteSettings } from '../settings/siteSettings';
 import { sha256, storeBlob } from '../storage/blobs';
 import type { LotEvaluation } from './evaluation';
@@ -62,13 +63,13 @@ function reportedPieces(lot: LotForInspection, evaluation: LotEvaluation) {
 
 async function instrumentsUsed(evaluation: LotEvaluation, transaction: Transaction) {
   const fileIds = [...new Set([...evaluation.allResults.values()].flatMap((rows) => rows.map((r) => r.fileId)))];
-  const files = await MeasurementFile.findAll({ where: { id: fileIds }, transaction });
-  const instruments = await Instrument.findAll({ where: { id: [...new Set(files.map((f) => f.instrumentId))] }, order: [['code', 'ASC']], transaction });
-  return instruments.map((i) => ({
-    code: i.code,
-    calibratedOn: i.calibratedOn,
-    calibrationDueOn: i.calibrationDueOn,
-    uncertainty: `±${fixed(i.uncertaintyWaves, 4)} λ, ±${fixed(i.uncertaintyDeg, 2)}° (k = 2)`,
+  // Each instrument with the calibration its readings were taken under (an older record for older files).
+  const used = await calibrationsOfFiles(fileIds, transaction);
+  return used.map((c) => ({
+    code: c.code,
+    calibratedOn: c.calibratedOn,
+    calibrationDueOn: c.dueOn,
+    uncertainty: `±${fixed(c.uncertaintyWaves, 4)} λ, ±${fixed(c.uncertaintyDeg, 2)}° (k = 2)`,
   }));
 }
 

@@ -173,3 +173,27 @@ export function calibrationsDue(withinDays: number, today: string = todayUtc(), 
     { type: QueryTypes.SELECT, replacements: { today, within: withinDays }, transaction },
   );
 }
+
+export type CalibrationUsed = { code: string; uncertaintyWaves: number; uncertaintyDeg: number; calibratedOn: string; dueOn: string };
+
+/**
+ * The calibrations the readings of these bench files were taken under: for each file, the record
+ * that covered its day (its `# date:`, else the day it was uploaded), once per instrument and record.
+ */
+export async function calibrationsOfFiles(fileIds: number[], transaction?: Transaction): Promise<CalibrationUsed[]> {
+  if (fileIds.length === 0) return [];
+  const rows = await sequelize.query<CalibrationUsed & { uncertaintyWaves: string; uncertaintyDeg: string }>(
+    `SELECT DISTINCT i.code, i.uncertainty_waves AS "uncertaintyWaves", i.uncertainty_deg AS "uncertaintyDeg",
+            c.calibrated_on::text AS "calibratedOn", c.due_on::text AS "dueOn"
+       FROM measurement_files mf
+       JOIN instruments i ON i.id = mf.instrument_id
+       CROSS JOIN LATERAL (SELECT coalesce((mf.metadata->>'date')::date, (mf.uploaded_at AT TIME ZONE 'UTC')::date) AS day) d
+       CROSS JOIN LATERAL (SELECT calibrated_on, due_on FROM instrument_calibrations
+                            WHERE instrument_id = mf.instrument_id AND calibrated_on <= d.day AND d.day <= due_on
+                            ORDER BY calibrated_on DESC, id DESC LIMIT 1) c
+      WHERE mf.id IN (:fileIds)
+      ORDER BY i.code, "calibratedOn"`,
+    { type: QueryTypes.SELECT, replacements: { fileIds }, transaction },
+  );
+  return rows.map((r) => ({ ...r, uncertaintyWaves: Number(r.uncertaintyWaves), uncertaintyDeg: Number(r.uncertaintyDeg) }));
+}

@@ -61,6 +61,21 @@ describe('the route table', () => {
   it('is walked from the router (a sanity floor, so an empty walk cannot pass)', () => {
     expect(routes.length).toBeGreaterThan(50);
     expect(routes).toContainEqual({ method: 'post', path: '/api/shipments', signIn: true, permission: 'shipments.receive' });
+    // The dashboard and the bell: every signed-in user, each seeing only their own and what their roles read.
+    expect(routes).toContainEqual({ method: 'get', path: '/api/dashboard', signIn: true, permission: 'dashboard.read' });
+    for (const [method, path] of [
+      ['get', '/api/notifications'],
+      ['post', '/api/notifications/read-all'],
+      ['post', '/api/notifications/:id/read'],
+    ])
+      expect(routes).toContainEqual({ method, path, signIn: true, permission: 'notifications.read' });
+    expect(routes).toContainEqual({ method: 'post', path: '/api/instruments/:id/calibrations', signIn: true, permission: 'instruments.calibrate' });
+    expect(routes).toContainEqual({
+      method: 'post',
+      path: '/api/instruments/:id/calibrations/:calibrationId/certificate',
+      signIn: true,
+      permission: 'instruments.calibrate',
+    });
   });
 
   it('gives every route an expectation: a permission, sign-in for everyone, or public', () => {

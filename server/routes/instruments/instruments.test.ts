@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../../db';
 import { as } from '../../../tests/helpers/api';
-import { benchFile, sampleOf } from '../../../tests/helpers/bench';
+import { benchFile, documentText, sampleOf, signDecision } from '../../../tests/helpers/bench';
 import { TINY_PDF, uniqueTag } from '../../../tests/helpers/purchasing';
 import { receivedLot } from '../../../tests/helpers/receivedLot';
 
@@ -214,6 +214,27 @@ describe('the calibration gate on bench files, over the records', () => {
     expect((await preview('2024-12-31')).fatal).toBe(
       `Instrument ${code} was not in calibration on 2024-12-31 (calibrated 2025-01-01, due 2025-12-31): its readings are refused`,
     );
+  });
+});
+
+describe('the lot report', () => {
+  it('names the calibration the readings were taken under, not the newest one', async () => {
+    const { quality, instrument } = await registered({ calibratedOn: '2025-01-01', calibrationDueOn: '2025-12-31' });
+    await postCalibration(quality, instrument.id, { calibratedOn: '2026-03-01', dueOn: '2027-03-01', performedBy: 'In-house check' }).expect(201);
+    const lot = await receivedLot({ quantity: 10 });
+    const { sample } = await sampleOf(lot.lotId);
+    const text = benchFile(sample, [], instrument.code).replace(/^# date: .*$/m, '# date: 2025-06-15');
+    await (
+      await as('inspector')
+    )
+      .post(`/api/inspection/lots/${lot.lotId}/measurements`)
+      .attach('files', Buffer.from(text), { filename: 'last-year.csv', contentType: 'text/csv' })
+      .expect(201);
+    const signed = await signDecision(lot.lotId, 'accept', null);
+    const report = signed.body.documents.find((d: { kind: string }) => d.kind === 'inspection-report');
+    const reportText = (await documentText(report.number)).replace(/\s+/g, ' ');
+    expect(reportText).toContain(`${instrument.code} calibrated 2025-01-01, due 2025-12-31`);
+    expect(reportText).not.toContain('calibrated 2026-03-01');
   });
 });
 
