@@ -21,7 +21,7 @@ type SortGroup = [verdicts: PieceVerdict[], pieces: number];
 
 export const inspectionQueue: ListDefinition<QueueRow, ListQuery> = {
   select: `l.id AS "lotId", l.state, p.id AS "partId", p.number AS "partNumber", p.description AS "partDescription",
-    sup.name AS supplier, sup.id AS "supplierId", l.supplier_lot AS "supplierLot", l.quantity, s.received_at AS "receivedAt",
+    sup.name AS supplier, sup.id AS "supplierId", l.supplier_lot AS "supplierLot", l.quantity, l.received_at AS "receivedAt",
     li.id AS "inspectionId", li.code_letter AS "codeLetter", li.plan_letter AS "planLetter", li.sample_size AS "sampleSize",
     li.accept_number AS accept, li.reject_number AS reject, li.severity`,
   // Where each sample stands, for the lots of the page only: in the SELECT list of the paged query it
@@ -35,8 +35,16 @@ export const inspectionQueue: ListDefinition<QueueRow, ListQuery> = {
       END AS "sortGroups"`,
     from: '',
   },
-  // A lot received while acceptance is discontinued has no plan (li) until inspection resumes.
-  from: `${LOTS_AWAITING_INSPECTION.from} LEFT JOIN lot_inspections li ON li.lot_id = l.id`,
+  // The receipt time is the lot's copy of its shipment's, so the shipment is not joined: each table
+  // joined multiplies the join orders PostgreSQL weighs while planning every page (page 2: 2.9 ms
+  // of planning with it, 1.3 ms without). A lot received while acceptance is discontinued has no
+  // plan (li) until inspection resumes.
+  from: `lots l
+    JOIN purchase_order_lines pol ON pol.id = l.po_line_id
+    JOIN purchase_orders po ON po.id = pol.purchase_order_id
+    JOIN suppliers sup ON sup.id = po.supplier_id
+    JOIN parts p ON p.id = l.part_id
+    LEFT JOIN lot_inspections li ON li.lot_id = l.id`,
   filters: () => ({ clauses: [LOTS_AWAITING_INSPECTION.where], replacements: {} }),
   // The lot's copy of its shipment's receipt time: the open lots' index keeps it in order.
   sortable: { receivedAt: 'l.received_at', lotId: 'l.id', state: 'l.state', quantity: 'l.quantity', partNumber: 'p.number', supplier: 'sup.name' },
