@@ -69,6 +69,13 @@ describe('the route table', () => {
       ['post', '/api/notifications/:id/read'],
     ])
       expect(routes).toContainEqual({ method, path, signIn: true, permission: 'notifications.read' });
+    expect(routes).toContainEqual({ method: 'post', path: '/api/instruments/:id/calibrations', signIn: true, permission: 'instruments.calibrate' });
+    expect(routes).toContainEqual({
+      method: 'post',
+      path: '/api/instruments/:id/calibrations/:calibrationId/certificate',
+      signIn: true,
+      permission: 'instruments.calibrate',
+    });
   });
 
   it('gives every route an expectation: a permission, sign-in for everyone, or public', () => {
