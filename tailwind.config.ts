@@ -1,6 +1,7 @@
 // Phaselot's design: a calm bench-green frame, paper-toned work area, and a compact type scale for
 // tables read all day. Status colours are reserved for states (quarantine, pass, fail, hold). Every
-// text colour reads at 4.5:1 or more on the card, the paper and the sunk paper (WCAG 2.1 AA).
+// text colour reads at 4.5:1 or more on the card, the paper and the sunk paper, state colours also on
+// their own 10 % tint over those (WCAG 2.1 AA).
 import type { Config } from 'tailwindcss';
 
 export default {
@@ -13,13 +14,13 @@ export default {
         frame: { DEFAULT: '#234a41', deep: '#17322c', soft: '#3d6b60', line: '#2f5a50' },
         paper: { DEFAULT: '#f6f5f0', card: '#ffffff', sunk: '#eceae2', line: '#dcd9cd' },
         ink: { DEFAULT: '#1e2421', muted: '#545d58', faint: '#646b66' },
-        signal: { DEFAULT: '#f2b84b', deep: '#875c10' },
+        signal: { DEFAULT: '#f2b84b', deep: '#7c5510' },
         state: {
-          quarantine: '#875c10',
-          hold: '#5f54b8',
-          pass: '#276d45',
-          fail: '#b3372f',
-          info: '#2f6690',
+          quarantine: '#7c5510',
+          hold: '#574cae',
+          pass: '#246841',
+          fail: '#a3302a',
+          info: '#295b80',
         },
       },
       fontFamily: {

@@ -63,7 +63,7 @@ export function AppLayout() {
     <div className="min-h-screen desk:flex">
       <a
         href={`#${MAIN_ID}`}
-        className="sr-only rounded bg-frame px-3 py-2 text-sm font-medium text-white focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:z-50"
+        className="sr-only rounded bg-frame text-sm font-medium text-white no-underline focus:not-sr-only focus:fixed focus:top-2 focus:left-2 focus:z-50 focus:px-3 focus:py-2 focus:outline-signal"
         onClick={(event) => {
           event.preventDefault();
           document.getElementById(MAIN_ID)?.focus();

@@ -14,7 +14,10 @@ import { signedInPage, startBrowserRig, type BrowserRig } from './browser';
 // 1400: a desktop; 768: a tablet held upright; 390: a phone.
 const WIDTHS = [1400, 768, 390] as const;
 
-type Ids = Record<'decidedLot' | 'quarantineLot' | 'order' | 'part' | 'supplier' | 'serial' | 'ncr' | 'deviation' | 'request' | 'switchingPair', string>;
+type Ids = Record<
+  'decidedLot' | 'quarantineLot' | 'instrument' | 'order' | 'part' | 'supplier' | 'serial' | 'ncr' | 'deviation' | 'request' | 'switchingPair',
+  string
+>;
 type PageCase = { name: string; path: (ids: Ids) => string; permission?: Permission };
 
 const pages: PageCase[] = [
@@ -58,6 +61,7 @@ const pages: PageCase[] = [
   { name: 'supplier ranking', path: () => '/supplier-performance', permission: 'suppliers.performance' },
   { name: 'supplier performance', path: (ids) => `/supplier-performance/${ids.supplier}`, permission: 'suppliers.performance' },
   { name: 'instruments', path: () => '/instruments', permission: 'instruments.read' },
+  { name: 'instrument', path: (ids) => `/instruments/${ids.instrument}`, permission: 'instruments.read' },
   { name: 'certificates', path: () => '/certificates', permission: 'certificates.read' },
   { name: 'exports', path: () => '/exports', permission: 'exports.create' },
   { name: 'audit trail', path: () => '/audit', permission: 'audit.read' },
@@ -79,6 +83,7 @@ async function demoIds(): Promise<Ids> {
   return {
     decidedLot: await one('decided lot', `SELECT lot_id AS value FROM dispositions ORDER BY id LIMIT 1`),
     quarantineLot: await one('lot in quarantine', `SELECT id AS value FROM lots WHERE state = 'quarantine' ORDER BY id LIMIT 1`),
+    instrument: await one('instrument', `SELECT id AS value FROM instruments ORDER BY id LIMIT 1`),
     order: await one('purchase order', `SELECT id AS value FROM purchase_orders ORDER BY id LIMIT 1`),
     part: await one('part', `SELECT id AS value FROM parts ORDER BY id LIMIT 1`),
     supplier: await one('supplier', `SELECT id AS value FROM suppliers ORDER BY id LIMIT 1`),
@@ -109,7 +114,9 @@ async function problemsAt(page: Page, name: string): Promise<string[]> {
 
 async function visit(page: Page, url: string) {
   await page.setViewportSize({ width: WIDTHS[0], height: 900 });
-  await page.goto(url);
+  const response = await page.goto(url);
+  // A page the server did not serve (the client build being replaced meanwhile) is not the app's page.
+  if (!response?.ok()) throw new Error(`${url} answered ${response?.status()} instead of the app`);
   await page.waitForLoadState('networkidle');
   // Pages say "Loading…" while their data is on its way; the check is of the page with its data.
   await page.getByText('Loading…', { exact: false }).first().waitFor({ state: 'hidden' });
@@ -150,6 +157,7 @@ describe('layout and accessibility of every page at 1400, 768 and 390 px', () =>
     const placeholders: Ids = {
       decidedLot: ':lotId',
       quarantineLot: ':lotId',
+      instrument: ':id',
       order: ':orderId',
       part: ':partId',
       supplier: ':supplierId',
@@ -186,4 +194,58 @@ describe('layout and accessibility of every page at 1400, 768 and 390 px', () =>
       });
     }
   }
+});
+
+describe('the menu on a phone, from the keyboard alone', () => {
+  it('skips to the content, opens the menu at the current page, closes on Escape and on a choice, focus back on its button', async () => {
+    const page = await signedInPage(rig, 'quality');
+    await page.setViewportSize({ width: 390, height: 800 });
+    await page.goto(`${rig.baseUrl}/lots`);
+    await page.waitForLoadState('networkidle');
+    await page.getByRole('heading', { name: 'Lots', exact: true }).waitFor();
+    const menu = page.getByRole('navigation', { name: 'Main' });
+    const menuButton = page.getByRole('button', { name: 'Menu', exact: true });
+    const focused = () => page.evaluate(() => ({ text: document.activeElement?.textContent?.trim(), id: document.activeElement?.id }));
+
+    // The first Tab reaches the skip link, shown while focused; it moves the focus to the page's content.
+    await page.keyboard.press('Tab');
+    expect(await focused()).toMatchObject({ text: 'Skip to main content' });
+    expect(await page.getByRole('link', { name: 'Skip to main content' }).isVisible()).toBe(true);
+    await page.keyboard.press('Enter');
+    expect(await focused()).toMatchObject({ id: 'main-content' });
+
+    // The side bar is folded away; the next Tab from the top is the menu button.
+    expect(await menu.isVisible()).toBe(false);
+    await page.goto(`${rig.baseUrl}/lots`);
+    await menuButton.waitFor({ state: 'visible' });
+    await page.keyboard.press('Tab');
+    await page.keyboard.press('Tab');
+    expect(await focused()).toMatchObject({ text: 'Menu' });
+    expect(await menuButton.getAttribute('aria-expanded')).toBe('false');
+
+    // Opened, the focus is on the page one is on, marked as the current page.
+    await page.keyboard.press('Enter');
+    expect(await menuButton.getAttribute('aria-expanded')).toBe('true');
+    expect(await menu.isVisible()).toBe(true);
+    expect(await focused()).toMatchObject({ text: 'Lots' });
+    expect(await menu.getByRole('link', { name: 'Lots' }).getAttribute('aria-current')).toBe('page');
+
+    // Escape closes it and gives the focus back to its button.
+    await page.keyboard.press('Escape');
+    expect(await menu.isVisible()).toBe(false);
+    expect(await focused()).toMatchObject({ text: 'Menu' });
+
+    // A choice made with the keyboard opens that page, closes the menu and returns the focus.
+    await page.keyboard.press('Enter');
+    await page.keyboard.press('Tab');
+    expect(await focused()).toMatchObject({ text: 'Inspection' });
+    await page.keyboard.press('Enter');
+    await page.waitForURL(`${rig.baseUrl}/inspection`);
+    expect(await menu.isVisible()).toBe(false);
+    expect(await focused()).toMatchObject({ text: 'Menu' });
+    await page.keyboard.press('Enter');
+    expect(await menu.getByRole('link', { name: 'Inspection' }).getAttribute('aria-current')).toBe('page');
+    expect(await menu.getByRole('link', { name: 'Lots' }).getAttribute('aria-current')).toBeNull();
+    await page.context().close();
+  });
 });

@@ -116,8 +116,8 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
             {errors.lines.root.message}
           </p>
         )}
-        {/* The lines' fields reach the keyboard themselves, so the scrolling box needs no focus of its own. */}
-        <div className="overflow-x-auto">
+        {/* The lines' fields reach the keyboard themselves, so the box needs no focus of its own; relative: what is positioned inside (hidden labels) scrolls with it instead of widening the page. */}
+        <div className="relative overflow-x-auto">
           <table className="w-full text-sm">
             <thead className="text-left text-xs text-ink-muted">
               <tr>

@@ -33,7 +33,9 @@ export function PartsTable({ parts, chosen, onChoose }: Props) {
             >
               <td className="px-2 py-1.5">
                 {/* The row takes the click; the button gives it to the keyboard too. */}
-                <button type="button" className="text-left" aria-label={`Charts of ${part.number}`}>
+                <button type="button" className="text-left">
+                  {/* Named by what it shows, its visible text included (speech input names it so). */}
+                  <span className="sr-only">Charts of </span>
                   <PartLabel number={part.number} description={part.description} />
                 </button>
               </td>

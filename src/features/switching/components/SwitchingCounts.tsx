@@ -35,19 +35,22 @@ export function SwitchingCounts({ state, reducedEnabled }: { state: SwitchingSta
     <dl className="space-y-3">
       <div>
         <dt className="text-xs text-ink-muted">Latest lots on normal inspection (oldest first)</dt>
-        <dd className="mt-1 flex items-center gap-1" aria-label={`${state.recentResults.length} lots, ${notAccepted} not accepted`}>
-          {state.recentResults.length === 0 && <span className="text-xs text-ink-faint">None since the last switch.</span>}
-          {state.recentResults.map((accepted, i) => (
-            <span
-              key={i}
-              title={accepted ? 'accepted' : 'not accepted'}
-              className={`inline-flex h-5 w-5 items-center justify-center rounded-sm text-2xs font-semibold text-white ${accepted ? 'bg-state-pass' : 'bg-state-fail'}`}
-            >
-              {accepted ? 'A' : 'N'}
-            </span>
-          ))}
+        <dd className="mt-1">
+          <div className="flex items-center gap-1" role="img" aria-label={`${state.recentResults.length} lots, ${notAccepted} not accepted`}>
+            {state.recentResults.length === 0 && <span className="text-xs text-ink-faint">None since the last switch.</span>}
+            {state.recentResults.map((accepted, i) => (
+              <span
+                key={i}
+                title={accepted ? 'accepted' : 'not accepted'}
+                className={`inline-flex h-5 w-5 items-center justify-center rounded-sm text-2xs font-semibold text-white ${accepted ? 'bg-state-pass' : 'bg-state-fail'}`}
+              >
+                {accepted ? 'A' : 'N'}
+              </span>
+            ))}
+          </div>
+          {/* Inside the dd: a list of terms holds nothing but terms and their descriptions. */}
+          <p className="mt-0.5 text-2xs text-ink-faint">2 not accepted among 5 or fewer consecutive lots start tightened inspection.</p>
         </dd>
-        <p className="mt-0.5 text-2xs text-ink-faint">2 not accepted among 5 or fewer consecutive lots start tightened inspection.</p>
       </div>
       <Count
         label="Switching score"
