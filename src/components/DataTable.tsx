@@ -68,9 +68,9 @@ export function DataTable<T>({ columns, data, total, state, onChange, isLoading,
   return (
     <div className="overflow-hidden rounded border border-paper-line bg-paper-card">
       <div className="relative overflow-x-auto">
-        {/* Each column keeps room for a word or two: on a phone the table scrolls sideways instead of
-            breaking every cell into a tall column of fragments. */}
-        <table className="w-full border-collapse text-sm" style={{ minWidth: `${columns.length * 5}rem` }}>
+        {/* Each column keeps room for a word or two, and identifiers (set in mono) stay whole: on a phone
+            the table scrolls sideways instead of breaking every cell into a tall column of fragments. */}
+        <table className="w-full border-collapse text-sm [&_.font-mono]:whitespace-nowrap" style={{ minWidth: `${columns.length * 5}rem` }}>
           <thead className="bg-paper-sunk text-left text-xs text-ink-muted">
             {table.getHeaderGroups().map((group) => (
               <tr key={group.id}>

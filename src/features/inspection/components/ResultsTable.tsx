@@ -34,7 +34,7 @@ export function ResultsTable({ view }: { view: LotInspectionView }) {
               p.results.length === 0
                 ? [
                     <tr key={p.id} className="border-t border-paper-line/60 text-ink-faint">
-                      <td className="px-2.5 py-0.5 font-mono">
+                      <td className="px-2.5 py-0.5 font-mono whitespace-nowrap">
                         {p.serial}
                         {p.inSample && ' •'}
                       </td>
@@ -48,7 +48,7 @@ export function ResultsTable({ view }: { view: LotInspectionView }) {
                   ]
                 : p.results.map((r) => (
                     <tr key={r.id} className={`border-t border-paper-line/60 ${r.verdict === 'fail' ? 'bg-state-fail/5' : ''}`}>
-                      <td className="px-2.5 py-0.5 font-mono">
+                      <td className="px-2.5 py-0.5 font-mono whitespace-nowrap">
                         {p.serial}
                         {p.inSample && ' •'}
                       </td>
