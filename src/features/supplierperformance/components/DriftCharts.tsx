@@ -22,6 +22,7 @@ import {
   type DriftAlarmView,
   type LotMeanPoint,
 } from '@shared/schemas/supplierPerformance';
+import { formatDate } from '@shared/format';
 import { signedError } from './format';
 
 const INK = '#1e2421';
@@ -45,7 +46,7 @@ function LotTooltip({ active, payload, view }: TooltipContentProps<number, strin
       <p className="font-semibold">
         {point.lot.name} <span className="font-normal text-ink-muted">supplier lot {point.lot.supplierLot}</span>
       </p>
-      <p className="text-ink-muted">received {point.receivedAt.slice(0, 10)}</p>
+      <p className="text-ink-muted">received {formatDate(point.receivedAt)}</p>
       <p>lot mean {signedError(c, point.mean)}</p>
       {point.ewma !== null && (
         <p>
