@@ -179,6 +179,19 @@ describe('words and numbers on the audit pages', () => {
     // The time in the one form: ISO 8601 date, 24-hour time, zone.
     expect(await row.locator('td').first().textContent()).toMatch(/^\d{4}-\d{2}-\d{2} \d{2}:\d{2} UTC$/);
     await bothWidths(page, 'audit-trail');
+
+    // A lot is looked up by the name every page gives it.
+    const lot = await acceptedLot(20);
+    const again = page.getByRole('form', { name: 'Filter events' });
+    await again.getByLabel('Record type').selectOption({ label: 'Lot' });
+    await again.getByLabel('Action').selectOption({ label: 'Any lot decision' });
+    await again.getByLabel('User').selectOption({ label: 'Anyone' });
+    await again.getByLabel('Record number').fill(`L-${lot.lotId}`);
+    await again.getByRole('button', { name: 'Apply' }).click();
+    await page.waitForURL(new RegExp(`entityId=${lot.lotId}(&|$)`));
+    const decision = page.locator('tbody tr', { hasText: 'Lot decision signed: accept' });
+    await decision.waitFor();
+    expect(await decision.textContent()).toContain(`Lot L-${lot.lotId}`);
     await page.context().close();
   });
 });

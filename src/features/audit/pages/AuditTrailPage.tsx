@@ -158,7 +158,8 @@ export function AuditTrailPage() {
       <FilterBar
         key={`${params.toString()}|${choices.isSuccess}`}
         label="Filter events"
-        onApply={update}
+        // A lot is named L-<id> on every page; the trail records its id.
+        onApply={(values) => update({ ...values, entityId: values.entityId?.replace(/^L-(\d+)$/i, '$1') })}
         onClear={() => update(Object.fromEntries(FILTERS.map((key) => [key, undefined])))}
       >
         {input('from', 'From', { type: 'date', className: '' })}
