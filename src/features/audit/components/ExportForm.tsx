@@ -4,7 +4,7 @@ import type { z } from 'zod';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { exportFilterSchema, type ExportFilter, type ExportSpanView } from '@shared/schemas/exports';
 import { Button } from '@/components/Button';
-import { Field, inputClass } from '@/components/Field';
+import { Field, inputClass, isoDateInput } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { formatDate, plural } from '@shared/format';
 import { useExportSpan, usePartOptions, useStartExport, useSupplierOptions } from '../api';
@@ -67,10 +67,10 @@ export function ExportForm() {
     <form aria-label="New export" onSubmit={submit} noValidate className="space-y-3 rounded border border-paper-line bg-paper-card px-4 py-3">
       <div className="flex flex-wrap items-end gap-3">
         <Field label="Issued from" htmlFor="export-from" error={errors.from?.message}>
-          <input id="export-from" type="date" className={inputClass} {...form.register('from')} />
+          <input id="export-from" {...isoDateInput} className={inputClass} {...form.register('from')} />
         </Field>
         <Field label="Issued to" htmlFor="export-to" error={errors.to?.message}>
-          <input id="export-to" type="date" className={inputClass} {...form.register('to')} />
+          <input id="export-to" {...isoDateInput} className={inputClass} {...form.register('to')} />
         </Field>
         <div className="flex gap-1 pb-0.5">
           <Button look="secondary" onClick={() => pick(month(0))}>

@@ -3,7 +3,7 @@ import { FileText } from 'lucide-react';
 import { DISPOSITION_LABELS } from '@shared/inspection/lotVerdict';
 import { lotName } from '@shared/schemas/stock';
 import { DataTable, useListState } from '@/components/DataTable';
-import { Field, inputClass } from '@/components/Field';
+import { Field, inputClass, isoDateInput } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { apiUrl } from '@/lib/api';
@@ -108,10 +108,10 @@ export function CertificatesPage() {
           </select>
         </Field>
         <Field label="Issued from" htmlFor="documents-from">
-          <input id="documents-from" name="from" type="date" defaultValue={filter.from} className={inputClass} />
+          <input id="documents-from" name="from" {...isoDateInput} defaultValue={filter.from} className={inputClass} />
         </Field>
         <Field label="Issued to" htmlFor="documents-to">
-          <input id="documents-to" name="to" type="date" defaultValue={filter.to} className={inputClass} />
+          <input id="documents-to" name="to" {...isoDateInput} defaultValue={filter.to} className={inputClass} />
         </Field>
       </FilterBar>
       {documents.error && <Notice tone="error">{documents.error.message}</Notice>}

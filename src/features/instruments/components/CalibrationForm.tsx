@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { todayUtc } from '@shared/calibration';
 import { calibrationInputSchema, RETARDANCE_UNCERTAINTY_UNITS, type CalibrationInput } from '@shared/schemas/instruments';
 import { Button } from '@/components/Button';
-import { Field, inputClass } from '@/components/Field';
+import { Field, inputClass, isoDateInput } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { ApiError } from '@/lib/api';
 import { useRecordCalibration } from '../api';
@@ -41,10 +41,10 @@ export function CalibrationForm({ instrumentId, onDone }: { instrumentId: number
       {record.error && <Notice tone="error">{record.error.message}</Notice>}
       <div className="grid gap-3 sm:grid-cols-3">
         <Field label="Calibrated on" htmlFor="cal-on" error={errorOf('calibratedOn')}>
-          <input id="cal-on" type="date" className={inputClass} {...form.register('calibratedOn')} />
+          <input id="cal-on" {...isoDateInput} className={inputClass} {...form.register('calibratedOn')} />
         </Field>
         <Field label="Due on" htmlFor="cal-due" error={errorOf('dueOn')}>
-          <input id="cal-due" type="date" className={inputClass} {...form.register('dueOn')} />
+          <input id="cal-due" {...isoDateInput} className={inputClass} {...form.register('dueOn')} />
         </Field>
         <Field label="Certificate number" htmlFor="cal-number" error={errorOf('certificateNumber')}>
           <input id="cal-number" className={inputClass} {...form.register('certificateNumber')} />

@@ -9,7 +9,7 @@ import {
   type InstrumentView,
 } from '@shared/schemas/instruments';
 import { Button } from '@/components/Button';
-import { Field, inputClass } from '@/components/Field';
+import { Field, inputClass, isoDateInput } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { useSaveInstrument } from '../api';
 
@@ -74,10 +74,10 @@ export function InstrumentForm({ instrument, onDone }: { instrument?: Instrument
         {!instrument && (
           <>
             <Field label="Calibrated on" htmlFor="ins-cal" error={errors.calibratedOn?.message} hint="Its first calibration record">
-              <input id="ins-cal" type="date" className={inputClass} {...form.register('calibratedOn')} />
+              <input id="ins-cal" {...isoDateInput} className={inputClass} {...form.register('calibratedOn')} />
             </Field>
             <Field label="Calibration due" htmlFor="ins-due" error={errors.calibrationDueOn?.message}>
-              <input id="ins-due" type="date" className={inputClass} {...form.register('calibrationDueOn')} />
+              <input id="ins-due" {...isoDateInput} className={inputClass} {...form.register('calibrationDueOn')} />
             </Field>
           </>
         )}

@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { Truck } from 'lucide-react';
 import { REMEDIES, REMEDY_LABELS, returnInputSchema, type NcrView, type ReturnInput } from '@shared/schemas/nonconformance';
 import { Button } from '@/components/Button';
-import { Field, inputClass } from '@/components/Field';
+import { Field, inputClass, isoDateInput } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { counted } from '@/lib/plural';
@@ -56,7 +56,7 @@ export function ReturnForm({ ncr, selected, onShipped }: Props) {
           <input id="rma-number" className={`${inputClass} font-mono`} {...form.register('rmaNumber')} />
         </Field>
         <Field label="Ship date" htmlFor="rma-date" error={errors.shipDate?.message}>
-          <input id="rma-date" type="date" className={inputClass} {...form.register('shipDate')} />
+          <input id="rma-date" {...isoDateInput} className={inputClass} {...form.register('shipDate')} />
         </Field>
         <Field label="Carrier" htmlFor="rma-carrier" error={errors.carrier?.message}>
           <input id="rma-carrier" className={inputClass} {...form.register('carrier')} />

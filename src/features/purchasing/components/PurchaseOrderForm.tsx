@@ -14,7 +14,7 @@ import {
   type SupplierView,
 } from '@shared/schemas/purchasing';
 import { Button } from '@/components/Button';
-import { Field, inputClass } from '@/components/Field';
+import { Field, inputClass, isoDateInput } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useParts, useSavePurchaseOrder, useSuppliers } from '../api';
@@ -97,7 +97,7 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
           </Field>
         </div>
         <Field label="Ordered on" htmlFor="po-date" error={errors.orderedOn?.message}>
-          <input id="po-date" type="date" className={inputClass} {...form.register('orderedOn')} />
+          <input id="po-date" {...isoDateInput} className={inputClass} {...form.register('orderedOn')} />
         </Field>
         <Field label="Currency" htmlFor="po-currency" error={errors.currency?.message}>
           <input id="po-currency" maxLength={3} className={`${inputClass} uppercase`} {...form.register('currency')} />
@@ -196,7 +196,7 @@ function OrderFields({ order, onSaved, onCancel, suppliers, parts }: Props & { s
                       </td>
                       <td className="px-2 py-1">
                         <input
-                          type="date"
+                          {...isoDateInput}
                           aria-label={`Due date of line ${index + 1}`}
                           className={`${inputClass} w-36`}
                           {...form.register(`lines.${index}.dueOn`)}

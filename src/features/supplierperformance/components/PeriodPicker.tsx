@@ -1,7 +1,8 @@
 // The period every figure of the page covers, kept in the address bar (from, to); empty fields
 // mean the year up to today.
 import type { Period } from '@shared/schemas/supplierPerformance';
-import { inputClass } from '@/components/Field';
+import { useEffect, useState } from 'react';
+import { inputClass, isoDateInput } from '@/components/Field';
 
 type Props = { period: Period; chosen: { from?: string; to?: string }; onChange: (patch: { from?: string; to?: string }) => void };
 
@@ -9,26 +10,8 @@ export function PeriodPicker({ period, chosen, onChange }: Props) {
   return (
     <fieldset className="flex flex-wrap items-end gap-3">
       <legend className="sr-only">Period</legend>
-      <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
-        Received from
-        <input
-          type="date"
-          className={inputClass}
-          value={chosen.from ?? period.from}
-          max={chosen.to ?? period.to}
-          onChange={(e) => onChange({ from: e.target.value || undefined })}
-        />
-      </label>
-      <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
-        to
-        <input
-          type="date"
-          className={inputClass}
-          value={chosen.to ?? period.to}
-          min={chosen.from ?? period.from}
-          onChange={(e) => onChange({ to: e.target.value || undefined })}
-        />
-      </label>
+      <DayField label="Received from" value={chosen.from ?? period.from} onDay={(from) => onChange({ from })} />
+      <DayField label="to" value={chosen.to ?? period.to} onDay={(to) => onChange({ to })} />
       {(chosen.from || chosen.to) && (
         <button
           type="button"
@@ -39,5 +22,28 @@ export function PeriodPicker({ period, chosen, onChange }: Props) {
         </button>
       )}
     </fieldset>
+  );
+}
+
+const WHOLE_DAY = /^\d{4}-\d{2}-\d{2}$/;
+
+/** A day typed in full before the period follows it: a half-typed day would ask the server for nonsense. */
+function DayField({ label, value, onDay }: { label: string; value: string; onDay: (day: string | undefined) => void }) {
+  const [typed, setTyped] = useState(value);
+  useEffect(() => setTyped(value), [value]);
+  return (
+    <label className="flex flex-col gap-1 text-xs font-medium text-ink-muted">
+      {label}
+      <input
+        {...isoDateInput}
+        className={inputClass}
+        value={typed}
+        onChange={(e) => {
+          setTyped(e.target.value);
+          if (e.target.value === '') onDay(undefined);
+          else if (WHOLE_DAY.test(e.target.value)) onDay(e.target.value);
+        }}
+      />
+    </label>
   );
 }

@@ -4,7 +4,7 @@ import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { deviationInputSchema, type DeviationInput, type DeviationView } from '@shared/schemas/deviations';
 import { Button } from '@/components/Button';
-import { Field, inputClass } from '@/components/Field';
+import { Field, inputClass, isoDateInput } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useOptions, useSaveDeviation, type Option } from '../api';
@@ -104,7 +104,7 @@ function LoadedForm({ deviation, preset, onSaved, onCancel, suppliers, parts }: 
           <input id="deviation-quantity" inputMode="numeric" className={`${inputClass} font-mono`} {...form.register('quantityLimit')} />
         </Field>
         <Field label="Last day of use" htmlFor="deviation-expires" hint="Inclusive (UTC)." error={errors.expiresOn?.message}>
-          <input id="deviation-expires" type="date" className={inputClass} {...form.register('expiresOn')} />
+          <input id="deviation-expires" {...isoDateInput} className={inputClass} {...form.register('expiresOn')} />
         </Field>
       </div>
       <p className="text-xs text-ink-muted">

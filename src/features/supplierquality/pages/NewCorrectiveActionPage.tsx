@@ -7,7 +7,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { carRaiseSchema, type CarRaiseInput } from '@shared/schemas/correctiveActions';
 import { lotName } from '@shared/schemas/stock';
 import { Button } from '@/components/Button';
-import { Field, inputClass } from '@/components/Field';
+import { Field, inputClass, isoDateInput } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { PageHeader } from '@/components/PageHeader';
 import { showServerFieldErrors } from '@/lib/formErrors';
@@ -88,7 +88,7 @@ export function NewCorrectiveActionPage() {
           <textarea id="car-problem" rows={4} className={inputClass} {...form.register('problem')} />
         </Field>
         <Field label="Answer due" htmlFor="car-due" error={errors.responseDueOn?.message}>
-          <input id="car-due" type="date" className={`${inputClass} max-w-48`} {...form.register('responseDueOn')} />
+          <input id="car-due" {...isoDateInput} className={`${inputClass} max-w-48`} {...form.register('responseDueOn')} />
         </Field>
         <p className="text-xs text-ink-muted">
           The request goes by mail to the supplier's quality contact with a link to answer it without an account. The link is valid for 30 days and takes one

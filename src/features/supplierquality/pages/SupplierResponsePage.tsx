@@ -14,7 +14,7 @@ import {
 import { BrandMark } from '@/components/BrandMark';
 import { Button } from '@/components/Button';
 import { Details } from '@/components/Details';
-import { Field, inputClass } from '@/components/Field';
+import { Field, inputClass, isoDateInput } from '@/components/Field';
 import { Notice } from '@/components/Notice';
 import { showServerFieldErrors } from '@/lib/formErrors';
 import { useSubmitResponse, useSupplierRequest } from '../api';
@@ -126,7 +126,7 @@ function AnswerForm({ token, onSent }: { token: string; onSent(at: string): void
   );
   const date = (name: 'containmentOn' | 'correctiveDueOn' | 'preventiveDueOn', label: string) => (
     <Field label={label} htmlFor={`answer-${name}`} error={errors[name]?.message}>
-      <input id={`answer-${name}`} type="date" className={inputClass} {...form.register(name)} />
+      <input id={`answer-${name}`} {...isoDateInput} className={inputClass} {...form.register(name)} />
     </Field>
   );
   return (
