@@ -32,7 +32,7 @@ export function AppLayout() {
 
   useEffect(() => {
     if (!menuOpen) return;
-    // Into the menu at the page one is on, so the arrow of the eye and of the focus agree.
+    // The focus goes into the menu at the page one is on, where the eye finds the mark.
     const current = sideBar.current?.querySelector<HTMLElement>('[aria-current="page"]') ?? sideBar.current?.querySelector<HTMLElement>('a, button');
     current?.focus();
     const onKey = (event: KeyboardEvent) => {

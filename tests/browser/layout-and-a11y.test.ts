@@ -244,7 +244,7 @@ describe('the menu on a phone, from the keyboard alone', () => {
     expect(await menu.isVisible()).toBe(false);
     expect(await focused()).toMatchObject({ text: 'Menu' });
     await page.keyboard.press('Enter');
-    expect(await menu.getByRole('link', { name: 'Inspection' }).getAttribute('aria-current')).toBe('page');
+    await expect.poll(() => menu.getByRole('link', { name: 'Inspection' }).getAttribute('aria-current')).toBe('page');
     expect(await menu.getByRole('link', { name: 'Lots' }).getAttribute('aria-current')).toBeNull();
     await page.context().close();
   });
