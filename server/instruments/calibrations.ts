@@ -130,6 +130,11 @@ export async function findInstrument(id: number): Promise<InstrumentRecord> {
   return { instrument, calibrations };
 }
 
+/** Refuses with 404 an instrument that is not there (before listing what was measured with it). */
+export async function requireInstrument(id: number): Promise<void> {
+  if (!(await Instrument.findByPk(id, { attributes: ['id'] }))) throw notFound('Instrument');
+}
+
 /** The stored certificate of one record. */
 export async function calibrationCertificate(instrumentId: number, calibrationId: number) {
   const record = await InstrumentCalibration.findOne({ where: { id: calibrationId, instrumentId } });

@@ -1,6 +1,5 @@
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
-import { z } from 'zod';
 import {
   carCloseSchema,
   carListQuerySchema,
@@ -14,7 +13,7 @@ import { actorOf } from '../../audit/record';
 import { allow, authenticate } from '../../auth/authenticate';
 import { AppError } from '../../http/errors';
 import { mountList } from '../../http/list';
-import { idParams } from '../../http/params';
+import { idParam, idParams } from '../../http/params';
 import { addressRateLimit } from '../../http/rateLimit';
 import { validated } from '../../http/validate';
 import { openBlob } from '../../storage/blobs';
@@ -134,7 +133,7 @@ correctiveActionsRouter.post(
   }),
 );
 
-const attachmentParams = idParams.extend({ attachmentId: z.coerce.number().int().positive().max(2_147_483_647) });
+const attachmentParams = idParams.extend({ attachmentId: idParam });
 
 /** A file of the supplier's answer, shown in the browser (only PDF and images are ever stored). */
 correctiveActionsRouter.get(

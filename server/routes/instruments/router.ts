@@ -1,6 +1,5 @@
 import { Router, type RequestHandler } from 'express';
 import multer from 'multer';
-import { z } from 'zod';
 import { calibrationInputSchema, instrumentInputSchema, instrumentUpdateSchema, MAX_CERTIFICATE_BYTES } from '../../../shared/schemas/instruments';
 import { listQuerySchema } from '../../../shared/schemas/paging';
 import { actorOf } from '../../audit/record';
@@ -8,9 +7,9 @@ import { allow, authenticate } from '../../auth/authenticate';
 import { sendCsv } from '../../http/csv';
 import { AppError } from '../../http/errors';
 import { listAll, listPage } from '../../http/list';
-import { idParams } from '../../http/params';
+import { idParam, idParams } from '../../http/params';
 import { validated } from '../../http/validate';
-import { attachCertificate, calibrationCertificate, findInstrument, recordCalibration } from '../../instruments/calibrations';
+import { attachCertificate, calibrationCertificate, findInstrument, recordCalibration, requireInstrument } from '../../instruments/calibrations';
 import { listInstruments, registerInstrument, updateInstrument } from '../../instruments/instruments';
 import { instrumentFileList } from '../../instruments/lists';
 import { presentInstrument } from '../../instruments/views';
@@ -31,7 +30,7 @@ const certificateUpload: RequestHandler = (req, res, next) =>
     },
   );
 
-const calibrationParams = idParams.extend({ calibrationId: z.coerce.number().int().positive().max(2_147_483_647) });
+const calibrationParams = idParams.extend({ calibrationId: idParam });
 
 instrumentsRouter.get('/', authenticate, allow('instruments.read'), async (_req, res) => {
   const instruments = await listInstruments();
@@ -109,6 +108,7 @@ instrumentsRouter.get(
   authenticate,
   allow('lots.read'),
   validated({ params: idParams, query: listQuerySchema }, async ({ params, query }, _req, res) => {
+    await requireInstrument(params.id);
     res.json(await listPage(instrumentFileList, { ...query, instrumentId: params.id }));
   }),
 );
@@ -117,7 +117,8 @@ instrumentsRouter.get(
   '/:id/files/export.csv',
   authenticate,
   allow('lots.read'),
-  validated({ params: idParams, query: listQuerySchema }, ({ params, query }, _req, res) =>
-    sendCsv(res, `instrument-${params.id}-files.csv`, instrumentFileList.csv.columns, listAll(instrumentFileList, { ...query, instrumentId: params.id })),
-  ),
+  validated({ params: idParams, query: listQuerySchema }, async ({ params, query }, _req, res) => {
+    await requireInstrument(params.id);
+    await sendCsv(res, `instrument-${params.id}-files.csv`, instrumentFileList.csv.columns, listAll(instrumentFileList, { ...query, instrumentId: params.id }));
+  }),
 );
