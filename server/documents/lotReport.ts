@@ -6,6 +6,7 @@ import QRCode from 'qrcode';
 import { join, resolve } from 'node:path';
 import { fixed, MISSING, signedFixed } from '../../shared/format';
 import { lotName } from '../../shared/schemas/stock';
+import { MUTED, numberPages } from './pdf';
 
 const FONTS = resolve(import.meta.dirname, '../../fonts');
 
@@ -42,7 +43,6 @@ export type LotReportData = {
 };
 
 const INK = '#1e2421';
-const MUTED = '#5b645f';
 const FRAME = '#234a41';
 const LINE = '#dcd9cd';
 
@@ -195,17 +195,7 @@ export async function renderLotReport(data: LotReportData): Promise<Buffer> {
       { width },
     );
 
-  // Page numbers on every page, written once the page count is known.
-  const range = doc.bufferedPageRange();
-  for (let i = 0; i < range.count; i++) {
-    doc.switchToPage(range.start + i);
-    // Writing inside the bottom margin would otherwise make pdfkit open a new page.
-    doc.page.margins.bottom = 0;
-    const footerY = doc.page.height - 40;
-    doc.font('body').fontSize(7.5).fillColor(MUTED);
-    doc.text(`${title} ${data.number}`, left, footerY, { width: width / 2, lineBreak: false });
-    doc.text(`page ${i + 1} of ${range.count}`, left + width / 2, footerY, { width: width / 2, align: 'right', lineBreak: false });
-  }
+  numberPages(doc, `${title} ${data.number}`, left, width);
   doc.end();
   return done;
 }

@@ -4,10 +4,9 @@
 import { findPurchaseOrder } from '../purchasing/purchaseOrders';
 import { specLines } from '../inspection/specText';
 import { readSiteSettings } from '../settings/siteSettings';
-import { openPdf } from './pdf';
+import { MUTED, numberPages, openPdf } from './pdf';
 
 const INK = '#1e2421';
-const MUTED = '#5b645f';
 const FRAME = '#234a41';
 const LINE = '#dcd9cd';
 
@@ -172,16 +171,7 @@ export async function renderPurchaseOrder(sheet: PurchaseOrderSheet): Promise<Bu
       { width },
     );
 
-  const range = doc.bufferedPageRange();
-  for (let i = 0; i < range.count; i++) {
-    doc.switchToPage(range.start + i);
-    // Writing inside the bottom margin would otherwise make pdfkit open a new page.
-    doc.page.margins.bottom = 0;
-    const footerY = doc.page.height - 40;
-    doc.font('body').fontSize(7.5).fillColor(MUTED);
-    doc.text(`Purchase order ${sheet.number}`, left, footerY, { width: width / 2, lineBreak: false });
-    doc.text(`page ${i + 1} of ${range.count}`, left + width / 2, footerY, { width: width / 2, align: 'right', lineBreak: false });
-  }
+  numberPages(doc, `Purchase order ${sheet.number}`, left, width);
   doc.end();
   return bytes;
 }
