@@ -28,14 +28,14 @@ export function CaughtMailPage() {
               onClick={() => setOpenId(openId === m.id ? null : m.id)}
             >
               <span className="shrink-0 text-xs text-ink-muted sm:w-40">{formatDateTime(m.receivedAt)}</span>
-              <span className="max-w-full shrink-0 truncate text-xs sm:w-56">{m.to}</span>
-              <span className="min-w-0 flex-1 font-medium">{m.subject}</span>
+              <span className="max-w-full min-w-0 shrink-0 truncate text-xs sm:w-56">{m.to}</span>
+              <span className="min-w-0 flex-1 font-medium wrap-anywhere">{m.subject}</span>
               {m.attachments.length > 0 && <Paperclip className="h-3.5 w-3.5 text-ink-muted" aria-label={plural(m.attachments.length, 'attachment')} />}
             </button>
             {openId === m.id && (
               <div className="border-t border-paper-line bg-paper px-3 py-3">
-                <p className="text-xs text-ink-muted">From {m.from}</p>
-                <pre className="mt-2 font-sans text-sm whitespace-pre-wrap">{m.text}</pre>
+                <p className="text-xs wrap-anywhere text-ink-muted">From {m.from}</p>
+                <pre className="mt-2 font-sans text-sm whitespace-pre-wrap wrap-anywhere">{m.text}</pre>
                 {m.attachments.length > 0 && (
                   <ul className="mt-2 text-xs text-ink-muted">
                     {m.attachments.map((a) => (
