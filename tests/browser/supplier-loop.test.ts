@@ -37,7 +37,7 @@ async function caughtMail(match: (message: CaughtMessage) => boolean, what: stri
   let found: CaughtMessage | undefined;
   await expect
     .poll(async () => (found = (await readCaughtMail(process.env.MAIL_CATCHER_DIR!)).find(match)) !== undefined, {
-      timeout: 20_000,
+      timeout: 45_000,
       interval: 500,
       message: what,
     })

@@ -166,9 +166,9 @@ describe('words and numbers on the audit pages', () => {
     await page.waitForURL(/entityType=supplier/);
     expect(page.url()).toMatch(/action=supplier\.update/);
 
+    // The rows of before the filter stay on screen until the filtered page has answered.
     const changes = page.getByRole('table', { name: 'Changed fields' });
-    await changes.waitFor();
-    expect(await page.locator('tbody tr', { has: changes }).count()).toBe(1);
+    await expect.poll(() => page.locator('tbody tr', { has: changes }).count(), { timeout: 10_000 }).toBe(1);
     const rows = (await changes.locator('tr').allInnerTexts()).map((t) => t.replace(/\s+/g, ' ').trim());
     // In the order the trail stored the fields.
     expect(rows.sort()).toEqual(['Active yes → no', 'Contact email orders@brindlemoor.example → po@brindlemoor.example', 'Notes — → New purchasing desk']);
