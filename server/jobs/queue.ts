@@ -40,6 +40,11 @@ export type JobDefinition<T extends object = object> = {
   failed?: { queue: QueueName; record(data: T, reason: string): Promise<void> };
   /** A cron expression (UTC) for scheduled work; one process sends each occurrence. */
   schedule?: string;
+  /**
+   * Jobs taken per fetch (1 by default). A worker waits for the polling interval after each fetch,
+   * so one job a fetch drains a burst (a day's reminders, a run of rejections) at one job every 2 s.
+   */
+  batchSize?: number;
 };
 
 // pg-boss's words for a try cut off by expiry or by its process stopping.
@@ -87,7 +92,7 @@ export async function startJobs(definitions: JobDefinition<never>[]) {
   const client = queueClient();
   await client.start();
   for (const definition of definitions as JobDefinition[]) {
-    await client.work<object>(definition.queue, { includeMetadata: true, batchSize: 1 }, async ([job]) => {
+    const runOne = async (job: PgBoss.JobWithMetadata<object>) => {
       try {
         await definition.run(job.data, { retryCount: job.retryCount });
       } catch (error) {
@@ -97,6 +102,14 @@ export async function startJobs(definitions: JobDefinition<never>[]) {
         }
         logger.warn({ queue: definition.queue, job: job.id, reason: error.message }, 'job failed for good');
         await definition.failed?.record(job.data, error.message);
+      }
+    };
+    await client.work<object>(definition.queue, { includeMetadata: true, batchSize: definition.batchSize ?? 1 }, async (jobs) => {
+      // One job: its failure is the batch's, which the queue retries by its policy.
+      if (jobs.length === 1) return runOne(jobs[0]);
+      // Several: each fails on its own (and is retried on its own); the rest complete with the batch.
+      for (const job of jobs) {
+        await runOne(job).catch((error: unknown) => client.fail(definition.queue, job.id, { message: error instanceof Error ? error.message : String(error) }));
       }
     });
     if (definition.failed) {

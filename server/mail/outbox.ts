@@ -111,6 +111,7 @@ export async function deliverDueMail(transport: Transporter = mailTransport) {
 
 const deliverJob: JobDefinition<MailJobData> = {
   queue: QUEUES.mailDeliver,
+  batchSize: 25,
   async run({ outboxId }) {
     if ((await deliverOutboxMail(outboxId)) === 'failed') throw new Error(`Mail ${outboxId} was not accepted by the relay`);
   },
