@@ -45,14 +45,19 @@ export function DashboardPage() {
           ))}
         </section>
       )}
-      <Notice tone="info">
-        Phaselot proposes verdicts from measurements and the ordered tolerance; accepting or rejecting a lot remains the responsibility of the site's quality
-        system and its procedures.
-      </Notice>
-      <Notice tone="caution" title="At the bench">
-        Polarimeters use laser sources: keep beams at bench height, wear the eyewear the source's class requires and never look into the beam or its
-        reflections. Crystal and film retarders are fragile; handle them by the rim with gloves, and respect the damage threshold of cemented plates.
-      </Notice>
+      {/* Cautions where that work is done: the decision's for those who sign, the bench's for those who measure. */}
+      {view?.quality && (
+        <Notice tone="info">
+          Phaselot proposes verdicts from measurements and the ordered tolerance; accepting or rejecting a lot remains the responsibility of the site's quality
+          system and its procedures.
+        </Notice>
+      )}
+      {view?.inspection && (
+        <Notice tone="caution" title="At the bench">
+          Polarimeters use laser sources: keep beams at bench height, wear the eyewear the source's class requires and never look into the beam or its
+          reflections. Crystal and film retarders are fragile; handle them by the rim with gloves, and respect the damage threshold of cemented plates.
+        </Notice>
+      )}
     </div>
   );
 }
