@@ -43,7 +43,7 @@ export function NotificationBell() {
     <div ref={box} className="relative shrink-0">
       <button
         type="button"
-        aria-label={unread ? `Notifications, ${shown} unread` : 'Notifications, none unread'}
+        aria-label={!data ? 'Notifications' : unread ? `Notifications, ${shown} unread` : 'Notifications, none unread'}
         aria-expanded={open}
         aria-haspopup="dialog"
         onClick={() => setOpen((was) => !was)}

@@ -98,7 +98,8 @@ describe('the bell', () => {
     await page.getByTestId('signed-in-user').waitFor();
 
     const bell = page.getByRole('button', { name: /^Notifications/ });
-    await expect(bell.getAttribute('aria-label')).resolves.toBe('Notifications, 2 unread');
+    // The count arrives with the first poll of the notifications, after the page has drawn.
+    await expect.poll(() => bell.getAttribute('aria-label')).toBe('Notifications, 2 unread');
     await expect(page.getByTestId('unread-count').textContent()).resolves.toBe('2');
     await bell.click();
     const panel = page.getByRole('dialog', { name: 'Notifications' });
