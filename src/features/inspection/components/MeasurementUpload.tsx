@@ -246,6 +246,11 @@ export function MeasurementUpload({ lotId }: { lotId: number }) {
 
   return (
     <div className="space-y-3 rounded border border-paper-line bg-paper p-3">
+      {/* Where the plates are measured: the bench's cautions, once, beside the files it produces. */}
+      <p className="text-xs text-ink-muted">
+        At the bench: polarimeters use laser sources, so keep beams at bench height, wear the eyewear the source's class requires and never look into the beam
+        or its reflections. Handle plates by the rim with gloves; crystal and film retarders are fragile.
+      </p>
       <div className="flex flex-wrap items-end gap-3">
         <Field label="Bench files (CSV)" htmlFor="bench-files">
           <input
