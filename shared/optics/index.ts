@@ -6,7 +6,7 @@
  * Stable API for the server:
  *
  *   analyzeText(csvText: string, spec: PieceSpecInput, options?: AnalyzeOptions): AnalysisResult
- *   analyzeBuffer(bytes: Uint8Array, spec: PieceSpecInput, options?: AnalyzeOptions): AnalysisResult   (a Node Buffer is one)
+ *   analyzeBuffer(bytes: Uint8Array, spec: PieceSpecInput, options?: AnalyzeOptions): AnalysisResult   (any byte array)
  *   analyzeStream(source: AsyncIterable<Uint8Array | string>, spec: PieceSpecInput,
  *                 options?: AnalyzeOptions): Promise<AnalysisResult>     (e.g. a Node Readable)
  *     Every form parses in slices cut at line ends and takes line numbers from the text itself; the
