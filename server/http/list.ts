@@ -13,6 +13,7 @@ import type { ListQuery } from '../../shared/schemas/paging';
 import { allow, authenticate } from '../auth/authenticate';
 import { sendCsv, type CsvColumn } from './csv';
 import { badRequest } from './errors';
+import { sendUnchangedAnswer } from './unchangedAnswers';
 import { validated } from './validate';
 
 export type Filters = { clauses: string[]; replacements: Record<string, unknown> };
@@ -172,7 +173,7 @@ export function mountList<Row, Schema extends z.ZodType<ListQuery>>(
     allow(permission),
     validated({ query: querySchema }, async ({ query }, req, res) => {
       if (req.query.format === 'csv') return csv(query, res);
-      res.json(await listPage(definition, query));
+      await sendUnchangedAnswer(res, `${definition.csv.filename} ${JSON.stringify(query)}`, () => listPage(definition, query));
     }),
   );
 }

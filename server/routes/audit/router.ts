@@ -5,6 +5,7 @@ import { actorOf, recordAudit } from '../../audit/record';
 import { AUDIT_CSV_COLUMNS, auditChoices, listAuditEvents, streamAuditEvents } from '../../audit/query';
 import { chainHead, checkAnchor, verifyAuditChain } from '../../audit/verify';
 import { sendCsv } from '../../http/csv';
+import { sendUnchangedAnswer } from '../../http/unchangedAnswers';
 import { validated } from '../../http/validate';
 
 export const auditRouter = Router();
@@ -14,7 +15,7 @@ auditRouter.get(
   authenticate,
   allow('audit.read'),
   validated({ query: auditQuerySchema }, async ({ query }, _req, res) => {
-    res.json(await listAuditEvents(query));
+    await sendUnchangedAnswer(res, `audit ${JSON.stringify(query)}`, () => listAuditEvents(query));
   }),
 );
 

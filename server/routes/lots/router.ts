@@ -3,6 +3,7 @@ import { lotListQuerySchema } from '../../../shared/schemas/stock';
 import { allow, authenticate } from '../../auth/authenticate';
 import { mountList } from '../../http/list';
 import { idParams } from '../../http/params';
+import { sendUnchangedAnswer } from '../../http/unchangedAnswers';
 import { validated } from '../../http/validate';
 import { lotList } from '../../receiving/lists';
 import { findLot } from '../../receiving/lots';
@@ -17,6 +18,6 @@ lotsRouter.get(
   authenticate,
   allow('lots.read'),
   validated({ params: idParams }, async ({ params }, _req, res) => {
-    res.json(presentLot(await findLot(params.id)));
+    await sendUnchangedAnswer(res, `lot ${params.id}`, async () => presentLot(await findLot(params.id)));
   }),
 );

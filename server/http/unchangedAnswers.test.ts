@@ -1,0 +1,98 @@
+// A kept answer is given again only while the database is as it was: any committed write, or a new
+// minute, reads afresh; identical requests meanwhile share one read; a failed read is never kept.
+import express from 'express';
+import request from 'supertest';
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
+import { inTransaction, sequelize } from '../../db';
+import { forgetUnchangedAnswers, sendUnchangedAnswer, unchangedAnswer } from './unchangedAnswers';
+
+/** A read that counts its calls and answers the count. */
+function countingRead(delayMs = 0) {
+  const read = vi.fn(async () => {
+    if (delayMs) await new Promise((done) => setTimeout(done, delayMs));
+    return { reads: read.mock.calls.length };
+  });
+  return read;
+}
+
+const parsed = (answer: { body: Buffer }) => JSON.parse(answer.body.toString('utf8')) as unknown;
+
+/** A committed transaction that writes, as any change in the product does (it takes a transaction id). */
+const commitAWrite = () => inTransaction((transaction) => sequelize.query('SELECT txid_current()', { transaction }));
+
+describe('answers kept while nothing changed', () => {
+  beforeEach(() => forgetUnchangedAnswers());
+  afterEach(() => vi.useRealTimers());
+
+  it('gives a kept answer again, with the same bytes and entity tag, without reading', async () => {
+    const read = countingRead();
+    const first = await unchangedAnswer('list a', read);
+    const second = await unchangedAnswer('list a', read);
+    expect(read).toHaveBeenCalledTimes(1);
+    expect(parsed(second)).toEqual({ reads: 1 });
+    expect(second.body.equals(first.body)).toBe(true);
+    expect(second.etag).toBe(first.etag);
+  });
+
+  it('keeps each key apart', async () => {
+    const read = countingRead();
+    await unchangedAnswer('list a', read);
+    expect(parsed(await unchangedAnswer('list b', read))).toEqual({ reads: 2 });
+  });
+
+  it('reads afresh once a write has committed', async () => {
+    const read = countingRead();
+    await unchangedAnswer('list a', read);
+    await commitAWrite();
+    expect(parsed(await unchangedAnswer('list a', read))).toEqual({ reads: 2 });
+  });
+
+  it('reads afresh in a new minute, for lists that count days by the clock', async () => {
+    vi.useFakeTimers({ toFake: ['Date'] });
+    vi.setSystemTime(new Date('2026-12-02T10:15:30Z'));
+    const read = countingRead();
+    await unchangedAnswer('list a', read);
+    vi.setSystemTime(new Date('2026-12-02T10:15:59Z'));
+    expect(parsed(await unchangedAnswer('list a', read))).toEqual({ reads: 1 });
+    vi.setSystemTime(new Date('2026-12-02T10:16:00Z'));
+    expect(parsed(await unchangedAnswer('list a', read))).toEqual({ reads: 2 });
+  });
+
+  it('lets identical requests arriving together share one read', async () => {
+    const read = countingRead(100);
+    const answers = await Promise.all(Array.from({ length: 5 }, () => unchangedAnswer('list a', read)));
+    expect(read).toHaveBeenCalledTimes(1);
+    expect(answers.map(parsed)).toEqual(Array(5).fill({ reads: 1 }));
+  });
+
+  it('keeps no failed read: the request sharing it reads on its own, and so does the next one', async () => {
+    const failing = vi.fn(async () => {
+      await new Promise((done) => setTimeout(done, 50));
+      throw new Error('statement cancelled');
+    });
+    const read = countingRead();
+    const firstRead = unchangedAnswer('list a', failing);
+    // The second request arrives once the first is reading, so it shares that read.
+    await vi.waitFor(() => expect(failing).toHaveBeenCalled());
+    const [first, sharing] = await Promise.allSettled([firstRead, unchangedAnswer('list a', read)]);
+    expect(first.status).toBe('rejected');
+    expect(sharing.status === 'fulfilled' && parsed(sharing.value)).toEqual({ reads: 1 });
+    expect(failing).toHaveBeenCalledTimes(1);
+    const later = vi.fn(async () => ({ later: true }));
+    forgetUnchangedAnswers();
+    await expect(unchangedAnswer('list b', failing)).rejects.toThrow('statement cancelled');
+    expect(parsed(await unchangedAnswer('list b', later))).toEqual({ later: true });
+  });
+
+  it('answers a client holding the entity tag with 304 and no body', async () => {
+    const app = express();
+    app.get('/list', (_req, res, next) => sendUnchangedAnswer(res, 'list http', async () => ({ rows: [1, 2, 3] })).catch(next));
+    const first = await request(app)
+      .get('/list')
+      .expect(200)
+      .expect('content-type', /application\/json/);
+    expect(first.body).toEqual({ rows: [1, 2, 3] });
+    const again = await request(app).get('/list').set('if-none-match', first.headers.etag).expect(304);
+    expect(again.text).toBe('');
+  });
+});

@@ -1,0 +1,71 @@
+// Answers of read-only lists, kept while the database has not changed. Each request reads the
+// database's current snapshot (pg_current_snapshot()): its text stays the same only while no
+// transaction has committed or begun writing since, so a kept answer is exactly what reading the
+// list again would give. The key holds the minute too, for lists that count days or mark what is
+// overdue by the clock. Busy lists (the same page asked for by a room of people, or by a page that
+// refreshes) then cost one small statement instead of their query; the first request after a change
+// reads afresh, and requests asking for the same page meanwhile wait for that one read.
+import etag from 'etag';
+import type { Response } from 'express';
+import { QueryTypes } from 'sequelize';
+import { sequelize } from '../../db';
+
+/** Bytes of JSON kept at most per process, and per answer (a bigger one is not kept). */
+const MAX_KEPT_BYTES = 16_000_000;
+const MAX_ANSWER_BYTES = 2_000_000;
+
+/** An answer as it is sent: its JSON's bytes and their entity tag, made once. */
+export type Answer = { body: Buffer; etag: string };
+
+type Kept = { state: string; answers: Map<string, Promise<Answer>>; bytes: number };
+
+let kept: Kept = { state: '', answers: new Map(), bytes: 0 };
+
+/** What an answer depends on besides its request: every committed write, and the clock's minute. */
+async function databaseState(): Promise<string> {
+  const [row] = await sequelize.query<{ snapshot: string }>('SELECT pg_current_snapshot()::text AS snapshot', { type: QueryTypes.SELECT });
+  return `${row.snapshot} ${new Date().toISOString().slice(0, 16)}`;
+}
+
+/**
+ * The JSON of `read()`, or the same answer kept from an earlier request with the same `key` while
+ * nothing has changed. `key` must name everything else the answer depends on (the list and its
+ * parsed query); whoever may ask is checked before, so the answer must not depend on the user.
+ */
+export async function unchangedAnswer(key: string, read: () => Promise<unknown>): Promise<Answer> {
+  const state = await databaseState();
+  if (kept.state !== state) kept = { state, answers: new Map(), bytes: 0 };
+  const store = kept;
+  const waiting = store.answers.get(key);
+  if (waiting) {
+    // The read this request would share failed (its client left, say): it reads on its own.
+    const shared = await waiting.catch(() => null);
+    if (shared !== null) return shared;
+  }
+  const reading = read().then((value): Answer => {
+    const body = Buffer.from(JSON.stringify(value));
+    return { body, etag: etag(body, { weak: true }) };
+  });
+  store.answers.set(key, reading);
+  try {
+    const answer = await reading;
+    const bytes = answer.body.length;
+    if (bytes > MAX_ANSWER_BYTES || store.bytes + bytes > MAX_KEPT_BYTES) store.answers.delete(key);
+    else store.bytes += bytes;
+    return answer;
+  } catch (error) {
+    if (store.answers.get(key) === reading) store.answers.delete(key);
+    throw error;
+  }
+}
+
+/** Sends `unchangedAnswer(key, read)`, with its entity tag (a client holding it gets 304). */
+export async function sendUnchangedAnswer(res: Response, key: string, read: () => Promise<unknown>) {
+  const { body, etag } = await unchangedAnswer(key, read);
+  res.type('json').set('ETag', etag).send(body);
+}
+
+/** Forgets every kept answer (tests that compare a first read with a later one). */
+export function forgetUnchangedAnswers() {
+  kept = { state: '', answers: new Map(), bytes: 0 };
+}
