@@ -51,7 +51,9 @@ export async function startBenchServer(): Promise<BenchServer> {
     throw new Error(`Something already answers on ${baseUrl}: stop it first (a bench server left running?)`);
   appendFileSync(logPath, `\n--- bench server started ${new Date().toISOString()}\n`);
   const log = openSync(logPath, 'a');
-  const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', join(repoRoot, 'server/main.ts')], {
+  // PHASELOT_BENCH_NODE_ARGS passes flags to the server's node, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof` to profile a benchmark.
+  const nodeArgs = (process.env.PHASELOT_BENCH_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  const child: ChildProcess = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', join(repoRoot, 'server/main.ts')], {
     cwd: repoRoot,
     env: { ...process.env, ...benchEnvironment(), NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(BENCH_SERVER_PORT), PUBLIC_URL: baseUrl },
     stdio: ['ignore', log, log],
