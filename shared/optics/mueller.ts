@@ -37,8 +37,8 @@ export function mat4Transpose(m: Readonly<Mueller>): Mueller {
 
 /** Inverse by Gauss-Jordan elimination with partial pivoting; null when singular. */
 export function mat4Inverse(m: Readonly<Mueller>): Mueller | null {
-  const a = Array.from(m);
-  const inv: Mueller = Array.from(MUELLER_IDENTITY);
+  const a = m.slice();
+  const inv: Mueller = MUELLER_IDENTITY.slice();
   let scale = 0;
   for (const x of a) scale = Math.max(scale, Math.abs(x));
   if (scale === 0) return null;

@@ -78,10 +78,20 @@ const MAX_DIATTENUATION = 0.999;
 export function polarDecomposition(mueller: Readonly<Mueller>): PolarResult {
   const m00 = mueller[0];
   if (!(m00 > 0)) return { ok: false, reason: 'the Mueller matrix has m00 <= 0' };
-  const m = mueller.map((x) => x / m00);
-  const dVector: Vec3 = [m[1], m[2], m[3]];
-  const pVector: Vec3 = [m[4], m[8], m[12]];
-  const lower: Mat3 = [m[5], m[6], m[7], m[9], m[10], m[11], m[13], m[14], m[15]];
+  // The parts of the matrix normalised by m00, read straight from it: this runs once per piece of large files.
+  const dVector: Vec3 = [mueller[1] / m00, mueller[2] / m00, mueller[3] / m00];
+  const pVector: Vec3 = [mueller[4] / m00, mueller[8] / m00, mueller[12] / m00];
+  const lower: Mat3 = [
+    mueller[5] / m00,
+    mueller[6] / m00,
+    mueller[7] / m00,
+    mueller[9] / m00,
+    mueller[10] / m00,
+    mueller[11] / m00,
+    mueller[13] / m00,
+    mueller[14] / m00,
+    mueller[15] / m00,
+  ];
   const diattenuation = norm3(dVector);
   if (diattenuation > MAX_DIATTENUATION) {
     return { ok: false, reason: `diattenuation ${diattenuation.toFixed(4)} is that of a polariser, not a retarder` };
@@ -90,15 +100,17 @@ export function polarDecomposition(mueller: Readonly<Mueller>): PolarResult {
   // M = M' · M_D with M' = [[1, 0], [P_Δ, m']] and M_D = [[1, Dᵀ], [D, m_D]], m_D·D = D, gives
   // P_Δ = (P - m·D)/(1 - D²) and m' = (m - P_Δ·Dᵀ)·m_D⁻¹; m_D⁻¹ is 1 along D̂ and 1/sqrt(1 - D²) across it.
   const root = Math.sqrt(1 - diattenuation * diattenuation);
-  const unit: Vec3 = diattenuation > 0 ? (dVector.map((x) => x / diattenuation) as Vec3) : [0, 0, 0];
+  const unit: Vec3 = diattenuation > 0 ? [dVector[0] / diattenuation, dVector[1] / diattenuation, dVector[2] / diattenuation] : [0, 0, 0];
   const across = 1 / root;
   const mDInverse: Mat3 = new Array(9);
   for (let i = 0; i < 3; i++) {
     for (let j = 0; j < 3; j++) mDInverse[3 * i + j] = (i === j ? across : 0) + (1 - across) * unit[i] * unit[j];
   }
-  const polarizanceOfDepolarizer = [0, 1, 2].map(
-    (i) => (pVector[i] - (lower[3 * i] * dVector[0] + lower[3 * i + 1] * dVector[1] + lower[3 * i + 2] * dVector[2])) / (1 - diattenuation * diattenuation),
-  ) as Vec3;
+  const polarizanceOfDepolarizer: Vec3 = [0, 0, 0];
+  for (let i = 0; i < 3; i++) {
+    polarizanceOfDepolarizer[i] =
+      (pVector[i] - (lower[3 * i] * dVector[0] + lower[3 * i + 1] * dVector[1] + lower[3 * i + 2] * dVector[2])) / (1 - diattenuation * diattenuation);
+  }
   const shifted: Mat3 = new Array(9);
   for (let i = 0; i < 3; i++) {
     for (let j = 0; j < 3; j++) shifted[3 * i + j] = lower[3 * i + j] - polarizanceOfDepolarizer[i] * dVector[j];
@@ -106,19 +118,28 @@ export function polarDecomposition(mueller: Readonly<Mueller>): PolarResult {
   const mPrime = mat3Multiply(shifted, mDInverse);
 
   const product = mat3MultiplyTransposed(mPrime);
-  const [l1, l2, l3] = symmetric3x3Eigenvalues(product).map((x) => Math.sqrt(Math.max(0, x)));
+  const eigenvalues = symmetric3x3Eigenvalues(product);
+  const l1 = Math.sqrt(Math.max(0, eigenvalues[0]));
+  const l2 = Math.sqrt(Math.max(0, eigenvalues[1]));
+  const l3 = Math.sqrt(Math.max(0, eigenvalues[2]));
   const determinant = mat3Determinant(mPrime);
   if (determinant === 0 || !Number.isFinite(determinant)) {
     return { ok: false, reason: 'the Mueller matrix is singular (a total depolariser or polariser)' };
   }
   const sign = determinant > 0 ? 1 : -1;
   const k2 = l1 * l2 + l2 * l3 + l3 * l1;
-  // Indices 0, 4 and 8 are the diagonal of a row-major 3x3.
-  const left = product.map((x, e) => x + (e % 4 === 0 ? k2 : 0));
-  const right = product.map((x, e) => (l1 + l2 + l3) * x + (e % 4 === 0 ? l1 * l2 * l3 : 0));
+  const left: Mat3 = new Array(9);
+  const right: Mat3 = new Array(9);
+  for (let e = 0; e < 9; e++) {
+    // Indices 0, 4 and 8 are the diagonal of a row-major 3x3.
+    const diagonal = e % 4 === 0;
+    left[e] = product[e] + (diagonal ? k2 : 0);
+    right[e] = (l1 + l2 + l3) * product[e] + (diagonal ? l1 * l2 * l3 : 0);
+  }
   const leftInverse = mat3Inverse(left);
   if (!leftInverse) return { ok: false, reason: 'the depolariser of the Mueller matrix could not be separated' };
-  const depolarizerMatrix = mat3Multiply(leftInverse, right).map((x) => sign * x);
+  const depolarizerMatrix = mat3Multiply(leftInverse, right);
+  for (let e = 0; e < 9; e++) depolarizerMatrix[e] *= sign;
   const depolarizerInverse = mat3Inverse(depolarizerMatrix);
   if (!depolarizerInverse) return { ok: false, reason: 'the depolariser of the Mueller matrix is singular' };
   const r = mat3Multiply(depolarizerInverse, mPrime);
@@ -150,14 +171,15 @@ function rotationAxis(r: Mat3, cosine: number): Vec3 {
   const antisymmetric: Vec3 = [r[7] - r[5], r[2] - r[6], r[3] - r[1]];
   const length = norm3(antisymmetric);
   if (cosine >= 0) {
-    return length > 0 ? (antisymmetric.map((x) => x / length) as Vec3) : [1, 0, 0];
+    return length > 0 ? [antisymmetric[0] / length, antisymmetric[1] / length, antisymmetric[2] / length] : [1, 0, 0];
   }
-  const symmetric = [0, 1, 2].map((i) => [0, 1, 2].map((j) => (r[3 * i + j] + r[3 * j + i]) / 2 - (i === j ? cosine : 0)));
+  // Entries of the symmetric part less cosine·I, read where needed rather than built as a matrix.
+  const symmetric = (i: number, j: number) => (r[3 * i + j] + r[3 * j + i]) / 2 - (i === j ? cosine : 0);
   let column = 0;
-  for (let j = 1; j < 3; j++) if (symmetric[j][j] > symmetric[column][column]) column = j;
-  const axis = symmetric.map((row) => row[column]) as Vec3;
+  for (let j = 1; j < 3; j++) if (symmetric(j, j) > symmetric(column, column)) column = j;
+  const axis: Vec3 = [symmetric(0, column), symmetric(1, column), symmetric(2, column)];
   const norm = norm3(axis);
   const dot = axis[0] * antisymmetric[0] + axis[1] * antisymmetric[1] + axis[2] * antisymmetric[2];
   const orientation = dot < 0 ? -1 : 1;
-  return axis.map((x) => (orientation * x) / norm) as Vec3;
+  return [(orientation * axis[0]) / norm, (orientation * axis[1]) / norm, (orientation * axis[2]) / norm];
 }
