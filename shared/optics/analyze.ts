@@ -26,7 +26,7 @@ function finish(collector: ReadingCollector, spec: PieceSpec): AnalysisResult {
   if (fatal !== undefined || method === null) {
     return { method, metadata, columns, rows: [], pieces: [], serials: [], warnings, errors, fatal: fatal ?? 'no recognisable header' };
   }
-  const { pieces, serials } = evaluate(method, collected.groups, spec, errors);
+  const { pieces, serials } = evaluate(method, collected.groups, collected.groupsBySerial, spec, errors);
   return { method, metadata, columns, rows, pieces, serials, warnings, errors };
 }
 

@@ -279,18 +279,20 @@ function serialResult(serial: string, pieces: PieceResult[], spec: PieceSpec): S
   return result;
 }
 
-export function evaluate(method: Method, groups: readonly Group[], spec: PieceSpec, errors: LineMessage[]): { pieces: PieceResult[]; serials: SerialResult[] } {
+/** `groupsBySerial` holds the same groups as `groups`, by serial (as the collector found them, so they are not looked up again). */
+export function evaluate(
+  method: Method,
+  groups: readonly Group[],
+  groupsBySerial: readonly (readonly Group[])[],
+  spec: PieceSpec,
+  errors: LineMessage[],
+): { pieces: PieceResult[]; serials: SerialResult[] } {
   const pieces = groups.map((g) => pieceResult(method, g, spec, errors));
-  const bySerial = new Map<string, PieceResult[]>();
-  for (const p of pieces) {
-    const own = bySerial.get(p.serial);
-    if (own) own.push(p);
-    else bySerial.set(p.serial, [p]);
-  }
   const serials: SerialResult[] = [];
-  for (const [serial, own] of bySerial) {
+  for (const serialGroups of groupsBySerial) {
+    const own = serialGroups.map((g) => pieces[g.order]);
     applyOrderEstimate(own, spec);
-    serials.push(serialResult(serial, own, spec));
+    serials.push(serialResult(serialGroups[0].serial, own, spec));
   }
   errors.sort((a, b) => a.line - b.line);
   return { pieces, serials };

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import stokesErrors from '../../tests/fixtures/readings/stokes-errors.csv?raw';
 import { analyzeBuffer, analyzeText } from './analyze.js';
-import { readMetadata } from './readings.js';
+import { plainDecimal, readMetadata } from './readings.js';
 import { DIRECT_HEADER, SCAN_HEADER, STOKES_HEADER, stokesRows } from './synthetic.js';
 import type { PieceSpecInput } from './spec.js';
-import { bytesOf } from './testing.js';
+import { bytesOf, seededUniform } from './testing.js';
 
 const QWP: PieceSpecInput = { nominalWaves: 0.25, designWavelengthNm: 632.8, retardanceTolWaves: 0.003, axisTolDeg: 0.5 };
 const good = (serial = 'QW-0001', wavelengthNm = 632.8) => stokesRows({ serial, wavelengthNm, retardanceWaves: 0.2497, fastAxisDeg: 0.1 });
@@ -302,5 +302,21 @@ describe('repeated rows', () => {
     expect(analyzeText(lines(DIRECT_HEADER, rows), QWP).errors).toEqual([
       { line: 4, message: 'repeats line 2: QW-0010 at 632.8 nm with the same reading is already measured there' },
     ]);
+  });
+});
+
+describe('plain decimal cells', () => {
+  it('reads them exactly as Number() does, and leaves every other cell to Number()', () => {
+    const random = seededUniform(5, 1e14, 1e15);
+    const cells = ['0', '-0', '7', '632.8', '-0.707107', '0.000001', '.5', '-.5', '5.', '00012.50', '123456789012345', '0.12345678901234'];
+    for (let i = 0; i < 20_000; i++) {
+      const digits = String(Math.floor(random())).slice(0, 1 + (i % 15));
+      const point = i % (digits.length + 1);
+      cells.push(`${i % 2 ? '-' : ''}${digits.slice(0, point)}.${digits.slice(point)}`);
+    }
+    for (const cell of cells) expect(Object.is(plainDecimal(cell), Number(cell)), cell).toBe(true);
+    for (const cell of ['', ' 1', '1 ', '+1', '1e3', '0x10', '-', '.', '1.2.3', 'Infinity', '1234567890123456', '1,5']) {
+      expect(plainDecimal(cell), cell).toBeNaN();
+    }
   });
 });

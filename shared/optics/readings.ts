@@ -30,6 +30,8 @@ export interface ReadingsByMethod {
 
 export interface Group<M extends Method = Method> {
   serial: string;
+  /** Where the group is in the file's order (Collected.groups). */
+  order: number;
   wavelengthNm: number;
   /** Angle of the fast-axis mark in the lab frame, degrees (our frame). */
   mountDeg: number;
@@ -46,7 +48,10 @@ export interface Collected {
   metadata: FileMetadata;
   columns: string[];
   rows: ParsedRow[];
+  /** In the file's order: by their first rows. */
   groups: Group[];
+  /** The same groups by serial, each serial's in the file's order; serials by their first rows. */
+  groupsBySerial: Group[][];
   warnings: LineMessage[];
   errors: LineMessage[];
   fatal?: string;
@@ -68,9 +73,41 @@ export const METHOD_COLUMNS: Record<Method, MethodColumns> = {
   direct: { required: ['serial', 'wavelength_nm', 'retardance', 'unit', 'fast_axis_deg'], optional: ['mount_deg'] },
 };
 
+/** 10^0 to 10^15, each an exact double. */
+const POWERS_OF_TEN = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
+
+/**
+ * A plain decimal cell (an optional minus, at most 15 digits, at most one point) read without
+ * Number(), which costs several times more and is called six times a row; NaN for any other cell,
+ * left to Number(). Exact: an integer below 2^53 divided by an exact power of ten is rounded once,
+ * to the nearest double, as Number() rounds the decimal itself.
+ */
+export function plainDecimal(cell: string): number {
+  const negative = cell.charCodeAt(0) === 45; // a minus sign
+  let mantissa = 0;
+  let digits = 0;
+  let point = -1;
+  for (let i = negative ? 1 : 0; i < cell.length; i++) {
+    const code = cell.charCodeAt(i);
+    if (code >= 48 && code <= 57) {
+      mantissa = mantissa * 10 + (code - 48);
+      digits++;
+    } else if (code === 46 /* . */ && point === -1) {
+      point = i;
+    } else {
+      return NaN;
+    }
+  }
+  if (digits === 0 || digits > 15) return NaN;
+  const value = point === -1 ? mantissa : mantissa / POWERS_OF_TEN[cell.length - 1 - point];
+  return negative ? -value : value;
+}
+
 /** Reads the numeric cell `name` (at index `column`); NaN, with the problem noted, when it is missing or not a number. */
 function numberCell(fields: readonly string[], column: number, name: string, problems: string[]): number {
   const cell = fields[column];
+  const plain = cell === undefined ? NaN : plainDecimal(cell);
+  if (!Number.isNaN(plain)) return plain;
   // Number() reads a blank cell as 0, so only a 0 needs the blank check.
   const value = cell === undefined ? NaN : Number(cell);
   if (cell === undefined || (value === 0 && cell.trim() === '')) {
@@ -388,7 +425,7 @@ export class ReadingCollector {
     }
     let group = bySerial.find((g) => g.wavelengthNm === wavelengthNm);
     if (!group) {
-      group = { serial, wavelengthNm, mountDeg, lines: [], errorLines: [], readings: [], measured: [] };
+      group = { serial, order: this.ordered.length, wavelengthNm, mountDeg, lines: [], errorLines: [], readings: [], measured: [] };
       bySerial.push(group);
       this.ordered.push(group);
     }
@@ -405,6 +442,7 @@ export class ReadingCollector {
       columns: this.columnNames,
       rows: this.parsedRows,
       groups: this.ordered,
+      groupsBySerial: [...this.groups.values()],
       warnings: this.warnings,
       errors: this.errors,
       fatal: this.fatal,
