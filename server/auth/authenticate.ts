@@ -12,6 +12,8 @@ declare global {
       user?: User;
       /** The server-side session the request is signed in with. */
       sessionId?: string;
+      /** The database's snapshot (pg_current_snapshot()) when the session was read. */
+      databaseSnapshot?: string;
     }
   }
 }
@@ -35,6 +37,7 @@ export const authenticate: RequestHandler = async (req, _res, next) => {
   }
   req.user = signedIn.user;
   req.sessionId = signedIn.sessionId;
+  req.databaseSnapshot = signedIn.databaseSnapshot;
   next();
 };
 

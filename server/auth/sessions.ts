@@ -18,18 +18,27 @@ export async function startSession(user: User, transaction: Transaction): Promis
   return issueToken(user.id, id, expiresAt);
 }
 
-/** The active user and open session a token belongs to, or null. */
-export async function sessionOfToken(token: string): Promise<{ user: User; sessionId: string } | null> {
+/**
+ * The active user and open session a token belongs to, or null; with the database's snapshot as this
+ * statement saw it, which answers kept while nothing changed are keyed by (http/unchangedAnswers),
+ * read here so that a signed-in request needs no statement of its own for it.
+ */
+export async function sessionOfToken(token: string): Promise<{ user: User; sessionId: string; databaseSnapshot: string } | null> {
   const claims = claimsOf(token);
   if (!claims) return null;
   // One plain statement, run on every request: building it through the model's include cost more
   // than the database took to answer it.
   const [user] = await sequelize.query<User>(
-    'SELECT u.* FROM sessions s JOIN users u ON u.id = s.user_id WHERE s.id = :sessionId AND s.ended_at IS NULL AND s.expires_at > :now',
+    `SELECT u.*, pg_current_snapshot()::text AS "databaseSnapshot" FROM sessions s JOIN users u ON u.id = s.user_id
+      WHERE s.id = :sessionId AND s.ended_at IS NULL AND s.expires_at > :now`,
     { model: User, mapToModel: true, replacements: { sessionId: claims.sessionId, now: new Date() } },
   );
   if (!user || user.id !== claims.userId || !user.active) return null;
-  return { user, sessionId: claims.sessionId };
+  // Not an attribute of the user: taken out, so that nothing reading the user sees it.
+  const values = user.dataValues as Record<string, unknown>;
+  const databaseSnapshot = String(values.databaseSnapshot);
+  delete values.databaseSnapshot;
+  return { user, sessionId: claims.sessionId, databaseSnapshot };
 }
 
 /** Ends one session; answers whether it was open. */

@@ -173,7 +173,7 @@ export function mountList<Row, Schema extends z.ZodType<ListQuery>>(
     allow(permission),
     validated({ query: querySchema }, async ({ query }, req, res) => {
       if (req.query.format === 'csv') return csv(query, res);
-      await sendUnchangedAnswer(res, `${definition.csv.filename} ${JSON.stringify(query)}`, () => listPage(definition, query));
+      await sendUnchangedAnswer(req, res, `${definition.csv.filename} ${JSON.stringify(query)}`, () => listPage(definition, query));
     }),
   );
 }

@@ -1,6 +1,7 @@
 // A kept answer is given again only while the database is as it was: any committed write, or a new
 // minute, reads afresh; identical requests meanwhile share one read; a failed read is never kept.
 import express from 'express';
+import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
 import { inTransaction, sequelize } from '../../db';
@@ -58,6 +59,18 @@ describe('answers kept while nothing changed', () => {
     expect(parsed(await unchangedAnswer('list a', read))).toEqual({ reads: 2 });
   });
 
+  it("keys by the snapshot a request's sign-in check read, when it gives one", async () => {
+    const snapshotNow = async () => (await sequelize.query<{ s: string }>('SELECT pg_current_snapshot()::text AS s', { type: QueryTypes.SELECT }))[0].s;
+    const read = countingRead();
+    const before = await snapshotNow();
+    await unchangedAnswer('list a', read, before);
+    expect(parsed(await unchangedAnswer('list a', read, before))).toEqual({ reads: 1 });
+    await commitAWrite();
+    const after = await snapshotNow();
+    expect(after).not.toBe(before);
+    expect(parsed(await unchangedAnswer('list a', read, after))).toEqual({ reads: 2 });
+  });
+
   it('lets identical requests arriving together share one read', async () => {
     const read = countingRead(100);
     const answers = await Promise.all(Array.from({ length: 5 }, () => unchangedAnswer('list a', read)));
@@ -86,7 +99,7 @@ describe('answers kept while nothing changed', () => {
 
   it('answers a client holding the entity tag with 304 and no body', async () => {
     const app = express();
-    app.get('/list', (_req, res, next) => sendUnchangedAnswer(res, 'list http', async () => ({ rows: [1, 2, 3] })).catch(next));
+    app.get('/list', (req, res, next) => sendUnchangedAnswer(req, res, 'list http', async () => ({ rows: [1, 2, 3] })).catch(next));
     const first = await request(app)
       .get('/list')
       .expect(200)

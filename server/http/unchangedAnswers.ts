@@ -6,7 +6,7 @@
 // refreshes) then cost one small statement instead of their query; the first request after a change
 // reads afresh, and requests asking for the same page meanwhile wait for that one read.
 import etag from 'etag';
-import type { Response } from 'express';
+import type { Request, Response } from 'express';
 import { QueryTypes } from 'sequelize';
 import { sequelize } from '../../db';
 
@@ -21,19 +21,27 @@ type Kept = { state: string; answers: Map<string, Promise<Answer>>; bytes: numbe
 
 let kept: Kept = { state: '', answers: new Map(), bytes: 0 };
 
-/** What an answer depends on besides its request: every committed write, and the clock's minute. */
-async function databaseState(): Promise<string> {
-  const [row] = await sequelize.query<{ snapshot: string }>('SELECT pg_current_snapshot()::text AS snapshot', { type: QueryTypes.SELECT });
-  return `${row.snapshot} ${new Date().toISOString().slice(0, 16)}`;
+/**
+ * What an answer depends on besides its request: every committed write, and the clock's minute. The
+ * snapshot is the one the request's sign-in check read, or read now.
+ */
+async function databaseState(snapshot?: string): Promise<string> {
+  if (snapshot === undefined) {
+    const [row] = await sequelize.query<{ snapshot: string }>('SELECT pg_current_snapshot()::text AS snapshot', { type: QueryTypes.SELECT });
+    snapshot = row.snapshot;
+  }
+  return `${snapshot} ${new Date().toISOString().slice(0, 16)}`;
 }
 
 /**
  * The JSON of `read()`, or the same answer kept from an earlier request with the same `key` while
  * nothing has changed. `key` must name everything else the answer depends on (the list and its
  * parsed query); whoever may ask is checked before, so the answer must not depend on the user.
+ * `snapshot`, when given, must have been read before `read()` runs (so that what it reads is at
+ * least as new as what the key says).
  */
-export async function unchangedAnswer(key: string, read: () => Promise<unknown>): Promise<Answer> {
-  const state = await databaseState();
+export async function unchangedAnswer(key: string, read: () => Promise<unknown>, snapshot?: string): Promise<Answer> {
+  const state = await databaseState(snapshot);
   if (kept.state !== state) kept = { state, answers: new Map(), bytes: 0 };
   const store = kept;
   const waiting = store.answers.get(key);
@@ -60,8 +68,8 @@ export async function unchangedAnswer(key: string, read: () => Promise<unknown>)
 }
 
 /** Sends `unchangedAnswer(key, read)`, with its entity tag (a client holding it gets 304). */
-export async function sendUnchangedAnswer(res: Response, key: string, read: () => Promise<unknown>) {
-  const { body, etag } = await unchangedAnswer(key, read);
+export async function sendUnchangedAnswer(req: Request, res: Response, key: string, read: () => Promise<unknown>) {
+  const { body, etag } = await unchangedAnswer(key, read, req.databaseSnapshot);
   res.type('json').set('ETag', etag).send(body);
 }
 

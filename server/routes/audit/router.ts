@@ -14,8 +14,8 @@ auditRouter.get(
   '/',
   authenticate,
   allow('audit.read'),
-  validated({ query: auditQuerySchema }, async ({ query }, _req, res) => {
-    await sendUnchangedAnswer(res, `audit ${JSON.stringify(query)}`, () => listAuditEvents(query));
+  validated({ query: auditQuerySchema }, async ({ query }, req, res) => {
+    await sendUnchangedAnswer(req, res, `audit ${JSON.stringify(query)}`, () => listAuditEvents(query));
   }),
 );
 

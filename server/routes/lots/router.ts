@@ -17,7 +17,7 @@ lotsRouter.get(
   '/:id',
   authenticate,
   allow('lots.read'),
-  validated({ params: idParams }, async ({ params }, _req, res) => {
-    await sendUnchangedAnswer(res, `lot ${params.id}`, async () => presentLot(await findLot(params.id)));
+  validated({ params: idParams }, async ({ params }, req, res) => {
+    await sendUnchangedAnswer(req, res, `lot ${params.id}`, async () => presentLot(await findLot(params.id)));
   }),
 );
