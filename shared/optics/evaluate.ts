@@ -5,9 +5,10 @@ import { estimateOrder, type FractionAtWavelength } from './dispersion.js';
 import { describeAlongMark, judge, measuredFromAlongMark, type AlongMark, type MeasuredRetarder } from './judge.js';
 import { coherencyViolation, depolarizationIndex, muellerFromMeasurements } from './mueller.js';
 import { polarDecomposition } from './polar.js';
-import type { DirectReading, Group, StokesReading } from './readings.js';
+import type { DirectReading, Group } from './readings.js';
 import { fitScan, type ScanReading } from './scan.js';
 import { nominalFraction, type PieceSpec } from './spec.js';
+import type { Stokes } from './stokes.js';
 import type { LineMessage, Method, PieceResult, SerialResult } from './types.js';
 import { modulo, radToDeg, radToWaves, wrapDeg, wrapWaves } from './units.js';
 import { plural } from '../format.js';
@@ -25,13 +26,13 @@ type Measurement =
 
 const linesText = (lines: readonly number[]) => (lines.length === 1 ? `line ${lines[0]}` : `lines ${lines[0]}-${lines[lines.length - 1]}`);
 
-function countDistinctInputs(readings: readonly StokesReading[]): number {
+function countDistinctInputs(inputs: readonly Stokes[]): number {
   let distinct = 0;
-  for (let i = 0; i < readings.length; i++) {
-    const a = readings[i].input;
+  for (let i = 0; i < inputs.length; i++) {
+    const a = inputs[i];
     let seen = false;
     for (let j = 0; j < i && !seen; j++) {
-      const b = readings[j].input;
+      const b = inputs[j];
       seen = a === b || (a[1] === b[1] && a[2] === b[2] && a[3] === b[3]);
     }
     if (!seen) distinct++;
@@ -39,15 +40,19 @@ function countDistinctInputs(readings: readonly StokesReading[]): number {
   return distinct;
 }
 
+/** m / m00, by a loop rather than a closure per piece. */
+function normalized(m: readonly number[], m00: number): number[] {
+  const out = new Array<number>(m.length);
+  for (let i = 0; i < m.length; i++) out[i] = m[i] / m00;
+  return out;
+}
+
 function measureStokes(group: Group<'stokes'>): Measurement {
   const distinct = countDistinctInputs(group.readings);
   if (distinct < 4) {
     return { ok: false, reason: `too few inputs: ${plural(distinct, 'input state')}, at least 4 that span the Stokes space are needed` };
   }
-  const fit = muellerFromMeasurements(
-    group.readings.map((r) => r.input),
-    group.readings.map((r) => r.output),
-  );
+  const fit = muellerFromMeasurements(group.readings, group.outputs);
   if (!fit.ok) return { ok: false, reason: fit.reason };
   const m00 = fit.mueller[0];
   if (!(m00 > 0)) {
@@ -76,7 +81,7 @@ function measureStokes(group: Group<'stokes'>): Measurement {
       depolarization,
       depolarizationIndex: depolarizationIndex(fit.mueller),
       circularRetardanceDeg: radToDeg(retardance * retarderAxis[2]),
-      mueller: fit.mueller.map((x) => x / m00),
+      mueller: normalized(fit.mueller, m00),
       fitResidual: fit.residualRms / m00,
     },
     notes: [],
@@ -270,7 +275,9 @@ function serialResult(serial: string, pieces: PieceResult[], spec: PieceSpec): S
     }
   }
   const first = pieces[0];
-  const result: SerialResult = { serial, verdict, reasons, wavelengthsNm: pieces.map((p) => p.wavelengthNm) };
+  const wavelengthsNm = new Array<number>(pieces.length);
+  for (let i = 0; i < pieces.length; i++) wavelengthsNm[i] = pieces[i].wavelengthNm;
+  const result: SerialResult = { serial, verdict, reasons, wavelengthsNm };
   if (first.estimatedOrder !== undefined) {
     result.estimatedOrder = first.estimatedOrder;
     result.thicknessMm = first.thicknessMm;
@@ -290,7 +297,8 @@ export function evaluate(
   const pieces = groups.map((g) => pieceResult(method, g, spec, errors));
   const serials: SerialResult[] = [];
   for (const serialGroups of groupsBySerial) {
-    const own = serialGroups.map((g) => pieces[g.order]);
+    const own = new Array<PieceResult>(serialGroups.length);
+    for (let i = 0; i < serialGroups.length; i++) own[i] = pieces[serialGroups[i].order];
     applyOrderEstimate(own, spec);
     serials.push(serialResult(serialGroups[0].serial, own, spec));
   }

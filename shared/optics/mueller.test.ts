@@ -57,7 +57,7 @@ describe('real 4x4 algebra against mathjs', () => {
     const truth = randomMatrix(random);
     const inputs: Stokes[] = Array.from({ length: 9 }, () => [1, random(), random(), random()]);
     const outputs: Stokes[] = inputs.map((s) => mat4Apply(truth, s).map((x) => x + 0.01 * noise()) as unknown as Stokes);
-    const fit = muellerFromMeasurements(inputs, outputs);
+    const fit = muellerFromMeasurements(inputs, outputs.flat());
     expect(fit.ok).toBe(true);
     if (!fit.ok) return;
     const x = [0, 1, 2, 3].map((i) => inputs.map((s) => s[i]));
@@ -74,9 +74,9 @@ describe('real 4x4 algebra against mathjs', () => {
       [1, 0, 1, 0],
       [1, 0, -1, 0],
     ];
-    const fit = muellerFromMeasurements(linearOnly, linearOnly);
+    const fit = muellerFromMeasurements(linearOnly, linearOnly.flat());
     expect(fit).toEqual({ ok: false, reason: expect.stringContaining('do not span the Stokes space') });
-    expect(muellerFromMeasurements(linearOnly.slice(0, 3), linearOnly.slice(0, 3))).toEqual({
+    expect(muellerFromMeasurements(linearOnly.slice(0, 3), linearOnly.slice(0, 3).flat())).toEqual({
       ok: false,
       reason: 'too few inputs: 3 input states, at least 4 are needed',
     });

@@ -70,7 +70,11 @@ export function mat4Inverse(m: Readonly<Mueller>): Mueller | null {
   return inv;
 }
 
-const frobenius = (m: Readonly<Mueller>): number => Math.sqrt(m.reduce((sum, x) => sum + x * x, 0));
+function frobenius(m: Readonly<Mueller>): number {
+  let sum = 0;
+  for (let i = 0; i < m.length; i++) sum += m[i] * m[i];
+  return Math.sqrt(sum);
+}
 
 /**
  * Pure retarder: identity on S0, and on (S1, S2, S3) the right-handed rotation by d (rad) about
@@ -116,23 +120,28 @@ export type MuellerFit = { ok: true; mueller: Mueller; residualRms: number } | {
 /** Above this Frobenius condition number of Σ s sᵀ the inputs do not span the Stokes space. */
 const MAX_INPUT_CONDITION = 1e6;
 
+/** Σ in·inᵀ and Σ out·inᵀ of muellerFromMeasurements, reused by every call (the engine is synchronous; neither leaves the call). */
+const GRAM_SCRATCH: Mueller = new Array<number>(16).fill(0);
+const CROSS_SCRATCH: Mueller = new Array<number>(16).fill(0);
+
 /**
  * Mueller matrix from n >= 4 known input states and the measured output states, by least squares:
  * M = (Σ out·inᵀ)(Σ in·inᵀ)⁻¹. residualRms is the rms of the fit residual per Stokes component.
+ * `outputs` is flat, four numbers per input (the engine keeps them so, one array per piece).
  */
-export function muellerFromMeasurements(inputs: readonly Stokes[], outputs: readonly Stokes[]): MuellerFit {
+export function muellerFromMeasurements(inputs: readonly Stokes[], outputs: ArrayLike<number>): MuellerFit {
   if (inputs.length < 4) {
     return { ok: false, reason: `too few inputs: ${inputs.length} input states, at least 4 are needed` };
   }
-  const gram = new Array<number>(16).fill(0);
-  const cross = new Array<number>(16).fill(0);
+  const gram = GRAM_SCRATCH.fill(0);
+  const cross = CROSS_SCRATCH.fill(0);
   for (let n = 0; n < inputs.length; n++) {
     const x = inputs[n];
-    const y = outputs[n];
     for (let i = 0; i < 4; i++) {
+      const y = outputs[4 * n + i];
       for (let j = 0; j < 4; j++) {
         gram[4 * i + j] += x[i] * x[j];
-        cross[4 * i + j] += y[i] * x[j];
+        cross[4 * i + j] += y * x[j];
       }
     }
   }
@@ -143,8 +152,12 @@ export function muellerFromMeasurements(inputs: readonly Stokes[], outputs: read
   const mueller = mat4Multiply(cross, gramInverse);
   let squares = 0;
   for (let n = 0; n < inputs.length; n++) {
-    const predicted = mat4Apply(mueller, inputs[n]);
-    for (let i = 0; i < 4; i++) squares += (predicted[i] - outputs[n][i]) ** 2;
+    const s = inputs[n];
+    for (let i = 0; i < 4; i++) {
+      // mat4Apply's row i, without an array per reading.
+      const predicted = mueller[4 * i] * s[0] + mueller[4 * i + 1] * s[1] + mueller[4 * i + 2] * s[2] + mueller[4 * i + 3] * s[3];
+      squares += (predicted - outputs[4 * n + i]) ** 2;
+    }
   }
   return { ok: true, mueller, residualRms: Math.sqrt(squares / (4 * inputs.length)) };
 }

@@ -167,17 +167,20 @@ export function polarDecomposition(mueller: Readonly<Mueller>): PolarResult {
  * which fades near d = π; there the symmetric part (1 - cos d)·a·aᵀ gives the axis and the
  * antisymmetric part only its sign.
  */
+/** Entry (i, j) of the symmetric part of r less cosine·I, read where needed rather than built as a matrix (no closure per piece). */
+function symmetricEntry(r: Mat3, cosine: number, i: number, j: number): number {
+  return (r[3 * i + j] + r[3 * j + i]) / 2 - (i === j ? cosine : 0);
+}
+
 function rotationAxis(r: Mat3, cosine: number): Vec3 {
   const antisymmetric: Vec3 = [r[7] - r[5], r[2] - r[6], r[3] - r[1]];
   const length = norm3(antisymmetric);
   if (cosine >= 0) {
     return length > 0 ? [antisymmetric[0] / length, antisymmetric[1] / length, antisymmetric[2] / length] : [1, 0, 0];
   }
-  // Entries of the symmetric part less cosine·I, read where needed rather than built as a matrix.
-  const symmetric = (i: number, j: number) => (r[3 * i + j] + r[3 * j + i]) / 2 - (i === j ? cosine : 0);
   let column = 0;
-  for (let j = 1; j < 3; j++) if (symmetric(j, j) > symmetric(column, column)) column = j;
-  const axis: Vec3 = [symmetric(0, column), symmetric(1, column), symmetric(2, column)];
+  for (let j = 1; j < 3; j++) if (symmetricEntry(r, cosine, j, j) > symmetricEntry(r, cosine, column, column)) column = j;
+  const axis: Vec3 = [symmetricEntry(r, cosine, 0, column), symmetricEntry(r, cosine, 1, column), symmetricEntry(r, cosine, 2, column)];
   const norm = norm3(axis);
   const dot = axis[0] * antisymmetric[0] + axis[1] * antisymmetric[1] + axis[2] * antisymmetric[2];
   const orientation = dot < 0 ? -1 : 1;

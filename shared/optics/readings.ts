@@ -4,16 +4,11 @@
  * a bad row becomes an error with its line number, never an exception.
  */
 import { ANALYZERS, type Analyzer, type ScanReading } from './scan.js';
-import { degreeOfPolarization, inputStateReader, toOurFrame, type InstrumentProfile, type Stokes } from './stokes.js';
+import { degreeOfPolarization, inputStateReader, type InstrumentProfile, type Stokes } from './stokes.js';
 import { normalizeText } from './text.js';
 import { METHODS, type AnalyzeOptions, type FileMetadata, type LineMessage, type Method, type ParsedRow } from './types.js';
 import { DEG, parseRetardanceUnit, toWaves } from './units.js';
 import { plural } from '../format.js';
-
-export interface StokesReading {
-  input: Stokes;
-  output: Stokes;
-}
 
 export interface DirectReading {
   /** Total retardance as reported, in waves (any sign, any order). */
@@ -23,7 +18,8 @@ export interface DirectReading {
 }
 
 export interface ReadingsByMethod {
-  stokes: StokesReading;
+  /** The input state (one array per distinct cell, shared); the output is in Group.outputs. */
+  stokes: Stokes;
   scan: ScanReading;
   direct: DirectReading;
 }
@@ -39,6 +35,11 @@ export interface Group<M extends Method = Method> {
   /** Lines of this piece's rows that had errors (those rows are not in `readings`). */
   errorLines: number[];
   readings: ReadingsByMethod[M][];
+  /**
+   * Stokes method: the output of each reading, four numbers each, in the order of `readings`: flat,
+   * so that a row leaves no array of its own behind.
+   */
+  outputs: number[];
   /** What each reading measured (its repeat key), in the order of `readings` and `lines`, to catch a row read twice. */
   measured: string[];
 }
@@ -132,24 +133,28 @@ interface RowContext {
   readInput: (cell: string) => Stokes | null;
   line: number;
   wavelengthNm: number;
+  /** Where the Stokes parser leaves the row's output (in our frame), until the collector copies it into its group. */
+  output: [number, number, number, number];
 }
 
 /** The reading of one row; when the row noted problems it is discarded, placeholders and all. */
 type RowParser<M extends Method> = (fields: readonly string[], columns: Columns, context: RowContext, problems: string[]) => ReadingsByMethod[M];
 
+/** The placeholder input of a Stokes row whose input cell could not be read (the row is discarded). */
+const UNPOLARIZED: Stokes = [1, 0, 0, 0];
+
 const ROW_PARSERS: { [M in Method]: RowParser<M> } = {
-  stokes(fields, columns, { profile, readInput }, problems) {
+  stokes(fields, columns, { profile, readInput, output }, problems) {
     const inputCell = textCell(fields, columns.input, 'input', problems);
     const input = inputCell === '' ? null : readInput(inputCell);
     if (inputCell !== '' && !input) {
       problems.push(`unknown input state ${JSON.stringify(inputCell)}: expected H, V, D, A, R, L or an angle in degrees`);
     }
-    const raw: Stokes = [
-      numberCell(fields, columns.s0, 's0', problems),
-      numberCell(fields, columns.s1, 's1', problems),
-      numberCell(fields, columns.s2, 's2', problems),
-      numberCell(fields, columns.s3, 's3', problems),
-    ];
+    const raw = output;
+    raw[0] = numberCell(fields, columns.s0, 's0', problems);
+    raw[1] = numberCell(fields, columns.s1, 's1', problems);
+    raw[2] = numberCell(fields, columns.s2, 's2', problems);
+    raw[3] = numberCell(fields, columns.s3, 's3', problems);
     if (!Number.isNaN(raw[0]) && raw[0] <= 0) {
       problems.push(`s0 must be positive, got ${raw[0]}`);
     } else if (!(Number.isNaN(raw[0]) || Number.isNaN(raw[1]) || Number.isNaN(raw[2]) || Number.isNaN(raw[3]))) {
@@ -158,7 +163,10 @@ const ROW_PARSERS: { [M in Method]: RowParser<M> } = {
         problems.push(`degree of polarisation ${dop.toFixed(3)} is above 1 (more than the ${MAX_DOP_EXCESS} noise allowance)`);
       }
     }
-    return { input: input ?? [1, 0, 0, 0], output: toOurFrame(raw, profile) };
+    // Into our frame in place, as toOurFrame does it.
+    raw[2] *= profile.angleSign;
+    raw[3] *= profile.s3Sign;
+    return input ?? UNPOLARIZED;
   },
   scan(fields, columns, { profile }, problems) {
     const analyzerCell = textCell(fields, columns.analyzer, 'analyzer', problems).toLowerCase();
@@ -196,7 +204,7 @@ const inputKeys = new WeakMap<Stokes, string>();
 
 const REPEATS: { [M in Method]: RepeatCheck<M> } = {
   stokes: {
-    key: ({ input }) => {
+    key: (input) => {
       // The reader hands out one array per distinct cell, so the key is built once per input state.
       let key = inputKeys.get(input);
       if (key === undefined) {
@@ -271,6 +279,7 @@ export class ReadingCollector {
   private readonly errors: LineMessage[] = [];
 
   private readonly keepRows: boolean;
+  private previousRowCells: string[] | undefined;
   private readonly onRow: AnalyzeOptions['onRow'];
 
   constructor(
@@ -280,7 +289,7 @@ export class ReadingCollector {
   ) {
     this.keepRows = rows.keepRows ?? false;
     this.onRow = rows.onRow;
-    this.context = { profile, readInput: inputStateReader(profile), line: 0, wavelengthNm: NaN };
+    this.context = { profile, readInput: inputStateReader(profile), line: 0, wavelengthNm: NaN, output: [NaN, NaN, NaN, NaN] };
   }
 
   get failed(): boolean {
@@ -321,7 +330,8 @@ export class ReadingCollector {
     this.errors.push({ line, message });
   }
 
-  record(fields: readonly string[], line: number): void {
+  /** The record is the collector's from here on: a kept row holds it as its cells (and shares strings with the row before). */
+  record(fields: string[], line: number): void {
     if (this.fatal) return;
     if (fields[0].trim() === '' && fields.every((f) => f.trim() === '')) return;
     if (!this.columns) {
@@ -372,7 +382,9 @@ export class ReadingCollector {
     this.headerWidth = fields.length;
   }
 
-  private row(fields: readonly string[], line: number): void {
+  private row(fields: string[], line: number): void {
+    // Before the cells are read, so that the serial taken from them is the shared string too.
+    if (this.keepRows || this.onRow) this.shareCellsWithPreviousRow(fields);
     const columns = this.columns!;
     const method = this.method!;
     const problems: string[] = [];
@@ -408,11 +420,30 @@ export class ReadingCollector {
     group!.lines.push(line);
     group!.measured.push(key);
     (group!.readings as ReadingsByMethod[Method][]).push(reading);
+    if (method === 'stokes') {
+      const { output } = this.context;
+      group!.outputs.push(output[0], output[1], output[2], output[3]);
+    }
     if (this.keepRows || this.onRow) {
       const row = { line, serial, wavelengthNm, cells: fields };
       if (this.keepRows) this.parsedRows.push(row);
       this.onRow?.(row, this.columnNames);
     }
+  }
+
+  /**
+   * A piece's rows repeat most of their cells (serial, wavelength, mount): when rows are handed
+   * out, a cell equal to the one in the same column of the row before becomes that very string, so
+   * rows held by the thousand hold each repeated text once, sparing the garbage collector half
+   * their strings.
+   */
+  private shareCellsWithPreviousRow(fields: string[]): void {
+    const previous = this.previousRowCells;
+    if (previous) {
+      const shared = Math.min(fields.length, previous.length);
+      for (let i = 0; i < shared; i++) if (fields[i] === previous[i]) fields[i] = previous[i];
+    }
+    this.previousRowCells = fields;
   }
 
   private group(serial: string, wavelengthNm: number, mountDeg: number): Group {
@@ -425,7 +456,7 @@ export class ReadingCollector {
     }
     let group = bySerial.find((g) => g.wavelengthNm === wavelengthNm);
     if (!group) {
-      group = { serial, order: this.ordered.length, wavelengthNm, mountDeg, lines: [], errorLines: [], readings: [], measured: [] };
+      group = { serial, order: this.ordered.length, wavelengthNm, mountDeg, lines: [], errorLines: [], readings: [], outputs: [], measured: [] };
       bySerial.push(group);
       this.ordered.push(group);
     }
