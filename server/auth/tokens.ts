@@ -4,10 +4,10 @@ import { config } from '../config';
 
 export const SESSION_COOKIE = 'phaselot_session';
 
-// The secret as a key object, made once: given a string, the library tries on every call to read it
-// as a public key and builds the secret key only after that throws, a good part of the work of
-// every signed-in request.
-const tokenKey = createSecretKey(Buffer.from(config.JWT_SECRET));
+/** The server's signing secret as a key object, made once: given a string, the library tries on
+ * every call to read it as a public key and builds the secret key only after that throws, a good
+ * part of the work of every signed-in request. Every token the server signs uses it. */
+export const tokenKey = createSecretKey(Buffer.from(config.JWT_SECRET));
 
 /** A signed token naming the user and the server-side session (`jti`) it belongs to; the token is
  * valid only as long as that session row is open (server/auth/sessions.ts). */

@@ -6,6 +6,7 @@
 import jwt from 'jsonwebtoken';
 import type { Transaction } from 'sequelize';
 import { CorrectiveActionLink, type CorrectiveAction } from '../../db/models';
+import { tokenKey } from '../auth/tokens';
 import { config } from '../config';
 import { AppError } from '../http/errors';
 
@@ -13,7 +14,7 @@ export const LINK_DAYS = 30;
 const AUDIENCE = 'phaselot:corrective-action-response';
 
 export function tokenOf(link: Pick<CorrectiveActionLink, 'id' | 'correctiveActionId' | 'issuedAt' | 'expiresAt'>) {
-  return jwt.sign({ iat: Math.floor(link.issuedAt.getTime() / 1000), exp: Math.floor(link.expiresAt.getTime() / 1000) }, config.JWT_SECRET, {
+  return jwt.sign({ iat: Math.floor(link.issuedAt.getTime() / 1000), exp: Math.floor(link.expiresAt.getTime() / 1000) }, tokenKey, {
     subject: String(link.correctiveActionId),
     jwtid: String(link.id),
     audience: AUDIENCE,
@@ -41,7 +42,7 @@ const refused = (status: number, code: string, message: string) => new AppError(
 export async function linkOfToken(token: string, transaction?: Transaction) {
   let claims: jwt.JwtPayload;
   try {
-    const verified = jwt.verify(token, config.JWT_SECRET, { audience: AUDIENCE, issuer: 'phaselot' });
+    const verified = jwt.verify(token, tokenKey, { audience: AUDIENCE, issuer: 'phaselot' });
     if (typeof verified !== 'object') throw new Error('not a claim set');
     claims = verified;
   } catch (error) {
