@@ -51,8 +51,12 @@ export async function startBenchServer(): Promise<BenchServer> {
     throw new Error(`Something already answers on ${baseUrl}: stop it first (a bench server left running?)`);
   appendFileSync(logPath, `\n--- bench server started ${new Date().toISOString()}\n`);
   const log = openSync(logPath, 'a');
-  // PHASELOT_BENCH_NODE_ARGS passes flags to the server's node, e.g. `--cpu-prof --cpu-prof-dir=/tmp/prof` to profile a benchmark.
-  const nodeArgs = (process.env.PHASELOT_BENCH_NODE_ARGS ?? '').split(' ').filter(Boolean);
+  // The flags `npm start` runs the server with, then PHASELOT_BENCH_NODE_ARGS, e.g. `--cpu-prof
+  // --cpu-prof-dir=/tmp/prof` to profile a benchmark.
+  const nodeArgs = [readFileSync(join(repoRoot, 'scripts/server-node-options'), 'utf8'), process.env.PHASELOT_BENCH_NODE_ARGS ?? '']
+    .join(' ')
+    .split(/\s+/)
+    .filter(Boolean);
   const child: ChildProcess = spawn(process.execPath, [...nodeArgs, '--import', 'tsx', join(repoRoot, 'server/main.ts')], {
     cwd: repoRoot,
     env: { ...process.env, ...benchEnvironment(), NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(BENCH_SERVER_PORT), PUBLIC_URL: baseUrl },
