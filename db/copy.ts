@@ -3,7 +3,8 @@
 // statement text of the whole set is built, and nothing is read back.
 import type { ClientBase } from 'pg';
 import { from as copyFrom } from 'pg-copy-streams';
-import { DatabaseError, UniqueConstraintError, type Transaction } from 'sequelize';
+import type { Transaction } from 'sequelize';
+import { asSequelizeError } from './index';
 
 /** A cell of COPY's text format: NULL, or the value with backslash, tab and line ends escaped. */
 export function copyCell(value: string | number | null | undefined): string {
@@ -120,10 +121,4 @@ export async function copyRows(transaction: Transaction, table: string, columns:
   }
   await copyText(transaction, table, columns, pieces());
   return text.rows;
-}
-
-function asSequelizeError(error: unknown) {
-  if (!(error instanceof Error) || !('code' in error)) return error;
-  const parent = error as Error & { code: string; sql: string };
-  return parent.code === '23505' ? new UniqueConstraintError({ parent, message: parent.message }) : new DatabaseError(parent);
 }

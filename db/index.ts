@@ -1,5 +1,5 @@
 // One Sequelize instance for the process, with every model registered on it.
-import { Sequelize, type Transaction } from 'sequelize';
+import { DatabaseError, Sequelize, UniqueConstraintError, type Transaction } from 'sequelize';
 import { config } from '../server/config';
 import { initModels } from './models';
 
@@ -25,4 +25,12 @@ export async function databaseIsUp(): Promise<boolean> {
   } catch {
     return false;
   }
+}
+
+/** An error of a statement run on a connection directly (pg's), as Sequelize would have raised it, so that
+ * it is answered like any other query's (a unique key taken, a statement timed out). */
+export function asSequelizeError(error: unknown) {
+  if (!(error instanceof Error) || !('code' in error)) return error;
+  const parent = error as Error & { code: string; sql: string };
+  return parent.code === '23505' ? new UniqueConstraintError({ parent, message: parent.message }) : new DatabaseError(parent);
 }

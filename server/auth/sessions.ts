@@ -3,7 +3,7 @@
 // others; a password reset and a deactivation end them all, at once.
 import { randomBytes } from 'node:crypto';
 import { Op, type Transaction } from 'sequelize';
-import { sequelize } from '../../db';
+import { asSequelizeError, sequelize } from '../../db';
 import { Session, User, type SessionEndReason } from '../../db/models';
 import { config } from '../config';
 import { claimsOf, issueToken } from './tokens';
@@ -18,6 +18,20 @@ export async function startSession(user: User, transaction: Transaction): Promis
   return issueToken(user.id, id, expiresAt);
 }
 
+/** The user's columns under their attribute names, so that a row builds the model as it is. */
+const USER_COLUMNS = Object.entries(User.getAttributes())
+  .map(([attribute, definition]) => `u.${definition.field ?? attribute} AS "${attribute}"`)
+  .join(', ');
+
+/** Run on every signed-in request, so prepared once per connection: PostgreSQL plans it once. */
+const SESSION_STATEMENT = {
+  name: 'phaselot-session-of-token',
+  text: `SELECT ${USER_COLUMNS}, pg_current_snapshot()::text AS "databaseSnapshot" FROM sessions s JOIN users u ON u.id = s.user_id
+          WHERE s.id = $1 AND s.ended_at IS NULL AND s.expires_at > $2`,
+};
+
+type PgConnection = { query(statement: typeof SESSION_STATEMENT & { values: unknown[] }): Promise<{ rows: Record<string, unknown>[] }> };
+
 /**
  * The active user and open session a token belongs to, or null; with the database's snapshot as this
  * statement saw it, which answers kept while nothing changed are keyed by (http/unchangedAnswers),
@@ -26,19 +40,22 @@ export async function startSession(user: User, transaction: Transaction): Promis
 export async function sessionOfToken(token: string): Promise<{ user: User; sessionId: string; databaseSnapshot: string } | null> {
   const claims = claimsOf(token);
   if (!claims) return null;
-  // One plain statement, run on every request: building it through the model's include cost more
-  // than the database took to answer it.
-  const [user] = await sequelize.query<User>(
-    `SELECT u.*, pg_current_snapshot()::text AS "databaseSnapshot" FROM sessions s JOIN users u ON u.id = s.user_id
-      WHERE s.id = :sessionId AND s.ended_at IS NULL AND s.expires_at > :now`,
-    { model: User, mapToModel: true, replacements: { sessionId: claims.sessionId, now: new Date() } },
-  );
-  if (!user || user.id !== claims.userId || !user.active) return null;
-  // Not an attribute of the user: taken out, so that nothing reading the user sees it.
-  const values = user.dataValues as Record<string, unknown>;
-  const databaseSnapshot = String(values.databaseSnapshot);
-  delete values.databaseSnapshot;
-  return { user, sessionId: claims.sessionId, databaseSnapshot };
+  // A connection of the pool, asked directly: Sequelize has no named (prepared) statements, and
+  // building this through it cost more than the database took to answer.
+  const connection = (await sequelize.connectionManager.getConnection({ type: 'read' })) as PgConnection;
+  let row: Record<string, unknown> | undefined;
+  try {
+    [row] = (await connection.query({ ...SESSION_STATEMENT, values: [claims.sessionId, new Date()] })).rows;
+  } catch (error) {
+    throw asSequelizeError(error);
+  } finally {
+    sequelize.connectionManager.releaseConnection(connection as never);
+  }
+  if (!row) return null;
+  const { databaseSnapshot, ...attributes } = row;
+  const user = User.build(attributes as never, { isNewRecord: false, raw: true });
+  if (user.id !== claims.userId || !user.active) return null;
+  return { user, sessionId: claims.sessionId, databaseSnapshot: String(databaseSnapshot) };
 }
 
 /** Ends one session; answers whether it was open. */
