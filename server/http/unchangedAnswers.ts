@@ -3,8 +3,7 @@
 // transaction has committed or begun writing since, so a kept answer is exactly what reading the
 // list again would give. The key holds the minute too, for lists that count days or mark what is
 // overdue by the clock. Busy lists (the same page asked for by a room of people, or by a page that
-// refreshes) then cost one small statement instead of their query; the first request after a change
-// reads afresh, and requests asking for the same page meanwhile wait for that one read.
+// refreshes) then cost no statement of their own; the first request after a change reads afresh.
 import etag from 'etag';
 import type { Request, Response } from 'express';
 import { QueryTypes } from 'sequelize';
@@ -17,7 +16,7 @@ const MAX_ANSWER_BYTES = 2_000_000;
 /** An answer as it is sent: its JSON's bytes and their entity tag, made once. */
 export type Answer = { body: Buffer; etag: string };
 
-type Kept = { state: string; answers: Map<string, Promise<Answer>>; bytes: number };
+type Kept = { state: string; answers: Map<string, Answer>; bytes: number };
 
 let kept: Kept = { state: '', answers: new Map(), bytes: 0 };
 
@@ -44,27 +43,17 @@ export async function unchangedAnswer(key: string, read: () => Promise<unknown>,
   const state = await databaseState(snapshot);
   if (kept.state !== state) kept = { state, answers: new Map(), bytes: 0 };
   const store = kept;
-  const waiting = store.answers.get(key);
-  if (waiting) {
-    // The read this request would share failed (its client left, say): it reads on its own.
-    const shared = await waiting.catch(() => null);
-    if (shared !== null) return shared;
+  const found = store.answers.get(key);
+  if (found) return found;
+  // Each request that finds nothing kept reads on its own: a read shared with another request
+  // would fail with it when that request's client leaves and its statements are cancelled.
+  const body = Buffer.from(JSON.stringify(await read()));
+  const answer = { body, etag: etag(body, { weak: true }) };
+  if (body.length <= MAX_ANSWER_BYTES && store.bytes + body.length <= MAX_KEPT_BYTES && !store.answers.has(key)) {
+    store.answers.set(key, answer);
+    store.bytes += body.length;
   }
-  const reading = read().then((value): Answer => {
-    const body = Buffer.from(JSON.stringify(value));
-    return { body, etag: etag(body, { weak: true }) };
-  });
-  store.answers.set(key, reading);
-  try {
-    const answer = await reading;
-    const bytes = answer.body.length;
-    if (bytes > MAX_ANSWER_BYTES || store.bytes + bytes > MAX_KEPT_BYTES) store.answers.delete(key);
-    else store.bytes += bytes;
-    return answer;
-  } catch (error) {
-    if (store.answers.get(key) === reading) store.answers.delete(key);
-    throw error;
-  }
+  return answer;
 }
 
 /** Sends `unchangedAnswer(key, read)`, with its entity tag (a client holding it gets 304). */
